@@ -1,0 +1,53 @@
+// Calculation CLI: `npm run calc -- design.json` prints the engine's result for a design file as JSON.
+// Exit codes: 0 result printed; 2 the user's input is at fault (no file given, unreadable file, not JSON,
+// invalid design — each field path on stderr); 1 only for a fault of the engine itself.
+import { readFileSync } from 'node:fs';
+import { EngineInputError, evaluateDesign } from '@/engine';
+
+const USAGE = 'usage: npm run calc -- <design.json> [--compact]';
+
+function fail(message: string): never {
+  process.stderr.write(`${message}\n`);
+  process.exit(2);
+}
+
+function main(argv: string[]): void {
+  const args = argv.filter((a) => !a.startsWith('--'));
+  const compact = argv.includes('--compact');
+  if (argv.includes('--help') || argv.includes('-h')) {
+    process.stdout.write(`${USAGE}\n`);
+    return;
+  }
+  if (args.length !== 1) fail(args.length === 0 ? `no design file given\n${USAGE}` : `give exactly one design file\n${USAGE}`);
+  const file = args[0];
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    fail(`cannot read ${file}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : (err as Error).message}`);
+  }
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch (err) {
+    fail(`${file} is not valid JSON: ${(err as Error).message}`);
+  }
+  try {
+    const result = evaluateDesign(json);
+    process.stdout.write(`${JSON.stringify(result, null, compact ? 0 : 2)}\n`);
+  } catch (err) {
+    if (err instanceof EngineInputError) {
+      const lines = err.issues.map((i) => `  ${i.path || '(document)'}: ${i.message}`);
+      fail(`${file} is not a valid design:\n${lines.join('\n')}`);
+    }
+    throw err;
+  }
+}
+
+try {
+  main(process.argv.slice(2));
+} catch (err) {
+  process.stderr.write(`internal error of the calculation engine: ${(err as Error).stack ?? String(err)}\n`);
+  process.exit(1);
+}

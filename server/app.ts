@@ -1,0 +1,74 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import cookieParser from 'cookie-parser';
+import { getConfig } from './config';
+import { getSequelize } from './db';
+import { DIST_DIR } from './paths';
+import { requestIdMiddleware } from './middleware/requestId';
+import { securityHeadersMiddleware } from './middleware/security';
+import { requireJsonBodyMiddleware } from './middleware/contentType';
+import { errorHandlerMiddleware } from './middleware/errorHandler';
+import { notFoundMiddleware } from './middleware/notFound';
+import { createApiRouter } from './routes';
+
+/** Largest JSON body the API accepts; bigger ones get 413 `payload_too_large`. */
+export const JSON_BODY_LIMIT = '1mb';
+
+/**
+ * Builds the Express app: security headers, request ids, the JSON API under /api and the built
+ * client (dist/) with an SPA fallback. Never listens (server/index.ts does; tests use supertest).
+ */
+export function createApp(): Express {
+  const config = getConfig();
+  getSequelize(); // binds the models before the first request
+
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', config.trustProxy);
+  app.set('query parser', 'simple');
+
+  app.use(requestIdMiddleware());
+  app.use(securityHeadersMiddleware());
+
+  app.use(
+    '/api',
+    requireJsonBodyMiddleware(),
+    express.json({ limit: JSON_BODY_LIMIT, strict: true, type: ['application/json', 'application/*+json'] }),
+    cookieParser(),
+    function noStore(_req, res, next) {
+      res.setHeader('Cache-Control', 'no-store');
+      next();
+    },
+    createApiRouter(),
+  );
+
+  mountClient(app);
+  app.use(notFoundMiddleware());
+  app.use(errorHandlerMiddleware());
+  return app;
+}
+
+/** Serves dist/: hashed assets cached for a year, index.html never cached, SPA fallback for page routes. */
+function mountClient(app: Express): void {
+  app.use(express.static(DIST_DIR, {
+    index: false,
+    setHeaders(res, filePath) {
+      if (filePath.includes(`${path.sep}assets${path.sep}`)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+    },
+  }));
+  app.get('/{*splat}', function spaFallback(req, res, next) {
+    // A missing file (has an extension) is a 404, not the app shell.
+    if (path.extname(req.path)) {
+      next();
+      return;
+    }
+    const indexFile = path.join(DIST_DIR, 'index.html');
+    if (!fs.existsSync(indexFile)) {
+      res.status(503).type('text/plain').send('The client is not built yet. Run `npm run build` (npm start builds it for you).');
+      return;
+    }
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(indexFile);
+  });
+}

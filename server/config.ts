@@ -1,0 +1,161 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { parseEnv } from 'node:util';
+import { z } from 'zod';
+import { ROOT_DIR, resolveFromRoot } from './paths';
+
+const port = (fallback: number) => z.coerce.number().int().min(1).max(65535).default(fallback);
+const positiveInt = (fallback: number) => z.coerce.number().int().positive().default(fallback);
+
+/**
+ * Every environment variable the server reads. `.env.example` documents each one;
+ * keep the two in step.
+ */
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
+  HOST: z.string().min(1).default('127.0.0.1'),
+  PORT: port(5180),
+  APP_URL: z.url({ protocol: /^https?$/, message: 'must be an http(s) URL such as http://127.0.0.1:5180' })
+    .optional(),
+  DB_HOST: z.string().min(1).default('127.0.0.1'),
+  DB_PORT: port(3407),
+  DB_NAME: z.string().regex(/^[A-Za-z0-9_]{1,64}$/, 'letters, digits and _ only').default('gantrywright'),
+  DB_USER: z.string().regex(/^[A-Za-z0-9_]{1,32}$/, 'letters, digits and _ only').default('gantry'),
+  DB_PASSWORD: z.string({ message: 'is required (npm start writes one into .env)' })
+    .min(8, 'must be at least 8 characters'),
+  DB_POOL_MAX: positiveInt(10),
+  JWT_SECRET: z.string({ message: 'is required (npm start writes a random one into .env)' })
+    .min(32, 'must be at least 32 characters'),
+  SESSION_HOURS: z.coerce.number().positive().max(24 * 30).default(12),
+  SMTP_HOST: z.string().min(1).default('127.0.0.1'),
+  SMTP_PORT: port(2526),
+  SMTP_SECURE: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  MAILCATCHER_HTTP_PORT: port(2527),
+  MAIL_FROM: z.string().min(3).default('Gantrywright <noreply@example.test>'),
+  DATA_DIR: z.string().min(1).default('.data'),
+  UPLOAD_DIR: z.string().min(1).optional(),
+  LOGIN_RATE_LIMIT: positiveInt(10),
+  LOGIN_RATE_WINDOW_MINUTES: positiveInt(15),
+  TRUST_PROXY: z.string().optional(),
+});
+
+/** The validated, typed configuration. Paths are absolute. */
+export type AppConfig = {
+  nodeEnv: 'development' | 'test' | 'production';
+  isProduction: boolean;
+  isTest: boolean;
+  logLevel: string;
+  host: string;
+  port: number;
+  appUrl: string;
+  db: { host: string; port: number; name: string; user: string; password: string; poolMax: number };
+  jwtSecret: string;
+  sessionHours: number;
+  smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
+  mailcatcherHttpPort: number;
+  mailFrom: string;
+  dataDir: string;
+  uploadDir: string;
+  loginRateLimit: number;
+  loginRateWindowMinutes: number;
+  /** Express `trust proxy` setting: false, a hop count or a list of addresses. */
+  trustProxy: boolean | number | string;
+  version: string;
+};
+
+/** Thrown when the environment is invalid; the message names every bad variable. */
+export class ConfigError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'ConfigError';
+  }
+}
+
+function readVersion(): string {
+  try {
+    const pkg = JSON.parse(fs.readFileSync(path.join(ROOT_DIR, 'package.json'), 'utf8')) as { version?: string };
+    return pkg.version ?? '0.0.0';
+  } catch {
+    return '0.0.0';
+  }
+}
+
+function parseTrustProxy(raw: string | undefined): boolean | number | string {
+  if (raw === undefined || raw === '' || raw === 'false') return false;
+  if (raw === 'true') return true;
+  if (/^\d+$/.test(raw)) return Number(raw);
+  return raw;
+}
+
+/**
+ * Parses and validates an environment object. Pure apart from reading package.json's version.
+ * @throws ConfigError naming each invalid variable and what is wrong with it.
+ */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
+  // Empty strings in .env mean "not set", so defaults apply.
+  const cleaned = Object.fromEntries(Object.entries(env).filter(([, v]) => v !== undefined && v !== ''));
+  const parsed = envSchema.safeParse(cleaned);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => `  ${issue.path.join('.') || '(env)'}: ${issue.message}`);
+    throw new ConfigError(`Invalid configuration (environment or .env):\n${lines.join('\n')}`);
+  }
+  const e = parsed.data;
+  if (e.NODE_ENV === 'production') {
+    const placeholders = (['JWT_SECRET', 'DB_PASSWORD'] as const).filter((k) => e[k].startsWith('change-me'));
+    if (placeholders.length) {
+      throw new ConfigError(`Invalid configuration (environment or .env):\n${placeholders.map((k) => `  ${k}: still the placeholder from .env.example; set a random value`).join('\n')}`);
+    }
+  }
+  const dataDir = resolveFromRoot(e.DATA_DIR);
+  return {
+    nodeEnv: e.NODE_ENV,
+    isProduction: e.NODE_ENV === 'production',
+    isTest: e.NODE_ENV === 'test',
+    logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
+    host: e.HOST,
+    port: e.PORT,
+    appUrl: (e.APP_URL ?? `http://127.0.0.1:${e.PORT}`).replace(/\/+$/, ''),
+    db: { host: e.DB_HOST, port: e.DB_PORT, name: e.DB_NAME, user: e.DB_USER, password: e.DB_PASSWORD, poolMax: e.DB_POOL_MAX },
+    jwtSecret: e.JWT_SECRET,
+    sessionHours: e.SESSION_HOURS,
+    smtp: { host: e.SMTP_HOST, port: e.SMTP_PORT, secure: e.SMTP_SECURE, user: e.SMTP_USER, password: e.SMTP_PASSWORD },
+    mailcatcherHttpPort: e.MAILCATCHER_HTTP_PORT,
+    mailFrom: e.MAIL_FROM,
+    dataDir,
+    uploadDir: e.UPLOAD_DIR ? resolveFromRoot(e.UPLOAD_DIR) : path.join(dataDir, 'uploads'),
+    loginRateLimit: e.LOGIN_RATE_LIMIT,
+    loginRateWindowMinutes: e.LOGIN_RATE_WINDOW_MINUTES,
+    trustProxy: parseTrustProxy(e.TRUST_PROXY),
+    version: readVersion(),
+  };
+}
+
+let cached: AppConfig | undefined;
+
+/** The process-wide configuration, parsed from process.env on first use. */
+export function getConfig(): AppConfig {
+  cached ??= loadConfig(process.env);
+  return cached;
+}
+
+/** Forgets the cached configuration (tests that change process.env call this). */
+export function resetConfigCache(): void {
+  cached = undefined;
+}
+
+/**
+ * Reads `.env` (if present) into process.env without overriding variables that are already set,
+ * so the real environment always wins. Tests never call this: scripts/test.ts sets their environment.
+ * @returns the variables found in the file.
+ */
+export function loadDotEnv(file = path.join(ROOT_DIR, '.env')): Record<string, string> {
+  if (!fs.existsSync(file)) return {};
+  const values = parseEnv(fs.readFileSync(file, 'utf8')) as Record<string, string>;
+  for (const [key, value] of Object.entries(values)) {
+    if (process.env[key] === undefined) process.env[key] = value;
+  }
+  return values;
+}

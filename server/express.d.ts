@@ -1,0 +1,14 @@
+import type { PublicUser } from './services/users.service';
+
+declare global {
+  namespace Express {
+    interface Request {
+      /** Request id (X-Request-Id), set by requestIdMiddleware. */
+      id: string;
+      /** The signed-in user, set by requireAuth. */
+      user?: PublicUser;
+    }
+  }
+}
+
+export {};

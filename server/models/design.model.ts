@@ -1,0 +1,70 @@
+import {
+  DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize,
+} from 'sequelize';
+import type { User } from './user.model';
+
+/** The states of a design (product.md "States of a design"). */
+export const DESIGN_STATUSES = ['draft', 'in_review', 'approved', 'returned'] as const;
+export type DesignStatus = (typeof DESIGN_STATUSES)[number];
+
+/** States in which the inputs may still change; a design in review or approved is frozen. */
+export const EDITABLE_DESIGN_STATUSES: readonly DesignStatus[] = ['draft', 'returned'];
+
+/** The three mechanisms the engine knows. */
+export const DESIGN_MECHANISMS = ['corexy', 'hbot', 'cartesian'] as const;
+export type DesignMechanism = (typeof DESIGN_MECHANISMS)[number];
+
+/**
+ * A few numbers of the engine result, stored at save time so lists and cards need not re-run the engine.
+ * Written by designs.service; `engineVersion` says which engine computed them.
+ */
+export type DesignResultSummary = {
+  engineVersion: string;
+  stepsPerMm: number;
+  microstepMm: { x: number; y: number; diagonal: number };
+  worst: { directionDeg: number; accelMaxMPerS2: number; accelAtCruiseMPerS2: number; speedMaxMPerS: number };
+  lowestFrequencyHz: number;
+  checks: { total: number; bySeverity: Record<string, number> };
+};
+
+/**
+ * A design being worked on: its current inputs (a validated design document, defaults filled in),
+ * status and owner. `version` is the optimistic lock: every save bumps it, and a save that names an
+ * older version is refused (409) instead of overwriting someone else's change.
+ */
+export class Design extends Model<InferAttributes<Design>, InferCreationAttributes<Design>> {
+  declare id: CreationOptional<number>;
+  declare name: string;
+  declare mechanism: DesignMechanism;
+  declare status: CreationOptional<DesignStatus>;
+  declare ownerId: ForeignKey<User['id']>;
+  declare updatedById: ForeignKey<User['id']> | null;
+  declare inputs: Record<string, unknown>;
+  declare travelXMm: number;
+  declare travelYMm: number;
+  declare resultSummary: DesignResultSummary | null;
+  declare version: CreationOptional<number>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+/** Binds the Design model to a Sequelize instance. */
+export function initDesignModel(sequelize: Sequelize): typeof Design {
+  Design.init(
+    {
+      id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+      name: { type: DataTypes.STRING(200), allowNull: false },
+      mechanism: { type: DataTypes.STRING(16), allowNull: false },
+      status: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'draft' },
+      inputs: { type: DataTypes.JSON, allowNull: false },
+      travelXMm: { type: DataTypes.DOUBLE, allowNull: false },
+      travelYMm: { type: DataTypes.DOUBLE, allowNull: false },
+      resultSummary: { type: DataTypes.JSON, allowNull: true },
+      version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+      createdAt: DataTypes.DATE(3),
+      updatedAt: DataTypes.DATE(3),
+    },
+    { sequelize, tableName: 'designs', modelName: 'Design' },
+  );
+  return Design;
+}

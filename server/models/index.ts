@@ -1,0 +1,64 @@
+import type { Sequelize } from 'sequelize';
+import { initUserModel, User } from './user.model';
+import { initPasswordTokenModel, PasswordToken } from './passwordToken.model';
+import { initAuditLogModel, AuditLog } from './auditLog.model';
+import { initRateLimitHitModel, RateLimitHit } from './rateLimitHit.model';
+import { initDesignModel, Design } from './design.model';
+import { initPartModel, Part } from './part.model';
+import { initRevisionModel, Revision } from './revision.model';
+import { initRevisionCommentModel, RevisionComment } from './comment.model';
+import { initSheetModel, Sheet } from './sheet.model';
+import { initNotificationModel, Notification } from './notification.model';
+
+export { User, ROLES, type Role } from './user.model';
+export { PasswordToken, TOKEN_PURPOSES, type TokenPurpose } from './passwordToken.model';
+export { AuditLog } from './auditLog.model';
+export { RateLimitHit } from './rateLimitHit.model';
+export {
+  Design, DESIGN_STATUSES, EDITABLE_DESIGN_STATUSES, DESIGN_MECHANISMS,
+  type DesignStatus, type DesignMechanism, type DesignResultSummary,
+} from './design.model';
+export { Part, PART_KINDS, type PartKind } from './part.model';
+export { Revision, REVISION_STATUSES, type RevisionStatus, type RevisionSummaryFigures } from './revision.model';
+export { RevisionComment } from './comment.model';
+export { Sheet, SHEET_PAPERS, type SheetPaper } from './sheet.model';
+export { Notification, NOTIFICATION_STATUSES, type NotificationStatus } from './notification.model';
+
+/**
+ * Initialises every model on `sequelize`, then wires all associations in this one block.
+ * Later features add their `initXModel(sequelize)` line and their associations here.
+ */
+export function initModels(sequelize: Sequelize): void {
+  initUserModel(sequelize);
+  initPasswordTokenModel(sequelize);
+  initAuditLogModel(sequelize);
+  initRateLimitHitModel(sequelize);
+  initDesignModel(sequelize);
+  initPartModel(sequelize);
+  initRevisionModel(sequelize);
+  initRevisionCommentModel(sequelize);
+  initSheetModel(sequelize);
+  initNotificationModel(sequelize);
+
+  // Associations (one place).
+  User.hasMany(PasswordToken, { foreignKey: 'userId', as: 'passwordTokens', onDelete: 'CASCADE' });
+  PasswordToken.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  User.hasMany(AuditLog, { foreignKey: 'actorId', as: 'auditEntries' });
+  AuditLog.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+  User.hasMany(Design, { foreignKey: 'ownerId', as: 'designs' });
+  Design.belongsTo(User, { foreignKey: 'ownerId', as: 'owner' });
+  Design.belongsTo(User, { foreignKey: 'updatedById', as: 'updatedBy' });
+  Part.belongsTo(User, { foreignKey: 'createdById', as: 'createdBy' });
+  Part.belongsTo(User, { foreignKey: 'updatedById', as: 'updatedBy' });
+  Design.hasMany(Revision, { foreignKey: 'designId', as: 'revisions', onDelete: 'CASCADE' });
+  Revision.belongsTo(Design, { foreignKey: 'designId', as: 'design' });
+  Revision.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+  Revision.belongsTo(User, { foreignKey: 'decidedById', as: 'decidedBy' });
+  Revision.hasMany(RevisionComment, { foreignKey: 'revisionId', as: 'comments', onDelete: 'CASCADE' });
+  RevisionComment.belongsTo(Revision, { foreignKey: 'revisionId', as: 'revision' });
+  RevisionComment.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+  Revision.hasOne(Sheet, { foreignKey: 'revisionId', as: 'sheet' });
+  Sheet.belongsTo(Revision, { foreignKey: 'revisionId', as: 'revision' });
+  Sheet.belongsTo(Design, { foreignKey: 'designId', as: 'design' });
+  Sheet.belongsTo(User, { foreignKey: 'approvedById', as: 'approvedBy' });
+}

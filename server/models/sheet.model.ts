@@ -1,0 +1,50 @@
+import {
+  DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize,
+} from 'sequelize';
+import type { Design } from './design.model';
+import type { Revision } from './revision.model';
+import type { User } from './user.model';
+
+/** Paper sizes every sheet is rendered in. */
+export const SHEET_PAPERS = ['A4', 'LETTER'] as const;
+export type SheetPaper = (typeof SHEET_PAPERS)[number];
+
+/**
+ * The design sheet of an approved revision: the PDF bytes in both paper sizes with their SHA-256, and the
+ * approval printed on it. Written once at approval and never changed (a database trigger refuses updates).
+ */
+export class Sheet extends Model<InferAttributes<Sheet>, InferCreationAttributes<Sheet>> {
+  declare id: CreationOptional<number>;
+  declare revisionId: ForeignKey<Revision['id']>;
+  declare designId: ForeignKey<Design['id']>;
+  declare approvedById: ForeignKey<User['id']>;
+  declare approvedAt: Date;
+  declare comment: string;
+  declare a4Pdf: Buffer;
+  declare a4Sha256: string;
+  declare a4Size: number;
+  declare letterPdf: Buffer;
+  declare letterSha256: string;
+  declare letterSize: number;
+  declare createdAt: CreationOptional<Date>;
+}
+
+/** Binds the Sheet model to a Sequelize instance. */
+export function initSheetModel(sequelize: Sequelize): typeof Sheet {
+  Sheet.init(
+    {
+      id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+      approvedAt: { type: DataTypes.DATE(3), allowNull: false },
+      comment: { type: DataTypes.TEXT, allowNull: false },
+      a4Pdf: { type: DataTypes.BLOB('long'), allowNull: false, field: 'a4_pdf' },
+      a4Sha256: { type: DataTypes.CHAR(64), allowNull: false, field: 'a4_sha256' },
+      a4Size: { type: DataTypes.INTEGER, allowNull: false, field: 'a4_size' },
+      letterPdf: { type: DataTypes.BLOB('long'), allowNull: false },
+      letterSha256: { type: DataTypes.CHAR(64), allowNull: false, field: 'letter_sha256' },
+      letterSize: { type: DataTypes.INTEGER, allowNull: false },
+      createdAt: DataTypes.DATE(3),
+    },
+    { sequelize, tableName: 'sheets', modelName: 'Sheet', updatedAt: false },
+  );
+  return Sheet;
+}

@@ -1,0 +1,31 @@
+import { z } from 'zod';
+import { ROLES } from '../models';
+import { emailSchema, paginationSchema } from './common.schema';
+
+const nameSchema = z.string({ message: 'is required' }).trim().min(1, 'is required').max(120, 'must be at most 120 characters');
+
+const rolesSchema = z
+  .array(z.enum(ROLES, { message: `must be one of ${ROLES.join(', ')}` }), { message: 'must be a list of roles' })
+  .refine((roles) => new Set(roles).size === roles.length, 'must not repeat a role');
+
+/** GET /api/users?page&pageSize&q */
+export const listUsersQuerySchema = paginationSchema.extend({
+  q: z.string({ message: 'must be a single search term' }).trim().max(100, 'must be at most 100 characters').optional(),
+});
+
+/** POST /api/users (invite) */
+export const createUserSchema = z.strictObject({ email: emailSchema, name: nameSchema, roles: rolesSchema });
+
+/** PATCH /api/users/:id — at least one field. */
+export const updateUserSchema = z
+  .strictObject({ name: nameSchema.optional(), roles: rolesSchema.optional(), disabled: z.boolean({ message: 'must be true or false' }).optional() })
+  .refine((v) => v.name !== undefined || v.roles !== undefined || v.disabled !== undefined, 'give at least one of name, roles, disabled');
+
+/** GET /api/audit?page&pageSize&entity&entityId */
+export const listAuditQuerySchema = paginationSchema.extend({
+  entity: z.string().trim().min(1).max(64).optional(),
+  entityId: z.coerce.number({ message: 'must be a number' }).int().positive().optional(),
+});
+
+/** GET /api/outbox?page&pageSize&to */
+export const listOutboxQuerySchema = paginationSchema.extend({ to: z.string().trim().max(254).optional() });

@@ -1,0 +1,300 @@
+import { Op, type Order, type WhereOptions } from 'sequelize';
+import { defaultDesign, EngineInputError, evaluateValidDesign, safeParseDesign, type DesignInput, type DesignResult } from '@/engine';
+import { AppError, conflict, forbidden, notFound, validationError, type ErrorDetail } from '../errors';
+import { getSequelize } from '../db';
+import {
+  Design, EDITABLE_DESIGN_STATUSES, User,
+  type DesignMechanism, type DesignResultSummary, type DesignStatus,
+} from '../models';
+import type { CreateDesignInput, ListDesignsQuery, UpdateDesignInput } from '../schemas/designs.schema';
+import { recordAudit } from './audit.service';
+import type { Page, PublicUser } from './users.service';
+
+/** A design as the Designs table shows it. `canEdit`/`canDelete` are for the signed-in user who asked. */
+export type DesignListItem = {
+  id: number;
+  name: string;
+  mechanism: DesignMechanism;
+  status: DesignStatus;
+  owner: { id: number; name: string };
+  travel: { xMm: number; yMm: number };
+  version: number;
+  updatedAt: string;
+  createdAt: string;
+  canEdit: boolean;
+  canDelete: boolean;
+};
+
+/** A design with its inputs (the design document) and the summary computed when it was last saved. */
+export type DesignDetail = DesignListItem & {
+  inputs: DesignInput;
+  updatedBy: { id: number; name: string } | null;
+  latestResultSummary: DesignResultSummary | null;
+};
+
+/** Statuses a design may be deleted in: never once it is in review or approved. */
+const DELETABLE_STATUSES: readonly DesignStatus[] = ['draft', 'returned'];
+
+type DesignRow = Design & { owner?: User | null; updatedBy?: User | null };
+
+const isAdmin = (actor: PublicUser) => actor.roles.includes('admin');
+const isDesigner = (actor: PublicUser) => actor.roles.includes('designer') || isAdmin(actor);
+const mayChange = (actor: PublicUser, row: Design) => isAdmin(actor) || (isDesigner(actor) && row.ownerId === actor.id);
+
+function parseJson<T>(value: unknown): T {
+  return (typeof value === 'string' ? JSON.parse(value) : value) as T;
+}
+
+function toListItem(row: DesignRow, actor: PublicUser): DesignListItem {
+  const status = row.status as DesignStatus;
+  return {
+    id: row.id,
+    name: row.name,
+    mechanism: row.mechanism,
+    status,
+    owner: { id: row.ownerId, name: row.owner?.name ?? '' },
+    travel: { xMm: Number(row.travelXMm), yMm: Number(row.travelYMm) },
+    version: row.version,
+    updatedAt: new Date(row.updatedAt).toISOString(),
+    createdAt: new Date(row.createdAt).toISOString(),
+    canEdit: mayChange(actor, row) && EDITABLE_DESIGN_STATUSES.includes(status),
+    canDelete: mayChange(actor, row) && DELETABLE_STATUSES.includes(status),
+  };
+}
+
+function toDetail(row: DesignRow, actor: PublicUser): DesignDetail {
+  return {
+    ...toListItem(row, actor),
+    inputs: parseJson<DesignInput>(row.inputs),
+    updatedBy: row.updatedBy ? { id: row.updatedBy.id, name: row.updatedBy.name } : null,
+    latestResultSummary: row.resultSummary ? parseJson<DesignResultSummary>(row.resultSummary) : null,
+  };
+}
+
+/** Issues from the engine as 400 details, optionally under a body key ("inputs.belt.pitchMm"). */
+function engineIssues(issues: { path: string; message: string }[], prefix = ''): ErrorDetail[] {
+  return issues.map((i) => ({ path: [prefix, i.path].filter(Boolean).join('.') || 'body', message: i.message }));
+}
+
+/**
+ * Runs the engine on a validated document and keeps what the list and cards need: travel and a summary.
+ * Called on every save, so the stored travel always matches the stored inputs.
+ */
+export function computeStoredResults(document: DesignInput, pathPrefix = ''): { travelXMm: number; travelYMm: number; resultSummary: DesignResultSummary } {
+  let result: DesignResult;
+  try {
+    result = evaluateValidDesign(document);
+  } catch (err) {
+    if (err instanceof EngineInputError) throw validationError(engineIssues(err.issues, pathPrefix), 'The design is not valid.');
+    throw err;
+  }
+  const bySeverity: Record<string, number> = {};
+  for (const check of result.checks) bySeverity[check.severity] = (bySeverity[check.severity] ?? 0) + 1;
+  const worst = result.envelope.axes.worst;
+  return {
+    travelXMm: result.travel.xMm,
+    travelYMm: result.travel.yMm,
+    resultSummary: {
+      engineVersion: result.engineVersion,
+      stepsPerMm: result.drive.stepsPerMm,
+      microstepMm: { ...result.drive.microstepMm },
+      worst: {
+        directionDeg: worst.directionDeg,
+        accelMaxMPerS2: worst.accelMaxMPerS2,
+        accelAtCruiseMPerS2: worst.accelAtCruiseMPerS2,
+        speedMaxMPerS: worst.speedMaxMPerS,
+      },
+      lowestFrequencyHz: result.stiffness.min.frequencyHz,
+      checks: { total: result.checks.length, bySeverity },
+    },
+  };
+}
+
+/** Validates stored or copied inputs again (the schema may have gained defaults since they were saved). */
+function normalise(document: unknown, pathPrefix = ''): DesignInput {
+  const parsed = safeParseDesign(document);
+  if (!parsed.ok) throw validationError(engineIssues(parsed.issues, pathPrefix), 'The design is not valid.');
+  return parsed.value;
+}
+
+function withName(document: DesignInput, name: string | undefined): DesignInput {
+  return name === undefined ? document : { ...document, name };
+}
+
+/** Escapes % and _ so a search term matches literally inside LIKE. */
+function escapeLike(term: string): string {
+  return term.replace(/[\\%_]/g, (c) => `\\${c}`);
+}
+
+const OWNER_INCLUDE = { model: User, as: 'owner', attributes: ['id', 'name'] };
+const UPDATED_BY_INCLUDE = { model: User, as: 'updatedBy', attributes: ['id', 'name'] };
+
+function sortOrder(sort: string): Order {
+  const descending = sort.startsWith('-');
+  const key = descending ? sort.slice(1) : sort;
+  const dir = descending ? 'DESC' : 'ASC';
+  const primary: Order = key === 'owner'
+    ? [[{ model: User, as: 'owner' }, 'name', dir]]
+    : [[key, dir]];
+  // A stable tie-breaker keeps pages from overlapping when many rows share a value.
+  return [...(primary as unknown[]), ['id', dir]] as Order;
+}
+
+/**
+ * Lists designs for the Designs table: everyone signed in sees every design (reviewers and makers read only).
+ * Filters by name search, status, mechanism and owner ("me" or an id); sorts by one column.
+ */
+export async function listDesigns(actor: PublicUser, query: ListDesignsQuery): Promise<Page<DesignListItem>> {
+  const where: Record<string | symbol, unknown> = {};
+  if (query.q) where.name = { [Op.like]: `%${escapeLike(query.q)}%` };
+  if (query.status?.length) where.status = { [Op.in]: query.status };
+  if (query.mechanism?.length) where.mechanism = { [Op.in]: query.mechanism };
+  if (query.owner !== undefined) where.ownerId = query.owner === 'me' ? actor.id : query.owner;
+  const { rows, count } = await Design.findAndCountAll({
+    where: where as WhereOptions,
+    attributes: { exclude: ['inputs', 'resultSummary'] },
+    include: [OWNER_INCLUDE],
+    order: sortOrder(query.sort),
+    limit: query.pageSize,
+    offset: (query.page - 1) * query.pageSize,
+  });
+  return { items: rows.map((row) => toListItem(row, actor)), total: count, page: query.page, pageSize: query.pageSize };
+}
+
+async function findDesign(id: number): Promise<DesignRow> {
+  const row = await Design.findByPk(id, { include: [OWNER_INCLUDE, UPDATED_BY_INCLUDE] });
+  if (!row) throw notFound('Design');
+  return row;
+}
+
+/** One design with its inputs; everyone signed in may read it. */
+export async function getDesign(actor: PublicUser, id: number): Promise<DesignDetail> {
+  return toDetail(await findDesign(id), actor);
+}
+
+/**
+ * Creates a draft owned by `actor` from a document (also import), a mechanism template or a copy of another
+ * design (any design the user can read, in any state). Travel and the result summary are computed now.
+ */
+export async function createDesign(actor: PublicUser, input: CreateDesignInput): Promise<DesignDetail> {
+  let document: DesignInput;
+  let origin: string;
+  if (input.mode === 'template') {
+    document = withName(defaultDesign(input.template), input.name);
+    origin = `template ${input.template}`;
+  } else if (input.mode === 'copy') {
+    const source = await Design.findByPk(input.copyOf);
+    if (!source) throw new AppError('not_found', 'The design to copy was not found.', 404, { details: [{ path: 'copyOf', message: 'no design with this id' }] });
+    const name = input.name ?? `Copy of ${source.name}`.slice(0, 200);
+    document = normalise({ ...parseJson<DesignInput>(source.inputs), name });
+    origin = `copy of design ${source.id}`;
+  } else {
+    document = input.document;
+    origin = 'document';
+  }
+  const stored = computeStoredResults(document);
+
+  const row = await getSequelize().transaction(async (transaction) => {
+    const created = await Design.create({
+      name: document.name,
+      mechanism: document.mechanism,
+      status: 'draft',
+      ownerId: actor.id,
+      updatedById: actor.id,
+      inputs: document as unknown as Record<string, unknown>,
+      ...stored,
+      version: 1,
+    }, { transaction });
+    await recordAudit({ actorId: actor.id, action: 'design.create', entity: 'design', entityId: created.id, toState: 'draft', reason: origin }, transaction);
+    return created;
+  });
+  return getDesign(actor, row.id);
+}
+
+/** 409 `version_conflict`: someone saved since the client read `version`; details say who and when. */
+function versionConflict(row: DesignRow): AppError {
+  const details = {
+    currentVersion: row.version,
+    updatedBy: row.updatedBy ? { id: row.updatedBy.id, name: row.updatedBy.name } : null,
+    updatedAt: new Date(row.updatedAt).toISOString(),
+  };
+  // The error body's `details` is usually a list of field issues; for a version conflict it is this object
+  // (the contract of PATCH /api/designs/:id), so it is passed through as is.
+  return new AppError('version_conflict', `This design was changed by ${details.updatedBy?.name ?? 'someone else'} since you opened it (now version ${row.version}). Reload it, or save your inputs as a copy.`, 409, {
+    details: details as unknown as ErrorDetail[],
+  });
+}
+
+function notEditable(row: Design): AppError {
+  const label = row.status === 'in_review' ? 'in review' : row.status;
+  return conflict(`This design is ${label}; only drafts and returned designs can be changed.`, 'not_editable');
+}
+
+function assertMayChange(actor: PublicUser, row: Design, what: string): void {
+  if (!mayChange(actor, row)) throw forbidden(`Only the owner of this design or an admin can ${what} it.`);
+}
+
+/**
+ * Saves new inputs and/or a new name with the optimistic lock: the UPDATE only matches when the stored
+ * version still equals the one the client read and the design is still editable, so two saves can never
+ * both win. @returns the design with its new version.
+ */
+export async function updateDesign(actor: PublicUser, id: number, patch: UpdateDesignInput): Promise<DesignDetail> {
+  const row = await findDesign(id);
+  assertMayChange(actor, row, 'change');
+  if (!EDITABLE_DESIGN_STATUSES.includes(row.status as DesignStatus)) throw notEditable(row);
+  if (row.version !== patch.version) throw versionConflict(row);
+
+  const document = withName(patch.inputs ?? normalise(parseJson(row.inputs), 'inputs'), patch.name);
+  const stored = patch.inputs ? computeStoredResults(document, 'inputs') : {};
+
+  const [affected] = await Design.update({
+    name: document.name,
+    mechanism: document.mechanism,
+    inputs: document as unknown as Record<string, unknown>,
+    ...stored,
+    updatedById: actor.id,
+    version: patch.version + 1,
+  }, {
+    where: { id, version: patch.version, status: { [Op.in]: [...EDITABLE_DESIGN_STATUSES] } },
+  });
+  if (affected === 0) {
+    const now = await findDesign(id);
+    if (!EDITABLE_DESIGN_STATUSES.includes(now.status as DesignStatus)) throw notEditable(now);
+    throw versionConflict(now);
+  }
+  return getDesign(actor, id);
+}
+
+/** Deletes a draft (or returned) design: designers their own, admins any. 409 once it is in review or approved. */
+export async function deleteDesign(actor: PublicUser, id: number): Promise<void> {
+  const row = await findDesign(id);
+  assertMayChange(actor, row, 'delete');
+  if (!DELETABLE_STATUSES.includes(row.status as DesignStatus)) {
+    throw conflict(`This design is ${row.status === 'in_review' ? 'in review' : row.status}; only drafts can be deleted.`, 'not_deletable');
+  }
+  await getSequelize().transaction(async (transaction) => {
+    const deleted = await Design.destroy({ where: { id, status: { [Op.in]: [...DELETABLE_STATUSES] } }, transaction });
+    if (deleted === 0) throw conflict('This design changed state while deleting; reload it.', 'not_deletable');
+    await recordAudit({ actorId: actor.id, action: 'design.delete', entity: 'design', entityId: id, fromState: row.status }, transaction);
+  });
+}
+
+/** A file name for a design's export: the name in lower-case kebab form, `.json`. */
+export function exportFileName(name: string): string {
+  const slug = name
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 80);
+  return `${slug || 'design'}.json`;
+}
+
+/** The design document (format.md) of a design, for download; POST /api/designs imports it again. */
+export async function exportDesign(id: number): Promise<{ fileName: string; document: DesignInput }> {
+  const row = await Design.findByPk(id, { attributes: ['id', 'name', 'inputs'] });
+  if (!row) throw notFound('Design');
+  return { fileName: exportFileName(row.name), document: parseJson<DesignInput>(row.inputs) };
+}

@@ -1,0 +1,176 @@
+import type { DesignInput, DesignResult } from '@/engine';
+import { getSequelize } from '../db';
+import { conflict, forbidden, notFound, validationError } from '../errors';
+import { Revision, RevisionComment, User } from '../models';
+import { recordAudit } from './audit.service';
+import { approvedMail, deliverSoon, queueMail, returnedMail, sheetPublishedMail, type Recipient } from './notify.service';
+import {
+  assertMayReadRevision, findRevision, getRevision, isOwnWork, isReviewer, lockDesign, mayComment, parseJson, stateWord,
+  type PersonRef, type RevisionDetail,
+} from './revisions.service';
+import { getSheet, renderSheetFiles, storeSheet, type SheetDetail } from './sheets.service';
+import { findActiveUsersByRole, type Page, type PublicUser } from './users.service';
+
+/**
+ * The reviewer's side of a revision: the threaded discussion, approval (which publishes the design sheet) and
+ * return with a reason. Every transition is checked against the revision's state inside a transaction that
+ * locks the design row, logged in the audit log, and announced by mail after the commit.
+ */
+
+/** One comment; `parentId` is the comment it answers (null for a new thread). */
+export type CommentItem = {
+  id: number;
+  revisionId: number;
+  parentId: number | null;
+  author: PersonRef & { roles: string[] };
+  body: string;
+  createdAt: string;
+};
+
+type CommentRow = RevisionComment & { author?: User | null };
+
+function toComment(row: CommentRow): CommentItem {
+  return {
+    id: row.id,
+    revisionId: row.revisionId,
+    parentId: row.parentId,
+    author: { id: row.authorId, name: row.author?.name ?? '', roles: (row.author?.roles as string[] | undefined) ?? [] },
+    body: row.body,
+    createdAt: new Date(row.createdAt).toISOString(),
+  };
+}
+
+/** The discussion of a revision, oldest first (the client nests replies under `parentId`). */
+export async function listComments(actor: PublicUser, revisionId: number): Promise<Page<CommentItem>> {
+  const revision = await findRevision(revisionId);
+  assertMayReadRevision(actor, revision, revision.design);
+  const rows = await RevisionComment.findAll({
+    where: { revisionId },
+    include: [{ model: User, as: 'author', attributes: ['id', 'name', 'roles'] }],
+    order: [['createdAt', 'ASC'], ['id', 'ASC']],
+  }) as CommentRow[];
+  return { items: rows.map(toComment), total: rows.length, page: 1, pageSize: Math.max(rows.length, 1) };
+}
+
+/**
+ * Adds a comment (or a reply, with `parentId` of a comment on the same revision). Reviewers, admins, the design's
+ * owner and the revision's author, in any state of the revision: the discussion may go on after a decision.
+ * @throws 403 for others, 400 when `parentId` is not a comment of this revision
+ */
+export async function addComment(actor: PublicUser, revisionId: number, input: { body: string; parentId?: number | null }): Promise<CommentItem> {
+  const revision = await findRevision(revisionId);
+  if (!mayComment(actor, revision, revision.design)) {
+    throw forbidden('Only reviewers, admins and the design’s owner can comment on a revision.');
+  }
+  const parentId = input.parentId ?? null;
+  if (parentId !== null) {
+    const parent = await RevisionComment.findByPk(parentId, { attributes: ['id', 'revisionId'] });
+    if (!parent || parent.revisionId !== revisionId) throw validationError([{ path: 'parentId', message: 'is not a comment on this revision' }]);
+  }
+  const row = await RevisionComment.create({ revisionId, parentId, authorId: actor.id, body: input.body });
+  const created = await RevisionComment.findByPk(row.id, { include: [{ model: User, as: 'author', attributes: ['id', 'name', 'roles'] }] }) as CommentRow;
+  return toComment(created);
+}
+
+function assertMayDecide(actor: PublicUser, revision: Awaited<ReturnType<typeof findRevision>>, verb: 'approve' | 'return'): void {
+  if (!isReviewer(actor)) throw forbidden(`Only reviewers and admins can ${verb} a revision.`);
+  if (isOwnWork(actor, revision, revision.design)) {
+    throw forbidden(verb === 'approve' ? 'You cannot approve your own work.' : 'You cannot return your own work; withdraw it instead.');
+  }
+}
+
+function wrongState(number: number, status: string, verb: 'approved' | 'returned'): Error {
+  return conflict(`Revision ${number} is ${stateWord(status)}; only a revision in review can be ${verb}.`, 'invalid_state');
+}
+
+/** Locks the design and re-reads the revision in the transaction; the state must still be in review. */
+async function lockForDecision(revisionId: number, designId: number, verb: 'approved' | 'returned', transaction: Parameters<typeof lockDesign>[1]) {
+  const design = await lockDesign(designId, transaction);
+  const revision = await Revision.findByPk(revisionId, { attributes: { exclude: ['result'] }, transaction, lock: transaction.LOCK.UPDATE });
+  if (!revision) throw notFound('Revision');
+  if (revision.status !== 'in_review') throw wrongState(revision.number, revision.status, verb);
+  if (design.status !== 'in_review') throw conflict(`The design is ${stateWord(design.status)}, not in review.`, 'invalid_state');
+  return { design, revision };
+}
+
+/** The designer(s) to tell about a decision: the design's owner and the revision's author. */
+async function designersOf(revision: { authorId: number }, ownerId: number): Promise<Recipient[]> {
+  const users = await User.findAll({ where: { id: [...new Set([ownerId, revision.authorId])], disabled: false }, attributes: ['email', 'name'] });
+  return users.map((u) => ({ email: u.email, name: u.name }));
+}
+
+/**
+ * Approves a revision in review: renders the design sheet (A4 and US Letter) from the frozen revision, then in one
+ * transaction marks the revision and design approved and stores the sheet; logs it and mails the designer and
+ * every maker. Reviewers and admins, never on their own work.
+ * Rendering happens before the transaction (it takes seconds); if someone decided meanwhile, the render is dropped
+ * and the answer is 409.
+ * @throws 403 (role, own work), 409 (not in review)
+ */
+export async function approveRevision(actor: PublicUser, revisionId: number, input: { comment: string }): Promise<{ revision: RevisionDetail; sheet: SheetDetail }> {
+  const revision = await findRevision(revisionId, { withResult: true });
+  assertMayDecide(actor, revision, 'approve');
+  if (revision.status !== 'in_review') throw wrongState(revision.number, revision.status, 'approved');
+
+  const approvedAt = new Date();
+  const inputs = parseJson<DesignInput>(revision.inputs);
+  const author = await User.findByPk(revision.authorId, { attributes: ['name', 'email'] });
+  const rendered = await renderSheetFiles({
+    designName: inputs.name,
+    revisionNumber: revision.number,
+    mechanism: inputs.mechanism,
+    designer: { name: author?.name ?? '', email: author?.email ?? '' },
+    approval: { reviewerName: actor.name, approvedAt, comment: input.comment },
+    inputs,
+    result: parseJson<DesignResult>(revision.result),
+    fingerprint: revision.fingerprint,
+  });
+
+  const { sheetId, mailIds } = await getSequelize().transaction(async (transaction) => {
+    const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'approved', transaction);
+    await locked.update({ status: 'approved', decidedById: actor.id, decidedAt: approvedAt, decisionNote: input.comment }, { transaction });
+    await design.update({ status: 'approved' }, { transaction });
+    const id = await storeSheet({ revisionId, designId: design.id, approvedById: actor.id, approvedAt, comment: input.comment, rendered }, transaction);
+    const note = input.comment || null;
+    await recordAudit({ actorId: actor.id, action: 'design.approve', entity: 'design', entityId: design.id, fromState: 'in_review', toState: 'approved', reason: note ?? `Approved revision ${locked.number}` }, transaction);
+    await recordAudit({ actorId: actor.id, action: 'revision.approve', entity: 'revision', entityId: revisionId, fromState: 'in_review', toState: 'approved', reason: note }, transaction);
+    await recordAudit({ actorId: actor.id, action: 'sheet.publish', entity: 'sheet', entityId: id, fromState: null, toState: 'published', reason: `A4 SHA-256 ${rendered.a4Sha256}; Letter SHA-256 ${rendered.letterSha256}` }, transaction);
+
+    const ref = { revisionId, number: locked.number, designId: design.id, designName: inputs.name };
+    const designers = await designersOf(locked, design.ownerId);
+    const makers = (await findActiveUsersByRole('maker')).filter((u) => u.id !== actor.id);
+    const ids = [
+      ...await queueMail('revision.approved', designers, (to) => approvedMail(to, { ...ref, reviewerName: actor.name, comment: input.comment, sheetId: id }), transaction),
+      ...await queueMail('sheet.published', makers, (to) => sheetPublishedMail(to, { ...ref, sheetId: id, sha256: rendered.a4Sha256 }), transaction),
+    ];
+    return { sheetId: id, mailIds: ids };
+  });
+  deliverSoon(mailIds);
+  return { revision: await getRevision(actor, revisionId), sheet: await getSheet(actor, sheetId) };
+}
+
+/**
+ * Returns a revision in review to its designer with a reason: the revision becomes `returned`, the design
+ * `returned` (editable again, the reason shown), logged and mailed to the designer.
+ * @throws 403 (role, own work), 409 (not in review)
+ */
+export async function returnRevision(actor: PublicUser, revisionId: number, input: { reason: string }): Promise<RevisionDetail> {
+  const revision = await findRevision(revisionId);
+  assertMayDecide(actor, revision, 'return');
+  if (revision.status !== 'in_review') throw wrongState(revision.number, revision.status, 'returned');
+
+  const mailIds = await getSequelize().transaction(async (transaction) => {
+    const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'returned', transaction);
+    await locked.update({ status: 'returned', decidedById: actor.id, decidedAt: new Date(), decisionNote: input.reason }, { transaction });
+    await design.update({ status: 'returned' }, { transaction });
+    await recordAudit({ actorId: actor.id, action: 'design.return', entity: 'design', entityId: design.id, fromState: 'in_review', toState: 'returned', reason: input.reason }, transaction);
+    await recordAudit({ actorId: actor.id, action: 'revision.return', entity: 'revision', entityId: revisionId, fromState: 'in_review', toState: 'returned', reason: input.reason }, transaction);
+    const designName = parseJson<{ name: string }>(locked.inputs).name;
+    const designers = await designersOf(locked, design.ownerId);
+    return queueMail('revision.returned', designers, (to) => returnedMail(to, {
+      revisionId, number: locked.number, designId: design.id, designName, reviewerName: actor.name, reason: input.reason,
+    }), transaction);
+  });
+  deliverSoon(mailIds);
+  return getRevision(actor, revisionId);
+}

@@ -1,0 +1,77 @@
+import { BASE_FONT, FALLBACK_FONTS, hasGlyph } from './fonts';
+
+const MINUS = '\u2212';
+const DASH = '\u2014';
+
+/** Fixed decimals, true minus sign, em dash for a missing or non-finite number. */
+export function fixed(value: number | null | undefined, decimals: number): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return DASH;
+  const rounded = Number(value.toFixed(decimals));
+  const s = (Object.is(rounded, -0) ? 0 : rounded).toFixed(decimals);
+  return s.startsWith('-') ? MINUS + s.slice(1) : s;
+}
+
+/** A number with about `digits` significant figures, no exponent for the sheet's ranges. */
+export function sig(value: number | null | undefined, digits = 4): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return DASH;
+  if (value === 0) return '0';
+  const magnitude = Math.floor(Math.log10(Math.abs(value)));
+  const decimals = Math.max(0, Math.min(8, digits - 1 - magnitude));
+  return fixed(value, decimals);
+}
+
+/** Thousands separated by a thin space for long integers (e.g. belt lengths), otherwise `fixed`. */
+export function grouped(value: number, decimals = 0): string {
+  const s = fixed(value, decimals);
+  const [int, frac] = s.split('.');
+  const withSep = int.replace(/\B(?=(\d{3})+(?!\d))/g, '\u2009');
+  return frac !== undefined ? `${withSep}.${frac}` : withSep;
+}
+
+/** Approval time as an unambiguous UTC stamp, e.g. "2025-03-14 09:30 UTC". */
+export function utcStamp(at: Date | string): string {
+  const date = at instanceof Date ? at : new Date(at);
+  if (Number.isNaN(date.getTime())) throw new Error(`[renderSheet] approval.approvedAt is not a date: ${String(at)}`);
+  return `${date.toISOString().slice(0, 10)} ${date.toISOString().slice(11, 16)} UTC`;
+}
+
+/** One run of text in one font family. */
+export interface TextRun {
+  text: string;
+  font?: string;
+}
+
+// Symbols the engine and users write that no Inter subset on the sheet carries: spelled out instead.
+const SUBSTITUTES: [RegExp, string][] = [
+  [/\s*\u2192\s*/g, ' to '],
+  [/\s*\u2190\s*/g, ' from '],
+  [/\u2264/g, '<='],
+  [/\u2265/g, '>='],
+  [/\u2248/g, '~'],
+  [/\u221a/g, 'sqrt '],
+  [/\u221e/g, 'infinity'],
+];
+
+/** Replace symbols the sheet fonts lack by words or ASCII. */
+export function spellSymbols(raw: string): string {
+  return SUBSTITUTES.reduce((s, [re, to]) => s.replace(re, to), raw);
+}
+
+/**
+ * Split text from users or the engine into runs the registered fonts can draw: a few symbols are spelled out,
+ * characters the latin file lacks go to the first fallback subset that has them, and characters no subset has
+ * become "?" so no missing-glyph box is printed. Control characters become spaces.
+ */
+export function userTextRuns(raw: string, bold = false, italics = false): TextRun[] {
+  const runs: TextRun[] = [];
+  for (const ch of Array.from(spellSymbols(raw).replace(/[\u0000-\u001f\u007f]/g, ' '))) {
+    let family: string | undefined = BASE_FONT;
+    if (!hasGlyph(BASE_FONT, bold, italics, ch)) family = FALLBACK_FONTS.find((f) => hasGlyph(f, bold, italics, ch));
+    const out = family ? ch : '?';
+    const font = family && family !== BASE_FONT ? family : undefined;
+    const last = runs[runs.length - 1];
+    if (last && last.font === font) last.text += out;
+    else runs.push(font ? { text: out, font } : { text: out });
+  }
+  return runs.length ? runs : [{ text: '' }];
+}

@@ -1,0 +1,92 @@
+import type { DesignInputRaw, Mechanism } from '@/engine';
+import { apiUrl, del, get, patch, post } from './http';
+import type { Page } from './types';
+
+/** States of a design (product.md "States of a design"). */
+export type DesignStatus = 'draft' | 'in_review' | 'approved' | 'returned';
+
+/** Every design status, in workflow order. */
+export const DESIGN_STATUSES: readonly DesignStatus[] = ['draft', 'in_review', 'approved', 'returned'];
+
+/** Who owns a design. */
+export interface DesignOwner {
+  id: number;
+  name: string;
+}
+
+/** One row of the Designs table. */
+export interface DesignSummary {
+  id: number;
+  name: string;
+  mechanism: Mechanism;
+  status: DesignStatus;
+  owner: DesignOwner;
+  /** Usable travel the engine derived from the frame [mm]. */
+  travel: { xMm: number; yMm: number } | null;
+  /** Optimistic-lock version: send it back with every change. */
+  version: number;
+  /** ISO 8601 timestamp */
+  updatedAt: string;
+  /** Whether the signed-in user may change this design (the server decides). */
+  canEdit?: boolean;
+  /** Whether the signed-in user may delete this design. */
+  canDelete?: boolean;
+}
+
+/** A whole design, as GET /api/designs/:id answers. */
+export interface Design extends DesignSummary {
+  /** The design document (format.md). */
+  inputs: DesignInputRaw;
+  createdAt?: string;
+  /** Who saved last. */
+  updatedBy?: { id: number; name: string } | null;
+}
+
+/** Sortable columns of the list; a leading "-" sorts descending. */
+export type DesignSortKey = 'name' | 'updatedAt' | 'status' | 'mechanism' | 'owner';
+
+/** Query of the Designs list. */
+export interface DesignListQuery {
+  page?: number;
+  pageSize?: number;
+  /** e.g. "-updatedAt" */
+  sort?: `${'' | '-'}${DesignSortKey}`;
+  q?: string;
+  status?: DesignStatus | '';
+  mechanism?: Mechanism | '';
+}
+
+/** Ways to create a design: a whole document, a mechanism template, or a copy of another design. */
+export type CreateDesignInput = DesignInputRaw | { template: Mechanism; name: string } | { copyOf: number; name?: string };
+
+/** Fields a PATCH may change; `version` is the one the client last saw. */
+export interface UpdateDesignInput {
+  inputs?: DesignInputRaw;
+  name?: string;
+  version: number;
+}
+
+/** Details of a 409 version conflict: who saved in between, and the version now stored. */
+export interface VersionConflictDetails {
+  currentVersion: number;
+  updatedBy?: { id: number; name: string } | string | null;
+  updatedAt?: string;
+}
+
+/** Lists designs the signed-in user may see, one page at a time. */
+export const listDesigns = (query: DesignListQuery = {}): Promise<Page<DesignSummary>> => get('/designs', { ...query });
+
+/** Reads one design with its inputs. */
+export const getDesign = (id: number): Promise<Design> => get(`/designs/${id}`);
+
+/** Creates a design from a document, a template or a copy; answers the new design. */
+export const createDesign = (input: CreateDesignInput): Promise<Design> => post('/designs', input);
+
+/** Saves inputs and/or the name; answers 409 `version_conflict` when `version` is stale. */
+export const updateDesign = (id: number, input: UpdateDesignInput): Promise<Design> => patch(`/designs/${id}`, input);
+
+/** Deletes a draft. */
+export const deleteDesign = (id: number): Promise<void> => del(`/designs/${id}`);
+
+/** URL of the JSON export of a design (the browser downloads it). */
+export const designExportUrl = (id: number): string => apiUrl(`/designs/${id}/export`);

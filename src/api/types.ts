@@ -1,0 +1,42 @@
+/** The four roles a user may hold (several at once). */
+export type Role = 'admin' | 'designer' | 'reviewer' | 'maker';
+
+/** Every role, in the order the UI lists them. */
+export const ROLES: readonly Role[] = ['designer', 'reviewer', 'maker', 'admin'];
+
+/** A user as the API returns it. */
+export interface User {
+  id: number;
+  email: string;
+  name: string;
+  roles: Role[];
+  disabled: boolean;
+  /** ISO 8601 timestamp */
+  createdAt: string;
+}
+
+/** One page of a list endpoint: `{ items, total, page, pageSize }`. */
+export interface Page<T> {
+  items: T[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+/** Paging and search parameters shared by list endpoints. */
+export interface PageQuery {
+  page?: number;
+  pageSize?: number;
+  q?: string;
+}
+
+/** One validation problem reported by the API: `path` is the field path, e.g. `"roles.0"`. */
+export interface ErrorDetail {
+  path: string;
+  message: string;
+}
+
+/** The error body every API failure answers with. */
+export interface ErrorBody {
+  error: { code: string; message: string; details?: ErrorDetail[] };
+}

@@ -1,0 +1,149 @@
+import { computed, onScopeDispose, ref, shallowRef, watch, type Ref, type ShallowRef } from 'vue';
+import { designInputSchema, safeParseDesign, type DesignResult, type InputIssue } from '@/engine';
+import { getEngineRunner, type EngineRunner } from '@/workers/engineClient';
+
+/** Options of {@link useEngine}. */
+export interface UseEngineOptions {
+  /** Quiet time after the last change before the engine runs [ms]. */
+  delayMs?: number;
+  /** Engine runner (tests pass the main-thread one). */
+  runner?: EngineRunner;
+}
+
+/** What {@link useEngine} returns. */
+export interface UseEngine {
+  /** Latest result, kept while the inputs are invalid or a new one is on its way. */
+  result: ShallowRef<DesignResult | null>;
+  /** Schema issues of the current inputs (the API answers the same messages). */
+  issues: Ref<InputIssue[]>;
+  /** First message per dotted field path. */
+  fieldErrors: Ref<Record<string, string>>;
+  /** True when the shown result does not match the current inputs. */
+  isStale: Ref<boolean>;
+  /** True while the engine runs. */
+  isComputing: Ref<boolean>;
+  /** An unexpected engine failure (not a validation issue). */
+  error: Ref<string | null>;
+  /** How long the last evaluation took, round trip [ms]. */
+  lastDurationMs: Ref<number | null>;
+}
+
+function valueAt(source: unknown, path: string): unknown {
+  let node: unknown = source;
+  for (const key of path.split('.')) {
+    if (typeof node !== 'object' || node === null) return undefined;
+    node = (node as Record<string, unknown>)[key];
+  }
+  return node;
+}
+
+/**
+ * The schema's issues for the form. A box holding text that is not a number carries NaN, which the shared
+ * schema rejects with its own "… must be a number" message; the issue list reports every wrong type as
+ * "is required", so for NaN the schema's own words are taken instead (JSON cannot carry NaN, so the API never
+ * sees this case).
+ * @param value - the design being edited
+ * @param issues - issues from safeParseDesign
+ */
+export function formIssues(value: unknown, issues: InputIssue[]): InputIssue[] {
+  if (!issues.some((i) => Number.isNaN(valueAt(value, i.path)))) return issues;
+  const raw = designInputSchema.safeParse(value);
+  const own = new Map<string, string>();
+  if (!raw.success) for (const i of raw.error.issues) own.set(i.path.map(String).join('.'), i.message);
+  return issues.map((i) => (Number.isNaN(valueAt(value, i.path)) && own.has(i.path) ? { path: i.path, message: own.get(i.path)! } : i));
+}
+
+/**
+ * Live results for a design being edited: every change is validated at once with the shared schema (so the
+ * form shows field messages as the person types), and a valid design is evaluated by the engine in a Web
+ * Worker after a short quiet time. Evaluations never pile up: while one runs, only the newest inputs wait.
+ * @param source - getter of the design document being edited (null while nothing is loaded)
+ * @param options - delay and runner
+ */
+export function useEngine(source: () => unknown, options: UseEngineOptions = {}): UseEngine {
+  const delayMs = options.delayMs ?? 150;
+  const runner = options.runner ?? getEngineRunner();
+
+  const result = shallowRef<DesignResult | null>(null);
+  const issues = ref<InputIssue[]>([]);
+  const isStale = ref(false);
+  const isComputing = ref(false);
+  const error = ref<string | null>(null);
+  const lastDurationMs = ref<number | null>(null);
+
+  let timer: ReturnType<typeof setTimeout> | null = null;
+  let waiting: Record<string, unknown> | null = null;
+  let isDisposed = false;
+
+  const fieldErrors = computed(() => {
+    const out: Record<string, string> = {};
+    for (const issue of issues.value) if (!(issue.path in out)) out[issue.path] = issue.message;
+    return out;
+  });
+
+  async function run(design: Record<string, unknown>): Promise<void> {
+    isComputing.value = true;
+    const started = performance.now();
+    try {
+      const outcome = await runner.evaluate(design);
+      if (isDisposed) return;
+      lastDurationMs.value = Math.round(performance.now() - started);
+      if (outcome.ok) {
+        result.value = outcome.result;
+        error.value = null;
+      } else {
+        // The layout can reject what the field rules let through; show it like any other issue.
+        issues.value = outcome.issues;
+      }
+    } catch (err) {
+      if (!isDisposed) error.value = err instanceof Error ? err.message : String(err);
+    } finally {
+      if (!isDisposed) {
+        if (waiting) {
+          const next = waiting;
+          waiting = null;
+          void run(next);
+        } else {
+          isComputing.value = false;
+          isStale.value = issues.value.length > 0;
+        }
+      }
+    }
+  }
+
+  function schedule(design: Record<string, unknown>): void {
+    if (timer) clearTimeout(timer);
+    timer = setTimeout(() => {
+      timer = null;
+      if (isComputing.value) waiting = design;
+      else void run(design);
+    }, delayMs);
+  }
+
+  watch(
+    source,
+    (value) => {
+      if (value === null || value === undefined) return;
+      const parsed = safeParseDesign(value);
+      if (!parsed.ok) {
+        issues.value = formIssues(value, parsed.issues);
+        isStale.value = result.value !== null;
+        if (timer) clearTimeout(timer);
+        timer = null;
+        waiting = null;
+        return;
+      }
+      issues.value = [];
+      isStale.value = true;
+      schedule(parsed.value as unknown as Record<string, unknown>);
+    },
+    { deep: true, immediate: true },
+  );
+
+  onScopeDispose(() => {
+    isDisposed = true;
+    if (timer) clearTimeout(timer);
+  });
+
+  return { result, issues, fieldErrors, isStale, isComputing, error, lastDurationMs };
+}

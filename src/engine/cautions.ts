@@ -1,0 +1,28 @@
+import type { Caution } from './types';
+
+/**
+ * Safety cautions printed on every design sheet and shown on the workbench (engine.md §9). They are data so
+ * that the sheet and the UI print the same words; they defer to the rules that apply where the machine is used.
+ */
+export const CAUTIONS: readonly Caution[] = [
+  {
+    id: 'pinch-points',
+    title: 'Pinch points',
+    text: 'Moving belts, pulleys, the gantry and the carriage can trap fingers, hair and loose clothing. Guard them or keep hands out of the working area while the motors are powered.',
+  },
+  {
+    id: 'electrical-supply',
+    title: 'Electrical supply',
+    text: 'Stepper drivers and their power supplies carry mains voltage or high DC voltage and currents. Switch off and disconnect before wiring; let a qualified person make mains connections.',
+  },
+  {
+    id: 'stored-energy',
+    title: 'Stored energy',
+    text: 'A tensioned belt and a gantry under acceleration store energy. Release belt tension before taking pulleys off, and expect the gantry to coast or move when power or a belt fails.',
+  },
+  {
+    id: 'codes-and-practice',
+    title: 'Codes and licensed practice',
+    text: 'These figures support design; they do not replace the local codes, the machine-safety rules that apply where the machine is used, or the judgement of licensed professionals.',
+  },
+];

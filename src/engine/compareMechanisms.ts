@@ -1,0 +1,70 @@
+import type { InputIssue } from './errors';
+import { evaluateValidDesign } from './evaluateDesign';
+import { MECHANISMS } from './kinematics';
+import { parseDesign, safeParseDesign } from './schema';
+import type { DesignResult, Mechanism } from './types';
+
+/** Key numbers of one design, side by side with others. */
+export interface KeyFigures {
+  travelXMm: number;
+  travelYMm: number;
+  stepsPerMm: number;
+  microstepMm: { x: number; y: number; diagonal: number };
+  accelMaxMPerS2: { x: number; y: number; diagonal: number; worst: number };
+  speedMaxMPerS: { x: number; y: number; diagonal: number; worst: number };
+  lowestFrequencyHz: number;
+  movingMassKg: { x: number; y: number };
+  rackingMomentPerNewtonM: number;
+  motorCount: number;
+  warnCount: number;
+  failCount: number;
+}
+
+/** One mechanism's row of a comparison. */
+export type ComparisonRow = ({ mechanism: Mechanism; ok: true } & KeyFigures) | { mechanism: Mechanism; ok: false; issues: InputIssue[] };
+
+/**
+ * Extracts the key figures of a result (shared by the comparison and the sweep).
+ * @param r - an evaluateDesign result
+ * @returns travel [mm], resolution [steps/mm, mm], limits [m/s², m/s], lowest resonance [Hz], masses [kg], counts
+ */
+export function keyFigures(r: DesignResult): KeyFigures {
+  const a = r.envelope.axes;
+  return {
+    travelXMm: r.travel.xMm,
+    travelYMm: r.travel.yMm,
+    stepsPerMm: r.drive.stepsPerMm,
+    microstepMm: { ...r.drive.microstepMm },
+    accelMaxMPerS2: { x: a.x.accelMaxMPerS2, y: a.y.accelMaxMPerS2, diagonal: a.diagonal.accelMaxMPerS2, worst: a.worst.accelMaxMPerS2 },
+    speedMaxMPerS: {
+      x: a.x.speedMaxMPerS,
+      y: a.y.speedMaxMPerS,
+      diagonal: a.diagonal.speedMaxMPerS,
+      worst: Math.min(...r.envelope.speedMaxMPerS),
+    },
+    lowestFrequencyHz: r.stiffness.min.frequencyHz,
+    movingMassKg: { x: r.mass.xKg, y: r.mass.yKg },
+    rackingMomentPerNewtonM: r.racking.momentPerNewtonM,
+    motorCount: r.motors.reduce((s, m) => s + m.count, 0),
+    warnCount: r.checks.filter((c) => c.severity === 'warn').length,
+    failCount: r.checks.filter((c) => c.severity === 'fail').length,
+  };
+}
+
+/**
+ * Evaluates the same design as corexy, hbot and cartesian and returns the key numbers side by side. A cartesian
+ * design's two Y motors become one when it is turned into a crossed-belt design (crossed belts have two motors).
+ * @param input - a design document (validated first)
+ * @returns one row per mechanism; a mechanism the frame cannot take gives a row with its issues
+ * @throws EngineInputError when the design itself is invalid
+ */
+export function compareMechanisms(input: unknown): { rows: ComparisonRow[] } {
+  const base = parseDesign(input);
+  const rows: ComparisonRow[] = MECHANISMS.map((mechanism) => {
+    const variant = { ...base, mechanism, yMotors: mechanism === 'cartesian' ? base.yMotors : 1 };
+    const parsed = safeParseDesign(variant);
+    if (!parsed.ok) return { mechanism, ok: false as const, issues: parsed.issues };
+    return { mechanism, ok: true as const, ...keyFigures(evaluateValidDesign(parsed.value)) };
+  });
+  return { rows };
+}

@@ -1,0 +1,70 @@
+/**
+ * Gantrywright calculation engine: the only public entry point. Pure TypeScript, no platform imports.
+ * Client and server import it as `@/engine`; nothing else in src/engine is imported directly.
+ */
+export { ENGINE_VERSION } from './version';
+export { EngineInputError, type InputIssue } from './errors';
+export {
+  designInputSchema,
+  parseDesign,
+  safeParseDesign,
+  defaultDesign,
+  issuesFromZod,
+  MICROSTEP_OPTIONS,
+  type DesignInput,
+  type DesignInputRaw,
+} from './schema';
+export { pitchDiameterMm, stepsPerMm, travelPerRevMm, reflectedMassKg, fullStepsPerRev, rotorTeeth } from './drive';
+export {
+  MECHANISMS,
+  kinematicsMatrix,
+  carriageToMotor,
+  motorToCarriage,
+  beltPullsToForce,
+  forceToBeltPulls,
+  couplingShares,
+} from './kinematics';
+export { openBeltLengthMm, openBeltLengthExactMm, wrapAngleRad, teethInMesh } from './openBelt';
+export { spanFrequencyHz, tensionFromFrequencyN, workingTension } from './tension';
+export { naturalFrequencyHz, spanStiffnessNPerM, ringingAmplitudeMm } from './vibration';
+export {
+  motorTorqueNm,
+  torqueSpeedFunction,
+  torqueConstantNmPerA,
+  supplyLimitedCurrentA,
+  interpolateTorqueCurve,
+  motorHoldingStiffnessNmPerRad,
+} from './motorTorque';
+export { moveTimeS } from './moveTime';
+export { frameToTravel, travelToFrame, type TravelInfo, type TravelInput } from './frame';
+export { buildBeltLayout, solveLoop, fitLoopModel, elementPosition, type BeltLayout, type LayoutLoop, type LayoutElement } from './beltLayout';
+export { solveBeltPath, type PathElement, type SolvedPath } from './beltPath';
+export { movingMassKg, effectiveMassKg, pulleyInertiaEstimateKgM2 } from './mass';
+export { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type EnvelopeInput, type EnvelopeResult } from './envelope';
+export { stiffnessMap, carriageStiffnessNPerM, type StiffnessInput, type StiffnessResult } from './stiffness';
+export { rackingMomentPerNewtonM, rackingTurnSpacingMm, guideReactionN } from './racking';
+export { designChecks, teethInMeshFactor } from './checks';
+export { CAUTIONS } from './cautions';
+export { partsList, CLAMP_ALLOWANCE_MM } from './partsList';
+export { evaluateDesign, evaluateValidDesign, ENVELOPE_DIRECTIONS } from './evaluateDesign';
+export { lowestEigenvalue2, inverse2, transpose2, multiply2, det2, apply2, type Matrix2 } from './linalg';
+export type {
+  Mechanism,
+  MotorDirection,
+  MotorSpec,
+  DriverSpec,
+  TorquePoint,
+  DesignResult,
+  Check,
+  Severity,
+  Caution,
+  AxisLimits,
+  RingingFigure,
+  BeltReport,
+  BeltSpan,
+  LayoutDrawing,
+  LayoutPart,
+} from './types';
+export { compareMechanisms, keyFigures, type KeyFigures, type ComparisonRow } from './compareMechanisms';
+export { sweep, type SweepPoint } from './sweep';
+export { beltGeometryAt, type BeltGeometry } from './beltGeometryAt';

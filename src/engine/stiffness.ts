@@ -1,0 +1,208 @@
+import type { LoopModel, MotorVar } from './beltLayout';
+import { lowestEigenvalue2 } from './linalg';
+
+/** Inputs of the stiffness map, SI unless the name says otherwise. */
+export interface StiffnessInput {
+  /** Affine piece-length models of every loop (frame coordinates). */
+  models: LoopModel[];
+  /** Motor variables and their belt-line holding stiffness k_θ/r² [N/m]. */
+  motorStiffnessNPerM: Record<MotorVar, number>;
+  /** Belt EA [N]. */
+  axialStiffnessN: number;
+  /** Moving mass along X and Y [kg]. */
+  xKg: number;
+  yKg: number;
+  /** Carriage centre at travel (0, 0) in frame coordinates, and the travel [mm]. */
+  originXMm: number;
+  originYMm: number;
+  travelXMm: number;
+  travelYMm: number;
+  /** Grid points per axis (2 … 101). */
+  points: number;
+}
+
+/** Stiffness map result. */
+export interface StiffnessResult {
+  /** Grid coordinates in travel coordinates [mm]. */
+  xMm: number[];
+  yMm: number[];
+  /** Lowest natural frequency at each grid point, indexed [iy][ix] [Hz]. */
+  lowestFrequencyHz: number[][];
+  /** Weakest point of the map. */
+  min: { frequencyHz: number; xMm: number; yMm: number };
+  /** Carriage stiffness matrix at the weakest point [N/m]. */
+  matrixAtMinNPerM: [[number, number], [number, number]];
+}
+
+function linspace(a: number, b: number, n: number): number[] {
+  const out = new Array<number>(n);
+  for (let i = 0; i < n; i++) out[i] = n === 1 ? a : a + ((b - a) * i) / (n - 1);
+  return out;
+}
+
+/**
+ * Carriage stiffness matrix at one position by static condensation. Each belt piece between two load-bearing
+ * nodes (clamp or drive pulley) is a spring EA/L whose stretch is G·q + Σ T·m, with q the carriage displacement
+ * and m the belt each motor pulley passes on; the motors are springs k_θ/r² to ground. Minimising the energy
+ * over the (massless) motor variables gives K_c = H_qq − H_qm·H_mm⁻¹·H_mq. For one motor per loop this is the
+ * loop's two arms in parallel, EA·(1/L₁ + 1/L₂), in series with the motor (engine.md §7); it also covers the
+ * single H loop with two motors and the cross-shaft cartesian Y drive.
+ * @param inp - stiffness input (see StiffnessInput)
+ * @param cxcMm - carriage centre X in frame coordinates [mm]
+ * @param cycMm - carriage centre Y in frame coordinates [mm]
+ * @returns 2×2 stiffness matrix [N/m]
+ * @see S. S. Rao, Mechanical Vibrations, 5th ed., ch. 1 (springs in series and parallel) and ch. 5 (from memory)
+ */
+export function carriageStiffnessNPerM(inp: StiffnessInput, cxcMm: number, cycMm: number): [[number, number], [number, number]] {
+  const prep = prepare(inp);
+  condense(prep, inp.axialStiffnessN, cxcMm, cycMm);
+  const o = prep.out;
+  return [
+    [o[0], o[1]],
+    [o[1], o[2]],
+  ];
+}
+
+// Up to three motor variables (A, B, B2). Fewer are padded with a decoupled unit spring, which adds nothing
+// to the condensation, so one branch-free scalar routine serves every mechanism (the map calls it ~10⁴ times).
+const NV = 3;
+
+interface Prepared {
+  /** Piece data as flat arrays: base length, slopes and the transfer coefficient of each motor variable. */
+  l0: Float64Array;
+  gx: Float64Array;
+  gy: Float64Array;
+  t: Float64Array;
+  pieces: number;
+  km: Float64Array;
+  /** Result of the last condensation: kxx, kxy, kyy [N/m]. */
+  out: Float64Array;
+}
+
+function prepare(inp: StiffnessInput): Prepared {
+  const vars: MotorVar[] = [];
+  for (const m of inp.models) for (const v of m.nodeMotors) if (!vars.includes(v)) vars.push(v);
+  const count = inp.models.reduce((s, m) => s + m.pieces.length, 0);
+  const km = new Float64Array(NV).fill(1);
+  vars.forEach((v, i) => (km[i] = inp.motorStiffnessNPerM[v]));
+  const prep: Prepared = {
+    l0: new Float64Array(count),
+    gx: new Float64Array(count),
+    gy: new Float64Array(count),
+    t: new Float64Array(count * NV),
+    pieces: count,
+    km,
+    out: new Float64Array(3),
+  };
+  let r = 0;
+  for (const m of inp.models) {
+    m.pieces.forEach((pc, i) => {
+      // A motor between piece i−1 and i passes belt from the earlier piece to the later one.
+      if (i > 0) prep.t[r * NV + vars.indexOf(m.nodeMotors[i - 1])] -= 1;
+      if (i < m.nodeMotors.length) prep.t[r * NV + vars.indexOf(m.nodeMotors[i])] += 1;
+      prep.l0[r] = pc.l0Mm;
+      prep.gx[r] = pc.gx;
+      prep.gy[r] = pc.gy;
+      r++;
+    });
+  }
+  return prep;
+}
+
+function condense(prep: Prepared, eaN: number, cxcMm: number, cycMm: number): void {
+  const { t, l0, gx: gxs, gy: gys } = prep;
+  let h00 = prep.km[0];
+  let h11 = prep.km[1];
+  let h22 = prep.km[2];
+  let h01 = 0;
+  let h02 = 0;
+  let h12 = 0;
+  let x0 = 0;
+  let x1 = 0;
+  let x2 = 0;
+  let y0 = 0;
+  let y1 = 0;
+  let y2 = 0;
+  let kxx = 0;
+  let kxy = 0;
+  let kyy = 0;
+  const ea = eaN * 1000;
+  for (let r = 0; r < prep.pieces; r++) {
+    const gx = gxs[r];
+    const gy = gys[r];
+    const len = l0[r] + gx * cxcMm + gy * cycMm;
+    const k = ea / (len > 1e-3 ? len : 1e-3);
+    const kgx = k * gx;
+    const kgy = k * gy;
+    kxx += kgx * gx;
+    kxy += kgx * gy;
+    kyy += kgy * gy;
+    const o = r * NV;
+    const t0 = t[o];
+    const t1 = t[o + 1];
+    const t2 = t[o + 2];
+    x0 += kgx * t0;
+    x1 += kgx * t1;
+    x2 += kgx * t2;
+    y0 += kgy * t0;
+    y1 += kgy * t1;
+    y2 += kgy * t2;
+    h00 += k * t0 * t0;
+    h11 += k * t1 * t1;
+    h22 += k * t2 * t2;
+    h01 += k * t0 * t1;
+    h02 += k * t0 * t2;
+    h12 += k * t1 * t2;
+  }
+  // H_qm·H_mm⁻¹·H_mq by symmetric Gaussian elimination (LDLᵀ): Σ (L⁻¹·h)ᵢ²/dᵢ.
+  const f10 = h01 / h00;
+  const f20 = h02 / h00;
+  const d1 = h11 - f10 * h01;
+  const e12 = h12 - f10 * h02;
+  const d2raw = h22 - f20 * h02;
+  const f21 = e12 / d1;
+  const d2 = d2raw - f21 * e12;
+  const x1b = x1 - f10 * x0;
+  const y1b = y1 - f10 * y0;
+  const x2b = x2 - f20 * x0 - f21 * x1b;
+  const y2b = y2 - f20 * y0 - f21 * y1b;
+  prep.out[0] = kxx - (x0 * x0) / h00 - (x1b * x1b) / d1 - (x2b * x2b) / d2;
+  prep.out[1] = kxy - (x0 * y0) / h00 - (x1b * y1b) / d1 - (x2b * y2b) / d2;
+  prep.out[2] = kyy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
+}
+
+/**
+ * Stiffness map: the lowest natural frequency of the carriage (2×2 problem K·v = ω²·M·v, M = diag(m_x, m_y))
+ * at every point of a grid over the travel, its minimum and where it occurs (engine.md §7).
+ * @param inp - stiffness input (see StiffnessInput)
+ * @returns grid [mm], frequencies [Hz] indexed [iy][ix], minimum
+ * @see S. S. Rao, Mechanical Vibrations, 5th ed., ch. 5, two-degree-of-freedom systems (from memory)
+ */
+export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
+  const prep = prepare(inp);
+  const xs = linspace(0, inp.travelXMm, inp.points);
+  const ys = linspace(0, inp.travelYMm, inp.points);
+  const f: number[][] = [];
+  let best = { frequencyHz: Infinity, xMm: 0, yMm: 0 };
+  let bestK: [[number, number], [number, number]] = [[0, 0], [0, 0]];
+  const twoPi = 2 * Math.PI;
+  for (let iy = 0; iy < ys.length; iy++) {
+    const row = new Array<number>(xs.length);
+    for (let ix = 0; ix < xs.length; ix++) {
+      condense(prep, inp.axialStiffnessN, inp.originXMm + xs[ix], inp.originYMm + ys[iy]);
+      const o = prep.out;
+      const lam = lowestEigenvalue2(o[0], o[1], o[2], inp.xKg, inp.yKg);
+      const hz = Math.sqrt(Math.max(0, lam)) / twoPi;
+      row[ix] = hz;
+      if (hz < best.frequencyHz - 1e-9) {
+        best = { frequencyHz: hz, xMm: xs[ix], yMm: ys[iy] };
+        bestK = [
+          [o[0], o[1]],
+          [o[1], o[2]],
+        ];
+      }
+    }
+    f.push(row);
+  }
+  return { xMm: xs, yMm: ys, lowestFrequencyHz: f, min: best, matrixAtMinNPerM: bestK };
+}

@@ -1,0 +1,236 @@
+/** Mechanism key of a design. */
+export type Mechanism = 'corexy' | 'hbot' | 'cartesian';
+
+/** Sign of each motor's positive sense: +1 keeps the K row of engine.md §1, −1 flips it. */
+export interface MotorDirection {
+  a: 1 | -1;
+  b: 1 | -1;
+}
+
+/** One point of an uploaded torque–speed table. */
+export interface TorquePoint {
+  speedRevPerS: number;
+  torqueNm: number;
+}
+
+/** Motor data as in the design document (format.md "motor"). */
+export interface MotorSpec {
+  stepAngleDeg: number;
+  holdingTorqueNm: number;
+  ratedCurrentA: number;
+  phaseResistanceOhm: number;
+  phaseInductanceMh: number;
+  rotorInertiaKgM2: number;
+  massKg: number;
+  torqueCurve?: TorquePoint[] | null;
+  maxSpeedRevPerS?: number | null;
+}
+
+/** Driver data as in the design document (format.md "driver"). */
+export interface DriverSpec {
+  microsteps: number;
+  supplyV: number;
+  currentRmsA: number;
+}
+
+/** Severity of one check. */
+export type Severity = 'ok' | 'warn' | 'fail';
+
+/** One design check (engine.md §8). */
+export interface Check {
+  /** Stable id, e.g. "torque-margin", "belt-working-tension:A". */
+  id: string;
+  severity: Severity;
+  /** One sentence for the designer. */
+  message: string;
+  /** The design's value, or null when the check has no single number. */
+  value: number | null;
+  /** The limit it is compared with, or null. */
+  limit: number | null;
+  /** Unit of value and limit ("" when dimensionless). */
+  unit: string;
+}
+
+/** One safety caution shown on every sheet and on the workbench (engine.md §9). */
+export interface Caution {
+  id: 'pinch-points' | 'electrical-supply' | 'stored-energy' | 'codes-and-practice';
+  title: string;
+  text: string;
+}
+
+/** Limits along one named direction. */
+export interface AxisLimits {
+  directionDeg: number;
+  accelMaxMPerS2: number;
+  accelAtCruiseMPerS2: number;
+  speedMaxMPerS: number;
+}
+
+/** Ringing figure at the weakest point of the stiffness map. */
+export interface RingingFigure {
+  /** Acceleration the figure is for [m/s²]. */
+  accelMPerS2: number;
+  /** Overshoot after an abrupt change of that acceleration [mm]. */
+  amplitudeMm: number;
+  /** Acceleration that keeps the overshoot within the design's tolerance [m/s²]. */
+  accelForToleranceMPerS2: number;
+}
+
+/** One free belt span at the parking position. */
+export interface BeltSpan {
+  /** "<belt>:<from>-><to>" */
+  id: string;
+  label: string;
+  from: string;
+  to: string;
+  lengthMm: number;
+  /** Pluck frequency at the design pretension [Hz]. */
+  targetFrequencyHz: number;
+  /** True when both ends ride the same body, so the span does not change with the carriage position. */
+  fixedLength: boolean;
+}
+
+/** One belt of the layout with its lengths and tensions. */
+export interface BeltReport {
+  id: string;
+  label: string;
+  /** Pitch-line length clamp to clamp [mm] (constant over the travel). */
+  loopLengthMm: number;
+  /** Whole teeth the belt must have to cover the loop (rounded up). */
+  loopTeeth: number;
+  /** Length to cut: whole teeth plus the clamp allowance at both ends [mm]. */
+  cutLengthMm: number;
+  /** Teeth in mesh on the least-wrapped drive pulley of this belt (fractional). */
+  teethInMesh: number;
+  /** Wrap on that drive pulley [°]. */
+  driveWrapDeg: number;
+  spans: BeltSpan[];
+  /** The longest fixed-length span: the one to pluck when setting the tension (null if the belt has none). */
+  referenceSpanId: string | null;
+  /** Belt between load-bearing nodes at parking (the arms that hold the carriage) [mm]. */
+  arms: { from: string; to: string; lengthMm: number }[];
+  /** Belt mass [kg]. */
+  massKg: number;
+  peakPullN: number;
+  tightSideN: number;
+  slackSideN: number;
+  /** Allowable tight side after the teeth-in-mesh derating [N]. */
+  allowableTensionN: number;
+}
+
+/** A pulley, idler or clamp as drawn at the parking position. */
+export interface LayoutPart {
+  id: string;
+  label: string;
+  belt: string;
+  kind: 'drive' | 'idler' | 'clamp';
+  body: 'frame' | 'gantry' | 'carriage';
+  /** True when the belt's teeth run on it (toothed idler); false for a smooth idler on the belt's back. */
+  toothed: boolean;
+  xMm: number;
+  yMm: number;
+  radiusMm: number;
+  teeth: number;
+  /** Motor coordinate of a drive pulley. */
+  motor: 'A' | 'B' | null;
+  wrapDeg: number;
+}
+
+/** Geometry for drawing the layout in plan, frame coordinates from the outer front-left corner [mm]. */
+export interface LayoutDrawing {
+  frame: { outerXMm: number; outerYMm: number; extrusionMm: number };
+  carriage: { xMm: number; yMm: number; widthMm: number; depthMm: number };
+  gantry: { yMm: number; depthMm: number; fromXMm: number; toXMm: number };
+  /** Travel rectangle of the carriage centre. */
+  travel: { fromXMm: number; fromYMm: number; toXMm: number; toYMm: number };
+  parts: LayoutPart[];
+  /** Straight spans per belt, as segments. */
+  belts: { id: string; segments: { x1Mm: number; y1Mm: number; x2Mm: number; y2Mm: number }[] }[];
+}
+
+/** The full result of evaluateDesign (format.md "Result" plus what the workbench draws). */
+export interface DesignResult {
+  engineVersion: string;
+  mechanism: Mechanism;
+  name: string;
+  kinematics: {
+    /** [[kAx, kAy], [kBx, kBy]]: [ΔA, ΔB] = K·[ΔX, ΔY], motor directions applied. */
+    matrix: [[number, number], [number, number]];
+    /** K⁻¹: [ΔX, ΔY] = K⁻¹·[ΔA, ΔB]. */
+    inverse: [[number, number], [number, number]];
+    /** Carriage direction a positive step of each motor alone produces [°]. */
+    singleMotorDirectionDeg: { a: number; b: number };
+  };
+  /** Which way is +A/+B, for the sheet. */
+  signConvention: { motorDirection: MotorDirection; a: string; b: string };
+  motors: { id: 'A' | 'B'; axisLabel: string; count: number; drives: string }[];
+  drive: {
+    pitchDiameterMm: number;
+    travelPerRevMm: number;
+    stepsPerMm: number;
+    fullStepMm: number;
+    fullStepsPerRev: number;
+    microsteps: number;
+    microstepBeltMm: number;
+    microstepMm: { x: number; y: number; diagonal: number };
+  };
+  travel: {
+    xMm: number;
+    yMm: number;
+    limitedBy: { xLow: string; xHigh: string; yLow: string; yHigh: string };
+  };
+  parking: { xMm: number; yMm: number };
+  mass: {
+    xKg: number;
+    yKg: number;
+    reflectedPerMotorKg: number;
+    /** Belt-line equivalent mass of each motor coordinate: rotors, drive pulleys, idlers, belt [kg]. */
+    motorEquivalentKg: { a: number; b: number };
+    beltKg: number;
+    /** Effective mass along each envelope direction [kg]. */
+    effectiveKg: number[];
+    pulleyInertiaKgM2: { drive: number; idler: number; estimated: boolean };
+  };
+  envelope: {
+    directionsDeg: number[];
+    accelMaxMPerS2: number[];
+    accelAtCruiseMPerS2: number[];
+    speedMaxMPerS: number[];
+    limitingMotor: ('A' | 'B')[];
+    axes: { x: AxisLimits; y: AxisLimits; diagonal: AxisLimits; worst: AxisLimits };
+    cruiseSpeedMPerS: number;
+  };
+  coupling: {
+    speedShare: { a: number[]; b: number[] };
+    forceShare: { a: number[]; b: number[] };
+  };
+  torqueSpeed: {
+    source: 'model' | 'table';
+    speedRevPerS: number[];
+    torqueNm: number[];
+    /** Torque the design may use (margin applied) [N·m]. */
+    usableTorqueNm: number[];
+    operatingPoints: { label: string; motor: 'A' | 'B'; speedRevPerS: number; torqueNm: number }[];
+  };
+  belts: BeltReport[];
+  stiffness: {
+    xMm: number[];
+    yMm: number[];
+    lowestFrequencyHz: number[][];
+    min: { frequencyHz: number; xMm: number; yMm: number };
+    ringing: { x: RingingFigure; y: RingingFigure; worst: RingingFigure; planned: RingingFigure };
+    toleranceMm: number;
+  };
+  racking: {
+    momentPerNewtonM: number;
+    turnSpacingMm: number;
+    peakForceXN: number;
+    peakMomentNm: number;
+    guideSpanMm: number;
+    guideReactionN: number;
+  };
+  layout: LayoutDrawing;
+  partsList: { item: string; quantity: number; spec: string }[];
+  checks: Check[];
+  cautions: Caution[];
+}

@@ -1,0 +1,5 @@
+/**
+ * Version of the calculation engine. Bumped whenever any computed number can change, so a stored
+ * revision's results can be told apart from a recomputation by a newer engine.
+ */
+export const ENGINE_VERSION = '1.0.0';

@@ -1,0 +1,103 @@
+import { PULLEY_KIND_LABELS, type PartKind, type PulleyKind } from '@/api/parts';
+import type { QuantityKey } from '@/components/units/quantities';
+
+/** One field of a part, for the table and the add/edit dialog. */
+export interface PartField {
+  key: string;
+  label: string;
+  control: 'text' | 'textarea' | 'number' | 'select';
+  quantity?: QuantityKey;
+  /** mathjs unit string of the stored value. */
+  stored?: string;
+  isRequired?: boolean;
+  /** Whole numbers only; the value is rounded to this step before sending (e.g. frame size in whole mm). */
+  isInteger?: boolean;
+  /** Null allowed (off = unknown). */
+  isNullable?: boolean;
+  options?: { value: string; label: string }[];
+  /** Shown as a column of the table. */
+  inTable?: boolean;
+  help?: string;
+}
+
+/** The three shelves: title, singular noun, fields. */
+export interface ShelfDef {
+  kind: PartKind;
+  title: string;
+  noun: string;
+  fields: PartField[];
+}
+
+const NAME: PartField = { key: 'name', label: 'Name', control: 'text', isRequired: true, inTable: true };
+const NOTE: PartField = {
+  key: 'note',
+  label: 'Note',
+  control: 'textarea',
+  help: 'Where the numbers come from. Values typed from memory should say so, e.g. “from memory — replace with your datasheet”.',
+};
+
+/** Every shelf of the Parts shelf screen. */
+export const SHELVES: ShelfDef[] = [
+  {
+    kind: 'belts',
+    title: 'Belts',
+    noun: 'belt',
+    fields: [
+      NAME,
+      { key: 'profile', label: 'Profile', control: 'text', isRequired: true, inTable: true, help: 'Tooth profile, e.g. GT2, HTD 3M, T5.' },
+      { key: 'standard', label: 'Standard', control: 'text', help: 'Standard the pitch comes from: ISO 5296, DIN 7721, ISO 13050 — or leave empty for trade belts.' },
+      { key: 'pitchMm', label: 'Pitch', control: 'number', quantity: 'length', stored: 'mm', isRequired: true, inTable: true },
+      { key: 'widthMm', label: 'Width', control: 'number', quantity: 'length', stored: 'mm', isRequired: true, inTable: true },
+      { key: 'linearMassKgPerM', label: 'Mass per metre', control: 'number', quantity: 'linearMass', stored: 'kg/m', isRequired: true, inTable: true },
+      { key: 'axialStiffnessN', label: 'Stiffness EA', control: 'number', quantity: 'force', stored: 'N', isRequired: true, inTable: true, help: 'Force per unit strain of this width.' },
+      { key: 'allowableTensionN', label: 'Allowable tension', control: 'number', quantity: 'force', stored: 'N', isRequired: true, inTable: true },
+      { key: 'minPulleyTeeth', label: 'Smallest pulley', control: 'number', quantity: 'teeth', stored: '', isRequired: true, isInteger: true, inTable: true },
+      { key: 'source', label: 'Source', control: 'text', help: 'Datasheet or book the numbers come from.' },
+      NOTE,
+    ],
+  },
+  {
+    kind: 'pulleys',
+    title: 'Pulleys',
+    noun: 'pulley',
+    fields: [
+      NAME,
+      {
+        key: 'kind',
+        label: 'Role',
+        control: 'select',
+        isRequired: true,
+        inTable: true,
+        options: (Object.keys(PULLEY_KIND_LABELS) as PulleyKind[]).map((k) => ({ value: k, label: PULLEY_KIND_LABELS[k] })),
+      },
+      { key: 'profile', label: 'Belt profile', control: 'text', isRequired: true, inTable: true },
+      { key: 'teeth', label: 'Teeth', control: 'number', quantity: 'teeth', stored: '', isRequired: true, isInteger: true, inTable: true },
+      { key: 'pitchMm', label: 'Pitch', control: 'number', quantity: 'length', stored: 'mm', isRequired: true, inTable: true },
+      { key: 'boreMm', label: 'Bore', control: 'number', quantity: 'length', stored: 'mm', isRequired: true, inTable: true },
+      { key: 'inertiaKgM2', label: 'Inertia', control: 'number', quantity: 'inertia', stored: 'kg m^2', isNullable: true, inTable: true, help: 'Leave empty to let the engine estimate it from the size.' },
+      NOTE,
+    ],
+  },
+  {
+    kind: 'motors',
+    title: 'Motors',
+    noun: 'motor',
+    fields: [
+      NAME,
+      { key: 'frameMm', label: 'Frame size', control: 'number', quantity: 'length', stored: 'mm', isRequired: true, isInteger: true, inTable: true, help: 'Square flange size, e.g. 42 or 57 mm.' },
+      { key: 'stepAngleDeg', label: 'Step angle', control: 'number', quantity: 'angle', stored: '', isRequired: true, inTable: true },
+      { key: 'holdingTorqueNm', label: 'Holding torque', control: 'number', quantity: 'torque', stored: 'N m', isRequired: true, inTable: true },
+      { key: 'ratedCurrentA', label: 'Rated current', control: 'number', quantity: 'current', stored: 'A', isRequired: true, inTable: true },
+      { key: 'phaseResistanceOhm', label: 'Phase resistance', control: 'number', quantity: 'resistance', stored: 'ohm', isRequired: true, inTable: true },
+      { key: 'phaseInductanceMh', label: 'Phase inductance', control: 'number', quantity: 'inductance', stored: 'mH', isRequired: true, inTable: true },
+      { key: 'rotorInertiaKgM2', label: 'Rotor inertia', control: 'number', quantity: 'inertia', stored: 'kg m^2', isRequired: true, inTable: true },
+      { key: 'massKg', label: 'Mass', control: 'number', quantity: 'massSmall', stored: 'kg', isRequired: true, inTable: true },
+      NOTE,
+    ],
+  },
+];
+
+/** Notes that flag numbers as remembered rather than read from a datasheet. */
+export function isFromMemory(note: string | null | undefined): boolean {
+  return !!note && /from memory|replace with your datasheet|typical/i.test(note);
+}

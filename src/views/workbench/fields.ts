@@ -1,0 +1,225 @@
+import { MICROSTEP_OPTIONS, type Mechanism } from '@/engine';
+import type { QuantityKey } from '@/components/units/quantities';
+
+/** One option of a select field. */
+export interface FieldOption {
+  value: number | string;
+  label: string;
+}
+
+/** A nullable input: off means null (the engine's default or estimate applies). */
+export interface OptionalPart {
+  /** Path set to null when off (a field's own path, or its parent object's). */
+  path: string;
+  /** Switch label, e.g. "Set a wanted travel". */
+  label: string;
+  /** What "off" means, shown beside the switch. */
+  offText: string;
+  /** Value written when switched on (stored units). */
+  defaultValue: unknown;
+}
+
+/** One input of the workbench form. */
+export interface FieldDef {
+  /** Dotted path in the design document; also the path of schema issues and API details. */
+  path: string;
+  label: string;
+  /** What the field means and where its limit comes from (tooltip). */
+  help: string;
+  control: 'number' | 'select';
+  quantity?: QuantityKey;
+  /** mathjs unit string of the stored value ("" for unitless). */
+  stored?: string;
+  /** Whole numbers only (teeth, grid points). */
+  isInteger?: boolean;
+  options?: FieldOption[];
+  optional?: OptionalPart;
+  /** Shown only for these mechanisms. */
+  onlyFor?: Mechanism[];
+  /** May be chosen as the swept input. */
+  isSweepable?: boolean;
+}
+
+/** A titled group of inputs. */
+export interface FieldGroup {
+  id: 'frame' | 'belts' | 'motors' | 'masses' | 'motion';
+  title: string;
+  /** Which shelf picker sits at the top of the group. */
+  picker?: 'belt' | 'motor';
+  fields: FieldDef[];
+}
+
+/** Mechanism labels used across the workbench and the designs list. */
+export const MECHANISM_LABELS: Record<Mechanism, string> = {
+  corexy: 'CoreXY — crossed belts',
+  hbot: 'H-bot — one H-shaped belt',
+  cartesian: 'Cartesian — one motor per axis',
+};
+
+/** Short mechanism names for tables and tags. */
+export const MECHANISM_SHORT: Record<Mechanism, string> = { corexy: 'CoreXY', hbot: 'H-bot', cartesian: 'Cartesian' };
+
+const SIGN_OPTIONS: FieldOption[] = [
+  { value: 1, label: '+1 as drawn' },
+  { value: -1, label: '−1 wired reversed' },
+];
+
+const num = (
+  path: string,
+  label: string,
+  quantity: QuantityKey,
+  stored: string,
+  help: string,
+  extra: Partial<FieldDef> = {},
+): FieldDef => ({ path, label, help, control: 'number', quantity, stored, isSweepable: true, ...extra });
+
+/** Every input of a design, grouped as on the workbench. */
+export const FIELD_GROUPS: FieldGroup[] = [
+  {
+    id: 'frame',
+    title: 'Frame & travel',
+    fields: [
+      {
+        path: 'mechanism',
+        label: 'Mechanism',
+        control: 'select',
+        help: 'CoreXY: two stationary motors and two crossed belt loops. H-bot: two stationary motors and one H-shaped loop; the gantry feels a racking moment. Cartesian: one motor per axis, the X motor rides the gantry.',
+        options: (Object.keys(MECHANISM_LABELS) as Mechanism[]).map((m) => ({ value: m, label: MECHANISM_LABELS[m] })),
+      },
+      num('frame.outerXMm', 'Frame width, outside (X)', 'length', 'mm', 'Outside width of the frame along X. Travel is what remains after the extrusions, pulleys, carriage, gantry and end clearances. Accepted: above 0 up to 10 m.'),
+      num('frame.outerYMm', 'Frame depth, outside (Y)', 'length', 'mm', 'Outside depth of the frame along Y. Accepted: above 0 up to 10 m.'),
+      num('frame.extrusionMm', 'Extrusion size', 'length', 'mm', 'Cross-section of the frame profile (20 for a 20 × 20 profile). Corner pulleys sit inside it. Accepted: above 0 up to 200 mm.'),
+      num('frame.carriageXMm', 'Carriage width (X)', 'length', 'mm', 'Footprint of the carriage along X: it uses up travel at both ends.'),
+      num('frame.carriageYMm', 'Carriage depth (Y)', 'length', 'mm', 'Footprint of the carriage along Y.'),
+      num('frame.gantryYMm', 'Gantry depth (Y)', 'length', 'mm', 'Depth of the gantry beam along Y: it uses up Y travel.'),
+      num('frame.clearanceMm', 'End clearance', 'length', 'mm', 'Gap kept at each end stop so the carriage never reaches the frame. Default 5 mm.'),
+      num('wantedTravel.xMm', 'Wanted travel X', 'length', 'mm', 'Travel you need along X. When set, the travel check fails if the frame gives less.', {
+        optional: { path: 'wantedTravel', label: 'I need a set travel', offText: 'Not set: travel follows from the frame', defaultValue: { xMm: 300, yMm: 300 } },
+      }),
+      num('wantedTravel.yMm', 'Wanted travel Y', 'length', 'mm', 'Travel you need along Y. When set, the travel check fails if the frame gives less.', {
+        optional: { path: 'wantedTravel', label: 'I need a set travel', offText: 'Not set: travel follows from the frame', defaultValue: { xMm: 300, yMm: 300 } },
+      }),
+      num('map.points', 'Stiffness map grid', 'count', '', 'Grid points per axis of the stiffness map (2 to 101). More points place the weakest spot more exactly and take longer.', {
+        isInteger: true,
+        isSweepable: false,
+      }),
+    ],
+  },
+  {
+    id: 'belts',
+    title: 'Belts & pulleys',
+    picker: 'belt',
+    fields: [
+      num('belt.pitchMm', 'Belt pitch', 'length', 'mm', 'Tooth spacing of the belt. 2 mm and 3 mm round-tooth belts are common on desktop machines (common practice); trapezoidal pitches are in ISO 5296 and DIN 7721, round-tooth pitches in ISO 13050.'),
+      num('belt.widthMm', 'Belt width', 'length', 'mm', 'Width of the belt. Stiffness, mass and allowable tension scale with it: take them from the datasheet for this width.'),
+      num('belt.linearMassKgPerM', 'Belt mass per metre', 'linearMass', 'kg/m', 'Mass of one metre of this belt, from the belt maker’s datasheet. Sets each span’s pluck frequency and adds to the moving mass.'),
+      num('belt.axialStiffnessN', 'Belt stiffness EA', 'force', 'N', 'Force per unit strain of this belt (specific stiffness × width), from the datasheet. A span of length L is a spring EA/L: it sets deflection and the lowest resonance.'),
+      num('belt.allowableTensionN', 'Allowable tension', 'force', 'N', 'Largest tight-side tension the belt may carry, from the belt maker’s datasheet. The working-tension check compares the tight side against it, derated when few teeth are in mesh.'),
+      num('belt.minPulleyTeeth', 'Smallest pulley for this belt', 'teeth', '', 'The belt maker’s smallest pulley for this profile: smaller pulleys bend the tension cords too hard. Checked against the drive pulley and toothed idlers.', { isInteger: true }),
+      num('pulley.driveTeeth', 'Drive pulley', 'teeth', '', 'Teeth of the pulley on each motor shaft. Travel per motor revolution = teeth × pitch: fewer teeth give finer steps and more force, more teeth more speed. Accepted: 6 to 500.', { isInteger: true }),
+      num('pulley.idlerTeeth', 'Idlers', 'teeth', '', 'Teeth (or the equivalent pitch diameter) of the idlers that turn the belt. Accepted: 6 to 500.', { isInteger: true }),
+      num('pulley.driveInertiaKgM2', 'Drive pulley inertia', 'inertia', 'kg m^2', 'Moment of inertia of one drive pulley. Off: estimated as a solid aluminium cylinder of the pulley’s size.', {
+        optional: { path: 'pulley.driveInertiaKgM2', label: 'Enter drive pulley inertia', offText: 'Estimated from the pulley size', defaultValue: 1e-6 },
+        isSweepable: false,
+      }),
+      num('pulley.idlerInertiaKgM2', 'Idler inertia', 'inertia', 'kg m^2', 'Moment of inertia of one idler. Off: estimated as a solid aluminium cylinder of the idler’s size.', {
+        optional: { path: 'pulley.idlerInertiaKgM2', label: 'Enter idler inertia', offText: 'Estimated from the idler size', defaultValue: 5e-7 },
+        isSweepable: false,
+      }),
+      num('pretensionN', 'Belt pretension', 'force', 'N', 'Static tension each belt span is set to. Common practice: at least half the peak belt pull, so the slack side never goes loose. The Belt tension tab turns it into a pluck frequency per span.'),
+    ],
+  },
+  {
+    id: 'motors',
+    title: 'Motors & drivers',
+    picker: 'motor',
+    fields: [
+      num('motor.stepAngleDeg', 'Step angle', 'angle', '', 'Full-step angle of the motor: 1.8° (200 steps per revolution) or 0.9° (400). From the motor datasheet.'),
+      num('motor.holdingTorqueNm', 'Holding torque', 'torque', 'N m', 'Standstill torque with both phases at rated current, from the motor datasheet.'),
+      num('motor.ratedCurrentA', 'Rated current', 'current', 'A', 'Phase current the holding torque is quoted at (datasheet).'),
+      num('motor.phaseResistanceOhm', 'Phase resistance', 'resistance', 'ohm', 'Winding resistance of one phase (datasheet). With inductance and supply voltage it sets how torque falls with speed.'),
+      num('motor.phaseInductanceMh', 'Phase inductance', 'inductance', 'mH', 'Winding inductance of one phase (datasheet). Higher inductance loses torque sooner as speed rises.'),
+      num('motor.rotorInertiaKgM2', 'Rotor inertia', 'inertia', 'kg m^2', 'Moment of inertia of the rotor (datasheet). Reflected to the belt as J / r², it adds to the mass each motor accelerates.'),
+      num('motor.massKg', 'Motor mass', 'massSmall', 'kg', 'Mass of one motor. It moves only on a cartesian stage, where the X motor rides the gantry.'),
+      num('motor.maxSpeedRevPerS', 'Shaft speed limit', 'rotSpeed', '', 'Highest shaft speed you allow (bearings, pulley rating). Off: no limit beyond the torque.', {
+        optional: { path: 'motor.maxSpeedRevPerS', label: 'Limit shaft speed', offText: 'No limit beyond the torque', defaultValue: 20 },
+      }),
+      {
+        path: 'driver.microsteps',
+        label: 'Microsteps',
+        control: 'select',
+        help: 'Microsteps per full step set on the driver (a power of two up to 256). Finer microsteps move more smoothly; they do not make the motor hold position more exactly.',
+        options: MICROSTEP_OPTIONS.map((m) => ({ value: m, label: m === 1 ? '1 (full step)' : `1/${m}` })),
+      },
+      num('driver.supplyV', 'Supply voltage', 'voltage', 'V', 'DC supply of the drivers. A higher voltage keeps torque up to higher speeds.'),
+      num('driver.currentRmsA', 'Driver current (RMS)', 'current', 'A', 'RMS phase current set on the driver. At low speed torque = holding torque × RMS current ÷ rated current.'),
+      {
+        path: 'motorDirection.a',
+        label: 'Motor A direction',
+        control: 'select',
+        help: 'Which way is +A. Builders wire motors both ways; −1 flips motor A’s row of the motor-to-carriage relation. The sheet prints the convention.',
+        options: SIGN_OPTIONS,
+      },
+      {
+        path: 'motorDirection.b',
+        label: 'Motor B direction',
+        control: 'select',
+        help: 'Which way is +B; −1 flips motor B’s row of the motor-to-carriage relation.',
+        options: SIGN_OPTIONS,
+      },
+      {
+        path: 'yMotors',
+        label: 'Y motors',
+        control: 'select',
+        help: 'One Y motor through a cross shaft, or two synchronised motors, one at each end of the gantry.',
+        options: [
+          { value: 1, label: 'One, with a cross shaft' },
+          { value: 2, label: 'Two, synchronised' },
+        ],
+        onlyFor: ['cartesian'],
+      },
+    ],
+  },
+  {
+    id: 'masses',
+    title: 'Moving masses',
+    fields: [
+      num('masses.carriageKg', 'Carriage', 'mass', 'kg', 'Carriage plate, clamps, bearings: everything that moves in both X and Y except the tool.'),
+      num('masses.toolKg', 'Tool', 'mass', 'kg', 'The tool on the carriage. Moves in X and Y; the tool-mount check uses it.'),
+      num('masses.gantryKg', 'Gantry', 'mass', 'kg', 'Beam, rail and gantry pulleys: moves in Y only.'),
+    ],
+  },
+  {
+    id: 'motion',
+    title: 'Motion & margins',
+    fields: [
+      num('frictionN.x', 'Friction along X', 'force', 'N', 'Force to push the carriage along X at constant speed (guides, seals, drag chain).'),
+      num('frictionN.y', 'Friction along Y', 'force', 'N', 'Force to push the gantry along Y at constant speed.'),
+      num('torqueMargin', 'Torque margin', 'ratio', '', 'Share of the available torque the design may use (0 to 1). Common practice keeps a stepper at 50–70 % of its pull-out torque to avoid lost steps; the check warns above 0.7.'),
+      num('cruiseSpeedMmPerS', 'Cruise speed', 'speed', 'mm/s', 'Travel speed of typical moves. The envelope gives the acceleration still available at this speed.'),
+      num('plannedAccelMmPerS2', 'Planned acceleration', 'accel', 'mm/s^2', 'Acceleration you mean to use. Off: the limit in the worst direction is used for ringing and tension checks.', {
+        optional: { path: 'plannedAccelMmPerS2', label: 'Set a planned acceleration', offText: 'Uses the worst-direction limit', defaultValue: 5000 },
+      }),
+      num('ringingToleranceMm', 'Ringing tolerance', 'lengthFine', 'mm', 'Overshoot you accept after an abrupt change of acceleration, at the weakest point of the stiffness map. Default 0.02 mm.'),
+      num('toolMount.holdN', 'Tool mount hold force', 'force', 'N', 'Force at which a detachable (e.g. magnetic) tool mount lets go. It must hold tool mass × acceleration with margin, yet still let go in a crash.', {
+        optional: { path: 'toolMount', label: 'Detachable tool mount', offText: 'Tool fixed to the carriage', defaultValue: { holdN: 25 } },
+      }),
+    ],
+  },
+];
+
+/** Every field, flat. */
+export const ALL_FIELDS: FieldDef[] = FIELD_GROUPS.flatMap((g) => g.fields);
+
+/** Fields a sweep may vary. */
+export const SWEEPABLE_FIELDS: FieldDef[] = ALL_FIELDS.filter((f) => f.control === 'number' && f.isSweepable && !f.optional);
+
+/** The group a dotted issue path belongs to (for counting problems per group). */
+export function groupOfPath(path: string): FieldGroup['id'] | null {
+  for (const g of FIELD_GROUPS) {
+    if (g.fields.some((f) => path === f.path || path.startsWith(`${f.path}.`) || (f.optional && path === f.optional.path))) return g.id;
+  }
+  if (path.startsWith('motor.torqueCurve')) return 'motors';
+  if (path.startsWith('frame') || path === 'wantedTravel') return 'frame';
+  return null;
+}

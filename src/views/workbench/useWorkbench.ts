@@ -1,0 +1,146 @@
+import { computed, ref, shallowRef, watch, type Ref } from 'vue';
+import { storeToRefs } from 'pinia';
+import { getDesign, updateDesign, type Design } from '@/api/designs';
+import { isApiError } from '@/api/http';
+import { safeParseDesign, type DesignInputRaw, type Mechanism } from '@/engine';
+import { useAutosave } from '@/composables/useAutosave';
+import { useEngine } from '@/composables/useEngine';
+import { useAuthStore } from '@/stores/auth';
+import { errorMessage } from '@/utils/message';
+import { getAt, setAt } from './paths';
+
+/** Statuses in which a design may still be changed. */
+const EDITABLE_STATUSES = new Set(['draft', 'returned']);
+
+/** A design document being edited (loosely typed: values may be NaN or null while someone types). */
+export type EditableDesign = Record<string, unknown> & { name: string; mechanism: Mechanism };
+
+/**
+ * State and actions of the workbench for one design: loading, editing, live results, autosave with
+ * conflict handling, and who may edit.
+ * @param id - the design id from the route
+ */
+export function useWorkbench(id: Ref<number>) {
+  const auth = useAuthStore();
+  const { user } = storeToRefs(auth);
+
+  /** The design as last loaded or saved (status, owner, …). */
+  const design = shallowRef<Design | null>(null);
+  /** The document being edited. */
+  const model = ref<EditableDesign | null>(null);
+  const version = ref(0);
+  const isLoading = ref(true);
+  const loadError = ref<string | null>(null);
+  const notFound = ref(false);
+
+  const isOwner = computed(() => !!design.value && !!user.value && design.value.owner?.id === user.value.id);
+  const isAdmin = computed(() => auth.hasRole('admin'));
+  /** Designers edit their own drafts (and returned work); admins any; everyone else reads. */
+  const canEdit = computed(() => {
+    const d = design.value;
+    if (!d || !EDITABLE_STATUSES.has(d.status)) return false;
+    if (typeof d.canEdit === 'boolean') return d.canEdit; // the server's answer for this user
+    return isAdmin.value || (isOwner.value && auth.hasRole('designer'));
+  });
+  /** Why the inputs are read-only, in one sentence (null when editable). */
+  const readOnlyReason = computed(() => {
+    const d = design.value;
+    if (!d || canEdit.value) return null;
+    if (d.status === 'in_review') return 'This design is in review: its inputs are frozen until a reviewer approves or returns it.';
+    if (d.status === 'approved') return 'This design is approved: its inputs are frozen. Copy it to start a new variant.';
+    if (!auth.hasRole('designer') && !isAdmin.value) return 'You can read this design; only designers and admins change designs.';
+    return `This design belongs to ${d.owner?.name ?? 'another designer'}; only the owner or an admin may change it.`;
+  });
+
+  const engine = useEngine(() => model.value, { delayMs: 120 });
+
+  function adopt(loaded: Design): void {
+    design.value = loaded;
+    version.value = loaded.version;
+    const parsed = safeParseDesign(loaded.inputs);
+    // A valid document is shown with its defaults written out; an invalid one as stored, with its issues.
+    const doc = (parsed.ok ? parsed.value : structuredClone(loaded.inputs)) as unknown as EditableDesign;
+    model.value = doc;
+  }
+
+  async function fetchDesign(): Promise<Design> {
+    return getDesign(id.value);
+  }
+
+  const autosave = useAutosave<{ inputs: EditableDesign }>({
+    source: () => (model.value ? { inputs: model.value } : null),
+    version,
+    canSave: () => canEdit.value,
+    isInvalid: () => engine.issues.value.length > 0,
+    save: async (payload, v) => {
+      const saved = await updateDesign(id.value, { inputs: payload.inputs as unknown as DesignInputRaw, name: payload.inputs.name, version: v });
+      design.value = { ...saved, inputs: design.value?.inputs ?? saved.inputs };
+      return { version: saved.version };
+    },
+    reload: async () => {
+      adopt(await fetchDesign());
+    },
+  });
+
+  async function load(): Promise<void> {
+    isLoading.value = true;
+    loadError.value = null;
+    notFound.value = false;
+    try {
+      adopt(await fetchDesign());
+      autosave.markSaved();
+    } catch (err) {
+      if (isApiError(err) && (err.status === 404 || err.status === 400)) notFound.value = true;
+      loadError.value = errorMessage(err, 'The design could not be loaded.');
+    } finally {
+      isLoading.value = false;
+    }
+  }
+
+  /**
+   * Reads an input by dotted path.
+   * @param path - e.g. "belt.widthMm"
+   */
+  function get(path: string): unknown {
+    return getAt(model.value, path);
+  }
+
+  /**
+   * Changes an input by dotted path (ignored when read-only).
+   * @param path - e.g. "belt.widthMm"
+   * @param value - new stored value
+   */
+  function set(path: string, value: unknown): void {
+    if (!model.value || !canEdit.value) return;
+    setAt(model.value, path, value);
+    if (path === 'mechanism' && value !== 'cartesian') model.value.yMotors = 1;
+  }
+
+  /**
+   * Writes several inputs at once (a part picked from the shelf).
+   * @param values - dotted path → stored value
+   */
+  function setMany(values: Record<string, unknown>): void {
+    for (const [path, value] of Object.entries(values)) set(path, value);
+  }
+
+  watch(id, () => void load(), { immediate: true });
+
+  return {
+    design,
+    model,
+    version,
+    isLoading,
+    loadError,
+    notFound,
+    canEdit,
+    isOwner,
+    readOnlyReason,
+    engine,
+    autosave,
+    load,
+    get,
+    set,
+    setMany,
+  };
+}

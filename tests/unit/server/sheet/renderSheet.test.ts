@@ -1,0 +1,161 @@
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { renderSheet } from '../../../../server/sheet/renderSheet';
+import { designFor, exampleSheetInput } from './fixtures/sheetInput';
+
+// Rendering a sheet takes a second or two; on a busy shared machine several can queue up.
+vi.setConfig({ testTimeout: 60_000, hookTimeout: 60_000 });
+
+// poppler-utils (pdftotext, pdfinfo, pdffonts) reads the PDF the way a viewer would.
+let dir: string;
+beforeAll(() => {
+  dir = mkdtempSync(path.join(tmpdir(), 'gw-sheet-'));
+});
+afterAll(() => {
+  rmSync(dir, { recursive: true, force: true });
+});
+
+function poppler(tool: string, pdf: Buffer, ...args: string[]): string {
+  const file = path.join(dir, `${tool}-${Math.random().toString(36).slice(2)}.pdf`);
+  writeFileSync(file, pdf);
+  return execFileSync(tool, [...args, file, ...(tool === 'pdftotext' ? ['-'] : [])], { encoding: 'utf8' });
+}
+
+function pageCount(pdf: Buffer): number {
+  return Number(/Pages:\s+(\d+)/.exec(poppler('pdfinfo', pdf))?.[1]);
+}
+
+function mediaBoxes(pdf: Buffer): string[] {
+  return [...new Set([...pdf.toString('latin1').matchAll(/\/MediaBox \[([^\]]*)\]/g)].map((m) => m[1].trim()))];
+}
+
+describe('renderSheet', () => {
+  const input = exampleSheetInput();
+  let a4: Buffer;
+  let letter: Buffer;
+  beforeAll(async () => {
+    a4 = await renderSheet(input);
+    letter = await renderSheet({ ...input, paper: 'LETTER' });
+  });
+
+  it('when rendered, then the bytes are a PDF', () => {
+    expect(a4.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    expect(a4.subarray(-6).toString('latin1')).toContain('%%EOF');
+  });
+
+  it('when the text is extracted, then it holds the design name, steps per mm, the cautions and the fingerprint', () => {
+    // Act
+    const text = poppler('pdftotext', a4, '-layout').replace(/[ \t]+/g, ' ');
+    const flat = text.replace(/\s+/g, ' ');
+
+    // Assert
+    expect(text).toContain(input.designName);
+    expect(text).toContain(`Steps per mm of belt ${input.result.drive.stepsPerMm.toFixed(3)} ${input.result.drive.stepsPerMm.toFixed(3)}`);
+    expect(input.result.cautions.length).toBeGreaterThanOrEqual(4);
+    for (const caution of input.result.cautions) {
+      expect(flat).toContain(`${caution.title}.`);
+      expect(flat).toContain(caution.text);
+    }
+    for (const phrase of ['Pinch points', 'Electrical supply', 'Stored energy', 'local codes', 'machine-safety rules', 'licensed']) {
+      expect(flat).toContain(phrase);
+    }
+    expect(text).toContain(input.fingerprint);
+    expect(text).toContain(input.approval.reviewerName);
+    expect(text).toContain('2025-03-14 09:30 UTC');
+  });
+
+  it('when the text is extracted, then every belt has its cut length and teeth, every span its target frequency, and the parking position is stated', () => {
+    const flat = poppler('pdftotext', a4, '-layout').replace(/\s+/g, ' ');
+    expect(input.result.belts.length).toBeGreaterThan(0);
+    for (const belt of input.result.belts) {
+      expect(flat).toContain(`${belt.label} ${belt.cutLengthMm.toFixed(0)} ${belt.loopTeeth}`);
+      for (const span of belt.spans) {
+        expect(flat).toMatch(new RegExp(`${span.lengthMm.toFixed(1)} (yes|no) ${input.inputs.pretensionN.toFixed(1)} ${span.targetFrequencyHz.toFixed(1)}`));
+      }
+    }
+    const { xMm, yMm } = input.result.parking;
+    expect(flat).toContain(`Park the carriage at X ${xMm.toFixed(1)} mm, Y ${yMm.toFixed(1)} mm`);
+  });
+
+  it('when the text is extracted, then the limits along X, Y, the diagonal and the worst direction and the lowest resonance are printed', () => {
+    const flat = poppler('pdftotext', a4, '-layout').replace(/\s+/g, ' ');
+    const { axes } = input.result.envelope;
+    expect(flat).toContain(`Along X 0 ${axes.x.accelMaxMPerS2.toFixed(2)} ${axes.x.accelAtCruiseMPerS2.toFixed(2)} ${(axes.x.speedMaxMPerS * 1000).toFixed(0)}`);
+    expect(flat).toContain(`Along Y 90 ${axes.y.accelMaxMPerS2.toFixed(2)}`);
+    expect(flat).toContain(`Along the diagonal 45 ${axes.diagonal.accelMaxMPerS2.toFixed(2)}`);
+    expect(flat).toContain(`Worst direction ${axes.worst.directionDeg} ${axes.worst.accelMaxMPerS2.toFixed(2)}`);
+    expect(flat).toContain(`${input.result.stiffness.min.frequencyHz.toFixed(1)} Hz`);
+    for (const check of input.result.checks) expect(flat).toContain(check.id);
+  });
+
+  it('when every page is read, then each carries "Page X of Y" and the fingerprint in its footer', () => {
+    const pages = pageCount(a4);
+    expect(pages).toBeGreaterThanOrEqual(4);
+    for (let p = 1; p <= pages; p += 1) {
+      const text = poppler('pdftotext', a4, '-f', String(p), '-l', String(p));
+      expect(text, `page ${p}`).toContain(`Page ${p} of ${pages}`);
+      expect(text, `page ${p}`).toContain(input.fingerprint);
+    }
+  });
+
+  it('when the cautions are looked for, then they are on page 1', () => {
+    const first = poppler('pdftotext', a4, '-f', '1', '-l', '1').replace(/\s+/g, ' ');
+    expect(first).toContain('CAUTIONS');
+    expect(first).toContain('licensed practice');
+  });
+
+  it('when A4 and US Letter are rendered, then the page sizes are 595.28 × 841.89 and 612 × 792 points', () => {
+    expect(mediaBoxes(a4)).toEqual(['0 0 595.28 841.89']);
+    expect(mediaBoxes(letter)).toEqual(['0 0 612 792']);
+    expect(poppler('pdfinfo', letter)).toMatch(/Page size:\s+612 x 792 pts \(letter\)/);
+  });
+
+  it('when fonts are listed, then only embedded Inter subsets are used (no substituted font)', () => {
+    const rows = poppler('pdffonts', a4).trim().split('\n').slice(2);
+    expect(rows.length).toBeGreaterThan(0);
+    for (const row of rows) {
+      expect(row).toMatch(/^[A-Z]{6}\+Inter-(Regular|Bold|Italic|BoldItalic)\s/);
+      expect(row).toMatch(/\byes\s+yes\s+yes\b/);
+    }
+  });
+
+  it('when the text is extracted, then no controller configuration syntax is printed', () => {
+    const text = poppler('pdftotext', a4);
+    expect(text).not.toMatch(/\b[GM]\d{1,3}\b/);
+    expect(text).not.toMatch(/\b[a-z]+_[a-z_]+\b/);
+  });
+
+  it('when the same revision is rendered twice, then the bytes are identical', async () => {
+    const again = await renderSheet(exampleSheetInput());
+    expect(again.equals(a4)).toBe(true);
+  });
+
+  it.each(['hbot', 'cartesian'] as const)('when the mechanism is %s, then the sheet renders with its own motor names and racking', async (mechanism) => {
+    // Arrange
+    const other = exampleSheetInput({}, designFor(mechanism));
+
+    // Act
+    const flat = poppler('pdftotext', await renderSheet(other), '-layout').replace(/\s+/g, ' ');
+
+    // Assert
+    expect(flat).toContain(other.designName);
+    expect(flat).toContain(mechanism === 'cartesian' ? 'Motor X' : 'Motor A');
+    expect(flat).toContain('Racking.');
+    if (mechanism === 'hbot') expect(other.result.racking.momentPerNewtonM).toBeGreaterThan(0);
+    if (mechanism === 'hbot') expect(flat).toContain(`${other.result.racking.peakMomentNm.toFixed(2)} N·m`);
+  });
+
+  it.each([
+    ['a fingerprint that is not SHA-256 hex', { fingerprint: 'abc' }, /fingerprint/],
+    ['an unknown paper size', { paper: 'A3' as 'A4' }, /paper/],
+    ['an approval date that is not a date', { approval: { reviewerName: 'R', approvedAt: 'soon', comment: '' } }, /approvedAt/],
+    ['a revision number of zero', { revisionNumber: 0 }, /revisionNumber/],
+    ['a mechanism that differs from the frozen result', { mechanism: 'hbot' as const }, /mechanism/],
+    ['frozen inputs that the schema rejects', { inputs: { ...exampleSheetInput().inputs, driver: { microsteps: 3, supplyV: 24, currentRmsA: 1.2 } } }, /driver\.microsteps/],
+  ])('when given %s, then it rejects naming the field', async (_name, override, message) => {
+    await expect(renderSheet(exampleSheetInput(override))).rejects.toThrow(message);
+  });
+});
