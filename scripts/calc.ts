@@ -6,6 +6,12 @@ import { EngineInputError, evaluateDesign } from '@/engine';
 
 const USAGE = 'usage: npm run calc -- <design.json> [--compact]';
 
+// A reader that stops early (`| head`) closes the pipe; that is not an error of the calculation.
+process.stdout.on('error', (err: NodeJS.ErrnoException) => {
+  if (err.code === 'EPIPE') process.exit(0);
+  throw err;
+});
+
 function fail(message: string): never {
   process.stderr.write(`${message}\n`);
   process.exit(2);

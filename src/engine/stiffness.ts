@@ -182,23 +182,119 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   const prep = prepare(inp);
   const xs = linspace(0, inp.travelXMm, inp.points);
   const ys = linspace(0, inp.travelYMm, inp.points);
+  const nx = xs.length;
+  const ny = ys.length;
+  const n = prep.pieces;
+  const ea = inp.axialStiffnessN * 1000;
+  // Pieces whose vectors (gx, gy, t) are parallel share one outer product: sum their springs first. Corexy's two
+  // arms of a loop, for instance, are one group. Coefficients: the 15 products of the 5-vector (gx, gy, t0..t2).
+  const groupOf = new Int32Array(n);
+  const groups: number[][] = [];
+  const vec = (r: number) => [prep.gx[r], prep.gy[r], prep.t[r * NV], prep.t[r * NV + 1], prep.t[r * NV + 2]];
+  for (let r = 0; r < n; r++) {
+    const v = vec(r);
+    let found = -1;
+    for (let g = 0; g < groups.length && found < 0; g++) {
+      const w = groups[g];
+      const same = v.every((x, i) => x === w[i]) || v.every((x, i) => x === -w[i]);
+      if (same) found = g;
+    }
+    if (found < 0) {
+      found = groups.length;
+      groups.push(v);
+    }
+    groupOf[r] = found;
+  }
+  const ng = groups.length;
+  const coef = new Float64Array(ng * 15);
+  groups.forEach((v, g) => {
+    let c = 0;
+    for (let i = 0; i < 5; i++) for (let j = i; j < 5; j++) coef[g * 15 + c++] = v[i] * v[j];
+  });
+  // Springs that depend on one coordinate only are computed once per column or row instead of per point.
+  const colK = new Float64Array(n * nx);
+  const rowK = new Float64Array(n * ny);
+  const mixed: number[] = [];
+  for (let r = 0; r < n; r++) {
+    const gx = prep.gx[r];
+    const gy = prep.gy[r];
+    if (gx !== 0 && gy !== 0) {
+      mixed.push(r);
+      continue;
+    }
+    for (let ix = 0; ix < nx; ix++) {
+      colK[r * nx + ix] = gy === 0 ? ea / Math.max(1e-3, prep.l0[r] + gx * (inp.originXMm + xs[ix])) : 0;
+    }
+    for (let iy = 0; iy < ny; iy++) {
+      rowK[r * ny + iy] = gx === 0 ? ea / Math.max(1e-3, prep.l0[r] + gy * (inp.originYMm + ys[iy])) : 0;
+    }
+  }
+  // A piece with gx = gy = 0 (constant length) got ea/l0 in both tables; keep only the column value.
+  for (let r = 0; r < n; r++) if (prep.gx[r] === 0 && prep.gy[r] === 0) for (let iy = 0; iy < ny; iy++) rowK[r * ny + iy] = 0;
+  const kg = new Float64Array(ng);
+  const km = prep.km;
   const f: number[][] = [];
   let best = { frequencyHz: Infinity, xMm: 0, yMm: 0 };
-  let bestK: [[number, number], [number, number]] = [[0, 0], [0, 0]];
+  let bestK: [[number, number], [number, number]] = [
+    [0, 0],
+    [0, 0],
+  ];
   const twoPi = 2 * Math.PI;
-  for (let iy = 0; iy < ys.length; iy++) {
-    const row = new Array<number>(xs.length);
-    for (let ix = 0; ix < xs.length; ix++) {
-      condense(prep, inp.axialStiffnessN, inp.originXMm + xs[ix], inp.originYMm + ys[iy]);
-      const o = prep.out;
-      const lam = lowestEigenvalue2(o[0], o[1], o[2], inp.xKg, inp.yKg);
-      const hz = Math.sqrt(Math.max(0, lam)) / twoPi;
+  for (let iy = 0; iy < ny; iy++) {
+    const row = new Array<number>(nx);
+    const cy = inp.originYMm + ys[iy];
+    for (let ix = 0; ix < nx; ix++) {
+      const cx = inp.originXMm + xs[ix];
+      kg.fill(0);
+      for (let r = 0; r < n; r++) kg[groupOf[r]] += colK[r * nx + ix] + rowK[r * ny + iy];
+      for (let m = 0; m < mixed.length; m++) {
+        const r = mixed[m];
+        const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
+        kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
+      }
+      // Order of the 15 products: xx xy x0 x1 x2 | yy y0 y1 y2 | 00 01 02 | 11 12 | 22
+      let kxx = 0, kxy = 0, x0 = 0, x1 = 0, x2 = 0, kyy = 0, y0 = 0, y1 = 0, y2 = 0;
+      let h00 = km[0], h01 = 0, h02 = 0, h11 = km[1], h12 = 0, h22 = km[2];
+      for (let g = 0; g < ng; g++) {
+        const k = kg[g];
+        const o = g * 15;
+        kxx += k * coef[o];
+        kxy += k * coef[o + 1];
+        x0 += k * coef[o + 2];
+        x1 += k * coef[o + 3];
+        x2 += k * coef[o + 4];
+        kyy += k * coef[o + 5];
+        y0 += k * coef[o + 6];
+        y1 += k * coef[o + 7];
+        y2 += k * coef[o + 8];
+        h00 += k * coef[o + 9];
+        h01 += k * coef[o + 10];
+        h02 += k * coef[o + 11];
+        h11 += k * coef[o + 12];
+        h12 += k * coef[o + 13];
+        h22 += k * coef[o + 14];
+      }
+      const f10 = h01 / h00;
+      const f20 = h02 / h00;
+      const d1 = h11 - f10 * h01;
+      const e12 = h12 - f10 * h02;
+      const f21 = e12 / d1;
+      const d2 = h22 - f20 * h02 - f21 * e12;
+      const x1b = x1 - f10 * x0;
+      const y1b = y1 - f10 * y0;
+      const x2b = x2 - f20 * x0 - f21 * x1b;
+      const y2b = y2 - f20 * y0 - f21 * y1b;
+      const cxx = kxx - (x0 * x0) / h00 - (x1b * x1b) / d1 - (x2b * x2b) / d2;
+      const cxy = kxy - (x0 * y0) / h00 - (x1b * y1b) / d1 - (x2b * y2b) / d2;
+      const cyy = kyy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
+      const lam = lowestEigenvalue2(cxx, cxy, cyy, inp.xKg, inp.yKg);
+      const hz = Math.sqrt(lam > 0 ? lam : 0) / twoPi;
       row[ix] = hz;
       if (hz < best.frequencyHz - 1e-9) {
         best = { frequencyHz: hz, xMm: xs[ix], yMm: ys[iy] };
         bestK = [
-          [o[0], o[1]],
-          [o[1], o[2]],
+          [cxx, cxy],
+          [cxy, cyy],
         ];
       }
     }

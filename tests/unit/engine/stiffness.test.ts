@@ -5,6 +5,7 @@ import {
   evaluateDesign,
   frameToTravel,
   kinematicsMatrix,
+  lowestEigenvalue2,
   naturalFrequencyHz,
   solveLoop,
   stiffnessMap,
@@ -101,6 +102,19 @@ describe('stiffnessMap', () => {
         const kc = carriageStiffnessNPerM(inp, inp.originXMm + xx, inp.originYMm + yy);
         const expected = Math.min(naturalFrequencyHz({ stiffnessNPerM: kc[0][0], massKg: 0.4 }), naturalFrequencyHz({ stiffnessNPerM: kc[1][1], massKg: 0.9 }));
         expect(map.lowestFrequencyHz[iy][ix]).toBeCloseTo(expected, 6);
+      }),
+    );
+  });
+
+  it.each(['corexy', 'hbot', 'cartesian'] as const)('when the %s map is computed point by point instead, then both agree (fast path = condensation)', (mech) => {
+    const d = { ...randomDesign(21, mech), yMotors: mech === 'cartesian' ? 2 : 1 } as DesignInput;
+    const inp = inputFor(d, 3e5, 6);
+    const map = stiffnessMap(inp);
+    map.yMm.forEach((yy, iy) =>
+      map.xMm.forEach((xx, ix) => {
+        const kc = carriageStiffnessNPerM(inp, inp.originXMm + xx, inp.originYMm + yy);
+        const lam = lowestEigenvalue2(kc[0][0], kc[0][1], kc[1][1], inp.xKg, inp.yKg);
+        expect(map.lowestFrequencyHz[iy][ix]).toBeCloseTo(Math.sqrt(lam) / (2 * Math.PI), 6);
       }),
     );
   });
