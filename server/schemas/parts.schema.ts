@@ -10,7 +10,9 @@ const positive = (max: number) => finite().gt(0, 'must be greater than 0').max(m
 const whole = (min: number, max: number) => between(min, max).int('must be a whole number');
 const text = (max: number) => z.string({ message: 'must be text' }).trim().max(max, `must be at most ${max} characters`);
 const nameSchema = z.string({ message: 'is required' }).trim().min(1, 'is required').max(120, 'must be at most 120 characters');
-const noteSchema = text(2000).default('');
+/** Free text that may be left out or sent as null (a cleared form field); stored as ''. */
+const optionalText = (max: number) => z.preprocess((v) => (v === null ? '' : v), text(max)).default('');
+const noteSchema = optionalText(2000);
 
 /** Pulley roles: a drive pulley on a motor shaft, a toothed idler, a smooth (flat) idler. */
 export const PULLEY_KINDS = ['drive', 'idler-toothed', 'idler-smooth'] as const;
@@ -37,14 +39,14 @@ export const torqueCurveSchema = z
 const beltShape = {
   name: nameSchema,
   profile: z.string({ message: 'is required' }).trim().min(1, 'is required').max(40, 'must be at most 40 characters'),
-  standard: text(120).default(''),
+  standard: optionalText(120),
   pitchMm: positive(50),
   widthMm: positive(500),
   linearMassKgPerM: positive(10),
   axialStiffnessN: positive(1e8),
   allowableTensionN: positive(1e6),
   minPulleyTeeth: whole(1, 500),
-  source: text(500).default(''),
+  source: optionalText(500),
   note: noteSchema,
 };
 

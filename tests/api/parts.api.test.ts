@@ -85,6 +85,14 @@ describe('POST /api/parts/<shelf>', () => {
     expect(m.body).toMatchObject({ torqueCurve: null, note: '' });
   });
 
+  it('when a form sends cleared text fields as null, then they are stored as empty text', async () => {
+    const res = await agents.admin.post('/api/parts/belts').send({ ...BELT, name: `Cleared ${uniqueTag()}`, standard: null, source: null, note: null });
+    const patched = await agents.admin.patch(`/api/parts/belts/${res.body.id}`).send({ note: 'typed later' });
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ standard: '', source: '', note: '' });
+    expect(patched.body).toMatchObject({ standard: '', note: 'typed later' });
+  });
+
   it('when a belt is picked, then its fields fill a design\'s belt and the design is valid', async () => {
     const res = await agents.admin.post('/api/parts/belts').send({ ...BELT, name: `Pick ${uniqueTag()}` });
     const { pitchMm, widthMm, linearMassKgPerM, axialStiffnessN, allowableTensionN, minPulleyTeeth } = res.body;
