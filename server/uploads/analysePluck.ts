@@ -22,7 +22,10 @@ export interface PluckAnalysis {
   channels: number;
   /** Length of the recording [s]. */
   durationS: number;
-  /** Spectrum of the analysed stretch for plotting, at most 512 points (peak of each band kept). */
+  /**
+   * Spectrum of the analysed stretch (after steady mains hum was subtracted) for plotting: 0 to 2 × maxHz, at
+   * most 512 points, each the highest bin of its band; magnitude in dB relative to a full-scale sine (dBFS).
+   */
   spectrum: { frequencyHz: number[]; magnitudeDb: number[] };
   /** Measured frequencies of the overtones found at integer multiples of the fundamental (2nd and up) [Hz]. */
   harmonicsHz: number[];
@@ -49,7 +52,7 @@ const FLOOR_SAMPLES = 256;
 const SIDE_LOBE_RATIO = 10 ** (25 / 10);
 const TONE_MIN_DB = 20;
 const STRONG_FUNDAMENTAL_DB = 25;
-const CONFIDENT_DB = 40;
+const CONFIDENT_DB = 50;
 const HARMONIC_TOLERANCE = 0.01;
 const MISSING_HARMONIC_DB = 6;
 const MAX_HARMONICS = 12;
@@ -62,6 +65,8 @@ const HUM_MAX_SPREAD = 1.5;
 const HUM_FIT_MIN_QUIET_S = 0.5;
 const HUM_FIT_MIN_PIECE_S = 0.25;
 const HUM_FIT_MAX_SPECTRUM_S = 4;
+const HUM_FIT_SEARCH_STEP_HZ = 0.01;
+const HUM_FIT_SEARCH_STEPS = 10;
 const SPECTRUM_POINTS = 512;
 
 const NO_TONE = 'No clear tone found — pluck closer to the microphone.';
@@ -95,7 +100,8 @@ interface Candidate {
  * recording whose 2nd harmonic is louder than its fundamental still returns the fundamental.
  *
  * @param bytes - the WAV file (PCM 8/16/24/32-bit integer or 32-bit float, mono or stereo, 8–96 kHz, ≤ 10 s)
- * @param opts - band for the fundamental [Hz], default 20–1000 Hz
+ * @param opts - band for the fundamental [Hz], default 20–1000 Hz; a maxHz beyond what the (decimated) recording
+ *   resolves is lowered to that limit
  * @returns the fundamental, a confidence 0..1, file facts, a ≤ 512-point spectrum and the overtones found
  * @throws PluckError 'unsupported_format' | 'too_long' | 'corrupt' | 'no_tone' with a message for the maker
  * @throws RangeError when `opts` is not a valid band (a programming error, not a user one)
@@ -140,7 +146,8 @@ export function analysePluck(bytes: Buffer | Uint8Array, opts: AnalysePluckOptio
 
   const humPeaks = new Set<Peak>();
   for (const peak of allPeaks) {
-    if (isNearMains(peak.frequencyHz) && isSteadyOverFile(signal, rateHz, peak.frequencyHz)) humPeaks.add(peak);
+    // Judged on the recording as it came (before the hum was subtracted): is the line there all the time?
+    if (isNearMains(peak.frequencyHz) && isSteadyOverFile(rawSignal, rateHz, peak.frequencyHz)) humPeaks.add(peak);
   }
   const peaks = allPeaks.filter((p) => !humPeaks.has(p));
 
@@ -164,7 +171,7 @@ export function analysePluck(bytes: Buffer | Uint8Array, opts: AnalysePluckOptio
     throw new PluckError('no_tone', NO_TONE);
   }
 
-  // Confidence: prominence (20 dB → 0, 40 dB → 1) and the share of salient power the series explains.
+  // Confidence: prominence (20 dB → 0, 50 dB → 1) and the share of salient power the series explains.
   const prominence = clamp01((strongestDb - TONE_MIN_DB) / (CONFIDENT_DB - TONE_MIN_DB));
   const totalPower = peaks.reduce((sum, p) => sum + p.power, 0);
   const explained = matched.reduce((sum, p) => sum + p.power, 0) / totalPower;
@@ -389,8 +396,8 @@ function median(values: Float64Array): number {
  * Removes steady mains lines before the pluck is analysed, so a belt ringing a few hertz from a mains
  * line is not pulled onto it. The lines are found in the file's quiet part (before the onset and after the
  * ring has decayed by 30 dB): a peak within ±1 Hz of 50·k or 60·k Hz standing ≥ 12 dB over the local floor.
- * Each is fitted there by least squares (a·cos ωt + b·sin ωt at its interpolated frequency) and the fitted
- * sinusoid is subtracted from the whole file. Needs ≥ 0.5 s of quiet, with a stretch of ≥ 0.25 s to find
+ * Each is fitted there by least squares (a·cos ωt + b·sin ωt, frequency searched ±0.1 Hz in 0.01 Hz steps for
+ * the best fit) and the fitted sinusoid is subtracted from the whole file. Needs ≥ 0.5 s of quiet, with a stretch of ≥ 0.25 s to find
  * the lines in; otherwise the signal is returned as is and only the steadiness test below applies.
  */
 function cancelMainsHum(x: Float64Array, rateHz: number, ring: PluckWindow, topHz: number): HumCancellation {
@@ -426,30 +433,64 @@ function cancelMainsHum(x: Float64Array, rateHz: number, ring: PluckWindow, topH
   const cleaned = Float64Array.from(x);
   const cos = new Float64Array(x.length);
   const sin = new Float64Array(x.length);
-  for (const { frequencyHz } of lines) {
-    fillPhasor(cos, sin, (2 * Math.PI * frequencyHz) / rateHz);
-    // Normal equations of the least-squares fit over the quiet samples.
-    let cc = 0;
-    let ss = 0;
-    let cs = 0;
-    let xc = 0;
-    let xs = 0;
-    for (const [from, to] of pieces) {
-      for (let n = from; n < to; n++) {
-        cc += cos[n] * cos[n];
-        ss += sin[n] * sin[n];
-        cs += cos[n] * sin[n];
-        xc += x[n] * cos[n];
-        xs += x[n] * sin[n];
-      }
+  for (const line of lines) {
+    // The spectrum of one quiet stretch places the line to a few hundredths of a hertz; the fit over all quiet
+    // samples places it better (its phase must hold across the pluck), so search ±0.1 Hz for the best fit.
+    let best = fitSinusoid(x, pieces, line.frequencyHz, rateHz);
+    for (let step = -HUM_FIT_SEARCH_STEPS; step <= HUM_FIT_SEARCH_STEPS; step++) {
+      const fit = fitSinusoid(x, pieces, line.frequencyHz + step * HUM_FIT_SEARCH_STEP_HZ, rateHz);
+      if (fit.energy > best.energy) best = fit;
     }
-    const det = cc * ss - cs * cs;
-    if (!(det > 0)) continue;
-    const a = (xc * ss - xs * cs) / det;
-    const b = (xs * cc - xc * cs) / det;
-    for (let n = 0; n < cleaned.length; n++) cleaned[n] -= a * cos[n] + b * sin[n];
+    line.frequencyHz = best.frequencyHz;
+    fillPhasor(cos, sin, (2 * Math.PI * best.frequencyHz) / rateHz);
+    for (let n = 0; n < cleaned.length; n++) cleaned[n] -= best.a * cos[n] + best.b * sin[n];
   }
   return { signal: cleaned, lines };
+}
+
+interface SinusoidFit {
+  frequencyHz: number;
+  /** x ≈ a·cos(ωn) + b·sin(ωn) over the fitted samples. */
+  a: number;
+  b: number;
+  /** Energy the fit explains (a·Σx·cos + b·Σx·sin); larger is a better frequency. */
+  energy: number;
+}
+
+/** Least-squares fit of a·cos(ωn) + b·sin(ωn) to x over the given [from, to) sample ranges (normal equations). */
+function fitSinusoid(x: Float64Array, pieces: number[][], frequencyHz: number, rateHz: number): SinusoidFit {
+  const omega = (2 * Math.PI * frequencyHz) / rateHz;
+  const cw = Math.cos(omega);
+  const sw = Math.sin(omega);
+  let cc = 0;
+  let ss = 0;
+  let cs = 0;
+  let xc = 0;
+  let xs = 0;
+  for (const [from, to] of pieces) {
+    let c = 0;
+    let s = 0;
+    for (let n = from; n < to; n++) {
+      // Rotating phasor, re-anchored every 1024 samples against rounding drift.
+      if ((n - from) % 1024 === 0) {
+        c = Math.cos(omega * n);
+        s = Math.sin(omega * n);
+      }
+      cc += c * c;
+      ss += s * s;
+      cs += c * s;
+      xc += x[n] * c;
+      xs += x[n] * s;
+      const next = c * cw - s * sw;
+      s = s * cw + c * sw;
+      c = next;
+    }
+  }
+  const det = cc * ss - cs * cs;
+  if (!(det > 0)) return { frequencyHz, a: 0, b: 0, energy: 0 };
+  const a = (xc * ss - xs * cs) / det;
+  const b = (xs * cc - xc * cs) / det;
+  return { frequencyHz, a, b, energy: a * xc + b * xs };
 }
 
 interface HumLine {

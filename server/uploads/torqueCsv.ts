@@ -233,9 +233,10 @@ function detectDelimiter(text: string): ',' | ';' | '\t' {
   return counts.reduce((best, c) => (c[1] > best[1] ? c : best))[0];
 }
 
+/** Drops empty cells past the second (a trailing separator), keeping an empty second cell to report it. */
 function withoutTrailingEmpty(cells: string[]): string[] {
   let end = cells.length;
-  while (end > 0 && cells[end - 1] === '') end--;
+  while (end > 2 && cells[end - 1] === '') end--;
   return cells.slice(0, end);
 }
 

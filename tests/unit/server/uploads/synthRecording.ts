@@ -77,12 +77,15 @@ export function synthSamples(spec: RecordingSpec): Float64Array {
   return x;
 }
 
-/** Converts full-scale samples to wavefile's integer/float codes for a bit depth. */
+/**
+ * Converts full-scale samples to wavefile's integer/float codes for a bit depth: ±1 ↔ ±2^(bits−1), the usual
+ * convention (−32768 is −1.0 in 16-bit), clipped to the code range; 8-bit is unsigned around 128.
+ */
 export function toCodes(x: Float64Array, bitDepth: BitDepth): number[] {
   if (bitDepth === '32f') return Array.from(x);
-  if (bitDepth === '8') return Array.from(x, (v) => Math.max(0, Math.min(255, Math.round(v * 127 + 128))));
-  const full = 2 ** (Number(bitDepth) - 1) - 1;
-  return Array.from(x, (v) => Math.max(-full, Math.min(full, Math.round(v * full))));
+  if (bitDepth === '8') return Array.from(x, (v) => Math.max(0, Math.min(255, Math.round(v * 128 + 128))));
+  const half = 2 ** (Number(bitDepth) - 1);
+  return Array.from(x, (v) => Math.max(-half, Math.min(half - 1, Math.round(v * half))));
 }
 
 /** Writes samples as a WAV file; stereo puts the signal in both channels, the right one at 0.8×. */
