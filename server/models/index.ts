@@ -9,6 +9,8 @@ import { initRevisionModel, Revision } from './revision.model';
 import { initRevisionCommentModel, RevisionComment } from './comment.model';
 import { initSheetModel, Sheet } from './sheet.model';
 import { initNotificationModel, Notification } from './notification.model';
+import { initAttachmentModel, Attachment } from './attachment.model';
+import { initMeasurementModel, Measurement } from './measurement.model';
 
 export { User, ROLES, type Role } from './user.model';
 export { PasswordToken, TOKEN_PURPOSES, type TokenPurpose } from './passwordToken.model';
@@ -23,6 +25,8 @@ export { Revision, REVISION_STATUSES, type RevisionStatus, type RevisionSummaryF
 export { RevisionComment } from './comment.model';
 export { Sheet, SHEET_PAPERS, type SheetPaper } from './sheet.model';
 export { Notification, NOTIFICATION_STATUSES, type NotificationStatus } from './notification.model';
+export { Attachment, ATTACHMENT_MIMES, type AttachmentMime } from './attachment.model';
+export { Measurement, MEASUREMENT_SOURCES, type MeasurementSource, type StoredSpectrum } from './measurement.model';
 
 /**
  * Initialises every model on `sequelize`, then wires all associations in this one block.
@@ -39,6 +43,8 @@ export function initModels(sequelize: Sequelize): void {
   initRevisionCommentModel(sequelize);
   initSheetModel(sequelize);
   initNotificationModel(sequelize);
+  initAttachmentModel(sequelize);
+  initMeasurementModel(sequelize);
 
   // Associations (one place).
   User.hasMany(PasswordToken, { foreignKey: 'userId', as: 'passwordTokens', onDelete: 'CASCADE' });
@@ -61,4 +67,11 @@ export function initModels(sequelize: Sequelize): void {
   Sheet.belongsTo(Revision, { foreignKey: 'revisionId', as: 'revision' });
   Sheet.belongsTo(Design, { foreignKey: 'designId', as: 'design' });
   Sheet.belongsTo(User, { foreignKey: 'approvedById', as: 'approvedBy' });
+  Design.hasMany(Attachment, { foreignKey: 'designId', as: 'attachments', onDelete: 'CASCADE' });
+  Attachment.belongsTo(Design, { foreignKey: 'designId', as: 'design' });
+  Attachment.belongsTo(Part, { foreignKey: 'partId', as: 'part' });
+  Attachment.belongsTo(User, { foreignKey: 'uploadedById', as: 'uploadedBy' });
+  Sheet.hasMany(Measurement, { foreignKey: 'sheetId', as: 'measurements' });
+  Measurement.belongsTo(Sheet, { foreignKey: 'sheetId', as: 'sheet' });
+  Measurement.belongsTo(User, { foreignKey: 'measuredById', as: 'measuredBy' });
 }

@@ -12,6 +12,9 @@ import { createCalcRouter } from './calc.routes';
 import { createDesignFlowRouter } from './designFlow.routes';
 import { createRevisionsRouter } from './revisions.routes';
 import { createSheetsRouter } from './sheets.routes';
+import { createAttachmentsRouter, createDesignAttachmentsRouter } from './attachments.routes';
+import { createMeasurementsRouter } from './measurements.routes';
+import { createTorqueCurvesRouter } from './torqueCurves.routes';
 
 /**
  * The API router, mounted at /api. This is the one registration point: each feature adds one
@@ -32,6 +35,10 @@ export function createApiRouter(): Router {
   apiRouter.use('/designs', createDesignFlowRouter());
   apiRouter.use('/revisions', createRevisionsRouter());
   apiRouter.use('/sheets', createSheetsRouter());
+  apiRouter.use('/designs', createDesignAttachmentsRouter());
+  apiRouter.use('/attachments', createAttachmentsRouter());
+  apiRouter.use('/parts', createTorqueCurvesRouter());
+  apiRouter.use('/sheets', createMeasurementsRouter());
 
   apiRouter.use(notFoundMiddleware());
   return apiRouter;

@@ -75,6 +75,13 @@ export function useEngine(source: () => unknown, options: UseEngineOptions = {})
   let waiting: Record<string, unknown> | null = null;
   let isDisposed = false;
 
+  /** Sets the issues only when they differ, so an unchanged list does not re-render the whole form. */
+  function setIssues(next: InputIssue[]): void {
+    const a = issues.value;
+    if (a.length === next.length && a.every((x, i) => x.path === next[i].path && x.message === next[i].message)) return;
+    issues.value = next;
+  }
+
   const fieldErrors = computed(() => {
     const out: Record<string, string> = {};
     for (const issue of issues.value) if (!(issue.path in out)) out[issue.path] = issue.message;
@@ -93,7 +100,7 @@ export function useEngine(source: () => unknown, options: UseEngineOptions = {})
         error.value = null;
       } else {
         // The layout can reject what the field rules let through; show it like any other issue.
-        issues.value = outcome.issues;
+        setIssues(outcome.issues);
       }
     } catch (err) {
       if (!isDisposed) error.value = err instanceof Error ? err.message : String(err);
@@ -126,14 +133,14 @@ export function useEngine(source: () => unknown, options: UseEngineOptions = {})
       if (value === null || value === undefined) return;
       const parsed = safeParseDesign(value);
       if (!parsed.ok) {
-        issues.value = formIssues(value, parsed.issues);
+        setIssues(formIssues(value, parsed.issues));
         isStale.value = result.value !== null;
         if (timer) clearTimeout(timer);
         timer = null;
         waiting = null;
         return;
       }
-      issues.value = [];
+      setIssues([]);
       isStale.value = true;
       schedule(parsed.value as unknown as Record<string, unknown>);
     },

@@ -1,4 +1,4 @@
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import type { Express } from 'express';
 import request from 'supertest';
 import { getConfig } from '../../server/config';
@@ -7,9 +7,10 @@ import { User, type Role } from '../../server/models';
 import { hashPassword } from '../../server/services/auth.service';
 import { toPublicUser, type PublicUser } from '../../server/services/users.service';
 import type { CaughtMessage } from '../../scripts/mailcatcher';
-import { defaultDesign, parseDesign, type DesignInput, type Mechanism } from '@/engine';
-import { Design, Part, type DesignStatus, type PartKind } from '../../server/models';
+import { defaultDesign, parseDesign, type DesignInput, type DesignResult, type Mechanism } from '@/engine';
+import { Design, Part, Revision, Sheet, type DesignStatus, type PartKind } from '../../server/models';
 import { computeStoredResults } from '../../server/services/designs.service';
+import { freezeDesign } from '../../server/services/revisions.service';
 
 /** A supertest agent that keeps cookies between requests. */
 export type Agent = ReturnType<typeof request.agent>;
@@ -140,4 +141,34 @@ export async function createPart(kind: PartKind, fields: Record<string, unknown>
     updatedById: null,
   });
   return { id: row.id, name: row.name };
+}
+
+/**
+ * Creates an approved design with a frozen revision and its sheet directly (no HTTP, no PDF rendering: the sheet
+ * rows carry a tiny placeholder instead of the rendered bytes). For tests of what hangs off a sheet (measurements).
+ * @returns the ids and the frozen inputs and result the sheet stands for
+ */
+export async function createApprovedSheet(options: {
+  owner: PublicUser;
+  approver: PublicUser;
+  mechanism?: Mechanism;
+  edit?: (doc: DesignInput) => DesignInput;
+}): Promise<{ sheetId: number; designId: number; revisionId: number; inputs: DesignInput; result: DesignResult }> {
+  getSequelize();
+  const design = await createDesign({ owner: options.owner, mechanism: options.mechanism, status: 'approved', edit: options.edit });
+  const frozen = freezeDesign(design.inputs);
+  const now = new Date();
+  const revision = await Revision.create({
+    designId: design.id, number: 1, status: 'approved',
+    inputs: frozen.inputs as unknown as Record<string, unknown>, result: frozen.result as unknown as Record<string, unknown>,
+    summary: frozen.summary, engineVersion: frozen.result.engineVersion, fingerprint: frozen.fingerprint,
+    authorId: options.owner.id, submittedAt: now, decidedById: options.approver.id, decidedAt: now, decisionNote: 'Approved in a test.',
+  });
+  const placeholder = Buffer.from('%PDF-1.4\n% placeholder sheet of an API test\n%%EOF\n');
+  const hash = createHash('sha256').update(placeholder).digest('hex');
+  const sheet = await Sheet.create({
+    revisionId: revision.id, designId: design.id, approvedById: options.approver.id, approvedAt: now, comment: 'Approved in a test.',
+    a4Pdf: placeholder, a4Sha256: hash, a4Size: placeholder.length, letterPdf: placeholder, letterSha256: hash, letterSize: placeholder.length,
+  });
+  return { sheetId: sheet.id, designId: design.id, revisionId: revision.id, inputs: frozen.inputs, result: frozen.result };
 }

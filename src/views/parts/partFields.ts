@@ -101,3 +101,47 @@ export const SHELVES: ShelfDef[] = [
 export function isFromMemory(note: string | null | undefined): boolean {
   return !!note && /from memory|replace with your datasheet|typical/i.test(note);
 }
+
+/** One value inside a table cell. */
+export interface CellValue {
+  key: string;
+  quantity?: QuantityKey;
+  stored?: string;
+}
+
+/** A column of a shelf's table: one value, or two joined ("2 mm × 6 mm"). */
+export interface TableColumn {
+  label: string;
+  width: number;
+  values: CellValue[];
+  /** Joins two values. */
+  joiner?: string;
+  /** Plain text (not a number). */
+  isText?: boolean;
+}
+
+/** Compact table columns per shelf (the dialog edits every field). */
+export const TABLE_COLUMNS: Record<PartKind, TableColumn[]> = {
+  belts: [
+    { label: 'Pitch × width', width: 124, values: [{ key: 'pitchMm', quantity: 'length', stored: 'mm' }, { key: 'widthMm', quantity: 'length', stored: 'mm' }], joiner: '×' },
+    { label: 'Mass / length', width: 100, values: [{ key: 'linearMassKgPerM', quantity: 'linearMass', stored: 'kg/m' }] },
+    { label: 'EA', width: 100, values: [{ key: 'axialStiffnessN', quantity: 'force', stored: 'N' }] },
+    { label: 'Allowable', width: 92, values: [{ key: 'allowableTensionN', quantity: 'force', stored: 'N' }] },
+    { label: 'Min. teeth', width: 84, values: [{ key: 'minPulleyTeeth' }] },
+  ],
+  pulleys: [
+    { label: 'Role', width: 124, values: [{ key: 'kind' }], isText: true },
+    { label: 'Teeth', width: 68, values: [{ key: 'teeth' }] },
+    { label: 'Pitch', width: 84, values: [{ key: 'pitchMm', quantity: 'length', stored: 'mm' }] },
+    { label: 'Bore', width: 84, values: [{ key: 'boreMm', quantity: 'length', stored: 'mm' }] },
+    { label: 'Inertia', width: 104, values: [{ key: 'inertiaKgM2', quantity: 'inertia', stored: 'kg m^2' }] },
+  ],
+  motors: [
+    { label: 'Frame · step', width: 104, values: [{ key: 'frameMm', quantity: 'length', stored: 'mm' }, { key: 'stepAngleDeg', quantity: 'angle', stored: '' }], joiner: '·' },
+    { label: 'Holding torque', width: 92, values: [{ key: 'holdingTorqueNm', quantity: 'torque', stored: 'N m' }] },
+    { label: 'Rated', width: 66, values: [{ key: 'ratedCurrentA', quantity: 'current', stored: 'A' }] },
+    { label: 'R · L per phase', width: 118, values: [{ key: 'phaseResistanceOhm', quantity: 'resistance', stored: 'ohm' }, { key: 'phaseInductanceMh', quantity: 'inductance', stored: 'mH' }], joiner: '·' },
+    { label: 'Rotor', width: 88, values: [{ key: 'rotorInertiaKgM2', quantity: 'inertia', stored: 'kg m^2' }] },
+    { label: 'Mass', width: 72, values: [{ key: 'massKg', quantity: 'massSmall', stored: 'kg' }] },
+  ],
+};

@@ -1,0 +1,78 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { requireAuth } from '../middleware/requireAuth';
+import { requireRole } from '../middleware/requireRole';
+import { uploadedFile, uploadMiddleware } from '../middleware/upload';
+import { validate } from '../middleware/validate';
+import { idParamsSchema, paginationSchema } from '../schemas/common.schema';
+import {
+  assertMayAttach, ATTACHMENT_MAX_BYTES, deleteAttachment, getAttachmentDownload, listDesignAttachments, uploadDesignAttachment,
+} from '../services/attachments.service';
+
+const idOf = (params: unknown) => (params as { id: number }).id;
+
+/** The multipart form of an attachment upload: the file and nothing else. */
+const uploadBodySchema = z.strictObject({}).optional();
+
+/** `?page&pageSize`: 100 per page by default (a design has a handful of files). */
+const listQuerySchema = paginationSchema.extend({ pageSize: paginationSchema.shape.pageSize.unwrap().default(100) });
+
+/**
+ * Design attachments, mounted at /api/designs (beside the designs router; Express falls through to it):
+ *   POST /api/designs/:id/attachments   multipart `file` ≤ 10 MB: PDF, PNG, JPEG or CSV (owner designer or admin) → 201
+ *   GET  /api/designs/:id/attachments   everyone signed in → { items, total, page, pageSize, canUpload }
+ */
+export function createDesignAttachmentsRouter(): Router {
+  const router = Router();
+
+  router.post(
+    '/:id/attachments',
+    requireRole('designer'),
+    validate({ params: idParamsSchema }),
+    async function checkDesign(req, _res, next) {
+      await assertMayAttach(req.user!, idOf(req.params));
+      next();
+    },
+    uploadMiddleware({ maxBytes: ATTACHMENT_MAX_BYTES, what: 'attachment' }),
+    validate({ body: uploadBodySchema }),
+    async function create(req, res) {
+      res.status(201).json(await uploadDesignAttachment(req.user!, idOf(req.params), uploadedFile(req.file)));
+    },
+  );
+
+  router.get('/:id/attachments', requireAuth, validate({ params: idParamsSchema, query: listQuerySchema }), async function list(req, res) {
+    res.status(200).json(await listDesignAttachments(req.user!, idOf(req.params), req.query as unknown as { page: number; pageSize: number }));
+  });
+
+  return router;
+}
+
+/**
+ * /api/attachments/:id — download (everyone signed in) and delete (uploader, design owner or admin).
+ * Downloads carry the sniffed Content-Type, `attachment` disposition with the sanitised name, nosniff and a
+ * sandboxing CSP, so a file can never run as a page of the app.
+ */
+export function createAttachmentsRouter(): Router {
+  const router = Router();
+
+  router.get('/:id', requireAuth, validate({ params: idParamsSchema }), async function getById(req, res) {
+    const { bytes, mime, fileName, sha256 } = await getAttachmentDownload(idOf(req.params));
+    res.status(200);
+    res.setHeader('Content-Type', mime === 'text/csv' ? 'text/csv; charset=utf-8' : mime);
+    res.attachment(fileName);
+    res.setHeader('X-Content-Type-Options', 'nosniff');
+    res.setHeader('Content-Security-Policy', "default-src 'none'; sandbox");
+    res.setHeader('ETag', `"${sha256}"`);
+    res.setHeader('X-Content-SHA256', sha256);
+    res.setHeader('Content-Length', String(bytes.length));
+    res.setHeader('Cache-Control', 'private, no-cache');
+    res.end(bytes);
+  });
+
+  router.delete('/:id', requireRole('designer'), validate({ params: idParamsSchema }), async function remove(req, res) {
+    await deleteAttachment(req.user!, idOf(req.params));
+    res.status(204).end();
+  });
+
+  return router;
+}

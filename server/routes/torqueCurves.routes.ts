@@ -1,0 +1,41 @@
+import { Router } from 'express';
+import { z } from 'zod';
+import { requireAuth } from '../middleware/requireAuth';
+import { requireRole } from '../middleware/requireRole';
+import { uploadedFile, uploadMiddleware } from '../middleware/upload';
+import { validate } from '../middleware/validate';
+import { idParamsSchema } from '../schemas/common.schema';
+import { assertMotorExists, getTorqueCurve, TORQUE_CSV_MAX_BYTES, uploadTorqueCurve } from '../services/torqueCurves.service';
+
+const idOf = (params: unknown) => (params as { id: number }).id;
+
+/**
+ * Motor torque–speed tables, mounted at /api/parts (beside the parts router):
+ *   POST /api/parts/motors/:id/torque-curve   multipart `file` = CSV ≤ 64 kB (admin) → 200 { motor, file, sourceUnits }
+ *   GET  /api/parts/motors/:id/torque-curve   everyone signed in → { motor, file }
+ * Clearing a table is PATCH /api/parts/motors/:id { torqueCurve: null } on the parts router.
+ */
+export function createTorqueCurvesRouter(): Router {
+  const router = Router();
+
+  router.post(
+    '/motors/:id/torque-curve',
+    requireRole('admin'),
+    validate({ params: idParamsSchema }),
+    async function checkMotor(req, _res, next) {
+      await assertMotorExists(idOf(req.params));
+      next();
+    },
+    uploadMiddleware({ maxBytes: TORQUE_CSV_MAX_BYTES, what: 'torque table' }),
+    validate({ body: z.strictObject({}).optional() }),
+    async function upload(req, res) {
+      res.status(200).json(await uploadTorqueCurve(req.user!, idOf(req.params), uploadedFile(req.file)));
+    },
+  );
+
+  router.get('/motors/:id/torque-curve', requireAuth, validate({ params: idParamsSchema }), async function getById(req, res) {
+    res.status(200).json(await getTorqueCurve(req.user!, idOf(req.params)));
+  });
+
+  return router;
+}

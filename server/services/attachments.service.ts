@@ -1,0 +1,283 @@
+import { Op, type Transaction } from 'sequelize';
+import { getConfig } from '../config';
+import { getSequelize } from '../db';
+import { AppError, forbidden, notFound } from '../errors';
+import { logger } from '../logger';
+import type { UploadedFile } from '../middleware/upload';
+import { Attachment, Design, Measurement, User, type AttachmentMime } from '../models';
+import {
+  assertTypeMatches, ContentStoreError, CsvError, PluckError, readBytes, removeBytes, sha256Of, storeBytes,
+  UploadTypeError, type SniffedMime,
+} from '../uploads';
+import { recordAudit } from './audit.service';
+import type { Page, PublicUser } from './users.service';
+
+/** Largest design attachment [bytes] (issue 6: 10 MB). */
+export const ATTACHMENT_MAX_BYTES = 10 * 1024 * 1024;
+
+/** What a design may take: datasheets, photos and tables, recognised from their bytes. */
+export const ATTACHMENT_TYPES: readonly SniffedMime[] = ['application/pdf', 'image/png', 'image/jpeg', 'text/csv'];
+
+/** An attachment as the API shows it. */
+export type PublicAttachment = {
+  id: number;
+  designId: number | null;
+  partId: number | null;
+  fileName: string;
+  mime: string;
+  size: number;
+  sha256: string;
+  uploadedBy: { id: number; name: string } | null;
+  createdAt: string;
+  /** Download address (GET). */
+  url: string;
+  /** Whether the signed-in user may delete it. */
+  canDelete: boolean;
+};
+
+/** A design's attachments, plus whether the signed-in user may add one. */
+export type AttachmentPage = Page<PublicAttachment> & { canUpload: boolean };
+
+type AttachmentRow = Attachment & { uploadedBy?: User | null; design?: Design | null };
+
+const isAdmin = (actor: PublicUser) => actor.roles.includes('admin');
+const isDesignerOwner = (actor: PublicUser, design: Pick<Design, 'ownerId'>) => actor.roles.includes('designer') && design.ownerId === actor.id;
+
+/** The store's root: the configured upload folder (never a path from a request). */
+export function uploadRoot(): string {
+  return getConfig().uploadDir;
+}
+
+/**
+ * Turns the errors of the pure upload modules into API errors: 415 for a refused type, 422 for a recording that
+ * cannot be measured, 400 with line/column details for a torque table, 404/400 for a bad content address.
+ * Anything else is returned unchanged (a bug, answered with 500 by the central handler).
+ */
+export function toUploadAppError(err: unknown): unknown {
+  if (err instanceof UploadTypeError) {
+    return new AppError(err.code === 'empty_file' ? 'empty_file' : 'unsupported_media_type', err.message, 415, {
+      details: [{ path: 'file', message: err.message }],
+    });
+  }
+  if (err instanceof PluckError) return new AppError(`recording_${err.code}`, err.message, 422, { details: [{ path: 'file', message: err.message }] });
+  if (err instanceof CsvError) {
+    return new AppError('invalid_csv', err.message, 400, {
+      details: err.details.map((d) => ({
+        path: ['file', d.line !== null ? `line ${d.line}` : null, d.column].filter(Boolean).join(' · '),
+        message: d.message,
+        line: d.line,
+        column: d.column,
+      })),
+    });
+  }
+  if (err instanceof ContentStoreError) {
+    return new AppError(err.code === 'not_found' ? 'file_missing' : err.code, err.code === 'not_found' ? 'The stored file is missing.' : err.message, err.httpStatus, {
+      isOperational: err.code !== 'corrupt',
+    });
+  }
+  return err;
+}
+
+/** Runs `fn`, mapping upload-module errors to API errors. */
+export async function withUploadErrors<T>(fn: () => Promise<T> | T): Promise<T> {
+  try {
+    return await fn();
+  } catch (err) {
+    throw toUploadAppError(err);
+  }
+}
+
+const CONTROL_CHARS = /[\u0000-\u001f\u007f-\u009f]/g;
+const CANONICAL_EXT: Record<string, string> = {
+  'application/pdf': 'pdf', 'image/png': 'png', 'image/jpeg': 'jpg', 'text/csv': 'csv', 'text/plain': 'txt', 'audio/wav': 'wav',
+};
+
+/**
+ * A file name safe to store and to send in Content-Disposition: the last segment of whatever path the client sent,
+ * without control characters, quotes, backslashes or characters Windows refuses, leading dots or trailing
+ * spaces/dots, at most 150 characters (the extension kept). Names that end up empty become `attachment.<ext>`.
+ * @param name - the client's file name
+ * @param mime - the sniffed type, for the fallback extension
+ */
+export function sanitiseFileName(name: string, mime: string): string {
+  const ext = CANONICAL_EXT[mime] ?? 'bin';
+  const last = String(name ?? '').split(/[/\\]/).pop() ?? '';
+  let clean = last
+    .normalize('NFC')
+    .replace(CONTROL_CHARS, '')
+    .replace(/["<>:|?*]/g, '_')
+    .replace(/\s+/g, ' ')
+    .trim()
+    .replace(/^[.\s]+/, '')
+    .replace(/[.\s]+$/, '');
+  if (!clean) return `attachment.${ext}`;
+  if (!clean.includes('.')) clean = `${clean}.${ext}`;
+  if (clean.length > 150) {
+    const dot = clean.lastIndexOf('.');
+    const tail = dot > 0 && clean.length - dot <= 10 ? clean.slice(dot) : '';
+    clean = `${clean.slice(0, 150 - tail.length).trimEnd()}${tail}`;
+  }
+  return clean;
+}
+
+/** Converts a row to the public shape for `actor`. */
+export function toPublicAttachment(row: AttachmentRow, actor: PublicUser, design: Pick<Design, 'ownerId'> | null): PublicAttachment {
+  return {
+    id: row.id,
+    designId: row.designId ?? null,
+    partId: row.partId ?? null,
+    fileName: row.fileName,
+    mime: row.mime,
+    size: row.size,
+    sha256: row.sha256,
+    uploadedBy: row.uploadedBy ? { id: row.uploadedBy.id, name: row.uploadedBy.name } : null,
+    createdAt: new Date(row.createdAt).toISOString(),
+    url: `/api/attachments/${row.id}`,
+    canDelete: mayDelete(actor, row, design),
+  };
+}
+
+/** The uploader, the design's owner (as a designer) and admins may delete a design attachment; torque-table sources only via the torque table. */
+function mayDelete(actor: PublicUser, row: Pick<Attachment, 'uploadedById' | 'designId'>, design: Pick<Design, 'ownerId'> | null): boolean {
+  if (row.designId === null || row.designId === undefined) return false;
+  if (isAdmin(actor)) return true;
+  if (!actor.roles.includes('designer')) return false;
+  return row.uploadedById === actor.id || (design !== null && design.ownerId === actor.id);
+}
+
+const UPLOADER_INCLUDE = { model: User, as: 'uploadedBy', attributes: ['id', 'name'] };
+
+/**
+ * Stores bytes in the content store as part of a database transaction that has already inserted the row(s) that
+ * refer to them, so the store and the table change together: the file is written after every check passed and
+ * before the commit; if the commit fails, the bytes are removed again unless something else refers to them.
+ * Inserting first also serialises with {@link deleteAttachment}, which locks the rows of a hash before it removes
+ * the file: a concurrent delete of the same content either finishes first (we then rewrite the file) or sees our row.
+ */
+export async function storeWithRows<T>(bytes: Buffer, insertRows: (transaction: Transaction, sha256: string) => Promise<T>): Promise<T> {
+  const root = uploadRoot();
+  const sha256 = sha256Of(bytes);
+  let isStored = false;
+  try {
+    return await getSequelize().transaction(async (transaction) => {
+      const result = await insertRows(transaction, sha256);
+      await storeBytes(root, bytes);
+      isStored = true;
+      return result;
+    });
+  } catch (err) {
+    if (isStored) await removeIfUnreferenced(sha256).catch((cleanupErr: unknown) => logger.warn({ err: cleanupErr, sha256 }, 'could not clean up stored bytes'));
+    throw err;
+  }
+}
+
+/** How many attachment and measurement rows refer to `sha256` (optionally locking those rows). */
+export async function countReferences(sha256: string, transaction?: Transaction): Promise<number> {
+  const lock = transaction ? transaction.LOCK.UPDATE : undefined;
+  const attachments = await Attachment.findAll({ where: { sha256 }, attributes: ['id'], transaction, lock });
+  const recordings = await Measurement.findAll({ where: { recordingSha256: sha256 }, attributes: ['id'], transaction, lock });
+  return attachments.length + recordings.length;
+}
+
+async function removeIfUnreferenced(sha256: string): Promise<void> {
+  await getSequelize().transaction(async (transaction) => {
+    if ((await countReferences(sha256, transaction)) === 0) await removeBytes(uploadRoot(), sha256);
+  });
+}
+
+async function findDesignOr404(id: number): Promise<Design> {
+  const design = await Design.findByPk(id, { attributes: ['id', 'ownerId', 'name'] });
+  if (!design) throw notFound('Design');
+  return design;
+}
+
+/**
+ * Refuses early (before an upload is read) when the design does not exist (404) or `actor` may not attach files
+ * to it (403: only its owner as designer, or an admin).
+ */
+export async function assertMayAttach(actor: PublicUser, designId: number): Promise<Design> {
+  const design = await findDesignOr404(designId);
+  if (!isAdmin(actor) && !isDesignerOwner(actor, design)) throw forbidden('Only the owner of this design or an admin can attach files to it.');
+  return design;
+}
+
+/**
+ * Attaches a file to a design (its owner as designer, or an admin). The type is taken from the bytes (PDF, PNG,
+ * JPEG or CSV) and must agree with the name's extension and the declared type (415 otherwise); the bytes go to the
+ * content store under their SHA-256, the metadata to `attachments`, in one transaction.
+ */
+export async function uploadDesignAttachment(actor: PublicUser, designId: number, file: UploadedFile | null): Promise<PublicAttachment> {
+  const design = await assertMayAttach(actor, designId);
+  if (!file) throw new AppError('validation_failed', 'Choose a file to attach.', 400, { details: [{ path: 'file', message: 'is required (multipart field "file")' }] });
+  const sniffed = await withUploadErrors(() => assertTypeMatches(file.declaredMime, file.originalName, file.bytes, ATTACHMENT_TYPES));
+  const mime: AttachmentMime = sniffed.mime === 'text/plain' ? 'text/csv' : (sniffed.mime as AttachmentMime);
+  const fileName = sanitiseFileName(file.originalName, mime);
+
+  const row = await storeWithRows(file.bytes, async (transaction, sha256) => {
+    const created = await Attachment.create({
+      designId, partId: null, uploadedById: actor.id, fileName, mime, size: file.bytes.length, sha256,
+    }, { transaction });
+    await recordAudit({ actorId: actor.id, action: 'attachment.create', entity: 'attachment', entityId: created.id, toState: `design ${designId}`, reason: `${fileName} (${mime}, ${file.bytes.length} bytes, SHA-256 ${sha256})` }, transaction);
+    return created;
+  });
+  const full = await Attachment.findByPk(row.id, { include: [UPLOADER_INCLUDE] }) as AttachmentRow;
+  return toPublicAttachment(full, actor, design);
+}
+
+/** A design's attachments, newest first; everyone signed in may read them (as they may read the design). */
+export async function listDesignAttachments(actor: PublicUser, designId: number, query: { page: number; pageSize: number }): Promise<AttachmentPage> {
+  const design = await findDesignOr404(designId);
+  const { rows, count } = await Attachment.findAndCountAll({
+    where: { designId },
+    include: [UPLOADER_INCLUDE],
+    order: [['createdAt', 'DESC'], ['id', 'DESC']],
+    limit: query.pageSize,
+    offset: (query.page - 1) * query.pageSize,
+  }) as { rows: AttachmentRow[]; count: number };
+  return {
+    items: rows.map((row) => toPublicAttachment(row, actor, design)),
+    total: count,
+    page: query.page,
+    pageSize: query.pageSize,
+    canUpload: isAdmin(actor) || isDesignerOwner(actor, design),
+  };
+}
+
+/** What a download needs: the bytes (checked against their hash), their type and a safe name. */
+export type AttachmentDownload = { bytes: Buffer; mime: string; fileName: string; sha256: string };
+
+/** An attachment's bytes for download (everyone signed in). @throws 404 when the row or its bytes are missing. */
+export async function getAttachmentDownload(id: number): Promise<AttachmentDownload> {
+  const row = await Attachment.findByPk(id);
+  if (!row) throw notFound('Attachment');
+  const bytes = await withUploadErrors(() => readBytes(uploadRoot(), row.sha256, { verify: true }));
+  return { bytes, mime: row.mime, fileName: row.fileName, sha256: row.sha256 };
+}
+
+/**
+ * Deletes a design attachment (uploader, design owner or admin). The row goes in a transaction that first locks
+ * every row sharing its SHA-256; the bytes are removed, before the commit, only when no other attachment or
+ * recording refers to them.
+ */
+export async function deleteAttachment(actor: PublicUser, id: number): Promise<void> {
+  const existing = await Attachment.findByPk(id, { include: [{ model: Design, as: 'design', attributes: ['id', 'ownerId'] }] }) as AttachmentRow | null;
+  if (!existing) throw notFound('Attachment');
+  if (existing.designId === null) {
+    throw new AppError('not_deletable', 'This file is the source of a motor torque table; upload a new table instead.', 409);
+  }
+  if (!mayDelete(actor, existing, existing.design ?? null)) throw forbidden('Only whoever attached this file, the design owner or an admin can delete it.');
+
+  await getSequelize().transaction(async (transaction) => {
+    // Lock every row with this hash first (and the gap: no new row of the same hash can be inserted meanwhile).
+    await countReferences(existing.sha256, transaction);
+    const deleted = await Attachment.destroy({ where: { id }, transaction });
+    if (deleted === 0) throw notFound('Attachment');
+    await recordAudit({ actorId: actor.id, action: 'attachment.delete', entity: 'attachment', entityId: id, fromState: `design ${existing.designId}`, reason: `${existing.fileName} (SHA-256 ${existing.sha256})` }, transaction);
+    if ((await countReferences(existing.sha256, transaction)) === 0) await removeBytes(uploadRoot(), existing.sha256);
+  });
+}
+
+/** Newest source file of a motor's torque table, or null. */
+export async function latestPartAttachment(partId: number): Promise<Attachment | null> {
+  return Attachment.findOne({ where: { partId, designId: { [Op.is]: null } }, order: [['createdAt', 'DESC'], ['id', 'DESC']], include: [UPLOADER_INCLUDE] });
+}

@@ -1,0 +1,71 @@
+import type { TorquePoint } from '@/engine';
+import { apiUrl, del, get, upload } from './http';
+import type { MotorPart } from './parts';
+import type { Page } from './types';
+
+/** A file attached to a design (or the source file of a motor's torque table). */
+export interface Attachment {
+  id: number;
+  designId: number | null;
+  partId: number | null;
+  fileName: string;
+  /** Type found from the file's bytes. */
+  mime: string;
+  size: number;
+  sha256: string;
+  uploadedBy: { id: number; name: string } | null;
+  /** ISO 8601 timestamp */
+  createdAt: string;
+  url: string;
+  /** Whether the signed-in user may delete it (the server decides). */
+  canDelete: boolean;
+}
+
+/** A design's attachments and whether the signed-in user may add one. */
+export interface AttachmentPage extends Page<Attachment> {
+  canUpload: boolean;
+}
+
+/** File types a design accepts (checked again by the server from the bytes). */
+export const ATTACHMENT_ACCEPT = '.pdf,.png,.jpg,.jpeg,.csv,application/pdf,image/png,image/jpeg,text/csv';
+/** Largest attachment [bytes]. */
+export const ATTACHMENT_MAX_BYTES = 10 * 1024 * 1024;
+
+/** Lists a design's attachments, newest first. */
+export const listAttachments = (designId: number): Promise<AttachmentPage> => get(`/designs/${designId}/attachments`);
+
+/** Attaches a file to a design (its owner or an admin). */
+export function uploadAttachment(designId: number, file: File): Promise<Attachment> {
+  const form = new FormData();
+  form.append('file', file, file.name);
+  return upload(`/designs/${designId}/attachments`, form);
+}
+
+/** Deletes an attachment. */
+export const deleteAttachment = (id: number): Promise<void> => del(`/attachments/${id}`);
+
+/** The download address of an attachment (the browser fetches it itself). */
+export const attachmentUrl = (id: number): string => apiUrl(`/attachments/${id}`);
+
+/** A motor's torque table and the file it came from. */
+export interface TorqueCurveInfo {
+  motor: MotorPart & { torqueCurve: TorquePoint[] | null };
+  file: Attachment | null;
+  sourceUnits?: { speed: string; torque: string };
+}
+
+/** Largest torque table file [bytes]. */
+export const TORQUE_CSV_MAX_BYTES = 64 * 1024;
+
+/** Reads a motor's torque table with its source file. */
+export const getTorqueCurve = (motorId: number): Promise<TorqueCurveInfo> => get(`/parts/motors/${motorId}/torque-curve`);
+
+/**
+ * Replaces a motor's torque table with a CSV (admin). The file is stored as an attachment of the motor, so the
+ * upload lives here with the other file uploads.
+ */
+export function uploadTorqueCurve(motorId: number, file: File): Promise<TorqueCurveInfo> {
+  const form = new FormData();
+  form.append('file', file, file.name);
+  return upload(`/parts/motors/${motorId}/torque-curve`, form);
+}

@@ -1,0 +1,97 @@
+import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises, mount } from '@vue/test-utils';
+import { createTestingPinia } from '@pinia/testing';
+import { createMemoryHistory, createRouter } from 'vue-router';
+import type { DesignSummary } from '@/api/designs';
+import type { User } from '@/api/types';
+import DesignsView from '@/views/designs/DesignsView.vue';
+
+vi.mock('@/api/designs', async (importOriginal) => ({
+  ...(await importOriginal<typeof import('@/api/designs')>()),
+  listDesigns: vi.fn(),
+  deleteDesign: vi.fn(),
+}));
+const api = await import('@/api/designs');
+
+vi.setConfig({ testTimeout: 60_000 });
+
+const DESIGNER: User = { id: 2, email: 'designer@example.test', name: 'Dana Designer', roles: ['designer'], disabled: false, createdAt: '2026-01-01T00:00:00Z' };
+
+function row(over: Partial<DesignSummary>): DesignSummary {
+  return {
+    id: 1,
+    name: 'Bench stage',
+    mechanism: 'corexy',
+    status: 'draft',
+    owner: { id: 2, name: 'Dana Designer' },
+    travel: { xMm: 312, yMm: 320 },
+    version: 1,
+    updatedAt: '2026-11-20T10:00:00Z',
+    canEdit: true,
+    canDelete: true,
+    ...over,
+  };
+}
+
+async function mountView(items: DesignSummary[]) {
+  vi.mocked(api.listDesigns).mockResolvedValue({ items, total: items.length, page: 1, pageSize: 20 });
+  const router = createRouter({
+    history: createMemoryHistory(),
+    routes: [
+      { path: '/designs', component: DesignsView },
+      { path: '/designs/:id', name: 'workbench', component: { render: () => null } },
+    ],
+  });
+  await router.push('/designs');
+  const pinia = createTestingPinia({ createSpy: vi.fn, stubActions: false, initialState: { auth: { user: DESIGNER, isLoaded: true } } });
+  const wrapper = mount(DesignsView, { global: { plugins: [router, pinia] }, attachTo: document.body });
+  await flushPromises();
+  return { wrapper };
+}
+
+describe('DesignsView', () => {
+  beforeEach(() => {
+    vi.mocked(api.listDesigns).mockReset();
+    localStorage.clear();
+  });
+
+  it('when it opens, then it asks the server for the newest first and lists each design with status words and travel in mm', async () => {
+    // Arrange / Act
+    const { wrapper } = await mountView([row({ id: 1 }), row({ id: 2, name: 'Pen plotter', mechanism: 'hbot', status: 'in_review', canEdit: false, canDelete: false })]);
+    // Assert
+    expect(api.listDesigns).toHaveBeenCalledWith(expect.objectContaining({ page: 1, pageSize: 20, sort: '-updatedAt' }));
+    const names = wrapper.findAll('[data-test="design-row"]').map((r) => r.text());
+    expect(names).toEqual(['Bench stage', 'Pen plotter']);
+    expect(wrapper.find('[data-test="status-in_review"]').text()).toBe('In review');
+    expect(wrapper.text()).toContain('H-bot');
+    expect(wrapper.text()).toMatch(/312\s*mm\s*×\s*320\s*mm/);
+    wrapper.unmount();
+  });
+
+  it('when the Name header is clicked, then the server sorts by name', async () => {
+    const { wrapper } = await mountView([row({})]);
+    vi.mocked(api.listDesigns).mockClear();
+    // Act
+    const nameHeader = wrapper.findAll('th').find((th) => th.text().startsWith('Name'))!;
+    await nameHeader.trigger('click');
+    await flushPromises();
+    // Assert
+    expect(api.listDesigns).toHaveBeenLastCalledWith(expect.objectContaining({ sort: 'name', page: 1 }));
+    wrapper.unmount();
+  });
+
+  it('when there are no designs at all, then the empty state invites the designer to start one', async () => {
+    const { wrapper } = await mountView([]);
+    expect(wrapper.get('[data-test="empty-state"]').text()).toContain('No designs yet');
+    expect(wrapper.find('[data-test="empty-new-design"]').exists()).toBe(true);
+    wrapper.unmount();
+  });
+
+  it('when someone searches, then the query goes to the server after a pause, from page 1', async () => {
+    const { wrapper } = await mountView([row({})]);
+    vi.mocked(api.listDesigns).mockClear();
+    await wrapper.get('input[data-test="designs-search"]').setValue('plotter');
+    await vi.waitFor(() => expect(api.listDesigns).toHaveBeenCalledWith(expect.objectContaining({ q: 'plotter', page: 1 })));
+    wrapper.unmount();
+  });
+});
