@@ -26,11 +26,12 @@ const agents = {} as Record<Who, Agent>;
 const users = {} as Record<Who, PublicUser>;
 let anonymous: Agent;
 
-/** Binary body parser for supertest: the PDF as a Buffer. */
-function binary(res: NodeJS.ReadableStream & { setEncoding: (e: string) => void }, done: (err: Error | null, body: Buffer) => void): void {
+/** Binary body parser for supertest: the PDF as a Buffer (at run time `res` is the response stream). */
+function binary(res: request.Response, done: (err: Error | null, body: Buffer) => void): void {
+  const stream = res as unknown as NodeJS.ReadableStream;
   const chunks: Buffer[] = [];
-  res.on('data', (chunk: Buffer) => chunks.push(Buffer.from(chunk)));
-  res.on('end', () => done(null, Buffer.concat(chunks)));
+  stream.on('data', (chunk: Buffer) => chunks.push(Buffer.from(chunk)));
+  stream.on('end', () => done(null, Buffer.concat(chunks)));
 }
 
 const sha256 = (bytes: Buffer) => createHash('sha256').update(bytes).digest('hex');
