@@ -191,7 +191,8 @@ export function issuesFromZod(error: z.ZodError): InputIssue[] {
  * @returns `{ ok: true, value }` with defaults filled in, or `{ ok: false, issues }` naming each bad field
  */
 export function safeParseDesign(input: unknown): { ok: true; value: DesignInput } | { ok: false; issues: InputIssue[] } {
-  const r = designInputSchema.safeParse(input);
+  // reportInput lets issuesFromZod tell a missing field ("is required") from a value of the wrong type.
+  const r = designInputSchema.safeParse(input, { reportInput: true });
   if (!r.success) return { ok: false, issues: issuesFromZod(r.error) };
   // Travel depends on the belt layout, so it is checked after the field rules have passed.
   const extra = travelIssues(r.data);

@@ -87,6 +87,17 @@ describe('parseDesign', () => {
     if (!r.ok) expect(r.issues).toEqual([{ path: 'belt.pitchMm', message: 'is required' }]);
   });
 
+  // fix: zod 4 leaves `input` off issues unless asked, so every wrong type read as "is required".
+  it('when a number field holds letters, then the message says it must be a number, not that it is missing', () => {
+    const r = safeParseDesign(withField('frame.outerXMm', 'abc'));
+    expect(r.ok).toBe(false);
+    if (!r.ok) {
+      expect(r.issues).toHaveLength(1);
+      expect(r.issues[0].path).toBe('frame.outerXMm');
+      expect(r.issues[0].message).toMatch(/must be a number/);
+    }
+  });
+
   it('when optional fields are left out, then the documented defaults are applied', () => {
     // Arrange
     const doc = withField('torqueMargin', undefined);
