@@ -2,6 +2,12 @@
 export type ErrorDetail = { path: string; message: string };
 
 /**
+ * What an error body's `details` may hold: usually a list of field issues, but some errors carry a structured
+ * object instead (a version conflict says who saved and when).
+ */
+export type ErrorDetails = ErrorDetail[] | Record<string, unknown>;
+
+/**
  * An expected, operational failure with an HTTP status and a stable machine-readable code.
  * The central error handler turns it into `{ error: { code, message, details? } }`.
  * Anything that is not an AppError (or a known library error) is treated as a bug: logged and answered with 500.
@@ -9,10 +15,10 @@ export type ErrorDetail = { path: string; message: string };
 export class AppError extends Error {
   readonly code: string;
   readonly status: number;
-  readonly details?: ErrorDetail[];
+  readonly details?: ErrorDetails;
   readonly isOperational: boolean;
 
-  constructor(code: string, message: string, status = 400, options: { details?: ErrorDetail[]; cause?: unknown; isOperational?: boolean } = {}) {
+  constructor(code: string, message: string, status = 400, options: { details?: ErrorDetails; cause?: unknown; isOperational?: boolean } = {}) {
     super(message, options.cause === undefined ? undefined : { cause: options.cause });
     this.name = 'AppError';
     this.code = code;

@@ -3,11 +3,11 @@ import { ZodError } from 'zod';
 import {
   ConnectionError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError,
 } from 'sequelize';
-import { AppError, type ErrorDetail } from '../errors';
+import { AppError, type ErrorDetails } from '../errors';
 import { logger } from '../logger';
 import { zodDetails } from './validate';
 
-type ErrorBody = { error: { code: string; message: string; details?: ErrorDetail[] } };
+type ErrorBody = { error: { code: string; message: string; details?: ErrorDetails } };
 
 /** Errors thrown by body-parser / http-errors carry `type`, `status` and `expose`. */
 type HttpLikeError = Error & { type?: string; status?: number; statusCode?: number; expose?: boolean; limit?: number; code?: string; field?: string };
@@ -18,7 +18,7 @@ function formatBytes(bytes: number): string {
 
 /** Maps a thrown value to a status and JSON body. Unknown errors map to 500 (and are flagged as bugs). */
 export function toErrorResponse(err: unknown, requestId?: string): { status: number; body: ErrorBody; isBug: boolean } {
-  const reply = (status: number, code: string, message: string, details?: ErrorDetail[]) =>
+  const reply = (status: number, code: string, message: string, details?: ErrorDetails) =>
     ({ status, body: { error: details ? { code, message, details } : { code, message } }, isBug: false });
 
   if (err instanceof AppError) return { ...reply(err.status, err.code, err.message, err.details), isBug: !err.isOperational };

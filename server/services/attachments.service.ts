@@ -185,6 +185,19 @@ async function removeIfUnreferenced(sha256: string): Promise<void> {
   });
 }
 
+/**
+ * After rows that referred to stored bytes were deleted and committed (e.g. a design's attachments, cascaded with
+ * the design), removes the bytes of each hash that no attachment or recording refers to any more. Each hash is
+ * checked in its own transaction that locks the rows of that hash, as {@link deleteAttachment} does. Never throws:
+ * the delete already happened, so a failed cleanup only leaves an unreferenced file behind and is logged.
+ * @param sha256s - hashes of the deleted rows (duplicates are fine)
+ */
+export async function removeUnreferencedBytes(sha256s: readonly string[]): Promise<void> {
+  for (const sha256 of new Set(sha256s)) {
+    await removeIfUnreferenced(sha256).catch((err: unknown) => logger.warn({ err, sha256 }, 'could not remove unreferenced stored bytes'));
+  }
+}
+
 async function findDesignOr404(id: number): Promise<Design> {
   const design = await Design.findByPk(id, { attributes: ['id', 'ownerId', 'name'] });
   if (!design) throw notFound('Design');

@@ -3,10 +3,11 @@ import { defaultDesign, EngineInputError, evaluateValidDesign, safeParseDesign, 
 import { AppError, conflict, forbidden, notFound, validationError, type ErrorDetail } from '../errors';
 import { getSequelize } from '../db';
 import {
-  Design, EDITABLE_DESIGN_STATUSES, User,
+  Attachment, Design, EDITABLE_DESIGN_STATUSES, User,
   type DesignMechanism, type DesignResultSummary, type DesignStatus,
 } from '../models';
 import type { CreateDesignInput, ListDesignsQuery, UpdateDesignInput } from '../schemas/designs.schema';
+import { removeUnreferencedBytes } from './attachments.service';
 import { recordAudit } from './audit.service';
 import type { Page, PublicUser } from './users.service';
 
@@ -219,9 +220,9 @@ function versionConflict(row: DesignRow): AppError {
     updatedAt: new Date(row.updatedAt).toISOString(),
   };
   // The error body's `details` is usually a list of field issues; for a version conflict it is this object
-  // (the contract of PATCH /api/designs/:id), so it is passed through as is.
+  // (the contract of PATCH /api/designs/:id).
   return new AppError('version_conflict', `This design was changed by ${details.updatedBy?.name ?? 'someone else'} since you opened it (now version ${row.version}). Reload it, or save your inputs as a copy.`, 409, {
-    details: details as unknown as ErrorDetail[],
+    details,
   });
 }
 
@@ -273,11 +274,16 @@ export async function deleteDesign(actor: PublicUser, id: number): Promise<void>
   if (!DELETABLE_STATUSES.includes(row.status as DesignStatus)) {
     throw conflict(`This design is ${row.status === 'in_review' ? 'in review' : row.status}; only drafts can be deleted.`, 'not_deletable');
   }
-  await getSequelize().transaction(async (transaction) => {
+  const attachmentHashes = await getSequelize().transaction(async (transaction) => {
+    // The attachment rows go with the design (ON DELETE CASCADE); note their hashes to clean up the bytes after.
+    const attachments = await Attachment.findAll({ where: { designId: id }, attributes: ['id', 'sha256'], transaction, lock: transaction.LOCK.UPDATE });
     const deleted = await Design.destroy({ where: { id, status: { [Op.in]: [...DELETABLE_STATUSES] } }, transaction });
     if (deleted === 0) throw conflict('This design changed state while deleting; reload it.', 'not_deletable');
     await recordAudit({ actorId: actor.id, action: 'design.delete', entity: 'design', entityId: id, fromState: row.status }, transaction);
+    return attachments.map((a) => a.sha256);
   });
+  // Only after the commit: bytes still referenced by another attachment or a recording stay.
+  await removeUnreferencedBytes(attachmentHashes);
 }
 
 /** A file name for a design's export: the name in lower-case kebab form, `.json`. */

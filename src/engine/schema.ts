@@ -42,7 +42,9 @@ const frameSchema = z.strictObject({
 });
 
 const beltSchema = z.strictObject({
-  pitchMm: pos(50, 'belt pitch'),
+  // The finest synchronous-belt pitches in use are about 1 mm; a near-zero pitch would surface later as a
+  // confusing frame-size error, so it is refused here, at its own field.
+  pitchMm: num(0.5, 50, 'belt pitch'),
   widthMm: pos(500, 'belt width'),
   linearMassKgPerM: pos(10, 'belt linear mass'),
   axialStiffnessN: pos(1e8, 'belt axial stiffness EA'),

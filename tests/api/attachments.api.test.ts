@@ -237,3 +237,28 @@ describe('DELETE /api/attachments/:id', () => {
     expect(bad.body.error.details[0].path).toBe('id');
   });
 });
+
+describe('DELETE /api/designs/:id (its attachments)', () => {
+  it('when a draft with attachments is deleted, then its rows go and only bytes nothing else refers to are removed', async () => {
+    // Arrange: the doomed design has its own file and one it shares with another design.
+    const owner = (await agents.owner.get('/api/auth/me')).body.user;
+    const doomed = await createDesign({ owner, name: 'Doomed draft' });
+    const own = FILES.png();
+    const shared = FILES.pdf();
+    const ownRes = await upload('owner', own, 'own.png', 'image/png', doomed.id);
+    const sharedRes = await upload('owner', shared, 'shared.pdf', 'application/pdf', doomed.id);
+    const keeper = await upload('owner', shared, 'shared copy.pdf', 'application/pdf', designId);
+    expect([ownRes.status, sharedRes.status, keeper.status]).toEqual([201, 201, 201]);
+    expect(isStored(sha256(own))).toBe(true);
+    // Act
+    const res = await agents.owner.delete(`/api/designs/${doomed.id}`);
+    // Assert
+    expect(res.status).toBe(204);
+    expect(await Attachment.count({ where: { designId: doomed.id } })).toBe(0);
+    expect(isStored(sha256(own))).toBe(false);
+    expect(isStored(sha256(shared))).toBe(true);
+    const download = await binary(agents.owner.get(`/api/attachments/${keeper.body.id}`));
+    expect(download.status).toBe(200);
+    expect(sha256(download.body as Buffer)).toBe(sha256(shared));
+  });
+});

@@ -542,11 +542,9 @@ describe('immutability of revisions', () => {
   it('when the database is asked to change a frozen column, then the trigger refuses it (review state may still move)', async () => {
     const { revision } = await submitted();
 
-    const rewrite = getSequelize().query("UPDATE revisions SET inputs = JSON_SET(inputs, '$.name', 'forged') WHERE id = ?", { replacements: [revision.id] });
-    const rehash = getSequelize().query('UPDATE revisions SET fingerprint = ? WHERE id = ?', { replacements: ['0'.repeat(64), revision.id] });
-
-    await expect(rewrite).rejects.toThrow(/frozen/);
-    await expect(rehash).rejects.toThrow(/frozen/);
+    // fix: start each query only after the previous rejection is handled, or a fast second failure is unhandled.
+    await expect(getSequelize().query("UPDATE revisions SET inputs = JSON_SET(inputs, '$.name', 'forged') WHERE id = ?", { replacements: [revision.id] })).rejects.toThrow(/frozen/);
+    await expect(getSequelize().query('UPDATE revisions SET fingerprint = ? WHERE id = ?', { replacements: ['0'.repeat(64), revision.id] })).rejects.toThrow(/frozen/);
     const row = await Revision.findByPk(revision.id);
     expect(row?.fingerprint).toBe(revision.fingerprint);
   });

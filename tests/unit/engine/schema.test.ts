@@ -98,6 +98,11 @@ describe('parseDesign', () => {
     }
   });
 
+  // fix: a vanishing pitch used to pass and be reported against the frame size instead.
+  it('when the belt pitch is vanishingly small, then the error names belt.pitchMm', () => {
+    expect(issuePaths(withField('belt.pitchMm', 1e-300))).toEqual(['belt.pitchMm']);
+  });
+
   it('when optional fields are left out, then the documented defaults are applied', () => {
     // Arrange
     const doc = withField('torqueMargin', undefined);
