@@ -61,7 +61,7 @@ describe('WorkbenchInputs', () => {
     await flushPromises();
     // Assert
     expect((model.belt as { pitchMm: number }).pitchMm).toBe(-2);
-    expect(apiMessage).toBe('belt pitch must be greater than 0');
+    expect(apiMessage).toBe('belt pitch must be at least 0.5');
     // Element Plus shows a form item's message after a short debounce of its validation state.
     await vi.waitFor(() => expect(fieldError(wrapper, 'belt.pitchMm')).toBe(apiMessage));
     expect(fieldError(wrapper, 'belt.widthMm')).toBe('');
