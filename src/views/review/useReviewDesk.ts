@@ -1,6 +1,5 @@
-import { onMounted, ref, shallowRef, watch } from 'vue';
-import { listRevisions, type RevisionListItem } from '@/api/revisions';
-import { errorMessage } from '@/utils/message';
+import { listRevisions } from '@/api/revisions';
+import { usePagedList } from '@/composables/usePagedList';
 
 /** Rows per page of the review desk. */
 export const REVIEW_DESK_PAGE_SIZE = 20;
@@ -10,38 +9,10 @@ export const REVIEW_DESK_PAGE_SIZE = 20;
  * one page at a time.
  */
 export function useReviewDesk() {
-  const rows = shallowRef<RevisionListItem[]>([]);
-  const total = ref(0);
-  const page = ref(1);
-  const isLoading = ref(false);
-  const hasLoaded = ref(false);
-  const loadError = ref<string | null>(null);
-  let ticket = 0;
-
-  /** (Re)loads the current page. */
-  async function load(): Promise<void> {
-    const mine = ++ticket;
-    isLoading.value = true;
-    try {
-      const answer = await listRevisions({ status: 'in_review', page: page.value, pageSize: REVIEW_DESK_PAGE_SIZE });
-      if (mine !== ticket) return;
-      rows.value = answer.items;
-      total.value = answer.total;
-      loadError.value = null;
-    } catch (err) {
-      if (mine === ticket) loadError.value = errorMessage(err, 'The review desk could not be loaded.');
-    } finally {
-      if (mine === ticket) {
-        isLoading.value = false;
-        hasLoaded.value = true;
-      }
-    }
-  }
-
-  watch(page, () => void load());
-  onMounted(() => void load());
-
-  return { rows, total, page, isLoading, hasLoaded, loadError, load };
+  return usePagedList(
+    (page) => listRevisions({ status: 'in_review', page, pageSize: REVIEW_DESK_PAGE_SIZE }),
+    'The review desk could not be loaded.',
+  );
 }
 
 /**

@@ -1,49 +1,23 @@
-import { onMounted, ref, shallowRef, watch } from 'vue';
-import { listSheets, type SheetListItem } from '@/api/sheets';
-import { errorMessage } from '@/utils/message';
+import { ref, watch } from 'vue';
+import { listSheets } from '@/api/sheets';
+import { usePagedList } from '@/composables/usePagedList';
 
 /** Rows per page of the Sheets table. */
 export const SHEETS_PAGE_SIZE = 20;
 
 /** State of the Sheets screen: approved sheets, newest approval first, optionally without superseded ones. */
 export function useSheets() {
-  const rows = shallowRef<SheetListItem[]>([]);
-  const total = ref(0);
-  const page = ref(1);
   const isCurrentOnly = ref(false);
-  const isLoading = ref(false);
-  const hasLoaded = ref(false);
-  const loadError = ref<string | null>(null);
-  let ticket = 0;
-
-  /** (Re)loads the current page. */
-  async function load(): Promise<void> {
-    const mine = ++ticket;
-    isLoading.value = true;
-    try {
-      const answer = await listSheets({ page: page.value, pageSize: SHEETS_PAGE_SIZE, current: isCurrentOnly.value });
-      if (mine !== ticket) return;
-      rows.value = answer.items;
-      total.value = answer.total;
-      loadError.value = null;
-    } catch (err) {
-      if (mine === ticket) loadError.value = errorMessage(err, 'The sheets could not be loaded.');
-    } finally {
-      if (mine === ticket) {
-        isLoading.value = false;
-        hasLoaded.value = true;
-      }
-    }
-  }
-
-  watch(page, () => void load());
+  const list = usePagedList(
+    (page) => listSheets({ page, pageSize: SHEETS_PAGE_SIZE, current: isCurrentOnly.value }),
+    'The sheets could not be loaded.',
+  );
+  // A new filter starts again from the first page (which loads by itself when the page changes).
   watch(isCurrentOnly, () => {
-    if (page.value !== 1) page.value = 1;
-    else void load();
+    if (list.page.value !== 1) list.page.value = 1;
+    else void list.load();
   });
-  onMounted(() => void load());
-
-  return { rows, total, page, isCurrentOnly, isLoading, hasLoaded, loadError, load };
+  return { ...list, isCurrentOnly };
 }
 
 /**
