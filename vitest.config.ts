@@ -10,10 +10,43 @@ const alias = { '@': fileURLToPath(new URL('./src', import.meta.url)) };
 export default defineConfig({
   test: {
     projects: [
-      { resolve: { alias }, test: { name: 'unit', environment: 'node', include: ['tests/unit/**/*.test.ts'], exclude: ['tests/unit/client/**'] } },
-      { plugins: [vue()], resolve: { alias }, test: { name: 'client', environment: 'jsdom', include: ['tests/unit/client/**/*.test.ts'], server: { deps: { inline: ['element-plus'] } } } },
-      { resolve: { alias }, test: { name: 'api', environment: 'node', include: ['tests/api/**/*.test.ts'], globalSetup: ['tests/helpers/apiGlobalSetup.ts'], testTimeout: 30000, hookTimeout: 60000 } },
-      { resolve: { alias }, test: { name: 'e2e', environment: 'node', include: ['tests/e2e/**/*.test.ts'], globalSetup: ['tests/helpers/e2eGlobalSetup.ts'], testTimeout: 60000, hookTimeout: 120000, fileParallelism: false } },
+      {
+        resolve: { alias },
+        test: { name: 'unit', environment: 'node', include: ['tests/unit/**/*.test.ts'], exclude: ['tests/unit/client/**'] },
+      },
+      {
+        plugins: [vue()],
+        resolve: { alias },
+        test: {
+          name: 'client',
+          environment: 'jsdom',
+          include: ['tests/unit/client/**/*.test.ts'],
+          server: { deps: { inline: ['element-plus'] } },
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: 'api',
+          environment: 'node',
+          include: ['tests/api/**/*.test.ts'],
+          globalSetup: ['tests/helpers/apiGlobalSetup.ts'],
+          testTimeout: 30000,
+          hookTimeout: 60000,
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['tests/e2e/**/*.test.ts'],
+          globalSetup: ['tests/helpers/e2eGlobalSetup.ts'],
+          testTimeout: 60000,
+          hookTimeout: 120000,
+          fileParallelism: false,
+        },
+      },
     ],
   },
 });

@@ -16,14 +16,18 @@ function median(xs: number[]): number {
   return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
 }
 
-const files = readdirSync(dir).filter((f) => f.endsWith('.json')).sort();
+const files = readdirSync(dir)
+  .filter((f) => f.endsWith('.json'))
+  .sort();
 if (files.length === 0) {
   process.stderr.write(`no demo designs in ${dir}\n`);
   process.exit(2);
 }
 const all: number[] = [];
 const allCpu: number[] = [];
-process.stdout.write(`engine ${ENGINE_VERSION}: evaluateDesign, 101 × 101 stiffness map, 360 directions, ${RUNS} runs after ${WARMUP} warm-up\n`);
+process.stdout.write(
+  `engine ${ENGINE_VERSION}: evaluateDesign, 101 × 101 stiffness map, 360 directions, ${RUNS} runs after ${WARMUP} warm-up\n`,
+);
 for (const f of files) {
   const design = { ...JSON.parse(readFileSync(join(dir, f), 'utf8')), map: { points: 101 } };
   for (let i = 0; i < WARMUP; i++) evaluateDesign(design);

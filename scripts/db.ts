@@ -21,7 +21,10 @@ const isRoot = () => typeof process.getuid === 'function' && process.getuid() ==
 
 /** Raised when a Debian package is missing and we may not install it (not root). The message has the exact command. */
 export class MissingPackagesError extends Error {
-  constructor(readonly packages: string[], readonly command: string) {
+  constructor(
+    readonly packages: string[],
+    readonly command: string,
+  ) {
     super(`Missing Debian package(s): ${packages.join(', ')}.\nInstall them as root, then run the command again:\n\n  ${command}\n`);
     this.name = 'MissingPackagesError';
   }
@@ -62,7 +65,8 @@ export function ensureDebianPackages(requirements: DebianRequirement[], log: Log
   const packages = [...new Set(missing.map((r) => r.pkg))];
   const command = `sudo sh -c 'apt-get update && DEBIAN_FRONTEND=noninteractive apt-get install -y ${packages.join(' ')}'`;
   if (!isRoot()) throw new MissingPackagesError(packages, command);
-  if (!findBinary('apt-get')) throw new Error(`Missing ${packages.join(', ')} and apt-get is not available: install them with your system's package manager.`);
+  if (!findBinary('apt-get'))
+    throw new Error(`Missing ${packages.join(', ')} and apt-get is not available: install them with your system's package manager.`);
   log(`Installing Debian package(s) ${packages.join(', ')} (apt-get)...`);
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
   const run = (args: string[]) => {
@@ -77,7 +81,11 @@ export function ensureDebianPackages(requirements: DebianRequirement[], log: Log
 
 function requireBinary(name: string): string {
   const found = findBinary(name);
-  if (!found) throw new MissingPackagesError([MARIADB_PACKAGE.pkg], `sudo sh -c 'apt-get update && DEBIAN_FRONTEND=noninteractive apt-get install -y ${MARIADB_PACKAGE.pkg}'`);
+  if (!found)
+    throw new MissingPackagesError(
+      [MARIADB_PACKAGE.pkg],
+      `sudo sh -c 'apt-get update && DEBIAN_FRONTEND=noninteractive apt-get install -y ${MARIADB_PACKAGE.pkg}'`,
+    );
   return found;
 }
 
@@ -142,11 +150,17 @@ function clientArgs(paths: MariaDbPaths): string[] {
 /** Runs SQL over the socket as the admin account (SQL goes through stdin, so passwords stay out of `ps`). */
 export function runSql(paths: MariaDbPaths, sql: string): Promise<string> {
   return new Promise((resolve, reject) => {
-    const child = spawn(requireBinary('mariadb'), [...clientArgs(paths), '--batch', '--skip-column-names'], { stdio: ['pipe', 'pipe', 'pipe'] });
+    const child = spawn(requireBinary('mariadb'), [...clientArgs(paths), '--batch', '--skip-column-names'], {
+      stdio: ['pipe', 'pipe', 'pipe'],
+    });
     let out = '';
     let err = '';
-    child.stdout.on('data', (d: Buffer) => { out += d.toString(); });
-    child.stderr.on('data', (d: Buffer) => { err += d.toString(); });
+    child.stdout.on('data', (d: Buffer) => {
+      out += d.toString();
+    });
+    child.stderr.on('data', (d: Buffer) => {
+      err += d.toString();
+    });
     child.on('error', reject);
     child.on('close', (code) => (code === 0 ? resolve(out) : reject(new Error(`mariadb client failed (exit ${code}): ${err.trim()}`))));
     child.stdin.end(sql);
@@ -154,7 +168,10 @@ export function runSql(paths: MariaDbPaths, sql: string): Promise<string> {
 }
 
 function ping(paths: MariaDbPaths): boolean {
-  const result = spawnSync(requireBinary('mariadb-admin'), [...clientArgs(paths), '--connect-timeout=2', 'ping'], { stdio: 'ignore', timeout: 5000 });
+  const result = spawnSync(requireBinary('mariadb-admin'), [...clientArgs(paths), '--connect-timeout=2', 'ping'], {
+    stdio: 'ignore',
+    timeout: 5000,
+  });
   return result.status === 0;
 }
 
@@ -162,8 +179,14 @@ function portInUse(port: number): Promise<boolean> {
   return new Promise((resolve) => {
     const socket = net.connect({ host: '127.0.0.1', port });
     socket.setTimeout(1000);
-    socket.once('connect', () => { socket.destroy(); resolve(true); });
-    socket.once('timeout', () => { socket.destroy(); resolve(false); });
+    socket.once('connect', () => {
+      socket.destroy();
+      resolve(true);
+    });
+    socket.once('timeout', () => {
+      socket.destroy();
+      resolve(false);
+    });
     socket.once('error', () => resolve(false));
   });
 }
@@ -244,7 +267,10 @@ export async function startMariaDb(options: { dir: string; port: number; log?: L
   const makeHandle = (pid: number, adopted: boolean): MariaDbHandle => {
     let stopping: Promise<void> | undefined;
     return {
-      paths, port: options.port, pid, adopted,
+      paths,
+      port: options.port,
+      pid,
+      adopted,
       stop: () => {
         stopping ??= stopPid(paths, pid, log).then(() => removeStaleFiles(paths));
         return stopping;
@@ -275,9 +301,11 @@ export async function startMariaDb(options: { dir: string; port: number; log?: L
     fs.rmSync(paths.dataDir, { recursive: true, force: true });
     const shown = path.relative(process.cwd(), paths.dataDir);
     log(`Initialising a MariaDB data folder in ${shown && !shown.startsWith('..') ? shown : paths.dataDir} ...`);
-    const result = spawnSync(requireBinary('mariadb-install-db'), [
-      '--no-defaults', `--user=${adminUser()}`, `--datadir=${paths.dataDir}`, '--skip-test-db',
-    ], { encoding: 'utf8', timeout: 120_000 });
+    const result = spawnSync(
+      requireBinary('mariadb-install-db'),
+      ['--no-defaults', `--user=${adminUser()}`, `--datadir=${paths.dataDir}`, '--skip-test-db'],
+      { encoding: 'utf8', timeout: 120_000 },
+    );
     if (result.status !== 0) {
       throw new Error(`mariadb-install-db failed (exit ${result.status ?? result.signal}):\n${result.stderr || result.stdout}`);
     }
@@ -291,20 +319,32 @@ export async function startMariaDb(options: { dir: string; port: number; log?: L
 
   // 4. Start.
   const args = [
-    '--no-defaults', `--datadir=${paths.dataDir}`, `--socket=${paths.socket}`, `--pid-file=${paths.pidFile}`,
-    `--port=${options.port}`, '--bind-address=127.0.0.1', '--skip-name-resolve', `--log-error=${paths.errorLog}`,
-    '--character-set-server=utf8mb4', '--collation-server=utf8mb4_unicode_ci', '--default-time-zone=+00:00',
+    '--no-defaults',
+    `--datadir=${paths.dataDir}`,
+    `--socket=${paths.socket}`,
+    `--pid-file=${paths.pidFile}`,
+    `--port=${options.port}`,
+    '--bind-address=127.0.0.1',
+    '--skip-name-resolve',
+    `--log-error=${paths.errorLog}`,
+    '--character-set-server=utf8mb4',
+    '--collation-server=utf8mb4_unicode_ci',
+    '--default-time-zone=+00:00',
   ];
   if (isRoot()) args.splice(1, 0, '--user=root');
   const child: ChildProcess = spawn(mariadbd, args, { detached: true, stdio: 'ignore' });
   let exited: number | string | null = null;
-  child.once('exit', (code, signal) => { exited = code ?? signal ?? 'unknown'; });
+  child.once('exit', (code, signal) => {
+    exited = code ?? signal ?? 'unknown';
+  });
   child.unref();
 
   const ready = await waitUntil(() => exited === null && ping(paths), 60_000, 100);
   if (!ready) {
     if (exited === null && child.pid) await stopPid(paths, child.pid, log);
-    throw new Error(`MariaDB did not start on port ${options.port} (exit: ${exited ?? 'timeout'}). Last lines of ${paths.errorLog}:\n${tail(paths.errorLog)}`);
+    throw new Error(
+      `MariaDB did not start on port ${options.port} (exit: ${exited ?? 'timeout'}). Last lines of ${paths.errorLog}:\n${tail(paths.errorLog)}`,
+    );
   }
   const pid = readPid(paths.pidFile) ?? child.pid!;
   log(`MariaDB started on 127.0.0.1:${options.port} (pid ${pid}).`);
@@ -338,7 +378,10 @@ export async function ensureDatabases(handle: MariaDbHandle, spec: { databases: 
 /** Drops and re-creates a database (used by tests that need a blank one). */
 export async function recreateDatabase(handle: MariaDbHandle, name: string): Promise<void> {
   assertIdentifier(name, 'Database name');
-  await runSql(handle.paths, `DROP DATABASE IF EXISTS \`${name}\`; CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`);
+  await runSql(
+    handle.paths,
+    `DROP DATABASE IF EXISTS \`${name}\`; CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`,
+  );
 }
 
 async function cli(): Promise<void> {
@@ -361,7 +404,11 @@ async function cli(): Promise<void> {
     ensureDebianPackages([MARIADB_PACKAGE]);
     const handle = await startMariaDb({ dir, port });
     if (process.env.DB_PASSWORD) {
-      await ensureDatabases(handle, { databases: [process.env.DB_NAME || 'gantrywright'], user: process.env.DB_USER || 'gantry', password: process.env.DB_PASSWORD });
+      await ensureDatabases(handle, {
+        databases: [process.env.DB_NAME || 'gantrywright'],
+        user: process.env.DB_USER || 'gantry',
+        password: process.env.DB_PASSWORD,
+      });
     }
     defaultLog('Left running; stop it with: npm run db:stop');
   } else {

@@ -138,11 +138,17 @@ function walk(part: Part, out: Pick<CaughtMessage, 'text' | 'html' | 'attachment
   const bytes = decodeBody(part);
   const isAttachment = disposition.value === 'attachment' || (!type.value.startsWith('text/') && type.value !== '');
   // SMTP lines end in CRLF; the stored text uses plain LF.
-  if (!isAttachment && type.value === 'text/plain' && !out.text) out.text = bytesToString(bytes, type.params.charset).replace(/\r\n/g, '\n');
-  else if (!isAttachment && type.value === 'text/html' && !out.html) out.html = bytesToString(bytes, type.params.charset).replace(/\r\n/g, '\n');
+  if (!isAttachment && type.value === 'text/plain' && !out.text)
+    out.text = bytesToString(bytes, type.params.charset).replace(/\r\n/g, '\n');
+  else if (!isAttachment && type.value === 'text/html' && !out.html)
+    out.html = bytesToString(bytes, type.params.charset).replace(/\r\n/g, '\n');
   else {
     const filename = disposition.params.filename ?? type.params.name ?? null;
-    out.attachments.push({ filename: filename ? decodeEncodedWords(filename) : null, contentType: type.value || 'application/octet-stream', size: bytes.length });
+    out.attachments.push({
+      filename: filename ? decodeEncodedWords(filename) : null,
+      contentType: type.value || 'application/octet-stream',
+      size: bytes.length,
+    });
   }
 }
 
@@ -196,11 +202,20 @@ function loadMessages(file: string): CaughtMessage[] {
   return messages;
 }
 
-function listen(server: { listen: (port: number, host: string, cb: () => void) => unknown; once: (e: string, cb: (err: Error) => void) => unknown }, port: number, host: string, what: string): Promise<void> {
+function listen(
+  server: { listen: (port: number, host: string, cb: () => void) => unknown; once: (e: string, cb: (err: Error) => void) => unknown },
+  port: number,
+  host: string,
+  what: string,
+): Promise<void> {
   return new Promise((resolve, reject) => {
     server.once('error', (err: Error) => {
       const code = (err as NodeJS.ErrnoException).code;
-      reject(code === 'EADDRINUSE' ? new Error(`${what} port ${port} on ${host} is already in use. Stop the other program or choose another port in .env.`) : err);
+      reject(
+        code === 'EADDRINUSE'
+          ? new Error(`${what} port ${port} on ${host} is already in use. Stop the other program or choose another port in .env.`)
+          : err,
+      );
     });
     server.listen(port, host, () => resolve());
   });
@@ -209,7 +224,13 @@ function listen(server: { listen: (port: number, host: string, cb: () => void) =
 /**
  * Starts the SMTP catcher and its HTTP list. Messages persist in `dir`/messages.jsonl.
  */
-export async function startMailCatcher(options: { host?: string; smtpPort: number; httpPort: number; dir: string; log?: (line: string) => void }): Promise<MailCatcher> {
+export async function startMailCatcher(options: {
+  host?: string;
+  smtpPort: number;
+  httpPort: number;
+  dir: string;
+  log?: (line: string) => void;
+}): Promise<MailCatcher> {
   const host = options.host ?? '127.0.0.1';
   const log = options.log ?? ((line: string) => process.stdout.write(`${line}\n`));
   fs.mkdirSync(options.dir, { recursive: true });
@@ -304,7 +325,9 @@ async function cli(): Promise<void> {
     httpPort: Number(process.env.MAILCATCHER_HTTP_PORT || 2527),
     dir: path.join(resolveFromRoot(process.env.DATA_DIR || '.data'), 'mail'),
   });
-  const stop = () => { void catcher.close().then(() => process.exit(0)); };
+  const stop = () => {
+    void catcher.close().then(() => process.exit(0));
+  };
   process.once('SIGINT', stop);
   process.once('SIGTERM', stop);
 }

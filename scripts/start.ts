@@ -25,9 +25,7 @@ export function ensureEnvFile(): void {
   const secret = () => randomBytes(32).toString('base64url');
   if (!fs.existsSync(ENV_FILE)) {
     const template = fs.readFileSync(ENV_EXAMPLE, 'utf8');
-    const filled = template
-      .replace(/^JWT_SECRET=.*$/m, `JWT_SECRET=${secret()}`)
-      .replace(/^DB_PASSWORD=.*$/m, `DB_PASSWORD=${secret()}`);
+    const filled = template.replace(/^JWT_SECRET=.*$/m, `JWT_SECRET=${secret()}`).replace(/^DB_PASSWORD=.*$/m, `DB_PASSWORD=${secret()}`);
     fs.writeFileSync(ENV_FILE, filled, { mode: 0o600 });
     say('Created .env with a random JWT secret and database password.');
     return;
@@ -89,7 +87,9 @@ function stopChild(child: ChildProcess): Promise<void> {
 function printBanner(config: AppConfig, dev: boolean, formatDemoSignIns: () => string): void {
   const line = '-'.repeat(64);
   say(line);
-  say(`Gantrywright is running: ${dev ? `http://127.0.0.1:${process.env.VITE_PORT ?? 5173}  (Vite hot reload; API on ${config.appUrl})` : config.appUrl}`);
+  say(
+    `Gantrywright is running: ${dev ? `http://127.0.0.1:${process.env.VITE_PORT ?? 5173}  (Vite hot reload; API on ${config.appUrl})` : config.appUrl}`,
+  );
   if (!config.isProduction) say(`Caught e-mail: Outbox screen, or http://${config.smtp.host}:${config.mailcatcherHttpPort}/messages`);
   say('');
   say(formatDemoSignIns());
@@ -181,8 +181,11 @@ async function main(): Promise<void> {
 
     if (!config.isProduction) {
       running.catcher = await startMailCatcher({
-        host: config.smtp.host, smtpPort: config.smtp.port, httpPort: config.mailcatcherHttpPort,
-        dir: path.join(config.dataDir, 'mail'), log: say,
+        host: config.smtp.host,
+        smtpPort: config.smtp.port,
+        httpPort: config.mailcatcherHttpPort,
+        dir: path.join(config.dataDir, 'mail'),
+        log: say,
       });
     }
 
@@ -192,7 +195,9 @@ async function main(): Promise<void> {
 
     if (dev) {
       running.vite = spawn(process.execPath, [path.join(ROOT_DIR, 'node_modules', 'vite', 'bin', 'vite.js'), '--strictPort'], {
-        cwd: ROOT_DIR, stdio: ['ignore', 'inherit', 'inherit'], env: { ...process.env, PORT: String(config.port) },
+        cwd: ROOT_DIR,
+        stdio: ['ignore', 'inherit', 'inherit'],
+        env: { ...process.env, PORT: String(config.port) },
       });
       running.vite.once('exit', (code, signal) => {
         if (!stopping) shutdown(`Vite dev server exited (${code ?? signal})`, 1);

@@ -13,21 +13,42 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { ROOT_DIR } from '../server/paths';
 import {
-  CHROMIUM_PACKAGE, ensureDatabases, ensureDebianPackages, MARIADB_PACKAGE, POPPLER_PACKAGE,
-  startMariaDb, stopMariaDbInDir, type DebianRequirement, type MariaDbHandle,
+  CHROMIUM_PACKAGE,
+  ensureDatabases,
+  ensureDebianPackages,
+  MARIADB_PACKAGE,
+  POPPLER_PACKAGE,
+  startMariaDb,
+  stopMariaDbInDir,
+  type DebianRequirement,
+  type MariaDbHandle,
 } from './db';
 import { startMailCatcher, type MailCatcher } from './mailcatcher';
 import { acquireRunLock } from './runLock';
 
 const say = (line = '') => process.stdout.write(`${line}\n`);
 
-/** Fixed test ports and names (see notes in .env.example and DEVELOPERS.md). */
+/**
+ * Shifts every test port by this much, so that two checkouts on one machine can run their tests at the same
+ * time (`GW_TEST_PORT_OFFSET=20 npm test`). Unset means the ports listed in the README.
+ */
+export function testPortOffset(env: NodeJS.ProcessEnv = process.env): number {
+  const raw = env.GW_TEST_PORT_OFFSET;
+  if (raw === undefined || raw === '') return 0;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 0 || n > 1000) throw new Error(`GW_TEST_PORT_OFFSET must be a whole number from 0 to 1000, not "${raw}"`);
+  return n;
+}
+
+const OFFSET = testPortOffset();
+
+/** Test ports and names (see notes in .env.example and DEVELOPERS.md). */
 export const TEST_SETTINGS = {
   dataDir: '.data-test',
-  dbPort: 3417,
-  smtpPort: 2536,
-  mailcatcherHttpPort: 2537,
-  appPort: 5190,
+  dbPort: 3417 + OFFSET,
+  smtpPort: 2536 + OFFSET,
+  mailcatcherHttpPort: 2537 + OFFSET,
+  appPort: 5190 + OFFSET,
   apiDatabase: 'gw_test_api',
   e2eDatabase: 'gw_test_e2e',
   dbUser: 'gw_test',
@@ -123,16 +144,24 @@ async function main(): Promise<number> {
     const dbPassword = randomBytes(18).toString('base64url');
     if (needsServices) {
       db = await startMariaDb({ dir: path.join(dataDir, 'mariadb'), port: TEST_SETTINGS.dbPort, log: say });
-      await ensureDatabases(db, { databases: [TEST_SETTINGS.apiDatabase, TEST_SETTINGS.e2eDatabase], user: TEST_SETTINGS.dbUser, password: dbPassword });
+      await ensureDatabases(db, {
+        databases: [TEST_SETTINGS.apiDatabase, TEST_SETTINGS.e2eDatabase],
+        user: TEST_SETTINGS.dbUser,
+        password: dbPassword,
+      });
       catcher = await startMailCatcher({
-        smtpPort: TEST_SETTINGS.smtpPort, httpPort: TEST_SETTINGS.mailcatcherHttpPort, dir: path.join(dataDir, 'mail'), log: say,
+        smtpPort: TEST_SETTINGS.smtpPort,
+        httpPort: TEST_SETTINGS.mailcatcherHttpPort,
+        dir: path.join(dataDir, 'mail'),
+        log: say,
       });
     }
     if (interrupted) throw new Error(`interrupted (${interrupted})`);
 
     const env: NodeJS.ProcessEnv = { ...process.env };
     // Settings from the developer's shell must not leak into the tests.
-    for (const key of ['UPLOAD_DIR', 'TRUST_PROXY', 'SMTP_USER', 'SMTP_PASSWORD', 'SMTP_SECURE', 'MAIL_FROM', 'DB_POOL_MAX']) delete env[key];
+    for (const key of ['UPLOAD_DIR', 'TRUST_PROXY', 'SMTP_USER', 'SMTP_PASSWORD', 'SMTP_SECURE', 'MAIL_FROM', 'DB_POOL_MAX'])
+      delete env[key];
     Object.assign(env, {
       NODE_ENV: 'test',
       LOG_LEVEL: process.env.TEST_LOG_LEVEL ?? 'silent',
@@ -157,8 +186,11 @@ async function main(): Promise<number> {
     });
 
     const vitestArgs = [
-      path.join(ROOT_DIR, 'node_modules', 'vitest', 'vitest.mjs'), 'run',
-      '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`,
+      path.join(ROOT_DIR, 'node_modules', 'vitest', 'vitest.mjs'),
+      'run',
+      '--reporter=default',
+      '--reporter=json',
+      `--outputFile.json=${reportFile}`,
       ...args,
     ];
     vitestCode = await new Promise<number | null>((resolve, reject) => {
@@ -186,9 +218,11 @@ async function main(): Promise<number> {
   if (interrupted) exitCode = 130;
   else if (!reportOk || counts.failed > 0 || vitestCode !== 0 || counts.passed === 0) exitCode = 1;
   if (exitCode === 1 && reportOk && counts.failed === 0) {
-    process.stderr.write(counts.passed === 0
-      ? 'No tests ran (no test file matched, or vitest stopped before running any; see above).\n'
-      : `vitest exited with code ${vitestCode} (errors outside the tests; see above).\n`);
+    process.stderr.write(
+      counts.passed === 0
+        ? 'No tests ran (no test file matched, or vitest stopped before running any; see above).\n'
+        : `vitest exited with code ${vitestCode} (errors outside the tests; see above).\n`,
+    );
   }
   say(summaryLine(counts));
   return exitCode;

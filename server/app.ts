@@ -51,12 +51,14 @@ export function createApp(): Express {
 
 /** Serves dist/: hashed assets cached for a year, index.html never cached, SPA fallback for page routes. */
 function mountClient(app: Express): void {
-  app.use(express.static(DIST_DIR, {
-    index: false,
-    setHeaders(res, filePath) {
-      if (filePath.includes(`${path.sep}assets${path.sep}`)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
-    },
-  }));
+  app.use(
+    express.static(DIST_DIR, {
+      index: false,
+      setHeaders(res, filePath) {
+        if (filePath.includes(`${path.sep}assets${path.sep}`)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+      },
+    }),
+  );
   app.get('/{*splat}', function spaFallback(req, res, next) {
     // A missing file (has an extension) is a 404, not the app shell.
     if (path.extname(req.path)) {

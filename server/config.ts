@@ -16,21 +16,31 @@ const envSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   HOST: z.string().min(1).default('127.0.0.1'),
   PORT: port(5180),
-  APP_URL: z.url({ protocol: /^https?$/, message: 'must be an http(s) URL such as http://127.0.0.1:5180' })
-    .optional(),
+  APP_URL: z.url({ protocol: /^https?$/, message: 'must be an http(s) URL such as http://127.0.0.1:5180' }).optional(),
   DB_HOST: z.string().min(1).default('127.0.0.1'),
   DB_PORT: port(3407),
-  DB_NAME: z.string().regex(/^[A-Za-z0-9_]{1,64}$/, 'letters, digits and _ only').default('gantrywright'),
-  DB_USER: z.string().regex(/^[A-Za-z0-9_]{1,32}$/, 'letters, digits and _ only').default('gantry'),
-  DB_PASSWORD: z.string({ message: 'is required (npm start writes one into .env)' })
-    .min(8, 'must be at least 8 characters'),
+  DB_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9_]{1,64}$/, 'letters, digits and _ only')
+    .default('gantrywright'),
+  DB_USER: z
+    .string()
+    .regex(/^[A-Za-z0-9_]{1,32}$/, 'letters, digits and _ only')
+    .default('gantry'),
+  DB_PASSWORD: z.string({ message: 'is required (npm start writes one into .env)' }).min(8, 'must be at least 8 characters'),
   DB_POOL_MAX: positiveInt(10),
-  JWT_SECRET: z.string({ message: 'is required (npm start writes a random one into .env)' })
-    .min(32, 'must be at least 32 characters'),
-  SESSION_HOURS: z.coerce.number().positive().max(24 * 30).default(12),
+  JWT_SECRET: z.string({ message: 'is required (npm start writes a random one into .env)' }).min(32, 'must be at least 32 characters'),
+  SESSION_HOURS: z.coerce
+    .number()
+    .positive()
+    .max(24 * 30)
+    .default(12),
   SMTP_HOST: z.string().min(1).default('127.0.0.1'),
   SMTP_PORT: port(2526),
-  SMTP_SECURE: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  SMTP_SECURE: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   MAILCATCHER_HTTP_PORT: port(2527),
@@ -106,7 +116,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   if (e.NODE_ENV === 'production') {
     const placeholders = (['JWT_SECRET', 'DB_PASSWORD'] as const).filter((k) => e[k].startsWith('change-me'));
     if (placeholders.length) {
-      throw new ConfigError(`Invalid configuration (environment or .env):\n${placeholders.map((k) => `  ${k}: still the placeholder from .env.example; set a random value`).join('\n')}`);
+      throw new ConfigError(
+        `Invalid configuration (environment or .env):\n${placeholders.map((k) => `  ${k}: still the placeholder from .env.example; set a random value`).join('\n')}`,
+      );
     }
   }
   const dataDir = resolveFromRoot(e.DATA_DIR);

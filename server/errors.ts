@@ -18,7 +18,12 @@ export class AppError extends Error {
   readonly details?: ErrorDetails;
   readonly isOperational: boolean;
 
-  constructor(code: string, message: string, status = 400, options: { details?: ErrorDetails; cause?: unknown; isOperational?: boolean } = {}) {
+  constructor(
+    code: string,
+    message: string,
+    status = 400,
+    options: { details?: ErrorDetails; cause?: unknown; isOperational?: boolean } = {},
+  ) {
     super(message, options.cause === undefined ? undefined : { cause: options.cause });
     this.name = 'AppError';
     this.code = code;

@@ -74,7 +74,10 @@ async function main(): Promise<void> {
   }
   const shutdown = (signal: string) => {
     log.info({ signal }, 'shutting down');
-    running.close().then(() => process.exit(0), () => process.exit(1));
+    running.close().then(
+      () => process.exit(0),
+      () => process.exit(1),
+    );
   };
   process.once('SIGTERM', () => shutdown('SIGTERM'));
   process.once('SIGINT', () => shutdown('SIGINT'));

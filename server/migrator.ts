@@ -19,7 +19,12 @@ type StepModule<T> = { up: MigrationFn<T>; down?: MigrationFn<T> };
 
 /** Lists the step files of a folder in name (= time) order and loads each lazily with import(). */
 function listSteps<T>(dir: string): RunnableMigration<T>[] {
-  const files = fs.existsSync(dir) ? fs.readdirSync(dir).filter((f) => STEP_FILE.test(f)).sort() : [];
+  const files = fs.existsSync(dir)
+    ? fs
+        .readdirSync(dir)
+        .filter((f) => STEP_FILE.test(f))
+        .sort()
+    : [];
   return files.map((file) => {
     const filePath = path.join(dir, file);
     const load = async (): Promise<StepModule<T>> => {

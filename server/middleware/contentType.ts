@@ -14,6 +14,12 @@ export function requireJsonBodyMiddleware(): RequestHandler {
       next();
       return;
     }
-    next(new AppError('unsupported_media_type', `Send the request body as application/json (got ${req.headers['content-type'] ?? 'no content type'}).`, 415));
+    next(
+      new AppError(
+        'unsupported_media_type',
+        `Send the request body as application/json (got ${req.headers['content-type'] ?? 'no content type'}).`,
+        415,
+      ),
+    );
   };
 }

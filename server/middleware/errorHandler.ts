@@ -1,8 +1,6 @@
 import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
-import {
-  ConnectionError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError,
-} from 'sequelize';
+import { ConnectionError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from 'sequelize';
 import { AppError, type ErrorDetails } from '../errors';
 import { logger } from '../logger';
 import { zodDetails } from './validate';
@@ -10,7 +8,15 @@ import { zodDetails } from './validate';
 type ErrorBody = { error: { code: string; message: string; details?: ErrorDetails } };
 
 /** Errors thrown by body-parser / http-errors carry `type`, `status` and `expose`. */
-type HttpLikeError = Error & { type?: string; status?: number; statusCode?: number; expose?: boolean; limit?: number; code?: string; field?: string };
+type HttpLikeError = Error & {
+  type?: string;
+  status?: number;
+  statusCode?: number;
+  expose?: boolean;
+  limit?: number;
+  code?: string;
+  field?: string;
+};
 
 function formatBytes(bytes: number): string {
   return bytes >= 1024 * 1024 ? `${Math.round((bytes / (1024 * 1024)) * 10) / 10} MB` : `${Math.round(bytes / 1024)} kB`;
@@ -18,8 +24,11 @@ function formatBytes(bytes: number): string {
 
 /** Maps a thrown value to a status and JSON body. Unknown errors map to 500 (and are flagged as bugs). */
 export function toErrorResponse(err: unknown, requestId?: string): { status: number; body: ErrorBody; isBug: boolean } {
-  const reply = (status: number, code: string, message: string, details?: ErrorDetails) =>
-    ({ status, body: { error: details ? { code, message, details } : { code, message } }, isBug: false });
+  const reply = (status: number, code: string, message: string, details?: ErrorDetails) => ({
+    status,
+    body: { error: details ? { code, message, details } : { code, message } },
+    isBug: false,
+  });
 
   if (err instanceof AppError) return { ...reply(err.status, err.code, err.message, err.details), isBug: !err.isOperational };
   if (err instanceof ZodError) return reply(400, 'validation_failed', 'The request is not valid.', zodDetails(err));
@@ -43,7 +52,11 @@ export function toErrorResponse(err: unknown, requestId?: string): { status: num
     if (e.name === 'EngineInputError') return reply(400, 'invalid_input', e.message);
     if (e.name === 'MulterError') {
       const tooLarge = e.code === 'LIMIT_FILE_SIZE';
-      return reply(tooLarge ? 413 : 400, tooLarge ? 'payload_too_large' : 'invalid_upload', e.field ? `${e.message} (field ${e.field})` : e.message);
+      return reply(
+        tooLarge ? 413 : 400,
+        tooLarge ? 'payload_too_large' : 'invalid_upload',
+        e.field ? `${e.message} (field ${e.field})` : e.message,
+      );
     }
   }
   if (err instanceof UniqueConstraintError) {
@@ -51,9 +64,15 @@ export function toErrorResponse(err: unknown, requestId?: string): { status: num
     return reply(409, 'conflict', 'A record with the same unique value already exists.', details);
   }
   if (err instanceof SequelizeValidationError) {
-    return reply(400, 'validation_failed', 'The data is not valid.', err.errors.map((item) => ({ path: item.path ?? 'unknown', message: item.message })));
+    return reply(
+      400,
+      'validation_failed',
+      'The data is not valid.',
+      err.errors.map((item) => ({ path: item.path ?? 'unknown', message: item.message })),
+    );
   }
-  if (err instanceof ForeignKeyConstraintError) return reply(409, 'conflict', 'The record refers to, or is referred to by, another record.');
+  if (err instanceof ForeignKeyConstraintError)
+    return reply(409, 'conflict', 'The record refers to, or is referred to by, another record.');
   if (err instanceof ConnectionError) {
     return { ...reply(503, 'db_unavailable', 'The database is not reachable. Try again shortly.'), isBug: false };
   }

@@ -34,10 +34,10 @@ export class MariaDbRateLimitStore implements Store {
   }
 
   async get(key: string): Promise<ClientRateLimitInfo | undefined> {
-    const rows = await getSequelize().query<HitRow>(
-      'SELECT hits, reset_at FROM rate_limit_hits WHERE `key` = ? AND reset_at > ?',
-      { replacements: [this.storedKey(key), new Date()], type: QueryTypes.SELECT },
-    );
+    const rows = await getSequelize().query<HitRow>('SELECT hits, reset_at FROM rate_limit_hits WHERE `key` = ? AND reset_at > ?', {
+      replacements: [this.storedKey(key), new Date()],
+      type: QueryTypes.SELECT,
+    });
     return rows[0] ? { totalHits: Number(rows[0].hits), resetTime: toDate(rows[0].reset_at) } : undefined;
   }
 
@@ -50,27 +50,28 @@ export class MariaDbRateLimitStore implements Store {
       // One atomic upsert: a row whose window has passed starts again at 1. MariaDB evaluates the
       // assignments left to right, so `reset_at` in the first one is still the old value.
       await sequelize.query(
-        'INSERT INTO rate_limit_hits (`key`, hits, reset_at) VALUES (?, 1, ?) '
-        + 'ON DUPLICATE KEY UPDATE hits = IF(reset_at <= ?, 1, hits + 1), reset_at = IF(reset_at <= ?, ?, reset_at)',
+        'INSERT INTO rate_limit_hits (`key`, hits, reset_at) VALUES (?, 1, ?) ' +
+          'ON DUPLICATE KEY UPDATE hits = IF(reset_at <= ?, 1, hits + 1), reset_at = IF(reset_at <= ?, ?, reset_at)',
         { replacements: [stored, resetAt, now, now, resetAt], transaction },
       );
-      const rows = await sequelize.query<HitRow>(
-        'SELECT hits, reset_at FROM rate_limit_hits WHERE `key` = ?',
-        { replacements: [stored], type: QueryTypes.SELECT, transaction },
-      );
+      const rows = await sequelize.query<HitRow>('SELECT hits, reset_at FROM rate_limit_hits WHERE `key` = ?', {
+        replacements: [stored],
+        type: QueryTypes.SELECT,
+        transaction,
+      });
       // Housekeeping: drop a few long-expired counters (indexed on reset_at, bounded work).
       await sequelize.query('DELETE FROM rate_limit_hits WHERE reset_at < ? LIMIT 50', {
-        replacements: [new Date(now.getTime() - 24 * 3600 * 1000)], transaction,
+        replacements: [new Date(now.getTime() - 24 * 3600 * 1000)],
+        transaction,
       });
       return { totalHits: Number(rows[0]?.hits ?? 1), resetTime: rows[0] ? toDate(rows[0].reset_at) : resetAt };
     });
   }
 
   async decrement(key: string): Promise<void> {
-    await getSequelize().query(
-      'UPDATE rate_limit_hits SET hits = GREATEST(hits - 1, 0) WHERE `key` = ? AND reset_at > ?',
-      { replacements: [this.storedKey(key), new Date()] },
-    );
+    await getSequelize().query('UPDATE rate_limit_hits SET hits = GREATEST(hits - 1, 0) WHERE `key` = ? AND reset_at > ?', {
+      replacements: [this.storedKey(key), new Date()],
+    });
   }
 
   async resetKey(key: string): Promise<void> {

@@ -94,17 +94,25 @@ export function uploadMiddleware(options: UploadOptions): RequestHandler {
           next(tooLarge(what, options.maxBytes));
           return;
         case 'LIMIT_UNEXPECTED_FILE':
-          next(new AppError('invalid_upload', `Send one ${what} in the form field "${field}".`, 400, {
-            details: [{ path: e.field ?? field, message: `unexpected file; send a single file in "${field}"` }],
-          }));
+          next(
+            new AppError('invalid_upload', `Send one ${what} in the form field "${field}".`, 400, {
+              details: [{ path: e.field ?? field, message: `unexpected file; send a single file in "${field}"` }],
+            }),
+          );
           return;
         case 'LIMIT_FILE_COUNT':
-          next(new AppError('invalid_upload', `Send a single ${what}.`, 400, { details: [{ path: field, message: 'only one file is accepted' }] }));
+          next(
+            new AppError('invalid_upload', `Send a single ${what}.`, 400, {
+              details: [{ path: field, message: 'only one file is accepted' }],
+            }),
+          );
           return;
         default:
-          next(new AppError('invalid_upload', 'The upload form is not valid (too many or too long fields).', 400, {
-            details: [{ path: e.field ?? 'body', message: 'too many or too long form fields' }],
-          }));
+          next(
+            new AppError('invalid_upload', 'The upload form is not valid (too many or too long fields).', 400, {
+              details: [{ path: e.field ?? 'body', message: 'too many or too long form fields' }],
+            }),
+          );
       }
     });
   };

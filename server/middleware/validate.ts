@@ -43,7 +43,8 @@ export function validate(schemas: Schemas): RequestHandler {
     if ('body' in parsed) req.body = parsed.body;
     if ('params' in parsed) req.params = parsed.params as typeof req.params;
     // Express 5 exposes req.query through a getter; shadow it on this request object.
-    if ('query' in parsed) Object.defineProperty(req, 'query', { value: parsed.query, writable: true, configurable: true, enumerable: true });
+    if ('query' in parsed)
+      Object.defineProperty(req, 'query', { value: parsed.query, writable: true, configurable: true, enumerable: true });
     next();
   };
 }

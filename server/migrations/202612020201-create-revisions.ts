@@ -8,33 +8,46 @@ import type { MigrationFn } from 'umzug';
 // app can rewrite a revision. Revisions go with their design (ON DELETE CASCADE: a design can only be deleted
 // while it is a draft or returned), but a revision that has a sheet cannot be deleted (sheets.revision_id RESTRICT).
 export const up: MigrationFn<QueryInterface> = async ({ context: qi }) => {
-  await qi.createTable('revisions', {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true, allowNull: false },
-    design_id: {
-      type: DataTypes.INTEGER, allowNull: false,
-      references: { model: 'designs', key: 'id' }, onDelete: 'CASCADE', onUpdate: 'CASCADE',
+  await qi.createTable(
+    'revisions',
+    {
+      id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true, allowNull: false },
+      design_id: {
+        type: DataTypes.INTEGER,
+        allowNull: false,
+        references: { model: 'designs', key: 'id' },
+        onDelete: 'CASCADE',
+        onUpdate: 'CASCADE',
+      },
+      number: { type: DataTypes.INTEGER, allowNull: false },
+      status: { type: DataTypes.STRING(16), allowNull: false },
+      inputs: { type: DataTypes.JSON, allowNull: false },
+      result: { type: DataTypes.JSON, allowNull: false },
+      summary: { type: DataTypes.JSON, allowNull: false },
+      engine_version: { type: DataTypes.STRING(32), allowNull: false },
+      fingerprint: { type: DataTypes.CHAR(64), allowNull: false },
+      author_id: {
+        type: DataTypes.INTEGER,
+        allowNull: false,
+        references: { model: 'users', key: 'id' },
+        onDelete: 'RESTRICT',
+        onUpdate: 'CASCADE',
+      },
+      submitted_at: { type: DataTypes.DATE(3), allowNull: false },
+      decided_by_id: {
+        type: DataTypes.INTEGER,
+        allowNull: true,
+        references: { model: 'users', key: 'id' },
+        onDelete: 'SET NULL',
+        onUpdate: 'CASCADE',
+      },
+      decided_at: { type: DataTypes.DATE(3), allowNull: true },
+      decision_note: { type: DataTypes.TEXT, allowNull: true },
+      created_at: { type: DataTypes.DATE(3), allowNull: false },
+      updated_at: { type: DataTypes.DATE(3), allowNull: false },
     },
-    number: { type: DataTypes.INTEGER, allowNull: false },
-    status: { type: DataTypes.STRING(16), allowNull: false },
-    inputs: { type: DataTypes.JSON, allowNull: false },
-    result: { type: DataTypes.JSON, allowNull: false },
-    summary: { type: DataTypes.JSON, allowNull: false },
-    engine_version: { type: DataTypes.STRING(32), allowNull: false },
-    fingerprint: { type: DataTypes.CHAR(64), allowNull: false },
-    author_id: {
-      type: DataTypes.INTEGER, allowNull: false,
-      references: { model: 'users', key: 'id' }, onDelete: 'RESTRICT', onUpdate: 'CASCADE',
-    },
-    submitted_at: { type: DataTypes.DATE(3), allowNull: false },
-    decided_by_id: {
-      type: DataTypes.INTEGER, allowNull: true,
-      references: { model: 'users', key: 'id' }, onDelete: 'SET NULL', onUpdate: 'CASCADE',
-    },
-    decided_at: { type: DataTypes.DATE(3), allowNull: true },
-    decision_note: { type: DataTypes.TEXT, allowNull: true },
-    created_at: { type: DataTypes.DATE(3), allowNull: false },
-    updated_at: { type: DataTypes.DATE(3), allowNull: false },
-  }, { charset: 'utf8mb4', collate: 'utf8mb4_unicode_ci' });
+    { charset: 'utf8mb4', collate: 'utf8mb4_unicode_ci' },
+  );
   await qi.addIndex('revisions', ['design_id', 'number'], { name: 'revisions_design_number', unique: true });
   await qi.addIndex('revisions', ['status', 'submitted_at'], { name: 'revisions_status_submitted' });
   await qi.addIndex('revisions', ['author_id'], { name: 'revisions_author_id' });

@@ -7,26 +7,39 @@ import type { MigrationFn } from 'umzug';
 // shelf (the source file of its torque–speed table): exactly one of design_id / part_id is set (enforced by triggers). Several rows may
 // share one sha256; the bytes are removed only when the last row referring to them goes.
 export const up: MigrationFn<QueryInterface> = async ({ context: qi }) => {
-  await qi.createTable('attachments', {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true, allowNull: false },
-    design_id: {
-      type: DataTypes.INTEGER, allowNull: true,
-      references: { model: 'designs', key: 'id' }, onDelete: 'CASCADE', onUpdate: 'CASCADE',
+  await qi.createTable(
+    'attachments',
+    {
+      id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true, allowNull: false },
+      design_id: {
+        type: DataTypes.INTEGER,
+        allowNull: true,
+        references: { model: 'designs', key: 'id' },
+        onDelete: 'CASCADE',
+        onUpdate: 'CASCADE',
+      },
+      part_id: {
+        type: DataTypes.INTEGER,
+        allowNull: true,
+        references: { model: 'parts', key: 'id' },
+        onDelete: 'CASCADE',
+        onUpdate: 'CASCADE',
+      },
+      uploaded_by_id: {
+        type: DataTypes.INTEGER,
+        allowNull: true,
+        references: { model: 'users', key: 'id' },
+        onDelete: 'SET NULL',
+        onUpdate: 'CASCADE',
+      },
+      file_name: { type: DataTypes.STRING(200), allowNull: false },
+      mime: { type: DataTypes.STRING(40), allowNull: false },
+      size: { type: DataTypes.INTEGER, allowNull: false },
+      sha256: { type: DataTypes.CHAR(64), allowNull: false },
+      created_at: { type: DataTypes.DATE(3), allowNull: false },
     },
-    part_id: {
-      type: DataTypes.INTEGER, allowNull: true,
-      references: { model: 'parts', key: 'id' }, onDelete: 'CASCADE', onUpdate: 'CASCADE',
-    },
-    uploaded_by_id: {
-      type: DataTypes.INTEGER, allowNull: true,
-      references: { model: 'users', key: 'id' }, onDelete: 'SET NULL', onUpdate: 'CASCADE',
-    },
-    file_name: { type: DataTypes.STRING(200), allowNull: false },
-    mime: { type: DataTypes.STRING(40), allowNull: false },
-    size: { type: DataTypes.INTEGER, allowNull: false },
-    sha256: { type: DataTypes.CHAR(64), allowNull: false },
-    created_at: { type: DataTypes.DATE(3), allowNull: false },
-  }, { charset: 'utf8mb4', collate: 'utf8mb4_unicode_ci' });
+    { charset: 'utf8mb4', collate: 'utf8mb4_unicode_ci' },
+  );
   await qi.addIndex('attachments', ['design_id', 'created_at'], { name: 'attachments_design_created' });
   await qi.addIndex('attachments', ['part_id', 'created_at'], { name: 'attachments_part_created' });
   await qi.addIndex('attachments', ['sha256'], { name: 'attachments_sha256' });
@@ -38,9 +51,7 @@ export const up: MigrationFn<QueryInterface> = async ({ context: qi }) => {
           SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'An attachment belongs to exactly one design or one part.';
         END IF`);
   }
-  await qi.sequelize.query(
-    "ALTER TABLE attachments ADD CONSTRAINT attachments_sha256_hex CHECK (sha256 REGEXP '^[0-9a-f]{64}$')",
-  );
+  await qi.sequelize.query("ALTER TABLE attachments ADD CONSTRAINT attachments_sha256_hex CHECK (sha256 REGEXP '^[0-9a-f]{64}$')");
 };
 
 export const down: MigrationFn<QueryInterface> = async ({ context: qi }) => {

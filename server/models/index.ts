@@ -17,8 +17,13 @@ export { PasswordToken, TOKEN_PURPOSES, type TokenPurpose } from './passwordToke
 export { AuditLog } from './auditLog.model';
 export { RateLimitHit } from './rateLimitHit.model';
 export {
-  Design, DESIGN_STATUSES, EDITABLE_DESIGN_STATUSES, DESIGN_MECHANISMS,
-  type DesignStatus, type DesignMechanism, type DesignResultSummary,
+  Design,
+  DESIGN_STATUSES,
+  EDITABLE_DESIGN_STATUSES,
+  DESIGN_MECHANISMS,
+  type DesignStatus,
+  type DesignMechanism,
+  type DesignResultSummary,
 } from './design.model';
 export { Part, PART_KINDS, type PartKind } from './part.model';
 export { Revision, REVISION_STATUSES, type RevisionStatus, type RevisionSummaryFigures } from './revision.model';

@@ -1,6 +1,4 @@
-import {
-  DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize,
-} from 'sequelize';
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
 /** Delivery states of a queued mail: waiting (also between retries), delivered, or given up after the last attempt. */
 export const NOTIFICATION_STATUSES = ['pending', 'sent', 'failed'] as const;

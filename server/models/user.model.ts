@@ -1,6 +1,4 @@
-import {
-  DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize,
-} from 'sequelize';
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
 /** The four roles; a user may hold several (or none, until an admin grants one). */
 export const ROLES = ['admin', 'designer', 'reviewer', 'maker'] as const;

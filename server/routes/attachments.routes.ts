@@ -6,7 +6,12 @@ import { uploadedFile, uploadMiddleware } from '../middleware/upload';
 import { validate } from '../middleware/validate';
 import { idParamsSchema, paginationSchema } from '../schemas/common.schema';
 import {
-  assertMayAttach, ATTACHMENT_MAX_BYTES, deleteAttachment, getAttachmentDownload, listDesignAttachments, uploadDesignAttachment,
+  assertMayAttach,
+  ATTACHMENT_MAX_BYTES,
+  deleteAttachment,
+  getAttachmentDownload,
+  listDesignAttachments,
+  uploadDesignAttachment,
 } from '../services/attachments.service';
 
 const idOf = (params: unknown) => (params as { id: number }).id;
@@ -41,7 +46,9 @@ export function createDesignAttachmentsRouter(): Router {
   );
 
   router.get('/:id/attachments', requireAuth, validate({ params: idParamsSchema, query: listQuerySchema }), async function list(req, res) {
-    res.status(200).json(await listDesignAttachments(req.user!, idOf(req.params), req.query as unknown as { page: number; pageSize: number }));
+    res
+      .status(200)
+      .json(await listDesignAttachments(req.user!, idOf(req.params), req.query as unknown as { page: number; pageSize: number }));
   });
 
   return router;

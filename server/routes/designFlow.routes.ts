@@ -15,17 +15,32 @@ const idOf = (params: unknown) => (params as { id: number }).id;
 export function createDesignFlowRouter(): Router {
   const router = Router();
 
-  router.post('/:id/submit', requireRole('designer'), validate({ params: idParamsSchema, body: submitDesignSchema }), async function submit(req, res) {
-    res.status(201).json(await submitDesign(req.user!, idOf(req.params), req.body as { version?: number }));
-  });
+  router.post(
+    '/:id/submit',
+    requireRole('designer'),
+    validate({ params: idParamsSchema, body: submitDesignSchema }),
+    async function submit(req, res) {
+      res.status(201).json(await submitDesign(req.user!, idOf(req.params), req.body as { version?: number }));
+    },
+  );
 
-  router.post('/:id/withdraw', requireRole('designer'), validate({ params: idParamsSchema, body: emptyBodySchema }), async function withdraw(req, res) {
-    res.status(200).json(await withdrawDesign(req.user!, idOf(req.params)));
-  });
+  router.post(
+    '/:id/withdraw',
+    requireRole('designer'),
+    validate({ params: idParamsSchema, body: emptyBodySchema }),
+    async function withdraw(req, res) {
+      res.status(200).json(await withdrawDesign(req.user!, idOf(req.params)));
+    },
+  );
 
-  router.post('/:id/reopen', requireRole('designer'), validate({ params: idParamsSchema, body: emptyBodySchema }), async function reopen(req, res) {
-    res.status(200).json(await reopenDesign(req.user!, idOf(req.params)));
-  });
+  router.post(
+    '/:id/reopen',
+    requireRole('designer'),
+    validate({ params: idParamsSchema, body: emptyBodySchema }),
+    async function reopen(req, res) {
+      res.status(200).json(await reopenDesign(req.user!, idOf(req.params)));
+    },
+  );
 
   router.get('/:id/revisions', requireAuth, validate({ params: idParamsSchema }), async function listRevisions(req, res) {
     res.status(200).json(await listDesignRevisions(req.user!, idOf(req.params)));

@@ -4,8 +4,12 @@ import { requireAuth } from '../middleware/requireAuth';
 import { requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
 import {
-  createDesignSchema, listDesignsQuerySchema, updateDesignSchema,
-  type CreateDesignInput, type ListDesignsQuery, type UpdateDesignInput,
+  createDesignSchema,
+  listDesignsQuerySchema,
+  updateDesignSchema,
+  type CreateDesignInput,
+  type ListDesignsQuery,
+  type UpdateDesignInput,
 } from '../schemas/designs.schema';
 import { createDesign, deleteDesign, exportDesign, getDesign, listDesigns, updateDesign } from '../services/designs.service';
 
@@ -33,12 +37,20 @@ export function createDesignsRouter(): Router {
   router.get('/:id/export', requireAuth, validate({ params: idParamsSchema }), async function exportDocument(req, res) {
     const { fileName, document } = await exportDesign(idOf(req.params));
     res.attachment(fileName);
-    res.type('application/json').status(200).send(`${JSON.stringify(document, null, 2)}\n`);
+    res
+      .type('application/json')
+      .status(200)
+      .send(`${JSON.stringify(document, null, 2)}\n`);
   });
 
-  router.patch('/:id', requireRole('designer'), validate({ params: idParamsSchema, body: updateDesignSchema }), async function update(req, res) {
-    res.status(200).json(await updateDesign(req.user!, idOf(req.params), req.body as UpdateDesignInput));
-  });
+  router.patch(
+    '/:id',
+    requireRole('designer'),
+    validate({ params: idParamsSchema, body: updateDesignSchema }),
+    async function update(req, res) {
+      res.status(200).json(await updateDesign(req.user!, idOf(req.params), req.body as UpdateDesignInput));
+    },
+  );
 
   router.delete('/:id', requireRole('designer'), validate({ params: idParamsSchema }), async function remove(req, res) {
     await deleteDesign(req.user!, idOf(req.params));

@@ -5,8 +5,16 @@ import { requireRole } from '../middleware/requireRole';
 import type { PartKind } from '../models';
 import { idParamsSchema } from '../schemas/common.schema';
 import {
-  beltPartPatchSchema, beltPartSchema, listPartsQuerySchema, motorPartPatchSchema, motorPartSchema,
-  pulleyPartPatchSchema, pulleyPartSchema, type ListPartsQuery, type PartInput, type PartPatch,
+  beltPartPatchSchema,
+  beltPartSchema,
+  listPartsQuerySchema,
+  motorPartPatchSchema,
+  motorPartSchema,
+  pulleyPartPatchSchema,
+  pulleyPartSchema,
+  type ListPartsQuery,
+  type PartInput,
+  type PartPatch,
 } from '../schemas/parts.schema';
 import { createPart, getPart, listParts, PART_SHELVES, updatePart } from '../services/parts.service';
 
@@ -44,9 +52,14 @@ export function createPartsRouter(): Router {
         res.status(200).json(await getPart(kind, (req.params as unknown as { id: number }).id));
       });
 
-      router.patch(`/${segment}/:id`, requireRole('admin'), validate({ params: idParamsSchema, body: schemas.patch }), async function update(req, res) {
-        res.status(200).json(await updatePart(req.user!, kind, (req.params as unknown as { id: number }).id, req.body as PartPatch));
-      });
+      router.patch(
+        `/${segment}/:id`,
+        requireRole('admin'),
+        validate({ params: idParamsSchema, body: schemas.patch }),
+        async function update(req, res) {
+          res.status(200).json(await updatePart(req.user!, kind, (req.params as unknown as { id: number }).id, req.body as PartPatch));
+        },
+      );
     }
   }
 

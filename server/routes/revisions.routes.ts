@@ -4,7 +4,11 @@ import { requireAuth } from '../middleware/requireAuth';
 import { requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
 import {
-  approveSchema, createCommentSchema, listRevisionsQuerySchema, returnSchema, type ListRevisionsQuery,
+  approveSchema,
+  createCommentSchema,
+  listRevisionsQuerySchema,
+  returnSchema,
+  type ListRevisionsQuery,
 } from '../schemas/revisions.schema';
 import { getRevision, getRevisionDiff, listRevisions } from '../services/revisions.service';
 import { addComment, approveRevision, listComments, returnRevision } from '../services/reviews.service';
@@ -34,17 +38,32 @@ export function createRevisionsRouter(): Router {
     res.status(200).json(await listComments(req.user!, idOf(req.params)));
   });
 
-  router.post('/:id/comments', requireAuth, validate({ params: idParamsSchema, body: createCommentSchema }), async function comment(req, res) {
-    res.status(201).json(await addComment(req.user!, idOf(req.params), req.body as { body: string; parentId?: number | null }));
-  });
+  router.post(
+    '/:id/comments',
+    requireAuth,
+    validate({ params: idParamsSchema, body: createCommentSchema }),
+    async function comment(req, res) {
+      res.status(201).json(await addComment(req.user!, idOf(req.params), req.body as { body: string; parentId?: number | null }));
+    },
+  );
 
-  router.post('/:id/approve', requireRole('reviewer'), validate({ params: idParamsSchema, body: approveSchema }), async function approve(req, res) {
-    res.status(200).json(await approveRevision(req.user!, idOf(req.params), req.body as { comment: string }));
-  });
+  router.post(
+    '/:id/approve',
+    requireRole('reviewer'),
+    validate({ params: idParamsSchema, body: approveSchema }),
+    async function approve(req, res) {
+      res.status(200).json(await approveRevision(req.user!, idOf(req.params), req.body as { comment: string }));
+    },
+  );
 
-  router.post('/:id/return', requireRole('reviewer'), validate({ params: idParamsSchema, body: returnSchema }), async function returnToDesigner(req, res) {
-    res.status(200).json(await returnRevision(req.user!, idOf(req.params), req.body as { reason: string }));
-  });
+  router.post(
+    '/:id/return',
+    requireRole('reviewer'),
+    validate({ params: idParamsSchema, body: returnSchema }),
+    async function returnToDesigner(req, res) {
+      res.status(200).json(await returnRevision(req.user!, idOf(req.params), req.body as { reason: string }));
+    },
+  );
 
   return router;
 }

@@ -26,19 +26,24 @@ export function createSheetsRouter(): Router {
     res.status(200).json(await getSheet(req.user!, idOf(req.params)));
   });
 
-  router.get('/:id/pdf', requireRole(...SHEET_READERS), validate({ params: idParamsSchema, query: sheetPdfQuerySchema }), async function download(req, res) {
-    const { bytes, sha256, fileName } = await getSheetPdf(idOf(req.params), (req.query as unknown as { paper: SheetPaper }).paper);
-    res.status(200);
-    res.setHeader('Content-Type', 'application/pdf');
-    // The name is a slug (a-z, 0-9, '-') so it needs no escaping.
-    res.setHeader('Content-Disposition', `attachment; filename="${fileName}"`);
-    res.setHeader('ETag', `"${sha256}"`);
-    res.setHeader('X-Content-SHA256', sha256);
-    res.setHeader('Content-Length', String(bytes.length));
-    // The bytes never change: a private cache may keep them (the /api default is no-store).
-    res.setHeader('Cache-Control', 'private, max-age=31536000, immutable');
-    res.send(bytes); // send() answers 304 when If-None-Match matches the ETag
-  });
+  router.get(
+    '/:id/pdf',
+    requireRole(...SHEET_READERS),
+    validate({ params: idParamsSchema, query: sheetPdfQuerySchema }),
+    async function download(req, res) {
+      const { bytes, sha256, fileName } = await getSheetPdf(idOf(req.params), (req.query as unknown as { paper: SheetPaper }).paper);
+      res.status(200);
+      res.setHeader('Content-Type', 'application/pdf');
+      // The name is a slug (a-z, 0-9, '-') so it needs no escaping.
+      res.setHeader('Content-Disposition', `attachment; filename="${fileName}"`);
+      res.setHeader('ETag', `"${sha256}"`);
+      res.setHeader('X-Content-SHA256', sha256);
+      res.setHeader('Content-Length', String(bytes.length));
+      // The bytes never change: a private cache may keep them (the /api default is no-store).
+      res.setHeader('Cache-Control', 'private, max-age=31536000, immutable');
+      res.send(bytes); // send() answers 304 when If-None-Match matches the ETag
+    },
+  );
 
   return router;
 }

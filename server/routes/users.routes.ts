@@ -25,7 +25,11 @@ export function createUsersRouter(): Router {
   });
 
   router.patch('/:id', validate({ params: idParamsSchema, body: updateUserSchema }), async function update(req, res) {
-    const user = await updateUser(req.user!, (req.params as unknown as { id: number }).id, req.body as { name?: string; roles?: Role[]; disabled?: boolean });
+    const user = await updateUser(
+      req.user!,
+      (req.params as unknown as { id: number }).id,
+      req.body as { name?: string; roles?: Role[]; disabled?: boolean },
+    );
     res.status(200).json({ user });
   });
 

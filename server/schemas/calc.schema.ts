@@ -10,13 +10,16 @@ export const MAX_SWEEP_VALUES = 50;
 /** POST /api/calc/sweep {design, path, values}: evaluates the design once per value of the input at `path`. */
 export const sweepSchema = z.strictObject({
   design: designDocumentSchema,
-  path: z.string({ message: 'is required: the dotted path of a numeric input, e.g. "pulley.driveTeeth"' })
+  path: z
+    .string({ message: 'is required: the dotted path of a numeric input, e.g. "pulley.driveTeeth"' })
     .trim()
     .min(1, 'is required')
     .max(100, 'must be at most 100 characters')
     .regex(/^[A-Za-z][A-Za-z0-9]*(\.[A-Za-z0-9]+)*$/, 'must be a dotted field path such as "pulley.driveTeeth"'),
   values: z
-    .array(z.number({ message: 'must be a number' }).refine(Number.isFinite, 'must be a finite number'), { message: 'must be a list of numbers' })
+    .array(z.number({ message: 'must be a number' }).refine(Number.isFinite, 'must be a finite number'), {
+      message: 'must be a list of numbers',
+    })
     .min(1, 'must have at least 1 value')
     .max(MAX_SWEEP_VALUES, `must have at most ${MAX_SWEEP_VALUES} values`),
 });

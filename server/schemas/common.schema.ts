@@ -15,7 +15,12 @@ export const idParamsSchema = z.object({ id: idSchema });
 /** `?page&pageSize` with defaults 1 and 20 (at most 100 per page). */
 export const paginationSchema = z.object({
   page: z.coerce.number({ message: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').default(1),
-  pageSize: z.coerce.number({ message: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(100, 'must be 100 or less').default(20),
+  pageSize: z.coerce
+    .number({ message: 'must be a number' })
+    .int('must be a whole number')
+    .min(1, 'must be 1 or more')
+    .max(100, 'must be 100 or less')
+    .default(20),
 });
 
 /** A trimmed, lower-cased e-mail address. */

@@ -13,12 +13,20 @@ export const designDocumentSchema = z.unknown().transform((value, ctx): DesignIn
   const parsed = safeParseDesign(value);
   if (parsed.ok) return parsed.value;
   for (const issue of parsed.issues) {
-    ctx.addIssue({ code: 'custom', message: issue.message, path: issue.path ? issue.path.split('.').map((p) => (/^\d+$/.test(p) ? Number(p) : p)) : [] });
+    ctx.addIssue({
+      code: 'custom',
+      message: issue.message,
+      path: issue.path ? issue.path.split('.').map((p) => (/^\d+$/.test(p) ? Number(p) : p)) : [],
+    });
   }
   return z.NEVER;
 });
 
-const designNameSchema = z.string({ message: 'must be text' }).trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters');
+const designNameSchema = z
+  .string({ message: 'must be text' })
+  .trim()
+  .min(1, 'must not be empty')
+  .max(200, 'must be at most 200 characters');
 
 /** POST /api/designs {template, name?}: a new draft from a mechanism template. */
 export const createFromTemplateSchema = z.strictObject({
@@ -91,8 +99,16 @@ const SORT_VALUES = DESIGN_SORT_KEYS.flatMap((key) => [key, `-${key}`]) as [stri
 function listOf<T extends string>(values: readonly T[]) {
   return z
     .string({ message: 'must be a single value or a comma-separated list' })
-    .transform((v) => v.split(',').map((s) => s.trim()).filter(Boolean))
-    .refine((list) => list.length > 0 && list.every((v) => (values as readonly string[]).includes(v)), `must be one or more of ${values.join(', ')}`)
+    .transform((v) =>
+      v
+        .split(',')
+        .map((s) => s.trim())
+        .filter(Boolean),
+    )
+    .refine(
+      (list) => list.length > 0 && list.every((v) => (values as readonly string[]).includes(v)),
+      `must be one or more of ${values.join(', ')}`,
+    )
     .transform((list) => list as T[]);
 }
 
@@ -102,9 +118,7 @@ export const listDesignsQuerySchema = paginationSchema.extend({
   q: z.string({ message: 'must be a single search term' }).trim().max(200, 'must be at most 200 characters').optional(),
   status: listOf(DESIGN_STATUSES).optional(),
   mechanism: listOf(DESIGN_MECHANISMS).optional(),
-  owner: z
-    .union([z.literal('me'), idSchema], { message: 'must be "me" or a user id' })
-    .optional(),
+  owner: z.union([z.literal('me'), idSchema], { message: 'must be "me" or a user id' }).optional(),
 });
 
 export type ListDesignsQuery = {

@@ -92,13 +92,11 @@ function patchSchema<T extends Record<string, z.ZodType>>(shape: T) {
       return [key, inner.optional()];
     }),
   ) as { [K in keyof T]: z.ZodOptional<z.ZodType<z.output<T[K]>, z.input<T[K]>>> };
-  return z
-    .strictObject({ ...optionalShape, retired: retiredSchema.optional() })
-    .refine((v) => Object.keys(v).length > 0, {
-      message: 'give at least one field to change',
-      // Only when the fields themselves are fine: `{colour: 'red'}` is reported as an unknown field, not as empty.
-      when: (payload) => payload.issues.length === 0,
-    });
+  return z.strictObject({ ...optionalShape, retired: retiredSchema.optional() }).refine((v) => Object.keys(v).length > 0, {
+    message: 'give at least one field to change',
+    // Only when the fields themselves are fine: `{colour: 'red'}` is reported as an unknown field, not as empty.
+    when: (payload) => payload.issues.length === 0,
+  });
 }
 
 /** PATCH /api/parts/belts/:id */

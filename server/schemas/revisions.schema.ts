@@ -5,20 +5,35 @@ import { idSchema, paginationSchema } from './common.schema';
 /** POST /api/designs/:id/submit {version?}: `version`, when given, must be the design version the designer sees. */
 export const submitDesignSchema = z
   .strictObject({
-    version: z.number({ message: 'must be the design version you last saw' }).int('must be a whole number').min(1, 'must be 1 or more').optional(),
+    version: z
+      .number({ message: 'must be the design version you last saw' })
+      .int('must be a whole number')
+      .min(1, 'must be 1 or more')
+      .optional(),
   })
   .optional()
   .transform((v) => v ?? {});
 
 /** An empty body (or `{}`): withdraw and reopen take no fields. */
-export const emptyBodySchema = z.strictObject({}).optional().transform(() => ({}));
+export const emptyBodySchema = z
+  .strictObject({})
+  .optional()
+  .transform(() => ({}));
 
 /** GET /api/revisions?status=in_review,returned&designId&page&pageSize */
 export const listRevisionsQuerySchema = paginationSchema.extend({
   status: z
     .string({ message: 'must be a single value or a comma-separated list' })
-    .transform((v) => v.split(',').map((s) => s.trim()).filter(Boolean))
-    .refine((list) => list.length > 0 && list.every((s) => (REVISION_STATUSES as readonly string[]).includes(s)), `must be one or more of ${REVISION_STATUSES.join(', ')}`)
+    .transform((v) =>
+      v
+        .split(',')
+        .map((s) => s.trim())
+        .filter(Boolean),
+    )
+    .refine(
+      (list) => list.length > 0 && list.every((s) => (REVISION_STATUSES as readonly string[]).includes(s)),
+      `must be one or more of ${REVISION_STATUSES.join(', ')}`,
+    )
     .transform((list) => list as RevisionStatus[])
     .optional(),
   designId: idSchema.optional(),
@@ -26,15 +41,21 @@ export const listRevisionsQuerySchema = paginationSchema.extend({
 
 export type ListRevisionsQuery = { page: number; pageSize: number; status?: RevisionStatus[]; designId?: number };
 
-const text = (what: string, max: number) => z
-  .string({ message: `is required: ${what}` })
-  .trim()
-  .max(max, `must be at most ${max} characters`);
+const text = (what: string, max: number) =>
+  z
+    .string({ message: `is required: ${what}` })
+    .trim()
+    .max(max, `must be at most ${max} characters`);
 
 /** POST /api/revisions/:id/comments {body, parentId?} */
 export const createCommentSchema = z.strictObject({
   body: text('the text of the comment', 5000).min(1, 'must not be empty'),
-  parentId: z.number({ message: 'must be the id of the comment you answer' }).int('must be a whole number').positive('must be a comment id').nullable().optional(),
+  parentId: z
+    .number({ message: 'must be the id of the comment you answer' })
+    .int('must be a whole number')
+    .positive('must be a comment id')
+    .nullable()
+    .optional(),
 });
 
 /** POST /api/revisions/:id/approve {comment?}: the comment is printed on the sheet (may be empty). */

@@ -5,7 +5,10 @@ import { idSchema, paginationSchema } from './common.schema';
 /** GET /api/sheets?page&pageSize&designId&current=true */
 export const listSheetsQuerySchema = paginationSchema.extend({
   designId: idSchema.optional(),
-  current: z.enum(['true', 'false'], { message: 'must be true or false' }).transform((v) => v === 'true').optional(),
+  current: z
+    .enum(['true', 'false'], { message: 'must be true or false' })
+    .transform((v) => v === 'true')
+    .optional(),
 });
 
 export type ListSheetsQuery = { page: number; pageSize: number; designId?: number; current?: boolean };

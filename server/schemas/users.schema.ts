@@ -18,7 +18,11 @@ export const createUserSchema = z.strictObject({ email: emailSchema, name: nameS
 
 /** PATCH /api/users/:id — at least one field. */
 export const updateUserSchema = z
-  .strictObject({ name: nameSchema.optional(), roles: rolesSchema.optional(), disabled: z.boolean({ message: 'must be true or false' }).optional() })
+  .strictObject({
+    name: nameSchema.optional(),
+    roles: rolesSchema.optional(),
+    disabled: z.boolean({ message: 'must be true or false' }).optional(),
+  })
   .refine((v) => v.name !== undefined || v.roles !== undefined || v.disabled !== undefined, 'give at least one of name, roles, disabled');
 
 /** GET /api/audit?page&pageSize&entity&entityId */

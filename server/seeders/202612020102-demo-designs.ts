@@ -58,7 +58,15 @@ export const DEMO_DESIGNS: readonly DemoDesign[] = [
     edit: (d) => ({
       frame: { ...d.frame, outerXMm: 640, outerYMm: 480, extrusionMm: 30 },
       belt: { pitchMm: 3, widthMm: 9, linearMassKgPerM: 0.022, axialStiffnessN: 80000, allowableTensionN: 450, minPulleyTeeth: 14 },
-      motor: { ...d.motor, holdingTorqueNm: 1.26, ratedCurrentA: 2.8, phaseResistanceOhm: 0.9, phaseInductanceMh: 2.5, rotorInertiaKgM2: 2.8e-5, massKg: 0.7 },
+      motor: {
+        ...d.motor,
+        holdingTorqueNm: 1.26,
+        ratedCurrentA: 2.8,
+        phaseResistanceOhm: 0.9,
+        phaseInductanceMh: 2.5,
+        rotorInertiaKgM2: 2.8e-5,
+        massKg: 0.7,
+      },
       driver: { microsteps: 16, supplyV: 36, currentRmsA: 2.0 },
       masses: { carriageKg: 0.6, toolKg: 0.4, gantryKg: 0.9 },
       pretensionN: 60,

@@ -46,57 +46,166 @@ function variant(name: string, edit: (d: DesignInput) => Partial<DesignInput>): 
   return parseDesign({ ...doc, ...edit(doc) });
 }
 
-async function audit(t: Transaction, at: Date, actor: User, action: string, entity: string, entityId: number, from: string | null, to: string | null, reason: string | null): Promise<void> {
-  await AuditLog.create({ actorId: actor.id, action, entity, entityId, fromState: from, toState: to, reason, createdAt: at }, { transaction: t });
+async function audit(
+  t: Transaction,
+  at: Date,
+  actor: User,
+  action: string,
+  entity: string,
+  entityId: number,
+  from: string | null,
+  to: string | null,
+  reason: string | null,
+): Promise<void> {
+  await AuditLog.create(
+    { actorId: actor.id, action, entity, entityId, fromState: from, toState: to, reason, createdAt: at },
+    { transaction: t },
+  );
 }
 
 /** Freezes `inputs` as revision `number` of `design`, submitted by `author` at `at`, and logs it. */
-async function submit(t: Transaction, design: Design, number: number, inputs: DesignInput, author: User, at: Date, designFrom: DesignStatus = 'draft'): Promise<Revision> {
+async function submit(
+  t: Transaction,
+  design: Design,
+  number: number,
+  inputs: DesignInput,
+  author: User,
+  at: Date,
+  designFrom: DesignStatus = 'draft',
+): Promise<Revision> {
   const frozen = freezeDesign(inputs);
-  const revision = await Revision.create({
-    designId: design.id, number, status: 'in_review',
-    inputs: frozen.inputs as unknown as Record<string, unknown>, result: frozen.result as unknown as Record<string, unknown>,
-    summary: frozen.summary, engineVersion: frozen.result.engineVersion, fingerprint: frozen.fingerprint,
-    authorId: author.id, submittedAt: at, decidedById: null, decidedAt: null, decisionNote: null,
-    createdAt: at, updatedAt: at,
-  }, { transaction: t, silent: true });
+  const revision = await Revision.create(
+    {
+      designId: design.id,
+      number,
+      status: 'in_review',
+      inputs: frozen.inputs as unknown as Record<string, unknown>,
+      result: frozen.result as unknown as Record<string, unknown>,
+      summary: frozen.summary,
+      engineVersion: frozen.result.engineVersion,
+      fingerprint: frozen.fingerprint,
+      authorId: author.id,
+      submittedAt: at,
+      decidedById: null,
+      decidedAt: null,
+      decisionNote: null,
+      createdAt: at,
+      updatedAt: at,
+    },
+    { transaction: t, silent: true },
+  );
   await audit(t, at, author, 'design.submit', 'design', design.id, designFrom, 'in_review', `Submitted revision ${number}`);
-  await audit(t, at, author, 'revision.submit', 'revision', revision.id, null, 'in_review', `Revision ${number} of design ${design.id}, fingerprint ${frozen.fingerprint}`);
+  await audit(
+    t,
+    at,
+    author,
+    'revision.submit',
+    'revision',
+    revision.id,
+    null,
+    'in_review',
+    `Revision ${number} of design ${design.id}, fingerprint ${frozen.fingerprint}`,
+  );
   return revision;
 }
 
 /** Records a decision on a revision (the revision's own row changes only its review state). */
-async function decide(t: Transaction, design: Design, revision: Revision, status: RevisionStatus, by: User, at: Date, note: string | null): Promise<void> {
+async function decide(
+  t: Transaction,
+  design: Design,
+  revision: Revision,
+  status: RevisionStatus,
+  by: User,
+  at: Date,
+  note: string | null,
+): Promise<void> {
   await revision.update({ status, decidedById: by.id, decidedAt: at, decisionNote: note, updatedAt: at }, { transaction: t, silent: true });
   const designTo: DesignStatus = status === 'withdrawn' ? 'draft' : (status as DesignStatus);
   const verb = status === 'withdrawn' ? 'withdraw' : status === 'approved' ? 'approve' : 'return';
-  await audit(t, at, by, `design.${verb}`, 'design', design.id, 'in_review', designTo, note ?? `${verb === 'withdraw' ? 'Withdrew' : 'Approved'} revision ${revision.number}`);
+  await audit(
+    t,
+    at,
+    by,
+    `design.${verb}`,
+    'design',
+    design.id,
+    'in_review',
+    designTo,
+    note ?? `${verb === 'withdraw' ? 'Withdrew' : 'Approved'} revision ${revision.number}`,
+  );
   await audit(t, at, by, `revision.${verb}`, 'revision', revision.id, 'in_review', status, note);
 }
 
 /** Renders and stores the sheet of an approved revision, as the approval does. */
-async function publish(t: Transaction, design: Design, revision: Revision, author: User, reviewer: User, at: Date, comment: string): Promise<void> {
+async function publish(
+  t: Transaction,
+  design: Design,
+  revision: Revision,
+  author: User,
+  reviewer: User,
+  at: Date,
+  comment: string,
+): Promise<void> {
   const inputs = revision.inputs as unknown as DesignInput;
   const rendered = await renderSheetFiles({
-    designName: inputs.name, revisionNumber: revision.number, mechanism: inputs.mechanism,
+    designName: inputs.name,
+    revisionNumber: revision.number,
+    mechanism: inputs.mechanism,
     designer: { name: author.name, email: author.email },
     approval: { reviewerName: reviewer.name, approvedAt: at, comment },
-    inputs, result: revision.result as never, fingerprint: revision.fingerprint,
+    inputs,
+    result: revision.result as never,
+    fingerprint: revision.fingerprint,
   });
-  const sheet = await Sheet.create({
-    revisionId: revision.id, designId: design.id, approvedById: reviewer.id, approvedAt: at, comment,
-    a4Pdf: rendered.a4, a4Sha256: rendered.a4Sha256, a4Size: rendered.a4.length,
-    letterPdf: rendered.letter, letterSha256: rendered.letterSha256, letterSize: rendered.letter.length, createdAt: at,
-  }, { transaction: t });
-  await audit(t, at, reviewer, 'sheet.publish', 'sheet', sheet.id, null, 'published', `A4 SHA-256 ${rendered.a4Sha256}; Letter SHA-256 ${rendered.letterSha256}`);
+  const sheet = await Sheet.create(
+    {
+      revisionId: revision.id,
+      designId: design.id,
+      approvedById: reviewer.id,
+      approvedAt: at,
+      comment,
+      a4Pdf: rendered.a4,
+      a4Sha256: rendered.a4Sha256,
+      a4Size: rendered.a4.length,
+      letterPdf: rendered.letter,
+      letterSha256: rendered.letterSha256,
+      letterSize: rendered.letter.length,
+      createdAt: at,
+    },
+    { transaction: t },
+  );
+  await audit(
+    t,
+    at,
+    reviewer,
+    'sheet.publish',
+    'sheet',
+    sheet.id,
+    null,
+    'published',
+    `A4 SHA-256 ${rendered.a4Sha256}; Letter SHA-256 ${rendered.letterSha256}`,
+  );
 }
 
-async function comment(t: Transaction, revision: Revision, author: User, at: Date, body: string, parent: RevisionComment | null = null): Promise<RevisionComment> {
-  return RevisionComment.create({ revisionId: revision.id, parentId: parent?.id ?? null, authorId: author.id, body, createdAt: at }, { transaction: t });
+async function comment(
+  t: Transaction,
+  revision: Revision,
+  author: User,
+  at: Date,
+  body: string,
+  parent: RevisionComment | null = null,
+): Promise<RevisionComment> {
+  return RevisionComment.create(
+    { revisionId: revision.id, parentId: parent?.id ?? null, authorId: author.id, body, createdAt: at },
+    { transaction: t },
+  );
 }
 
 async function setDesign(t: Transaction, design: Design, status: DesignStatus, at: Date): Promise<void> {
-  await design.sequelize.query('UPDATE designs SET status = ?, updated_at = ? WHERE id = ?', { replacements: [status, at, design.id], transaction: t });
+  await design.sequelize.query('UPDATE designs SET status = ?, updated_at = ? WHERE id = ?', {
+    replacements: [status, at, design.id],
+    transaction: t,
+  });
 }
 
 export const up: MigrationFn<SeedContext> = async ({ context }) => {
@@ -107,31 +216,80 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
   // One transaction: the demo history appears whole or not at all (rendering the four PDFs inside it takes a few
   // seconds; nothing else uses the database while seeding).
   await context.sequelize.transaction(async (t) => {
-    if (await Revision.count({ transaction: t }) > 0) return; // someone already made revisions: leave them
+    if ((await Revision.count({ transaction: t })) > 0) return; // someone already made revisions: leave them
 
     // Bench dispensing stage: approved twice; the first sheet is superseded by the second.
     const bench = await demoDesign('Bench dispensing stage', users.designer, t);
     const benchV1 = variant('Bench dispensing stage', () => ({ plannedAccelMmPerS2: 2500, pretensionN: 40 }));
     const benchR1 = await submit(t, bench, 1, benchV1, users.designer, at(20), 'draft');
-    await comment(t, benchR1, users.reviewer, at(19, 2), 'Travel and tension look right. Building the first one at 2500 mm/s² is a sensible start.');
+    await comment(
+      t,
+      benchR1,
+      users.reviewer,
+      at(19, 2),
+      'Travel and tension look right. Building the first one at 2500 mm/s² is a sensible start.',
+    );
     await decide(t, bench, benchR1, 'approved', users.reviewer, at(19, 3), 'Fine to build for the first batch.');
     await publish(t, bench, benchR1, users.designer, users.reviewer, at(19, 3), 'Fine to build for the first batch.');
     await audit(t, at(12), users.designer, 'design.reopen', 'design', bench.id, 'approved', 'draft', 'Reopened for a new revision');
     const benchV2 = demoDesignDocument(DEMO_DESIGNS.find((d) => d.name === 'Bench dispensing stage')!);
     const benchR2 = await submit(t, bench, 2, benchV2, users.designer, at(11), 'draft');
-    await comment(t, benchR2, users.reviewer, at(10, 1), 'Higher acceleration and tension: the checks still pass and the lowest resonance moved up. Approving.');
-    await decide(t, bench, benchR2, 'approved', users.reviewer, at(10, 2), 'Approved for the second batch; tension the belts to the new targets.');
-    await publish(t, bench, benchR2, users.designer, users.reviewer, at(10, 2), 'Approved for the second batch; tension the belts to the new targets.');
+    await comment(
+      t,
+      benchR2,
+      users.reviewer,
+      at(10, 1),
+      'Higher acceleration and tension: the checks still pass and the lowest resonance moved up. Approving.',
+    );
+    await decide(
+      t,
+      bench,
+      benchR2,
+      'approved',
+      users.reviewer,
+      at(10, 2),
+      'Approved for the second batch; tension the belts to the new targets.',
+    );
+    await publish(
+      t,
+      bench,
+      benchR2,
+      users.designer,
+      users.reviewer,
+      at(10, 2),
+      'Approved for the second batch; tension the belts to the new targets.',
+    );
     await setDesign(t, bench, 'approved', at(10, 2));
 
     // A3 pen plotter: returned with a reason and a short discussion; still returned (editable).
     const plotter = await demoDesign('A3 pen plotter', users.designer, t);
     const plotterDoc = demoDesignDocument(DEMO_DESIGNS.find((d) => d.name === 'A3 pen plotter')!);
     const plotterR1 = await submit(t, plotter, 1, plotterDoc, users.designer, at(6));
-    const question = await comment(t, plotterR1, users.reviewer, at(5, 1), 'The gantry on an H-bot racks under acceleration. How stiff is the gantry guide over 500 mm?');
-    await comment(t, plotterR1, users.designer, at(5, 3), 'Two linear rails, 420 mm apart. I had not checked the racking figure against them.', question);
-    await comment(t, plotterR1, users.reviewer, at(5, 4), 'Then please look at the racking force in the checks before we buy rails.', question);
-    const reason = 'Check the racking force on the gantry guides and lower the planned acceleration until the ringing stays within 0.05 mm; then submit again.';
+    const question = await comment(
+      t,
+      plotterR1,
+      users.reviewer,
+      at(5, 1),
+      'The gantry on an H-bot racks under acceleration. How stiff is the gantry guide over 500 mm?',
+    );
+    await comment(
+      t,
+      plotterR1,
+      users.designer,
+      at(5, 3),
+      'Two linear rails, 420 mm apart. I had not checked the racking figure against them.',
+      question,
+    );
+    await comment(
+      t,
+      plotterR1,
+      users.reviewer,
+      at(5, 4),
+      'Then please look at the racking force in the checks before we buy rails.',
+      question,
+    );
+    const reason =
+      'Check the racking force on the gantry guides and lower the planned acceleration until the ringing stays within 0.05 mm; then submit again.';
     await decide(t, plotter, plotterR1, 'returned', users.reviewer, at(5, 5), reason);
     await setDesign(t, plotter, 'returned', at(5, 5));
 
@@ -140,12 +298,27 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
     const wideV1 = variant('Wide dispensing stage', (d) => ({ pretensionN: 45, driver: { ...d.driver, microsteps: 8 } }));
     const wideR1 = await submit(t, wide, 1, wideV1, users.designer2, at(4));
     await decide(t, wide, wideR1, 'withdrawn', users.designer2, at(4, 1), null);
-    await submit(t, wide, 2, demoDesignDocument(DEMO_DESIGNS.find((d) => d.name === 'Wide dispensing stage')!), users.designer2, at(3), 'draft');
+    await submit(
+      t,
+      wide,
+      2,
+      demoDesignDocument(DEMO_DESIGNS.find((d) => d.name === 'Wide dispensing stage')!),
+      users.designer2,
+      at(3),
+      'draft',
+    );
     await setDesign(t, wide, 'in_review', at(3));
 
     // Label placer: waiting in review, with a question from the reviewer.
     const placer = await demoDesign('Label placer', users.designer, t);
-    const placerR1 = await submit(t, placer, 1, demoDesignDocument(DEMO_DESIGNS.find((d) => d.name === 'Label placer')!), users.designer, at(1));
+    const placerR1 = await submit(
+      t,
+      placer,
+      1,
+      demoDesignDocument(DEMO_DESIGNS.find((d) => d.name === 'Label placer')!),
+      users.designer,
+      at(1),
+    );
     await comment(t, placerR1, users.reviewer, at(0, -2), 'Is the label head mass with or without the vacuum fitting?');
     await setDesign(t, placer, 'in_review', at(1));
   });
@@ -162,7 +335,11 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
     await AuditLog.destroy({
       where: {
         [Op.or]: [
-          { entity: 'design', entityId: { [Op.in]: designIds }, action: { [Op.in]: ['design.submit', 'design.withdraw', 'design.approve', 'design.return', 'design.reopen'] } },
+          {
+            entity: 'design',
+            entityId: { [Op.in]: designIds },
+            action: { [Op.in]: ['design.submit', 'design.withdraw', 'design.approve', 'design.return', 'design.reopen'] },
+          },
           { entity: 'revision', entityId: { [Op.in]: revisionIds.length ? revisionIds : [0] } },
           { entity: 'sheet', entityId: { [Op.in]: sheetIds.length ? sheetIds : [0] } },
         ],

@@ -26,14 +26,27 @@ export const DEMO_TORQUE_CSV = [
   '# Illustrative pull-out torque, generic 42 mm long-stack stepper at 24 V and 1.7 A',
   '# (typical shape from memory; replace with your datasheet)',
   'speed_rpm,torque_Ncm',
-  '0,50', '60,50', '300,48', '450,44', '600,37', '750,30', '900,23', '1050,16', '1200,10',
+  '0,50',
+  '60,50',
+  '300,48',
+  '450,44',
+  '600,37',
+  '750,30',
+  '900,23',
+  '1050,16',
+  '1200,10',
   '',
 ].join('\n');
 
 /** A cut list as a designer might keep it beside the design: the belts of the current sheet and the frame. */
 function demoCutListCsv(result: DesignResult | undefined, inputs: DesignInput | undefined): string {
   const belts = (result?.belts ?? []).map((b) => `${b.label},1,${Math.round(b.cutLengthMm)},${b.loopTeeth} teeth plus clamp allowance`);
-  const frame = inputs ? [`frame profile ${inputs.frame.extrusionMm} mm (X),2,${inputs.frame.outerXMm},outer frame`, `frame profile ${inputs.frame.extrusionMm} mm (Y),2,${inputs.frame.outerYMm},outer frame`] : [];
+  const frame = inputs
+    ? [
+        `frame profile ${inputs.frame.extrusionMm} mm (X),2,${inputs.frame.outerXMm},outer frame`,
+        `frame profile ${inputs.frame.extrusionMm} mm (Y),2,${inputs.frame.outerYMm},outer frame`,
+      ]
+    : [];
   return ['item,quantity,length_mm,note', ...belts, ...frame, ''].join('\n');
 }
 
@@ -115,7 +128,10 @@ export function demoSketchPng(): Buffer {
     for (let i = 0; i <= steps; i++) dot(x0 + ((x1 - x0) * i) / steps, y0 + ((y1 - y0) * i) / steps, v);
   };
   const rect = (x0: number, y0: number, x1: number, y1: number, v = 40) => {
-    line(x0, y0, x1, y0, v); line(x1, y0, x1, y1, v); line(x1, y1, x0, y1, v); line(x0, y1, x0, y0, v);
+    line(x0, y0, x1, y0, v);
+    line(x1, y0, x1, y1, v);
+    line(x1, y1, x0, y1, v);
+    line(x0, y1, x0, y0, v);
   };
   rect(8, 8, 151, 111);
   rect(10, 52, 149, 62, 90); // gantry
@@ -145,14 +161,18 @@ type Frozen = { sheet: Sheet; inputs: DesignInput; result: DesignResult };
 async function benchSheets(): Promise<Frozen[]> {
   const design = await Design.findOne({ where: { name: BENCH }, attributes: ['id'] });
   if (!design) return [];
-  const sheets = await Sheet.findAll({
+  const sheets = (await Sheet.findAll({
     where: { designId: design.id },
     attributes: ['id', 'approvedAt'],
     include: [{ model: Revision, as: 'revision', attributes: ['number', 'inputs', 'result'] }],
     order: [['approvedAt', 'ASC']],
-  }) as (Sheet & { revision: Revision })[];
+  })) as (Sheet & { revision: Revision })[];
   const json = <T>(v: unknown): T => (typeof v === 'string' ? JSON.parse(v) : v) as T;
-  return sheets.map((sheet) => ({ sheet, inputs: json<DesignInput>(sheet.revision.inputs), result: json<DesignResult>(sheet.revision.result) }));
+  return sheets.map((sheet) => ({
+    sheet,
+    inputs: json<DesignInput>(sheet.revision.inputs),
+    result: json<DesignResult>(sheet.revision.result),
+  }));
 }
 
 export const up: MigrationFn<SeedContext> = async ({ context }) => {
@@ -176,7 +196,7 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
 
   try {
     await context.sequelize.transaction(async (transaction) => {
-      if (await Measurement.count({ transaction }) > 0 || await Attachment.count({ transaction }) > 0) return; // already populated by hand
+      if ((await Measurement.count({ transaction })) > 0 || (await Attachment.count({ transaction })) > 0) return; // already populated by hand
 
       for (const [index, frozen] of sheets.entries()) {
         const isCurrent = index === sheets.length - 1;
@@ -187,12 +207,16 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
         // Current batch: both within a percent or two of the target.
         const factors = isCurrent ? [1.008, 0.995] : [1.01, 0.955];
         const base = isCurrent ? 2 : 17;
-        const rows: Array<{ spanId: string; frequencyHz: number; minutes: number; recording?: Buffer }> =
-          references.map((id, i) => ({ spanId: id, frequencyHz: Number((spanById.get(id)!.span.targetFrequencyHz * (factors[i] ?? 1)).toFixed(1)), minutes: 10 * i }));
+        const rows: Array<{ spanId: string; frequencyHz: number; minutes: number; recording?: Buffer }> = references.map((id, i) => ({
+          spanId: id,
+          frequencyHz: Number((spanById.get(id)!.span.targetFrequencyHz * (factors[i] ?? 1)).toFixed(1)),
+          minutes: 10 * i,
+        }));
         if (isCurrent) {
           // One recorded pluck on the first belt's longest moving span, analysed like an upload.
           const moving = frozen.result.belts[0]?.spans.filter((s) => !s.fixedLength).sort((a, b) => b.lengthMm - a.lengthMm)[0];
-          if (moving) rows.push({ spanId: moving.id, frequencyHz: 0, minutes: 30, recording: syntheticPluckWav(moving.targetFrequencyHz * 1.02) });
+          if (moving)
+            rows.push({ spanId: moving.id, frequencyHz: 0, minutes: 30, recording: syntheticPluckWav(moving.targetFrequencyHz * 1.02) });
         }
         for (const row of rows) {
           const found = spanById.get(row.spanId);
@@ -205,23 +229,49 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
             const analysis = analysePluck(row.recording);
             frequencyHz = analysis.frequencyHz;
             confidence = analysis.confidence;
-            spectrum = { frequencyHz: analysis.spectrum.frequencyHz.map((f) => Number(f.toFixed(2))), magnitudeDb: analysis.spectrum.magnitudeDb.map((m) => Number(m.toFixed(2))) };
+            spectrum = {
+              frequencyHz: analysis.spectrum.frequencyHz.map((f) => Number(f.toFixed(2))),
+              magnitudeDb: analysis.spectrum.magnitudeDb.map((m) => Number(m.toFixed(2))),
+            };
             sha256 = (await storeBytes(root, row.recording)).sha256;
             stored.push(sha256);
           }
           const figures = tensionFigures({ span: found.span, linearMassKgPerM: mu, frequencyHz });
           const measuredAt = at(base, row.minutes);
-          await Measurement.create({
-            sheetId: frozen.sheet.id, spanId: found.span.id, beltId: found.beltId, spanLengthMm: found.span.lengthMm, linearMassKgPerM: mu,
-            frequencyHz, ...figures, targetFrequencyHz: found.span.targetFrequencyHz,
-            source: row.recording ? 'recording' : 'typed', confidence, spectrum,
-            recordingSha256: sha256, recordingSize: row.recording ? row.recording.length : null, recordingName: row.recording ? 'pluck-belt-a.wav' : null,
-            measuredById: maker.id, measuredAt,
-          }, { transaction });
-          await AuditLog.create({
-            actorId: maker.id, action: 'measurement.create', entity: 'sheet', entityId: frozen.sheet.id, fromState: null,
-            toState: row.recording ? 'recording' : 'typed', reason: `${found.span.id}: ${frequencyHz.toFixed(2)} Hz → ${figures.tensionN.toFixed(1)} N`, createdAt: measuredAt,
-          }, { transaction });
+          await Measurement.create(
+            {
+              sheetId: frozen.sheet.id,
+              spanId: found.span.id,
+              beltId: found.beltId,
+              spanLengthMm: found.span.lengthMm,
+              linearMassKgPerM: mu,
+              frequencyHz,
+              ...figures,
+              targetFrequencyHz: found.span.targetFrequencyHz,
+              source: row.recording ? 'recording' : 'typed',
+              confidence,
+              spectrum,
+              recordingSha256: sha256,
+              recordingSize: row.recording ? row.recording.length : null,
+              recordingName: row.recording ? 'pluck-belt-a.wav' : null,
+              measuredById: maker.id,
+              measuredAt,
+            },
+            { transaction },
+          );
+          await AuditLog.create(
+            {
+              actorId: maker.id,
+              action: 'measurement.create',
+              entity: 'sheet',
+              entityId: frozen.sheet.id,
+              fromState: null,
+              toState: row.recording ? 'recording' : 'typed',
+              reason: `${found.span.id}: ${frequencyHz.toFixed(2)} Hz → ${figures.tensionN.toFixed(1)} N`,
+              createdAt: measuredAt,
+            },
+            { transaction },
+          );
         }
       }
 
@@ -229,14 +279,29 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
       const motor = await Part.findOne({ where: { kind: 'motor', name: TORQUE_MOTOR }, transaction });
       if (motor) {
         const data = (typeof motor.data === 'string' ? JSON.parse(motor.data) : motor.data) as Record<string, unknown>;
-        const points = torqueTable.points.map((p) => ({ speedRevPerS: Number(p.speedRevPerS.toPrecision(6)), torqueNm: Number(p.torqueNm.toPrecision(6)) }));
+        const points = torqueTable.points.map((p) => ({
+          speedRevPerS: Number(p.speedRevPerS.toPrecision(6)),
+          torqueNm: Number(p.torqueNm.toPrecision(6)),
+        }));
         motor.data = { ...data, torqueCurve: points };
         motor.changed('data', true);
         motor.updatedById = admin.id;
         await motor.save({ transaction });
         const { sha256, size } = await storeBytes(root, torqueCsv);
         stored.push(sha256);
-        await Attachment.create({ designId: null, partId: motor.id, uploadedById: admin.id, fileName: 'torque-42mm-long-stack.csv', mime: 'text/csv', size, sha256, createdAt: at(25) }, { transaction });
+        await Attachment.create(
+          {
+            designId: null,
+            partId: motor.id,
+            uploadedById: admin.id,
+            fileName: 'torque-42mm-long-stack.csv',
+            mime: 'text/csv',
+            size,
+            sha256,
+            createdAt: at(25),
+          },
+          { transaction },
+        );
       }
 
       // Two files on the demo design.
@@ -249,14 +314,17 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
         for (const [fileName, mime, bytes, daysAgo] of files) {
           const { sha256, size } = await storeBytes(root, bytes);
           stored.push(sha256);
-          await Attachment.create({ designId: bench.id, partId: null, uploadedById: designer.id, fileName, mime, size, sha256, createdAt: at(daysAgo) }, { transaction });
+          await Attachment.create(
+            { designId: bench.id, partId: null, uploadedById: designer.id, fileName, mime, size, sha256, createdAt: at(daysAgo) },
+            { transaction },
+          );
         }
       }
     });
   } catch (err) {
     // Nothing half-seeded: bytes written for rows that were rolled back go again (unless other rows share them).
     for (const sha256 of stored) {
-      const refs = await Attachment.count({ where: { sha256 } }) + await Measurement.count({ where: { recordingSha256: sha256 } });
+      const refs = (await Attachment.count({ where: { sha256 } })) + (await Measurement.count({ where: { recordingSha256: sha256 } }));
       if (refs === 0) await removeBytes(root, sha256);
     }
     throw err;
@@ -288,7 +356,7 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
     }
   });
   for (const sha256 of hashes) {
-    const refs = await Attachment.count({ where: { sha256 } }) + await Measurement.count({ where: { recordingSha256: sha256 } });
+    const refs = (await Attachment.count({ where: { sha256 } })) + (await Measurement.count({ where: { recordingSha256: sha256 } }));
     if (refs === 0) await removeBytes(root, sha256);
   }
 };

@@ -6,8 +6,16 @@ import { logger } from '../logger';
 import type { UploadedFile } from '../middleware/upload';
 import { Attachment, Design, Measurement, User, type AttachmentMime } from '../models';
 import {
-  assertTypeMatches, ContentStoreError, CsvError, PluckError, readBytes, removeBytes, sha256Of, storeBytes,
-  UploadTypeError, type SniffedMime,
+  assertTypeMatches,
+  ContentStoreError,
+  CsvError,
+  PluckError,
+  readBytes,
+  removeBytes,
+  sha256Of,
+  storeBytes,
+  UploadTypeError,
+  type SniffedMime,
 } from '../uploads';
 import { recordAudit } from './audit.service';
 import type { Page, PublicUser } from './users.service';
@@ -41,7 +49,8 @@ export type AttachmentPage = Page<PublicAttachment> & { canUpload: boolean };
 type AttachmentRow = Attachment & { uploadedBy?: User | null; design?: Design | null };
 
 const isAdmin = (actor: PublicUser) => actor.roles.includes('admin');
-const isDesignerOwner = (actor: PublicUser, design: Pick<Design, 'ownerId'>) => actor.roles.includes('designer') && design.ownerId === actor.id;
+const isDesignerOwner = (actor: PublicUser, design: Pick<Design, 'ownerId'>) =>
+  actor.roles.includes('designer') && design.ownerId === actor.id;
 
 /** The store's root: the configured upload folder (never a path from a request). */
 export function uploadRoot(): string {
@@ -59,7 +68,8 @@ export function toUploadAppError(err: unknown): unknown {
       details: [{ path: 'file', message: err.message }],
     });
   }
-  if (err instanceof PluckError) return new AppError(`recording_${err.code}`, err.message, 422, { details: [{ path: 'file', message: err.message }] });
+  if (err instanceof PluckError)
+    return new AppError(`recording_${err.code}`, err.message, 422, { details: [{ path: 'file', message: err.message }] });
   if (err instanceof CsvError) {
     return new AppError('invalid_csv', err.message, 400, {
       details: err.details.map((d) => ({
@@ -71,9 +81,14 @@ export function toUploadAppError(err: unknown): unknown {
     });
   }
   if (err instanceof ContentStoreError) {
-    return new AppError(err.code === 'not_found' ? 'file_missing' : err.code, err.code === 'not_found' ? 'The stored file is missing.' : err.message, err.httpStatus, {
-      isOperational: err.code !== 'corrupt',
-    });
+    return new AppError(
+      err.code === 'not_found' ? 'file_missing' : err.code,
+      err.code === 'not_found' ? 'The stored file is missing.' : err.message,
+      err.httpStatus,
+      {
+        isOperational: err.code !== 'corrupt',
+      },
+    );
   }
   return err;
 }
@@ -89,7 +104,12 @@ export async function withUploadErrors<T>(fn: () => Promise<T> | T): Promise<T> 
 
 const CONTROL_CHARS = /[\u0000-\u001f\u007f-\u009f]/g;
 const CANONICAL_EXT: Record<string, string> = {
-  'application/pdf': 'pdf', 'image/png': 'png', 'image/jpeg': 'jpg', 'text/csv': 'csv', 'text/plain': 'txt', 'audio/wav': 'wav',
+  'application/pdf': 'pdf',
+  'image/png': 'png',
+  'image/jpeg': 'jpg',
+  'text/csv': 'csv',
+  'text/plain': 'txt',
+  'audio/wav': 'wav',
 };
 
 /**
@@ -101,7 +121,10 @@ const CANONICAL_EXT: Record<string, string> = {
  */
 export function sanitiseFileName(name: string, mime: string): string {
   const ext = CANONICAL_EXT[mime] ?? 'bin';
-  const last = String(name ?? '').split(/[/\\]/).pop() ?? '';
+  const last =
+    String(name ?? '')
+      .split(/[/\\]/)
+      .pop() ?? '';
   let clean = last
     .normalize('NFC')
     .replace(CONTROL_CHARS, '')
@@ -166,7 +189,10 @@ export async function storeWithRows<T>(bytes: Buffer, insertRows: (transaction: 
       return result;
     });
   } catch (err) {
-    if (isStored) await removeIfUnreferenced(sha256).catch((cleanupErr: unknown) => logger.warn({ err: cleanupErr, sha256 }, 'could not clean up stored bytes'));
+    if (isStored)
+      await removeIfUnreferenced(sha256).catch((cleanupErr: unknown) =>
+        logger.warn({ err: cleanupErr, sha256 }, 'could not clean up stored bytes'),
+      );
     throw err;
   }
 }
@@ -210,7 +236,8 @@ async function findDesignOr404(id: number): Promise<Design> {
  */
 export async function assertMayAttach(actor: PublicUser, designId: number): Promise<Design> {
   const design = await findDesignOr404(designId);
-  if (!isAdmin(actor) && !isDesignerOwner(actor, design)) throw forbidden('Only the owner of this design or an admin can attach files to it.');
+  if (!isAdmin(actor) && !isDesignerOwner(actor, design))
+    throw forbidden('Only the owner of this design or an admin can attach files to it.');
   return design;
 }
 
@@ -221,32 +248,61 @@ export async function assertMayAttach(actor: PublicUser, designId: number): Prom
  */
 export async function uploadDesignAttachment(actor: PublicUser, designId: number, file: UploadedFile | null): Promise<PublicAttachment> {
   const design = await assertMayAttach(actor, designId);
-  if (!file) throw new AppError('validation_failed', 'Choose a file to attach.', 400, { details: [{ path: 'file', message: 'is required (multipart field "file")' }] });
+  if (!file)
+    throw new AppError('validation_failed', 'Choose a file to attach.', 400, {
+      details: [{ path: 'file', message: 'is required (multipart field "file")' }],
+    });
   const sniffed = await withUploadErrors(() => assertTypeMatches(file.declaredMime, file.originalName, file.bytes, ATTACHMENT_TYPES));
   const mime: AttachmentMime = sniffed.mime === 'text/plain' ? 'text/csv' : (sniffed.mime as AttachmentMime);
   const fileName = sanitiseFileName(file.originalName, mime);
 
   const row = await storeWithRows(file.bytes, async (transaction, sha256) => {
-    const created = await Attachment.create({
-      designId, partId: null, uploadedById: actor.id, fileName, mime, size: file.bytes.length, sha256,
-    }, { transaction });
-    await recordAudit({ actorId: actor.id, action: 'attachment.create', entity: 'attachment', entityId: created.id, toState: `design ${designId}`, reason: `${fileName} (${mime}, ${file.bytes.length} bytes, SHA-256 ${sha256})` }, transaction);
+    const created = await Attachment.create(
+      {
+        designId,
+        partId: null,
+        uploadedById: actor.id,
+        fileName,
+        mime,
+        size: file.bytes.length,
+        sha256,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'attachment.create',
+        entity: 'attachment',
+        entityId: created.id,
+        toState: `design ${designId}`,
+        reason: `${fileName} (${mime}, ${file.bytes.length} bytes, SHA-256 ${sha256})`,
+      },
+      transaction,
+    );
     return created;
   });
-  const full = await Attachment.findByPk(row.id, { include: [UPLOADER_INCLUDE] }) as AttachmentRow;
+  const full = (await Attachment.findByPk(row.id, { include: [UPLOADER_INCLUDE] })) as AttachmentRow;
   return toPublicAttachment(full, actor, design);
 }
 
 /** A design's attachments, newest first; everyone signed in may read them (as they may read the design). */
-export async function listDesignAttachments(actor: PublicUser, designId: number, query: { page: number; pageSize: number }): Promise<AttachmentPage> {
+export async function listDesignAttachments(
+  actor: PublicUser,
+  designId: number,
+  query: { page: number; pageSize: number },
+): Promise<AttachmentPage> {
   const design = await findDesignOr404(designId);
-  const { rows, count } = await Attachment.findAndCountAll({
+  const { rows, count } = (await Attachment.findAndCountAll({
     where: { designId },
     include: [UPLOADER_INCLUDE],
-    order: [['createdAt', 'DESC'], ['id', 'DESC']],
+    order: [
+      ['createdAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
-  }) as { rows: AttachmentRow[]; count: number };
+  })) as { rows: AttachmentRow[]; count: number };
   return {
     items: rows.map((row) => toPublicAttachment(row, actor, design)),
     total: count,
@@ -273,24 +329,44 @@ export async function getAttachmentDownload(id: number): Promise<AttachmentDownl
  * recording refers to them.
  */
 export async function deleteAttachment(actor: PublicUser, id: number): Promise<void> {
-  const existing = await Attachment.findByPk(id, { include: [{ model: Design, as: 'design', attributes: ['id', 'ownerId'] }] }) as AttachmentRow | null;
+  const existing = (await Attachment.findByPk(id, {
+    include: [{ model: Design, as: 'design', attributes: ['id', 'ownerId'] }],
+  })) as AttachmentRow | null;
   if (!existing) throw notFound('Attachment');
   if (existing.designId === null) {
     throw new AppError('not_deletable', 'This file is the source of a motor torque table; upload a new table instead.', 409);
   }
-  if (!mayDelete(actor, existing, existing.design ?? null)) throw forbidden('Only whoever attached this file, the design owner or an admin can delete it.');
+  if (!mayDelete(actor, existing, existing.design ?? null))
+    throw forbidden('Only whoever attached this file, the design owner or an admin can delete it.');
 
   await getSequelize().transaction(async (transaction) => {
     // Lock every row with this hash first (and the gap: no new row of the same hash can be inserted meanwhile).
     await countReferences(existing.sha256, transaction);
     const deleted = await Attachment.destroy({ where: { id }, transaction });
     if (deleted === 0) throw notFound('Attachment');
-    await recordAudit({ actorId: actor.id, action: 'attachment.delete', entity: 'attachment', entityId: id, fromState: `design ${existing.designId}`, reason: `${existing.fileName} (SHA-256 ${existing.sha256})` }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'attachment.delete',
+        entity: 'attachment',
+        entityId: id,
+        fromState: `design ${existing.designId}`,
+        reason: `${existing.fileName} (SHA-256 ${existing.sha256})`,
+      },
+      transaction,
+    );
     if ((await countReferences(existing.sha256, transaction)) === 0) await removeBytes(uploadRoot(), existing.sha256);
   });
 }
 
 /** Newest source file of a motor's torque table, or null. */
 export async function latestPartAttachment(partId: number): Promise<Attachment | null> {
-  return Attachment.findOne({ where: { partId, designId: { [Op.is]: null } }, order: [['createdAt', 'DESC'], ['id', 'DESC']], include: [UPLOADER_INCLUDE] });
+  return Attachment.findOne({
+    where: { partId, designId: { [Op.is]: null } },
+    order: [
+      ['createdAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
+    include: [UPLOADER_INCLUDE],
+  });
 }

@@ -1,6 +1,12 @@
 import {
-  compareMechanisms, EngineInputError, evaluateValidDesign, sweep,
-  type ComparisonRow, type DesignInput, type DesignResult, type SweepPoint,
+  compareMechanisms,
+  EngineInputError,
+  evaluateValidDesign,
+  sweep,
+  type ComparisonRow,
+  type DesignInput,
+  type DesignResult,
+  type SweepPoint,
 } from '@/engine';
 import { validationError } from '../errors';
 
@@ -10,10 +16,13 @@ const BODY_FIELDS = new Set(['path', 'values']);
 /** Engine input errors (found past the schema) become 400s naming the field: `design.<field>`, or `path` / `values`. */
 function rethrowEngineError(err: unknown): never {
   if (err instanceof EngineInputError) {
-    throw validationError(err.issues.map((i) => ({
-      path: BODY_FIELDS.has(i.path) ? i.path : ['design', i.path].filter(Boolean).join('.'),
-      message: i.message,
-    })), 'The design is not valid.');
+    throw validationError(
+      err.issues.map((i) => ({
+        path: BODY_FIELDS.has(i.path) ? i.path : ['design', i.path].filter(Boolean).join('.'),
+        message: i.message,
+      })),
+      'The design is not valid.',
+    );
   }
   throw err;
 }

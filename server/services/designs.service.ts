@@ -3,8 +3,13 @@ import { defaultDesign, EngineInputError, evaluateValidDesign, safeParseDesign, 
 import { AppError, conflict, forbidden, notFound, validationError, type ErrorDetail } from '../errors';
 import { getSequelize } from '../db';
 import {
-  Attachment, Design, EDITABLE_DESIGN_STATUSES, User,
-  type DesignMechanism, type DesignResultSummary, type DesignStatus,
+  Attachment,
+  Design,
+  EDITABLE_DESIGN_STATUSES,
+  User,
+  type DesignMechanism,
+  type DesignResultSummary,
+  type DesignStatus,
 } from '../models';
 import type { CreateDesignInput, ListDesignsQuery, UpdateDesignInput } from '../schemas/designs.schema';
 import { removeUnreferencedBytes } from './attachments.service';
@@ -81,7 +86,10 @@ function engineIssues(issues: { path: string; message: string }[], prefix = ''):
  * Runs the engine on a validated document and keeps what the list and cards need: travel and a summary.
  * Called on every save, so the stored travel always matches the stored inputs.
  */
-export function computeStoredResults(document: DesignInput, pathPrefix = ''): { travelXMm: number; travelYMm: number; resultSummary: DesignResultSummary } {
+export function computeStoredResults(
+  document: DesignInput,
+  pathPrefix = '',
+): { travelXMm: number; travelYMm: number; resultSummary: DesignResultSummary } {
   let result: DesignResult;
   try {
     result = evaluateValidDesign(document);
@@ -134,9 +142,7 @@ function sortOrder(sort: string): Order {
   const descending = sort.startsWith('-');
   const key = descending ? sort.slice(1) : sort;
   const dir = descending ? 'DESC' : 'ASC';
-  const primary: Order = key === 'owner'
-    ? [[{ model: User, as: 'owner' }, 'name', dir]]
-    : [[key, dir]];
+  const primary: Order = key === 'owner' ? [[{ model: User, as: 'owner' }, 'name', dir]] : [[key, dir]];
   // A stable tie-breaker keeps pages from overlapping when many rows share a value.
   return [...(primary as unknown[]), ['id', dir]] as Order;
 }
@@ -185,7 +191,10 @@ export async function createDesign(actor: PublicUser, input: CreateDesignInput):
     origin = `template ${input.template}`;
   } else if (input.mode === 'copy') {
     const source = await Design.findByPk(input.copyOf);
-    if (!source) throw new AppError('not_found', 'The design to copy was not found.', 404, { details: [{ path: 'copyOf', message: 'no design with this id' }] });
+    if (!source)
+      throw new AppError('not_found', 'The design to copy was not found.', 404, {
+        details: [{ path: 'copyOf', message: 'no design with this id' }],
+      });
     const name = input.name ?? `Copy of ${source.name}`.slice(0, 200);
     document = normalise({ ...parseJson<DesignInput>(source.inputs), name });
     origin = `copy of design ${source.id}`;
@@ -196,17 +205,23 @@ export async function createDesign(actor: PublicUser, input: CreateDesignInput):
   const stored = computeStoredResults(document);
 
   const row = await getSequelize().transaction(async (transaction) => {
-    const created = await Design.create({
-      name: document.name,
-      mechanism: document.mechanism,
-      status: 'draft',
-      ownerId: actor.id,
-      updatedById: actor.id,
-      inputs: document as unknown as Record<string, unknown>,
-      ...stored,
-      version: 1,
-    }, { transaction });
-    await recordAudit({ actorId: actor.id, action: 'design.create', entity: 'design', entityId: created.id, toState: 'draft', reason: origin }, transaction);
+    const created = await Design.create(
+      {
+        name: document.name,
+        mechanism: document.mechanism,
+        status: 'draft',
+        ownerId: actor.id,
+        updatedById: actor.id,
+        inputs: document as unknown as Record<string, unknown>,
+        ...stored,
+        version: 1,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      { actorId: actor.id, action: 'design.create', entity: 'design', entityId: created.id, toState: 'draft', reason: origin },
+      transaction,
+    );
     return created;
   });
   return getDesign(actor, row.id);
@@ -221,9 +236,14 @@ function versionConflict(row: DesignRow): AppError {
   };
   // The error body's `details` is usually a list of field issues; for a version conflict it is this object
   // (the contract of PATCH /api/designs/:id).
-  return new AppError('version_conflict', `This design was changed by ${details.updatedBy?.name ?? 'someone else'} since you opened it (now version ${row.version}). Reload it, or save your inputs as a copy.`, 409, {
-    details,
-  });
+  return new AppError(
+    'version_conflict',
+    `This design was changed by ${details.updatedBy?.name ?? 'someone else'} since you opened it (now version ${row.version}). Reload it, or save your inputs as a copy.`,
+    409,
+    {
+      details,
+    },
+  );
 }
 
 function notEditable(row: Design): AppError {
@@ -249,16 +269,19 @@ export async function updateDesign(actor: PublicUser, id: number, patch: UpdateD
   const document = withName(patch.inputs ?? normalise(parseJson(row.inputs), 'inputs'), patch.name);
   const stored = patch.inputs ? computeStoredResults(document, 'inputs') : {};
 
-  const [affected] = await Design.update({
-    name: document.name,
-    mechanism: document.mechanism,
-    inputs: document as unknown as Record<string, unknown>,
-    ...stored,
-    updatedById: actor.id,
-    version: patch.version + 1,
-  }, {
-    where: { id, version: patch.version, status: { [Op.in]: [...EDITABLE_DESIGN_STATUSES] } },
-  });
+  const [affected] = await Design.update(
+    {
+      name: document.name,
+      mechanism: document.mechanism,
+      inputs: document as unknown as Record<string, unknown>,
+      ...stored,
+      updatedById: actor.id,
+      version: patch.version + 1,
+    },
+    {
+      where: { id, version: patch.version, status: { [Op.in]: [...EDITABLE_DESIGN_STATUSES] } },
+    },
+  );
   if (affected === 0) {
     const now = await findDesign(id);
     if (!EDITABLE_DESIGN_STATUSES.includes(now.status as DesignStatus)) throw notEditable(now);
@@ -276,7 +299,12 @@ export async function deleteDesign(actor: PublicUser, id: number): Promise<void>
   }
   const attachmentHashes = await getSequelize().transaction(async (transaction) => {
     // The attachment rows go with the design (ON DELETE CASCADE); note their hashes to clean up the bytes after.
-    const attachments = await Attachment.findAll({ where: { designId: id }, attributes: ['id', 'sha256'], transaction, lock: transaction.LOCK.UPDATE });
+    const attachments = await Attachment.findAll({
+      where: { designId: id },
+      attributes: ['id', 'sha256'],
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     const deleted = await Design.destroy({ where: { id, status: { [Op.in]: [...DELETABLE_STATUSES] } }, transaction });
     if (deleted === 0) throw conflict('This design changed state while deleting; reload it.', 'not_deletable');
     await recordAudit({ actorId: actor.id, action: 'design.delete', entity: 'design', entityId: id, fromState: row.status }, transaction);

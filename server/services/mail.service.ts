@@ -37,7 +37,13 @@ export async function sendMail(input: MailInput): Promise<boolean> {
   const { mailFrom } = getConfig();
   for (let attempt = 0; ; attempt += 1) {
     try {
-      const info = await getTransporter().sendMail({ from: mailFrom, to: input.to, subject: input.subject, text: input.text, html: input.html });
+      const info = await getTransporter().sendMail({
+        from: mailFrom,
+        to: input.to,
+        subject: input.subject,
+        text: input.text,
+        html: input.html,
+      });
       logger.info({ to: input.to, subject: input.subject, messageId: info.messageId }, 'mail sent');
       return true;
     } catch (err) {

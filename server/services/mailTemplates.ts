@@ -8,11 +8,13 @@ export function escapeHtml(value: string): string {
 
 function layout(title: string, paragraphs: string[], link: { href: string; label: string }): string {
   const body = paragraphs.map((p) => `<p style="margin:0 0 14px">${escapeHtml(p)}</p>`).join('');
-  return `<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1d2a33;line-height:1.5">`
-    + `<h2 style="margin:0 0 16px;color:#0f5257">${escapeHtml(title)}</h2>${body}`
-    + `<p style="margin:20px 0"><a href="${escapeHtml(link.href)}" style="background:#0f5257;color:#fff;padding:10px 18px;border-radius:6px;text-decoration:none">${escapeHtml(link.label)}</a></p>`
-    + `<p style="font-size:12px;color:#5b6b75">If the button does not work, open this address: ${escapeHtml(link.href)}</p>`
-    + `<p style="font-size:12px;color:#5b6b75">Gantrywright</p></body></html>`;
+  return (
+    `<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1d2a33;line-height:1.5">` +
+    `<h2 style="margin:0 0 16px;color:#0f5257">${escapeHtml(title)}</h2>${body}` +
+    `<p style="margin:20px 0"><a href="${escapeHtml(link.href)}" style="background:#0f5257;color:#fff;padding:10px 18px;border-radius:6px;text-decoration:none">${escapeHtml(link.label)}</a></p>` +
+    `<p style="font-size:12px;color:#5b6b75">If the button does not work, open this address: ${escapeHtml(link.href)}</p>` +
+    `<p style="font-size:12px;color:#5b6b75">Gantrywright</p></body></html>`
+  );
 }
 
 /** The password-reset mail (link valid for one hour, usable once). */

@@ -125,7 +125,12 @@ function toPublic(row: MeasurementRow): PublicMeasurement {
     confidence: row.confidence,
     hasSpectrum: row.spectrum !== null && row.spectrum !== undefined,
     recording: row.recordingSha256
-      ? { sha256: row.recordingSha256, size: row.recordingSize ?? 0, fileName: row.recordingName ?? 'recording.wav', url: `/api/sheets/${row.sheetId}/measurements/${row.id}/recording` }
+      ? {
+          sha256: row.recordingSha256,
+          size: row.recordingSize ?? 0,
+          fileName: row.recordingName ?? 'recording.wav',
+          url: `/api/sheets/${row.sheetId}/measurements/${row.id}/recording`,
+        }
       : null,
     measuredBy: { id: row.measuredById, name: row.measuredBy?.name ?? '' },
     measuredAt: new Date(row.measuredAt).toISOString(),
@@ -138,12 +143,17 @@ export async function assertSheetExists(sheetId: number): Promise<void> {
 }
 
 async function loadFrozenSheet(sheetId: number): Promise<FrozenSheet> {
-  const sheet = await Sheet.findByPk(sheetId, {
+  const sheet = (await Sheet.findByPk(sheetId, {
     attributes: ['id', 'revisionId', 'designId'],
     include: [{ model: Revision, as: 'revision', attributes: ['id', 'number', 'inputs', 'result'] }],
-  }) as (Sheet & { revision?: Revision }) | null;
+  })) as (Sheet & { revision?: Revision }) | null;
   if (!sheet || !sheet.revision) throw notFound('Sheet');
-  return { sheet, revision: sheet.revision, inputs: parseJson<DesignInput>(sheet.revision.inputs), result: parseJson<DesignResult>(sheet.revision.result) };
+  return {
+    sheet,
+    revision: sheet.revision,
+    inputs: parseJson<DesignInput>(sheet.revision.inputs),
+    result: parseJson<DesignResult>(sheet.revision.result),
+  };
 }
 
 function findSpan(frozen: FrozenSheet, spanId: string): SpanInfo {
@@ -169,8 +179,16 @@ function targetTensionN(span: Pick<SpanInfo['span'], 'targetFrequencyHz' | 'leng
  * @param args.frequencyHz - measured fundamental [Hz]
  * @returns tension [N], target tension [N] and the deviation on tension [%]
  */
-export function tensionFigures(args: { span: Pick<SpanInfo['span'], 'targetFrequencyHz' | 'lengthMm'>; linearMassKgPerM: number; frequencyHz: number }): { tensionN: number; targetTensionN: number; deviationPct: number } {
-  const tensionN = tensionFromFrequencyN({ frequencyHz: args.frequencyHz, linearMassKgPerM: args.linearMassKgPerM, spanMm: args.span.lengthMm });
+export function tensionFigures(args: {
+  span: Pick<SpanInfo['span'], 'targetFrequencyHz' | 'lengthMm'>;
+  linearMassKgPerM: number;
+  frequencyHz: number;
+}): { tensionN: number; targetTensionN: number; deviationPct: number } {
+  const tensionN = tensionFromFrequencyN({
+    frequencyHz: args.frequencyHz,
+    linearMassKgPerM: args.linearMassKgPerM,
+    spanMm: args.span.lengthMm,
+  });
   const target = targetTensionN(args.span, args.linearMassKgPerM);
   return { tensionN, targetTensionN: target, deviationPct: ((tensionN - target) / target) * 100 };
 }
@@ -185,7 +203,12 @@ export function tensionFigures(args: { span: Pick<SpanInfo['span'], 'targetFrequ
  * the recording's bytes are then written together in one transaction.
  * @throws 404 unknown sheet · 400 unknown span, both or neither of frequency and recording · 415 · 422
  */
-export async function recordMeasurement(actor: PublicUser, sheetId: number, input: RecordMeasurementInput, file: UploadedFile | null): Promise<MeasurementDetail> {
+export async function recordMeasurement(
+  actor: PublicUser,
+  sheetId: number,
+  input: RecordMeasurementInput,
+  file: UploadedFile | null,
+): Promise<MeasurementDetail> {
   const frozen = await loadFrozenSheet(sheetId);
   const hasTyped = input.frequencyHz !== undefined;
   if (hasTyped && file) {
@@ -207,7 +230,9 @@ export async function recordMeasurement(actor: PublicUser, sheetId: number, inpu
   if (file) {
     await withUploadErrors(() => assertTypeMatches(file.declaredMime, file.originalName, file.bytes, ['audio/wav']));
     // Look a little above the default band when the target itself is high (short, tight spans).
-    const analysis = await withUploadErrors(() => analysePluck(file.bytes, { maxHz: Math.max(PLUCK_DEFAULT_MAX_HZ, 2.5 * span.targetFrequencyHz) }));
+    const analysis = await withUploadErrors(() =>
+      analysePluck(file.bytes, { maxHz: Math.max(PLUCK_DEFAULT_MAX_HZ, 2.5 * span.targetFrequencyHz) }),
+    );
     frequencyHz = analysis.frequencyHz;
     confidence = analysis.confidence;
     spectrum = {
@@ -237,17 +262,26 @@ export async function recordMeasurement(actor: PublicUser, sheetId: number, inpu
     measuredAt: new Date(),
   };
   const insert = async (transaction: Transaction, sha256: string | null) => {
-    const row = await Measurement.create({
-      ...values,
-      recordingSha256: sha256,
-      recordingSize: file ? file.bytes.length : null,
-      recordingName: file ? sanitiseFileName(file.originalName, 'audio/wav') : null,
-    }, { transaction });
-    await recordAudit({
-      actorId: actor.id, action: 'measurement.create', entity: 'sheet', entityId: sheetId,
-      toState: values.source,
-      reason: `${span.id}: ${frequencyHz.toFixed(2)} Hz → ${tensionN.toFixed(1)} N (target ${target.toFixed(1)} N)${sha256 ? `, recording SHA-256 ${sha256}` : ''}`,
-    }, transaction);
+    const row = await Measurement.create(
+      {
+        ...values,
+        recordingSha256: sha256,
+        recordingSize: file ? file.bytes.length : null,
+        recordingName: file ? sanitiseFileName(file.originalName, 'audio/wav') : null,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'measurement.create',
+        entity: 'sheet',
+        entityId: sheetId,
+        toState: values.source,
+        reason: `${span.id}: ${frequencyHz.toFixed(2)} Hz → ${tensionN.toFixed(1)} N (target ${target.toFixed(1)} N)${sha256 ? `, recording SHA-256 ${sha256}` : ''}`,
+      },
+      transaction,
+    );
     return row;
   };
   const row = file
@@ -258,7 +292,10 @@ export async function recordMeasurement(actor: PublicUser, sheetId: number, inpu
 
 /** One measurement of a sheet, with its spectrum. */
 export async function getMeasurement(sheetId: number, id: number): Promise<MeasurementDetail> {
-  const row = await Measurement.findOne({ where: { id, sheetId }, include: [{ model: User, as: 'measuredBy', attributes: ['id', 'name'] }] }) as MeasurementRow | null;
+  const row = (await Measurement.findOne({
+    where: { id, sheetId },
+    include: [{ model: User, as: 'measuredBy', attributes: ['id', 'name'] }],
+  })) as MeasurementRow | null;
   if (!row) throw notFound('Measurement');
   const spectrum = row.spectrum ? parseJson<StoredSpectrum>(row.spectrum) : null;
   return { ...toPublic(row), spectrum };
@@ -313,15 +350,22 @@ function crossedPairs(mechanism: Mechanism, result: DesignResult, spans: SpanSum
  * A sheet's measurements, newest first, with each span's target and latest measurement and, for a CoreXY stage,
  * the crossed-belt comparison (mismatch beyond {@link CROSSED_BELT_TOLERANCE_PCT}). Everyone who may read sheets.
  */
-export async function listMeasurements(actor: PublicUser, sheetId: number, query: { page: number; pageSize: number }): Promise<SheetMeasurements> {
+export async function listMeasurements(
+  actor: PublicUser,
+  sheetId: number,
+  query: { page: number; pageSize: number },
+): Promise<SheetMeasurements> {
   const frozen = await loadFrozenSheet(sheetId);
   // A sheet gathers a handful of plucks per span: read them all (without the spectra) and page in memory.
-  const rows = await Measurement.findAll({
+  const rows = (await Measurement.findAll({
     where: { sheetId },
     include: [{ model: User, as: 'measuredBy', attributes: ['id', 'name'] }],
     attributes: { exclude: ['spectrum'], include: [[Measurement.sequelize!.literal('spectrum IS NOT NULL'), 'hasSpectrumFlag']] },
-    order: [['measuredAt', 'DESC'], ['id', 'DESC']],
-  }) as MeasurementRow[];
+    order: [
+      ['measuredAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
+  })) as MeasurementRow[];
   const all = rows.map(withFlag);
   const latest = new Map<string, PublicMeasurement>();
   const counts = new Map<string, number>();
@@ -331,23 +375,25 @@ export async function listMeasurements(actor: PublicUser, sheetId: number, query
   }
 
   const mu = frozen.inputs.belt.linearMassKgPerM;
-  const spans: SpanSummary[] = frozen.result.belts.flatMap((belt) => belt.spans.map((span) => {
-    const last = latest.get(span.id) ?? null;
-    return {
-      spanId: span.id,
-      beltId: belt.id,
-      beltLabel: belt.label,
-      label: span.label,
-      lengthMm: span.lengthMm,
-      fixedLength: span.fixedLength,
-      isReference: belt.referenceSpanId === span.id,
-      targetFrequencyHz: span.targetFrequencyHz,
-      targetTensionN: targetTensionN(span, mu),
-      latest: last,
-      count: counts.get(span.id) ?? 0,
-      status: spanStatus(last),
-    };
-  }));
+  const spans: SpanSummary[] = frozen.result.belts.flatMap((belt) =>
+    belt.spans.map((span) => {
+      const last = latest.get(span.id) ?? null;
+      return {
+        spanId: span.id,
+        beltId: belt.id,
+        beltLabel: belt.label,
+        label: span.label,
+        lengthMm: span.lengthMm,
+        fixedLength: span.fixedLength,
+        isReference: belt.referenceSpanId === span.id,
+        targetFrequencyHz: span.targetFrequencyHz,
+        targetTensionN: targetTensionN(span, mu),
+        latest: last,
+        count: counts.get(span.id) ?? 0,
+        status: spanStatus(last),
+      };
+    }),
+  );
 
   return {
     items: all.slice((query.page - 1) * query.pageSize, query.page * query.pageSize),

@@ -50,8 +50,17 @@ export async function queueMail(
     unique.map((r) => {
       const content = build(r);
       return {
-        kind, toAddress: r.email, subject: content.subject.slice(0, 300), textBody: content.text, htmlBody: content.html,
-        status: 'pending' as const, attempts: 0, lastError: null, nextAttemptAt: now, lockedUntil: null, sentAt: null,
+        kind,
+        toAddress: r.email,
+        subject: content.subject.slice(0, 300),
+        textBody: content.text,
+        htmlBody: content.html,
+        status: 'pending' as const,
+        attempts: 0,
+        lastError: null,
+        nextAttemptAt: now,
+        lockedUntil: null,
+        sentAt: null,
       };
     }),
     { transaction },
@@ -86,16 +95,28 @@ async function sendOne(row: Notification): Promise<boolean> {
   }
   const attempts = row.attempts + 1;
   if (!error) {
-    await Notification.update({ status: 'sent', attempts, sentAt: new Date(), lockedUntil: null, lastError: null }, { where: { id: row.id } });
+    await Notification.update(
+      { status: 'sent', attempts, sentAt: new Date(), lockedUntil: null, lastError: null },
+      { where: { id: row.id } },
+    );
     return true;
   }
   const isLast = attempts >= MAX_ATTEMPTS;
   const delay = RETRY_BACKOFF_MS[Math.min(attempts - 1, RETRY_BACKOFF_MS.length - 1)];
   await Notification.update(
-    { status: isLast ? 'failed' : 'pending', attempts, lastError: error.slice(0, 2000), lockedUntil: null, nextAttemptAt: new Date(Date.now() + delay) },
+    {
+      status: isLast ? 'failed' : 'pending',
+      attempts,
+      lastError: error.slice(0, 2000),
+      lockedUntil: null,
+      nextAttemptAt: new Date(Date.now() + delay),
+    },
     { where: { id: row.id } },
   );
-  logger[isLast ? 'error' : 'warn']({ mailId: row.id, kind: row.kind, to: row.toAddress, attempts, error }, isLast ? 'mail given up' : 'mail will be retried');
+  logger[isLast ? 'error' : 'warn'](
+    { mailId: row.id, kind: row.kind, to: row.toAddress, attempts, error },
+    isLast ? 'mail given up' : 'mail will be retried',
+  );
   return false;
 }
 
@@ -158,22 +179,36 @@ function appLink(path: string): string {
   return `${getConfig().appUrl}${path}`;
 }
 
-function mail(input: { subject: string; title: string; greeting: string; paragraphs: string[]; quote?: { label: string; text: string }; link: { path: string; label: string } }): MailContent {
+function mail(input: {
+  subject: string;
+  title: string;
+  greeting: string;
+  paragraphs: string[];
+  quote?: { label: string; text: string };
+  link: { path: string; label: string };
+}): MailContent {
   const href = appLink(input.link.path);
   const textParts = [input.greeting, ...input.paragraphs];
-  if (input.quote) textParts.push(`${input.quote.label}:\n${input.quote.text.split('\n').map((l) => `  > ${l}`).join('\n')}`);
+  if (input.quote)
+    textParts.push(
+      `${input.quote.label}:\n${input.quote.text
+        .split('\n')
+        .map((l) => `  > ${l}`)
+        .join('\n')}`,
+    );
   textParts.push(`${input.link.label}: ${href}`);
   const quoteHtml = input.quote
-    ? `<p style="margin:0 0 6px;font-weight:600">${escapeHtml(input.quote.label)}</p>`
-      + `<blockquote style="margin:0 0 14px;padding:8px 12px;border-left:3px solid #b7791f;background:#f6ead6;white-space:pre-wrap">${escapeHtml(input.quote.text)}</blockquote>`
+    ? `<p style="margin:0 0 6px;font-weight:600">${escapeHtml(input.quote.label)}</p>` +
+      `<blockquote style="margin:0 0 14px;padding:8px 12px;border-left:3px solid #b7791f;background:#f6ead6;white-space:pre-wrap">${escapeHtml(input.quote.text)}</blockquote>`
     : '';
-  const html = '<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1d2624;line-height:1.5">'
-    + `<h2 style="margin:0 0 16px;color:#146c66">${escapeHtml(input.title)}</h2>`
-    + [input.greeting, ...input.paragraphs].map((p) => `<p style="margin:0 0 14px">${escapeHtml(p)}</p>`).join('')
-    + quoteHtml
-    + `<p style="margin:20px 0"><a href="${escapeHtml(href)}" style="background:#146c66;color:#fff;padding:10px 18px;border-radius:6px;text-decoration:none">${escapeHtml(input.link.label)}</a></p>`
-    + `<p style="font-size:12px;color:#5d6b68">If the button does not work, open this address: ${escapeHtml(href)}</p>`
-    + '<p style="font-size:12px;color:#5d6b68">Gantrywright</p></body></html>';
+  const html =
+    '<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1d2624;line-height:1.5">' +
+    `<h2 style="margin:0 0 16px;color:#146c66">${escapeHtml(input.title)}</h2>` +
+    [input.greeting, ...input.paragraphs].map((p) => `<p style="margin:0 0 14px">${escapeHtml(p)}</p>`).join('') +
+    quoteHtml +
+    `<p style="margin:20px 0"><a href="${escapeHtml(href)}" style="background:#146c66;color:#fff;padding:10px 18px;border-radius:6px;text-decoration:none">${escapeHtml(input.link.label)}</a></p>` +
+    `<p style="font-size:12px;color:#5d6b68">If the button does not work, open this address: ${escapeHtml(href)}</p>` +
+    '<p style="font-size:12px;color:#5d6b68">Gantrywright</p></body></html>';
   return { subject: input.subject, text: `${textParts.join('\n\n')}\n\nGantrywright\n`, html };
 }
 
@@ -186,7 +221,9 @@ export function submittedMail(to: Recipient, rev: RevisionRef & { authorName: st
     subject: `Review requested: ${rev.designName}, revision ${rev.number}`,
     title: 'A revision waits for review',
     greeting: `Hello ${to.name},`,
-    paragraphs: [`${rev.authorName} submitted revision ${rev.number} of "${rev.designName}" for review. Its inputs and results are frozen.`],
+    paragraphs: [
+      `${rev.authorName} submitted revision ${rev.number} of "${rev.designName}" for review. Its inputs and results are frozen.`,
+    ],
     link: { path: `/review/${rev.revisionId}`, label: 'Open the review' },
   });
 }
@@ -197,7 +234,9 @@ export function returnedMail(to: Recipient, rev: RevisionRef & { reviewerName: s
     subject: `Returned: ${rev.designName}, revision ${rev.number}`,
     title: 'Your revision was returned',
     greeting: `Hello ${to.name},`,
-    paragraphs: [`${rev.reviewerName} returned revision ${rev.number} of "${rev.designName}". The design is editable again; change it and submit it once more.`],
+    paragraphs: [
+      `${rev.reviewerName} returned revision ${rev.number} of "${rev.designName}". The design is editable again; change it and submit it once more.`,
+    ],
     quote: { label: 'Reason', text: rev.reason },
     link: { path: `/designs/${rev.designId}`, label: 'Open the design' },
   });
@@ -209,7 +248,9 @@ export function approvedMail(to: Recipient, rev: RevisionRef & { reviewerName: s
     subject: `Approved: ${rev.designName}, revision ${rev.number}`,
     title: 'Your revision was approved',
     greeting: `Hello ${to.name},`,
-    paragraphs: [`${rev.reviewerName} approved revision ${rev.number} of "${rev.designName}". Its design sheet is published for the makers.`],
+    paragraphs: [
+      `${rev.reviewerName} approved revision ${rev.number} of "${rev.designName}". Its design sheet is published for the makers.`,
+    ],
     quote: rev.comment ? { label: 'Comment', text: rev.comment } : undefined,
     link: { path: `/sheets/${rev.sheetId}`, label: 'Open the design sheet' },
   });

@@ -19,7 +19,9 @@ export async function listOutbox(query: { page: number; pageSize: number; to?: s
     if (!res.ok) throw new Error(`HTTP ${res.status}`);
     messages = (await res.json()) as OutboxMessage[];
   } catch (err) {
-    throw new AppError('mailcatcher_unavailable', `The local mail catcher is not reachable at ${url}. Start the app with npm start.`, 503, { cause: err });
+    throw new AppError('mailcatcher_unavailable', `The local mail catcher is not reachable at ${url}. Start the app with npm start.`, 503, {
+      cause: err,
+    });
   }
   const wanted = query.to?.toLowerCase();
   const filtered = (wanted ? messages.filter((m) => m.to.some((t) => t.toLowerCase() === wanted)) : messages)

@@ -4,8 +4,13 @@ import { getSequelize } from '../db';
 import { Part, type PartKind } from '../models';
 import { zodDetails } from '../middleware/validate';
 import {
-  beltPartSchema, motorPartSchema, pulleyPartSchema,
-  type ListPartsQuery, type PartInput, type PartPatch, type TorquePoint,
+  beltPartSchema,
+  motorPartSchema,
+  pulleyPartSchema,
+  type ListPartsQuery,
+  type PartInput,
+  type PartPatch,
+  type TorquePoint,
 } from '../schemas/parts.schema';
 import { recordAudit } from './audit.service';
 import type { Page, PublicUser } from './users.service';
@@ -15,9 +20,29 @@ export const PART_SHELVES: Record<PartKind, 'belts' | 'pulleys' | 'motors'> = { 
 
 /** The fields of each kind in the order the API shows them (name and note are columns, the rest is `data`). */
 export const PART_FIELDS: Record<PartKind, readonly string[]> = {
-  belt: ['profile', 'standard', 'pitchMm', 'widthMm', 'linearMassKgPerM', 'axialStiffnessN', 'allowableTensionN', 'minPulleyTeeth', 'source'],
+  belt: [
+    'profile',
+    'standard',
+    'pitchMm',
+    'widthMm',
+    'linearMassKgPerM',
+    'axialStiffnessN',
+    'allowableTensionN',
+    'minPulleyTeeth',
+    'source',
+  ],
   pulley: ['teeth', 'pitchMm', 'profile', 'kind', 'boreMm', 'inertiaKgM2'],
-  motor: ['frameMm', 'stepAngleDeg', 'holdingTorqueNm', 'ratedCurrentA', 'phaseResistanceOhm', 'phaseInductanceMh', 'rotorInertiaKgM2', 'massKg', 'torqueCurve'],
+  motor: [
+    'frameMm',
+    'stepAngleDeg',
+    'holdingTorqueNm',
+    'ratedCurrentA',
+    'phaseResistanceOhm',
+    'phaseInductanceMh',
+    'rotorInertiaKgM2',
+    'massKg',
+    'torqueCurve',
+  ],
 };
 
 const FULL_SCHEMA = { belt: beltPartSchema, pulley: pulleyPartSchema, motor: motorPartSchema } as const;
@@ -82,7 +107,10 @@ export async function listParts(kind: PartKind, query: ListPartsQuery): Promise<
   if (query.q) where.name = { [Op.like]: `%${escapeLike(query.q)}%` };
   const { rows, count } = await Part.findAndCountAll({
     where,
-    order: [['name', 'ASC'], ['id', 'ASC']],
+    order: [
+      ['name', 'ASC'],
+      ['id', 'ASC'],
+    ],
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
   });
@@ -106,7 +134,10 @@ export async function createPart(actor: PublicUser, kind: PartKind, input: PartI
   await assertNameFree(kind, name);
   try {
     const part = await getSequelize().transaction(async (transaction) => {
-      const created = await Part.create({ kind, name, note, data, retired: false, createdById: actor.id, updatedById: actor.id }, { transaction });
+      const created = await Part.create(
+        { kind, name, note, data, retired: false, createdById: actor.id, updatedById: actor.id },
+        { transaction },
+      );
       await recordAudit({ actorId: actor.id, action: 'part.create', entity: 'part', entityId: created.id, toState: kind }, transaction);
       return created;
     });
@@ -150,10 +181,17 @@ export async function updatePart(actor: PublicUser, kind: PartKind, id: number, 
         await recordAudit({ actorId: actor.id, action: 'part.update', entity: 'part', entityId: row.id }, transaction);
       }
       if (retired !== undefined && retired !== wasRetired) {
-        await recordAudit({
-          actorId: actor.id, action: retired ? 'part.retire' : 'part.restore', entity: 'part', entityId: row.id,
-          fromState: wasRetired ? 'retired' : 'active', toState: retired ? 'retired' : 'active',
-        }, transaction);
+        await recordAudit(
+          {
+            actorId: actor.id,
+            action: retired ? 'part.retire' : 'part.restore',
+            entity: 'part',
+            entityId: row.id,
+            fromState: wasRetired ? 'retired' : 'active',
+            toState: retired ? 'retired' : 'active',
+          },
+          transaction,
+        );
       }
       return row;
     });

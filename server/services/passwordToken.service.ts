@@ -46,9 +46,6 @@ export async function consumePasswordToken(raw: string, transaction: Transaction
   }
   const user = await User.findByPk(token.userId, { transaction, lock: transaction.LOCK.UPDATE });
   if (!user || user.disabled) throw new AppError('invalid_token', INVALID, 400);
-  await PasswordToken.update(
-    { usedAt: now },
-    { where: { userId: user.id, usedAt: { [Op.is]: null } }, transaction },
-  );
+  await PasswordToken.update({ usedAt: now }, { where: { userId: user.id, usedAt: { [Op.is]: null } }, transaction });
   return user;
 }

@@ -5,8 +5,17 @@ import { Revision, RevisionComment, User } from '../models';
 import { recordAudit } from './audit.service';
 import { approvedMail, deliverSoon, queueMail, returnedMail, sheetPublishedMail, type Recipient } from './notify.service';
 import {
-  assertMayReadRevision, findRevision, getRevision, isOwnWork, isReviewer, lockDesign, mayComment, parseJson, stateWord,
-  type PersonRef, type RevisionDetail,
+  assertMayReadRevision,
+  findRevision,
+  getRevision,
+  isOwnWork,
+  isReviewer,
+  lockDesign,
+  mayComment,
+  parseJson,
+  stateWord,
+  type PersonRef,
+  type RevisionDetail,
 } from './revisions.service';
 import { getSheet, renderSheetFiles, storeSheet, type SheetDetail } from './sheets.service';
 import { findActiveUsersByRole, type Page, type PublicUser } from './users.service';
@@ -44,11 +53,14 @@ function toComment(row: CommentRow): CommentItem {
 export async function listComments(actor: PublicUser, revisionId: number): Promise<Page<CommentItem>> {
   const revision = await findRevision(revisionId);
   assertMayReadRevision(actor, revision, revision.design);
-  const rows = await RevisionComment.findAll({
+  const rows = (await RevisionComment.findAll({
     where: { revisionId },
     include: [{ model: User, as: 'author', attributes: ['id', 'name', 'roles'] }],
-    order: [['createdAt', 'ASC'], ['id', 'ASC']],
-  }) as CommentRow[];
+    order: [
+      ['createdAt', 'ASC'],
+      ['id', 'ASC'],
+    ],
+  })) as CommentRow[];
   return { items: rows.map(toComment), total: rows.length, page: 1, pageSize: Math.max(rows.length, 1) };
 }
 
@@ -57,7 +69,11 @@ export async function listComments(actor: PublicUser, revisionId: number): Promi
  * owner and the revision's author, in any state of the revision: the discussion may go on after a decision.
  * @throws 403 for others, 400 when `parentId` is not a comment of this revision
  */
-export async function addComment(actor: PublicUser, revisionId: number, input: { body: string; parentId?: number | null }): Promise<CommentItem> {
+export async function addComment(
+  actor: PublicUser,
+  revisionId: number,
+  input: { body: string; parentId?: number | null },
+): Promise<CommentItem> {
   const revision = await findRevision(revisionId);
   if (!mayComment(actor, revision, revision.design)) {
     throw forbidden('Only reviewers, admins and the design’s owner can comment on a revision.');
@@ -65,10 +81,13 @@ export async function addComment(actor: PublicUser, revisionId: number, input: {
   const parentId = input.parentId ?? null;
   if (parentId !== null) {
     const parent = await RevisionComment.findByPk(parentId, { attributes: ['id', 'revisionId'] });
-    if (!parent || parent.revisionId !== revisionId) throw validationError([{ path: 'parentId', message: 'is not a comment on this revision' }]);
+    if (!parent || parent.revisionId !== revisionId)
+      throw validationError([{ path: 'parentId', message: 'is not a comment on this revision' }]);
   }
   const row = await RevisionComment.create({ revisionId, parentId, authorId: actor.id, body: input.body });
-  const created = await RevisionComment.findByPk(row.id, { include: [{ model: User, as: 'author', attributes: ['id', 'name', 'roles'] }] }) as CommentRow;
+  const created = (await RevisionComment.findByPk(row.id, {
+    include: [{ model: User, as: 'author', attributes: ['id', 'name', 'roles'] }],
+  })) as CommentRow;
   return toComment(created);
 }
 
@@ -84,7 +103,12 @@ function wrongState(number: number, status: string, verb: 'approved' | 'returned
 }
 
 /** Locks the design and re-reads the revision in the transaction; the state must still be in review. */
-async function lockForDecision(revisionId: number, designId: number, verb: 'approved' | 'returned', transaction: Parameters<typeof lockDesign>[1]) {
+async function lockForDecision(
+  revisionId: number,
+  designId: number,
+  verb: 'approved' | 'returned',
+  transaction: Parameters<typeof lockDesign>[1],
+) {
   const design = await lockDesign(designId, transaction);
   const revision = await Revision.findByPk(revisionId, { attributes: { exclude: ['result'] }, transaction, lock: transaction.LOCK.UPDATE });
   if (!revision) throw notFound('Revision');
@@ -95,7 +119,10 @@ async function lockForDecision(revisionId: number, designId: number, verb: 'appr
 
 /** The designer(s) to tell about a decision: the design's owner and the revision's author. */
 async function designersOf(revision: { authorId: number }, ownerId: number): Promise<Recipient[]> {
-  const users = await User.findAll({ where: { id: [...new Set([ownerId, revision.authorId])], disabled: false }, attributes: ['email', 'name'] });
+  const users = await User.findAll({
+    where: { id: [...new Set([ownerId, revision.authorId])], disabled: false },
+    attributes: ['email', 'name'],
+  });
   return users.map((u) => ({ email: u.email, name: u.name }));
 }
 
@@ -107,7 +134,11 @@ async function designersOf(revision: { authorId: number }, ownerId: number): Pro
  * and the answer is 409.
  * @throws 403 (role, own work), 409 (not in review)
  */
-export async function approveRevision(actor: PublicUser, revisionId: number, input: { comment: string }): Promise<{ revision: RevisionDetail; sheet: SheetDetail }> {
+export async function approveRevision(
+  actor: PublicUser,
+  revisionId: number,
+  input: { comment: string },
+): Promise<{ revision: RevisionDetail; sheet: SheetDetail }> {
   const revision = await findRevision(revisionId, { withResult: true });
   assertMayDecide(actor, revision, 'approve');
   if (revision.status !== 'in_review') throw wrongState(revision.number, revision.status, 'approved');
@@ -130,18 +161,64 @@ export async function approveRevision(actor: PublicUser, revisionId: number, inp
     const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'approved', transaction);
     await locked.update({ status: 'approved', decidedById: actor.id, decidedAt: approvedAt, decisionNote: input.comment }, { transaction });
     await design.update({ status: 'approved' }, { transaction });
-    const id = await storeSheet({ revisionId, designId: design.id, approvedById: actor.id, approvedAt, comment: input.comment, rendered }, transaction);
+    const id = await storeSheet(
+      { revisionId, designId: design.id, approvedById: actor.id, approvedAt, comment: input.comment, rendered },
+      transaction,
+    );
     const note = input.comment || null;
-    await recordAudit({ actorId: actor.id, action: 'design.approve', entity: 'design', entityId: design.id, fromState: 'in_review', toState: 'approved', reason: note ?? `Approved revision ${locked.number}` }, transaction);
-    await recordAudit({ actorId: actor.id, action: 'revision.approve', entity: 'revision', entityId: revisionId, fromState: 'in_review', toState: 'approved', reason: note }, transaction);
-    await recordAudit({ actorId: actor.id, action: 'sheet.publish', entity: 'sheet', entityId: id, fromState: null, toState: 'published', reason: `A4 SHA-256 ${rendered.a4Sha256}; Letter SHA-256 ${rendered.letterSha256}` }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'design.approve',
+        entity: 'design',
+        entityId: design.id,
+        fromState: 'in_review',
+        toState: 'approved',
+        reason: note ?? `Approved revision ${locked.number}`,
+      },
+      transaction,
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'revision.approve',
+        entity: 'revision',
+        entityId: revisionId,
+        fromState: 'in_review',
+        toState: 'approved',
+        reason: note,
+      },
+      transaction,
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'sheet.publish',
+        entity: 'sheet',
+        entityId: id,
+        fromState: null,
+        toState: 'published',
+        reason: `A4 SHA-256 ${rendered.a4Sha256}; Letter SHA-256 ${rendered.letterSha256}`,
+      },
+      transaction,
+    );
 
     const ref = { revisionId, number: locked.number, designId: design.id, designName: inputs.name };
     const designers = await designersOf(locked, design.ownerId);
     const makers = (await findActiveUsersByRole('maker')).filter((u) => u.id !== actor.id);
     const ids = [
-      ...await queueMail('revision.approved', designers, (to) => approvedMail(to, { ...ref, reviewerName: actor.name, comment: input.comment, sheetId: id }), transaction),
-      ...await queueMail('sheet.published', makers, (to) => sheetPublishedMail(to, { ...ref, sheetId: id, sha256: rendered.a4Sha256 }), transaction),
+      ...(await queueMail(
+        'revision.approved',
+        designers,
+        (to) => approvedMail(to, { ...ref, reviewerName: actor.name, comment: input.comment, sheetId: id }),
+        transaction,
+      )),
+      ...(await queueMail(
+        'sheet.published',
+        makers,
+        (to) => sheetPublishedMail(to, { ...ref, sheetId: id, sha256: rendered.a4Sha256 }),
+        transaction,
+      )),
     ];
     return { sheetId: id, mailIds: ids };
   });
@@ -163,13 +240,46 @@ export async function returnRevision(actor: PublicUser, revisionId: number, inpu
     const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'returned', transaction);
     await locked.update({ status: 'returned', decidedById: actor.id, decidedAt: new Date(), decisionNote: input.reason }, { transaction });
     await design.update({ status: 'returned' }, { transaction });
-    await recordAudit({ actorId: actor.id, action: 'design.return', entity: 'design', entityId: design.id, fromState: 'in_review', toState: 'returned', reason: input.reason }, transaction);
-    await recordAudit({ actorId: actor.id, action: 'revision.return', entity: 'revision', entityId: revisionId, fromState: 'in_review', toState: 'returned', reason: input.reason }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'design.return',
+        entity: 'design',
+        entityId: design.id,
+        fromState: 'in_review',
+        toState: 'returned',
+        reason: input.reason,
+      },
+      transaction,
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'revision.return',
+        entity: 'revision',
+        entityId: revisionId,
+        fromState: 'in_review',
+        toState: 'returned',
+        reason: input.reason,
+      },
+      transaction,
+    );
     const designName = parseJson<{ name: string }>(locked.inputs).name;
     const designers = await designersOf(locked, design.ownerId);
-    return queueMail('revision.returned', designers, (to) => returnedMail(to, {
-      revisionId, number: locked.number, designId: design.id, designName, reviewerName: actor.name, reason: input.reason,
-    }), transaction);
+    return queueMail(
+      'revision.returned',
+      designers,
+      (to) =>
+        returnedMail(to, {
+          revisionId,
+          number: locked.number,
+          designId: design.id,
+          designName,
+          reviewerName: actor.name,
+          reason: input.reason,
+        }),
+      transaction,
+    );
   });
   deliverSoon(mailIds);
   return getRevision(actor, revisionId);

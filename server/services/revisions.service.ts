@@ -4,8 +4,14 @@ import { EngineInputError, evaluateValidDesign, safeParseDesign, type DesignInpu
 import { getSequelize } from '../db';
 import { AppError, conflict, forbidden, notFound, validationError, type ErrorDetail } from '../errors';
 import {
-  Design, Revision, Sheet, User,
-  type DesignMechanism, type DesignStatus, type RevisionStatus, type RevisionSummaryFigures,
+  Design,
+  Revision,
+  Sheet,
+  User,
+  type DesignMechanism,
+  type DesignStatus,
+  type RevisionStatus,
+  type RevisionSummaryFigures,
 } from '../models';
 import { recordAudit } from './audit.service';
 import { deliverSoon, queueMail, submittedMail } from './notify.service';
@@ -57,14 +63,25 @@ export type RevisionDetail = RevisionListItem & {
   permissions: { canDecide: boolean; canComment: boolean; canWithdraw: boolean };
 };
 
-type RevisionRow = Revision & { design?: Design & { owner?: User | null }; author?: User | null; decidedBy?: User | null; sheet?: Sheet | null };
+type RevisionRow = Revision & {
+  design?: Design & { owner?: User | null };
+  author?: User | null;
+  decidedBy?: User | null;
+  sheet?: Sheet | null;
+};
 
 export const isAdmin = (actor: PublicUser): boolean => actor.roles.includes('admin');
 /** Reviewers and admins review. */
 export const isReviewer = (actor: PublicUser): boolean => isAdmin(actor) || actor.roles.includes('reviewer');
 
 /** Labels of states in messages. */
-const STATE_WORDS: Record<string, string> = { draft: 'a draft', in_review: 'in review', approved: 'approved', returned: 'returned', withdrawn: 'withdrawn' };
+const STATE_WORDS: Record<string, string> = {
+  draft: 'a draft',
+  in_review: 'in review',
+  approved: 'approved',
+  returned: 'returned',
+  withdrawn: 'withdrawn',
+};
 export const stateWord = (status: string): string => STATE_WORDS[status] ?? status;
 
 export function parseJson<T>(value: unknown): T {
@@ -80,7 +97,8 @@ export function canonicalJson(value: unknown): string {
     const text = JSON.stringify(value);
     return text === undefined ? 'null' : text;
   }
-  if (Array.isArray(value)) return `[${value.map((v) => (v === undefined || typeof v === 'function' ? 'null' : canonicalJson(v))).join(',')}]`;
+  if (Array.isArray(value))
+    return `[${value.map((v) => (v === undefined || typeof v === 'function' ? 'null' : canonicalJson(v))).join(',')}]`;
   const entries = Object.keys(value as Record<string, unknown>)
     .filter((k) => (value as Record<string, unknown>)[k] !== undefined && typeof (value as Record<string, unknown>)[k] !== 'function')
     .sort()
@@ -115,7 +133,11 @@ export function isOwnWork(actor: PublicUser, revision: Pick<Revision, 'authorId'
 }
 
 /** Whether `actor` may read this revision (see the module comment). */
-export function mayReadRevision(actor: PublicUser, revision: Pick<Revision, 'authorId' | 'status'>, design: Pick<Design, 'ownerId'>): boolean {
+export function mayReadRevision(
+  actor: PublicUser,
+  revision: Pick<Revision, 'authorId' | 'status'>,
+  design: Pick<Design, 'ownerId'>,
+): boolean {
   if (isReviewer(actor) || isOwnWork(actor, revision, design)) return true;
   return revision.status === 'approved' && actor.roles.length > 0;
 }
@@ -128,7 +150,12 @@ export function assertMayReadRevision(actor: PublicUser, revision: RevisionRow, 
 }
 
 const LIST_INCLUDE = [
-  { model: Design, as: 'design', attributes: ['id', 'name', 'status', 'ownerId', 'mechanism'], include: [{ model: User, as: 'owner', attributes: ['id', 'name'] }] },
+  {
+    model: Design,
+    as: 'design',
+    attributes: ['id', 'name', 'status', 'ownerId', 'mechanism'],
+    include: [{ model: User, as: 'owner', attributes: ['id', 'name'] }],
+  },
   { model: User, as: 'author', attributes: ['id', 'name'] },
   { model: User, as: 'decidedBy', attributes: ['id', 'name'] },
   { model: Sheet, as: 'sheet', attributes: ['id'] },
@@ -163,12 +190,15 @@ function toListItem(row: RevisionRow, actor: PublicUser): RevisionListItem {
  * Loads a revision with its design (and owner), author, decider and sheet id.
  * @param withResult - also load the frozen result (~100 kB)
  */
-export async function findRevision(id: number, options: { withResult?: boolean; transaction?: Transaction; lock?: boolean } = {}): Promise<RevisionRow & { design: Design & { owner?: User | null } }> {
-  const row = await Revision.findByPk(id, {
+export async function findRevision(
+  id: number,
+  options: { withResult?: boolean; transaction?: Transaction; lock?: boolean } = {},
+): Promise<RevisionRow & { design: Design & { owner?: User | null } }> {
+  const row = (await Revision.findByPk(id, {
     attributes: options.withResult ? undefined : { exclude: ['result'] },
     include: LIST_INCLUDE,
     transaction: options.transaction,
-  }) as RevisionRow | null;
+  })) as RevisionRow | null;
   if (!row || !row.design) throw notFound('Revision');
   return row as RevisionRow & { design: Design & { owner?: User | null } };
 }
@@ -206,7 +236,10 @@ export function mayComment(actor: PublicUser, revision: Pick<Revision, 'authorId
  * Lists revisions for the review desk (reviewers and admins): by default those waiting, oldest first.
  * @param query - status filter (one or more), optional design, paging
  */
-export async function listRevisions(actor: PublicUser, query: { status?: RevisionStatus[]; designId?: number; page: number; pageSize: number }): Promise<Page<RevisionListItem>> {
+export async function listRevisions(
+  actor: PublicUser,
+  query: { status?: RevisionStatus[]; designId?: number; page: number; pageSize: number },
+): Promise<Page<RevisionListItem>> {
   const where: Record<string, unknown> = {};
   if (query.status?.length) where.status = { [Op.in]: query.status };
   if (query.designId !== undefined) where.designId = query.designId;
@@ -214,7 +247,10 @@ export async function listRevisions(actor: PublicUser, query: { status?: Revisio
     where,
     attributes: { exclude: ['result'] },
     include: LIST_INCLUDE,
-    order: [['submittedAt', 'ASC'], ['id', 'ASC']],
+    order: [
+      ['submittedAt', 'ASC'],
+      ['id', 'ASC'],
+    ],
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
     distinct: true,
@@ -229,12 +265,12 @@ export async function listRevisions(actor: PublicUser, query: { status?: Revisio
 export async function listDesignRevisions(actor: PublicUser, designId: number): Promise<Page<RevisionListItem>> {
   const design = await Design.findByPk(designId, { attributes: ['id', 'ownerId'] });
   if (!design) throw notFound('Design');
-  const rows = await Revision.findAll({
+  const rows = (await Revision.findAll({
     where: { designId },
     attributes: { exclude: ['result'] },
     include: LIST_INCLUDE,
     order: [['number', 'DESC']],
-  }) as RevisionRow[];
+  })) as RevisionRow[];
   const items = rows.filter((row) => mayReadRevision(actor, row, design)).map((row) => toListItem(row, actor));
   return { items, total: items.length, page: 1, pageSize: Math.max(items.length, 1) };
 }
@@ -295,12 +331,37 @@ const KEY_RESULTS: KeyResult[] = [
   { key: 'mass.yKg', label: 'Moving mass along Y', unit: 'kg', get: (r) => r.mass.yKg },
   { key: 'envelope.axes.x.accelMaxMPerS2', label: 'Peak acceleration along X', unit: 'm/s²', get: (r) => r.envelope.axes.x.accelMaxMPerS2 },
   { key: 'envelope.axes.y.accelMaxMPerS2', label: 'Peak acceleration along Y', unit: 'm/s²', get: (r) => r.envelope.axes.y.accelMaxMPerS2 },
-  { key: 'envelope.axes.diagonal.accelMaxMPerS2', label: 'Peak acceleration on the diagonal', unit: 'm/s²', get: (r) => r.envelope.axes.diagonal.accelMaxMPerS2 },
-  { key: 'envelope.axes.worst.accelMaxMPerS2', label: 'Peak acceleration, worst direction', unit: 'm/s²', get: (r) => r.envelope.axes.worst.accelMaxMPerS2 },
-  { key: 'envelope.axes.worst.accelAtCruiseMPerS2', label: 'Acceleration at cruise speed, worst direction', unit: 'm/s²', get: (r) => r.envelope.axes.worst.accelAtCruiseMPerS2 },
-  { key: 'envelope.axes.worst.speedMaxMPerS', label: 'Top speed, worst direction', unit: 'm/s', get: (r) => r.envelope.axes.worst.speedMaxMPerS },
+  {
+    key: 'envelope.axes.diagonal.accelMaxMPerS2',
+    label: 'Peak acceleration on the diagonal',
+    unit: 'm/s²',
+    get: (r) => r.envelope.axes.diagonal.accelMaxMPerS2,
+  },
+  {
+    key: 'envelope.axes.worst.accelMaxMPerS2',
+    label: 'Peak acceleration, worst direction',
+    unit: 'm/s²',
+    get: (r) => r.envelope.axes.worst.accelMaxMPerS2,
+  },
+  {
+    key: 'envelope.axes.worst.accelAtCruiseMPerS2',
+    label: 'Acceleration at cruise speed, worst direction',
+    unit: 'm/s²',
+    get: (r) => r.envelope.axes.worst.accelAtCruiseMPerS2,
+  },
+  {
+    key: 'envelope.axes.worst.speedMaxMPerS',
+    label: 'Top speed, worst direction',
+    unit: 'm/s',
+    get: (r) => r.envelope.axes.worst.speedMaxMPerS,
+  },
   { key: 'stiffness.min.frequencyHz', label: 'Lowest resonance', unit: 'Hz', get: (r) => r.stiffness.min.frequencyHz },
-  { key: 'stiffness.ringing.planned.amplitudeMm', label: 'Ringing at the planned acceleration', unit: 'mm', get: (r) => r.stiffness.ringing.planned.amplitudeMm },
+  {
+    key: 'stiffness.ringing.planned.amplitudeMm',
+    label: 'Ringing at the planned acceleration',
+    unit: 'mm',
+    get: (r) => r.stiffness.ringing.planned.amplitudeMm,
+  },
   { key: 'checks.fail', label: 'Failed checks', unit: '', get: (r) => r.checks.filter((c) => c.severity === 'fail').length },
   { key: 'checks.warn', label: 'Warnings', unit: '', get: (r) => r.checks.filter((c) => c.severity === 'warn').length },
 ];
@@ -309,7 +370,8 @@ const KEY_RESULTS: KeyResult[] = [
 export function diffKeyResults(before: DesignResult | null, after: DesignResult): ResultChange[] {
   const rows: ResultChange[] = [];
   const num = (v: number | null | undefined): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
-  const differs = (x: number | null, y: number | null) => (x === null || y === null ? x !== y : Math.abs(x - y) > 1e-9 * Math.max(1, Math.abs(x), Math.abs(y)));
+  const differs = (x: number | null, y: number | null) =>
+    x === null || y === null ? x !== y : Math.abs(x - y) > 1e-9 * Math.max(1, Math.abs(x), Math.abs(y));
   const safe = (fn: () => number | null | undefined): number | null => {
     try {
       return num(fn());
@@ -327,10 +389,20 @@ export function diffKeyResults(before: DesignResult | null, after: DesignResult)
     const b0 = before?.belts.find((b) => b.id === id);
     const b1 = after.belts.find((b) => b.id === id);
     const label = b1?.label ?? b0?.label ?? id;
-    for (const [field, text, unit] of [['cutLengthMm', 'cut length', 'mm'], ['loopTeeth', 'teeth', '']] as const) {
+    for (const [field, text, unit] of [
+      ['cutLengthMm', 'cut length', 'mm'],
+      ['loopTeeth', 'teeth', ''],
+    ] as const) {
       const old = b0 ? num(b0[field]) : null;
       const now = b1 ? num(b1[field]) : null;
-      rows.push({ key: `belts.${id}.${field}`, label: `${label}: ${text}`, unit, old, new: now, isChanged: before === null || differs(old, now) });
+      rows.push({
+        key: `belts.${id}.${field}`,
+        label: `${label}: ${text}`,
+        unit,
+        old,
+        new: now,
+        isChanged: before === null || differs(old, now),
+      });
     }
   }
   return rows;
@@ -343,7 +415,10 @@ export function diffKeyResults(before: DesignResult | null, after: DesignResult)
 export async function getRevisionDiff(actor: PublicUser, id: number): Promise<RevisionDiff> {
   const row = await findRevision(id, { withResult: true });
   assertMayReadRevision(actor, row, row.design);
-  const previous = await Revision.findOne({ where: { designId: row.designId, number: { [Op.lt]: row.number } }, order: [['number', 'DESC']] });
+  const previous = await Revision.findOne({
+    where: { designId: row.designId, number: { [Op.lt]: row.number } },
+    order: [['number', 'DESC']],
+  });
   const inputs = parseJson<unknown>(row.inputs);
   const result = parseJson<DesignResult>(row.result);
   return {
@@ -377,14 +452,21 @@ function engineIssues(issues: { path: string; message: string }[]): ErrorDetail[
  * Validates stored inputs and runs the engine on them: the content of a new revision (pure; also used by the demo
  * seeder). @throws AppError 400 with the paths of invalid inputs
  */
-export function freezeDesign(storedInputs: unknown): { inputs: DesignInput; result: DesignResult; fingerprint: string; summary: RevisionSummaryFigures } {
+export function freezeDesign(storedInputs: unknown): {
+  inputs: DesignInput;
+  result: DesignResult;
+  fingerprint: string;
+  summary: RevisionSummaryFigures;
+} {
   const parsed = safeParseDesign(parseJson(storedInputs));
-  if (!parsed.ok) throw validationError(engineIssues(parsed.issues), 'The design is not valid; fix the marked inputs before submitting it.');
+  if (!parsed.ok)
+    throw validationError(engineIssues(parsed.issues), 'The design is not valid; fix the marked inputs before submitting it.');
   let result: DesignResult;
   try {
     result = evaluateValidDesign(parsed.value);
   } catch (err) {
-    if (err instanceof EngineInputError) throw validationError(engineIssues(err.issues), 'The design is not valid; fix the marked inputs before submitting it.');
+    if (err instanceof EngineInputError)
+      throw validationError(engineIssues(err.issues), 'The design is not valid; fix the marked inputs before submitting it.');
     throw err;
   }
   // Freeze what the database will hand back: a JSON round trip turns non-finite numbers into null, so the
@@ -407,29 +489,58 @@ export async function submitDesign(actor: PublicUser, designId: number, body: { 
       throw conflict(`This design is ${stateWord(design.status)}; only a draft or a returned design can be submitted.`, 'invalid_state');
     }
     if (body.version !== undefined && body.version !== design.version) {
-      throw new AppError('version_conflict', `This design was saved again since you opened it (now version ${design.version}). Reload it, check it, then submit.`, 409);
+      throw new AppError(
+        'version_conflict',
+        `This design was saved again since you opened it (now version ${design.version}). Reload it, check it, then submit.`,
+        409,
+      );
     }
     const frozen = freezeDesign(design.inputs);
     const last = (await Revision.max<number | null, Revision>('number', { where: { designId }, transaction })) ?? 0;
-    const revision = await Revision.create({
-      designId,
-      number: last + 1,
-      status: 'in_review',
-      inputs: frozen.inputs as unknown as Record<string, unknown>,
-      result: frozen.result as unknown as Record<string, unknown>,
-      summary: frozen.summary,
-      engineVersion: frozen.result.engineVersion,
-      fingerprint: frozen.fingerprint,
-      authorId: actor.id,
-      submittedAt: new Date(),
-      decidedById: null,
-      decidedAt: null,
-      decisionNote: null,
-    }, { transaction });
+    const revision = await Revision.create(
+      {
+        designId,
+        number: last + 1,
+        status: 'in_review',
+        inputs: frozen.inputs as unknown as Record<string, unknown>,
+        result: frozen.result as unknown as Record<string, unknown>,
+        summary: frozen.summary,
+        engineVersion: frozen.result.engineVersion,
+        fingerprint: frozen.fingerprint,
+        authorId: actor.id,
+        submittedAt: new Date(),
+        decidedById: null,
+        decidedAt: null,
+        decisionNote: null,
+      },
+      { transaction },
+    );
     const from = design.status;
     await design.update({ status: 'in_review' }, { transaction });
-    await recordAudit({ actorId: actor.id, action: 'design.submit', entity: 'design', entityId: designId, fromState: from, toState: 'in_review', reason: `Submitted revision ${revision.number}` }, transaction);
-    await recordAudit({ actorId: actor.id, action: 'revision.submit', entity: 'revision', entityId: revision.id, fromState: null, toState: 'in_review', reason: `Revision ${revision.number} of design ${designId}, fingerprint ${frozen.fingerprint}` }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'design.submit',
+        entity: 'design',
+        entityId: designId,
+        fromState: from,
+        toState: 'in_review',
+        reason: `Submitted revision ${revision.number}`,
+      },
+      transaction,
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'revision.submit',
+        entity: 'revision',
+        entityId: revision.id,
+        fromState: null,
+        toState: 'in_review',
+        reason: `Revision ${revision.number} of design ${designId}, fingerprint ${frozen.fingerprint}`,
+      },
+      transaction,
+    );
 
     const reviewers = (await findActiveUsersByRole('reviewer')).filter((u) => u.id !== actor.id && u.id !== design.ownerId);
     const ref = { revisionId: revision.id, number: revision.number, designId, designName: frozen.inputs.name, authorName: actor.name };
@@ -448,13 +559,40 @@ export async function withdrawDesign(actor: PublicUser, designId: number): Promi
   const revisionId = await getSequelize().transaction(async (transaction) => {
     const design = await lockDesign(designId, transaction);
     assertOwnerOrAdmin(actor, design, 'withdraw');
-    if (design.status !== 'in_review') throw conflict(`This design is ${stateWord(design.status)}, not in review; there is nothing to withdraw.`, 'invalid_state');
-    const revision = await Revision.findOne({ where: { designId, status: 'in_review' }, order: [['number', 'DESC']], transaction, lock: transaction.LOCK.UPDATE });
+    if (design.status !== 'in_review')
+      throw conflict(`This design is ${stateWord(design.status)}, not in review; there is nothing to withdraw.`, 'invalid_state');
+    const revision = await Revision.findOne({
+      where: { designId, status: 'in_review' },
+      order: [['number', 'DESC']],
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!revision) throw conflict('No revision of this design is in review.', 'invalid_state');
     await revision.update({ status: 'withdrawn', decidedById: actor.id, decidedAt: new Date(), decisionNote: null }, { transaction });
     await design.update({ status: 'draft' }, { transaction });
-    await recordAudit({ actorId: actor.id, action: 'design.withdraw', entity: 'design', entityId: designId, fromState: 'in_review', toState: 'draft', reason: `Withdrew revision ${revision.number}` }, transaction);
-    await recordAudit({ actorId: actor.id, action: 'revision.withdraw', entity: 'revision', entityId: revision.id, fromState: 'in_review', toState: 'withdrawn' }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'design.withdraw',
+        entity: 'design',
+        entityId: designId,
+        fromState: 'in_review',
+        toState: 'draft',
+        reason: `Withdrew revision ${revision.number}`,
+      },
+      transaction,
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'revision.withdraw',
+        entity: 'revision',
+        entityId: revision.id,
+        fromState: 'in_review',
+        toState: 'withdrawn',
+      },
+      transaction,
+    );
     return revision.id;
   });
   return getRevision(actor, revisionId);
@@ -469,9 +607,24 @@ export async function reopenDesign(actor: PublicUser, designId: number): Promise
   await getSequelize().transaction(async (transaction) => {
     const design = await lockDesign(designId, transaction);
     assertOwnerOrAdmin(actor, design, 'reopen');
-    if (design.status !== 'approved') throw conflict(`This design is ${stateWord(design.status)}; only an approved design can be reopened for a new revision.`, 'invalid_state');
+    if (design.status !== 'approved')
+      throw conflict(
+        `This design is ${stateWord(design.status)}; only an approved design can be reopened for a new revision.`,
+        'invalid_state',
+      );
     await design.update({ status: 'draft' }, { transaction });
-    await recordAudit({ actorId: actor.id, action: 'design.reopen', entity: 'design', entityId: designId, fromState: 'approved', toState: 'draft', reason: 'Reopened for a new revision' }, transaction);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'design.reopen',
+        entity: 'design',
+        entityId: designId,
+        fromState: 'approved',
+        toState: 'draft',
+        reason: 'Reopened for a new revision',
+      },
+      transaction,
+    );
   });
   return { id: designId, status: 'draft' };
 }

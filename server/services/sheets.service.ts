@@ -109,19 +109,22 @@ export async function storeSheet(
   input: { revisionId: number; designId: number; approvedById: number; approvedAt: Date; comment: string; rendered: RenderedSheet },
   transaction: Transaction,
 ): Promise<number> {
-  const row = await Sheet.create({
-    revisionId: input.revisionId,
-    designId: input.designId,
-    approvedById: input.approvedById,
-    approvedAt: input.approvedAt,
-    comment: input.comment,
-    a4Pdf: input.rendered.a4,
-    a4Sha256: input.rendered.a4Sha256,
-    a4Size: input.rendered.a4.length,
-    letterPdf: input.rendered.letter,
-    letterSha256: input.rendered.letterSha256,
-    letterSize: input.rendered.letter.length,
-  }, { transaction });
+  const row = await Sheet.create(
+    {
+      revisionId: input.revisionId,
+      designId: input.designId,
+      approvedById: input.approvedById,
+      approvedAt: input.approvedAt,
+      comment: input.comment,
+      a4Pdf: input.rendered.a4,
+      a4Sha256: input.rendered.a4Sha256,
+      a4Size: input.rendered.a4.length,
+      letterPdf: input.rendered.letter,
+      letterSha256: input.rendered.letterSha256,
+      letterSize: input.rendered.letter.length,
+    },
+    { transaction },
+  );
   return row.id;
 }
 
@@ -130,7 +133,8 @@ type SheetRow = Sheet & { revision?: Revision & { author?: User | null }; approv
 const META_ATTRIBUTES = { exclude: ['a4Pdf', 'letterPdf'] };
 const includes = (withResult: boolean) => [
   {
-    model: Revision, as: 'revision',
+    model: Revision,
+    as: 'revision',
     attributes: ['id', 'number', 'inputs', 'fingerprint', 'engineVersion', 'authorId', ...(withResult ? ['result'] : [])],
     include: [{ model: User, as: 'author', attributes: ['id', 'name'] }],
   },
@@ -141,11 +145,11 @@ const includes = (withResult: boolean) => [
 async function latestSheets(designIds: number[]): Promise<Map<number, { sheetId: number; revisionNumber: number }>> {
   const latest = new Map<number, { sheetId: number; revisionNumber: number }>();
   if (!designIds.length) return latest;
-  const rows = await Sheet.findAll({
+  const rows = (await Sheet.findAll({
     where: { designId: { [Op.in]: designIds } },
     attributes: ['id', 'designId'],
     include: [{ model: Revision, as: 'revision', attributes: ['number'] }],
-  }) as SheetRow[];
+  })) as SheetRow[];
   for (const row of rows) {
     const number = row.revision?.number ?? 0;
     const current = latest.get(row.designId);
@@ -184,32 +188,40 @@ function toListItem(row: SheetRow, latest: Map<number, { sheetId: number; revisi
  * Lists approved sheets, newest approval first, optionally of one design or only the current (not superseded)
  * ones. Makers, designers, reviewers and admins.
  */
-export async function listSheets(_actor: PublicUser, query: { page: number; pageSize: number; designId?: number; current?: boolean }): Promise<Page<SheetListItem>> {
+export async function listSheets(
+  _actor: PublicUser,
+  query: { page: number; pageSize: number; designId?: number; current?: boolean },
+): Promise<Page<SheetListItem>> {
   const where: Record<string, unknown> = {};
   if (query.designId !== undefined) where.designId = query.designId;
   if (query.current) {
     // A sheet is current when no sheet of the same design belongs to a later revision.
-    where.id = { [Op.notIn]: Sheet.sequelize!.literal(
-      '(SELECT s1.id FROM sheets s1 JOIN revisions r1 ON r1.id = s1.revision_id '
-      + 'JOIN sheets s2 ON s2.design_id = s1.design_id JOIN revisions r2 ON r2.id = s2.revision_id WHERE r2.number > r1.number)',
-    ) };
+    where.id = {
+      [Op.notIn]: Sheet.sequelize!.literal(
+        '(SELECT s1.id FROM sheets s1 JOIN revisions r1 ON r1.id = s1.revision_id ' +
+          'JOIN sheets s2 ON s2.design_id = s1.design_id JOIN revisions r2 ON r2.id = s2.revision_id WHERE r2.number > r1.number)',
+      ),
+    };
   }
-  const { rows, count } = await Sheet.findAndCountAll({
+  const { rows, count } = (await Sheet.findAndCountAll({
     where,
     attributes: META_ATTRIBUTES,
     include: includes(false),
-    order: [['approvedAt', 'DESC'], ['id', 'DESC']],
+    order: [
+      ['approvedAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
     distinct: true,
-  }) as { rows: SheetRow[]; count: number };
+  })) as { rows: SheetRow[]; count: number };
   const latest = await latestSheets([...new Set(rows.map((r) => r.designId))]);
   return { items: rows.map((row) => toListItem(row, latest)), total: count, page: query.page, pageSize: query.pageSize };
 }
 
 /** One sheet with the build figures of its frozen revision. */
 export async function getSheet(_actor: PublicUser, id: number): Promise<SheetDetail> {
-  const row = await Sheet.findByPk(id, { attributes: META_ATTRIBUTES, include: includes(true) }) as SheetRow | null;
+  const row = (await Sheet.findByPk(id, { attributes: META_ATTRIBUTES, include: includes(true) })) as SheetRow | null;
   if (!row || !row.revision) throw notFound('Sheet');
   const latest = await latestSheets([row.designId]);
   const inputs = parseJson<DesignInput>(row.revision.inputs);
@@ -222,8 +234,17 @@ export async function getSheet(_actor: PublicUser, id: number): Promise<SheetDet
       pretensionN: inputs.pretensionN,
       parking: { xMm: result.parking.xMm, yMm: result.parking.yMm },
       belts: result.belts.map((b) => ({
-        id: b.id, label: b.label, cutLengthMm: b.cutLengthMm, loopTeeth: b.loopTeeth,
-        spans: b.spans.map((s) => ({ id: s.id, label: s.label, lengthMm: s.lengthMm, targetFrequencyHz: s.targetFrequencyHz, fixedLength: s.fixedLength })),
+        id: b.id,
+        label: b.label,
+        cutLengthMm: b.cutLengthMm,
+        loopTeeth: b.loopTeeth,
+        spans: b.spans.map((s) => ({
+          id: s.id,
+          label: s.label,
+          lengthMm: s.lengthMm,
+          targetFrequencyHz: s.targetFrequencyHz,
+          fixedLength: s.fixedLength,
+        })),
       })),
     },
   };
@@ -233,10 +254,10 @@ export async function getSheet(_actor: PublicUser, id: number): Promise<SheetDet
 export async function getSheetPdf(id: number, paper: SheetPaper): Promise<{ bytes: Buffer; sha256: string; fileName: string }> {
   const column = paper === 'A4' ? 'a4Pdf' : 'letterPdf';
   const hash = paper === 'A4' ? 'a4Sha256' : 'letterSha256';
-  const row = await Sheet.findByPk(id, {
+  const row = (await Sheet.findByPk(id, {
     attributes: ['id', column, hash],
     include: [{ model: Revision, as: 'revision', attributes: ['number', 'inputs'] }],
-  }) as SheetRow | null;
+  })) as SheetRow | null;
   if (!row || !row.revision) throw notFound('Sheet');
   const bytes = row[column];
   if (!Buffer.isBuffer(bytes)) throw new AppError('sheet_missing', 'The stored sheet could not be read.', 500, { isOperational: false });

@@ -4,7 +4,14 @@ import type { UploadedFile } from '../middleware/upload';
 import { Attachment, Part } from '../models';
 import { torqueCurveSchema } from '../schemas/parts.schema';
 import { CsvError, parseTorqueCsv, assertTypeMatches, type CsvErrorDetail, type TorquePoint, type TorqueTable } from '../uploads';
-import { latestPartAttachment, sanitiseFileName, storeWithRows, toPublicAttachment, withUploadErrors, type PublicAttachment } from './attachments.service';
+import {
+  latestPartAttachment,
+  sanitiseFileName,
+  storeWithRows,
+  toPublicAttachment,
+  withUploadErrors,
+  type PublicAttachment,
+} from './attachments.service';
 import { recordAudit } from './audit.service';
 import { toPublicPart, type PublicPart } from './parts.service';
 import type { PublicUser } from './users.service';
@@ -27,7 +34,10 @@ export type TorqueCurveInfo = {
  * checks made after a successful parse can still name line and column.
  */
 function locateRows(text: string): { dataLines: number[]; headerCells: string[] } {
-  const lines = text.replace(/^\uFEFF/, '').replace(/\r\n?/g, '\n').split('\n');
+  const lines = text
+    .replace(/^\uFEFF/, '')
+    .replace(/\r\n?/g, '\n')
+    .split('\n');
   const kept: { line: number; text: string }[] = [];
   lines.forEach((t, i) => {
     if (t.trim() === '' || t.trimStart().startsWith('#')) return;
@@ -37,7 +47,10 @@ function locateRows(text: string): { dataLines: number[]; headerCells: string[] 
   const header = kept[0]?.text ?? '';
   const counts = [',', ';', '\t'].map((d) => header.split(d).length - 1);
   const delimiter = [',', ';', '\t'][counts.indexOf(Math.max(...counts))];
-  const headerCells = header.split(delimiter).map((c) => c.trim().replace(/^"|"$/g, '')).filter((c) => c !== '');
+  const headerCells = header
+    .split(delimiter)
+    .map((c) => c.trim().replace(/^"|"$/g, ''))
+    .filter((c) => c !== '');
   return { dataLines: kept.slice(1).map((k) => k.line), headerCells };
 }
 
@@ -61,11 +74,25 @@ function assertUsableTable(text: string, table: TorqueTable): void {
   const lineOf = (i: number): number | null => dataLines[i] ?? null;
   const details: CsvErrorDetail[] = [];
   if (!(table.points[0].torqueNm > 0)) {
-    details.push({ line: lineOf(0), column: columnName(headerCells, 'torque'), message: 'the first torque (the lowest speed) must be greater than 0; a motor holds with it' });
+    details.push({
+      line: lineOf(0),
+      column: columnName(headerCells, 'torque'),
+      message: 'the first torque (the lowest speed) must be greater than 0; a motor holds with it',
+    });
   }
   table.points.forEach((p, i) => {
-    if (p.speedRevPerS > 1000) details.push({ line: lineOf(i), column: columnName(headerCells, 'speed'), message: `speed ${p.speedRevPerS.toFixed(1)} rev/s is above the 1000 rev/s the shelf accepts` });
-    if (p.torqueNm > 100) details.push({ line: lineOf(i), column: columnName(headerCells, 'torque'), message: `torque ${p.torqueNm.toFixed(2)} N·m is above the 100 N·m the shelf accepts` });
+    if (p.speedRevPerS > 1000)
+      details.push({
+        line: lineOf(i),
+        column: columnName(headerCells, 'speed'),
+        message: `speed ${p.speedRevPerS.toFixed(1)} rev/s is above the 1000 rev/s the shelf accepts`,
+      });
+    if (p.torqueNm > 100)
+      details.push({
+        line: lineOf(i),
+        column: columnName(headerCells, 'torque'),
+        message: `torque ${p.torqueNm.toFixed(2)} N·m is above the 100 N·m the shelf accepts`,
+      });
   });
   if (details.length) throw new CsvError(details.slice(0, 20));
 }
@@ -90,7 +117,10 @@ export async function assertMotorExists(motorId: number): Promise<void> {
  */
 export async function uploadTorqueCurve(actor: PublicUser, motorId: number, file: UploadedFile | null): Promise<TorqueCurveInfo> {
   await assertMotorExists(motorId);
-  if (!file) throw new AppError('validation_failed', 'Choose a CSV file with the torque table.', 400, { details: [{ path: 'file', message: 'is required (multipart field "file")' }] });
+  if (!file)
+    throw new AppError('validation_failed', 'Choose a CSV file with the torque table.', 400, {
+      details: [{ path: 'file', message: 'is required (multipart field "file")' }],
+    });
 
   await withUploadErrors(() => assertTypeMatches(file.declaredMime, file.originalName, file.bytes, ['text/csv', 'text/plain']));
   const text = file.bytes.toString('utf8');
@@ -103,7 +133,9 @@ export async function uploadTorqueCurve(actor: PublicUser, motorId: number, file
   const checked = torqueCurveSchema.safeParse(points);
   if (!checked.success) {
     // Cannot happen after the checks above (same rules); kept so the shelf never stores what its schema refuses.
-    throw new AppError('invalid_csv', 'The torque table cannot be used.', 400, { details: checked.error.issues.map((i) => ({ path: `file.${i.path.join('.')}`, message: i.message })) });
+    throw new AppError('invalid_csv', 'The torque table cannot be used.', 400, {
+      details: checked.error.issues.map((i) => ({ path: `file.${i.path.join('.')}`, message: i.message })),
+    });
   }
   const fileName = sanitiseFileName(file.originalName, 'text/csv');
 
@@ -116,14 +148,30 @@ export async function uploadTorqueCurve(actor: PublicUser, motorId: number, file
     row.changed('data', true);
     row.updatedById = actor.id;
     await row.save({ transaction });
-    const created = await Attachment.create({
-      designId: null, partId: motorId, uploadedById: actor.id, fileName, mime: 'text/csv', size: file.bytes.length, sha256,
-    }, { transaction });
-    await recordAudit({
-      actorId: actor.id, action: 'part.torque_curve', entity: 'part', entityId: motorId,
-      fromState: hadTable ? 'table' : 'model', toState: 'table',
-      reason: `${fileName}: ${points.length} points (${table.sourceUnits.speed}, ${table.sourceUnits.torque}), SHA-256 ${sha256}`,
-    }, transaction);
+    const created = await Attachment.create(
+      {
+        designId: null,
+        partId: motorId,
+        uploadedById: actor.id,
+        fileName,
+        mime: 'text/csv',
+        size: file.bytes.length,
+        sha256,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        action: 'part.torque_curve',
+        entity: 'part',
+        entityId: motorId,
+        fromState: hadTable ? 'table' : 'model',
+        toState: 'table',
+        reason: `${fileName}: ${points.length} points (${table.sourceUnits.speed}, ${table.sourceUnits.torque}), SHA-256 ${sha256}`,
+      },
+      transaction,
+    );
     return { part: row, attachment: created };
   });
   const source = await Attachment.findByPk(attachment.id, { include: ['uploadedBy'] });

@@ -46,7 +46,10 @@ export async function listUsers(query: { page: number; pageSize: number; q?: str
     : {};
   const { rows, count } = await User.findAndCountAll({
     where,
-    order: [['name', 'ASC'], ['id', 'ASC']],
+    order: [
+      ['name', 'ASC'],
+      ['id', 'ASC'],
+    ],
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
   });
@@ -122,16 +125,30 @@ export async function updateUser(
     const after = toPublicUser(user);
 
     if (before.disabled !== after.disabled) {
-      await recordAudit({
-        actorId: actor.id, action: after.disabled ? 'user.disable' : 'user.enable', entity: 'user', entityId: user.id,
-        fromState: before.disabled ? 'disabled' : 'active', toState: after.disabled ? 'disabled' : 'active',
-      }, transaction);
+      await recordAudit(
+        {
+          actorId: actor.id,
+          action: after.disabled ? 'user.disable' : 'user.enable',
+          entity: 'user',
+          entityId: user.id,
+          fromState: before.disabled ? 'disabled' : 'active',
+          toState: after.disabled ? 'disabled' : 'active',
+        },
+        transaction,
+      );
     }
     if (before.roles.join(',') !== after.roles.join(',')) {
-      await recordAudit({
-        actorId: actor.id, action: 'user.roles', entity: 'user', entityId: user.id,
-        fromState: before.roles.join(',') || '(none)', toState: after.roles.join(',') || '(none)',
-      }, transaction);
+      await recordAudit(
+        {
+          actorId: actor.id,
+          action: 'user.roles',
+          entity: 'user',
+          entityId: user.id,
+          fromState: before.roles.join(',') || '(none)',
+          toState: after.roles.join(',') || '(none)',
+        },
+        transaction,
+      );
     }
     if (before.name !== after.name) {
       await recordAudit({ actorId: actor.id, action: 'user.rename', entity: 'user', entityId: user.id }, transaction);

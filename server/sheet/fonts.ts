@@ -16,8 +16,7 @@ export type FontFamilies = Record<string, Record<FontStyle, string>>;
 
 // The .woff files, not .woff2: pdfkit's woff2 decoder crashes on some Inter glyphs (STACK.md).
 function interSubset(subset: string): Record<FontStyle, string> {
-  const file = (weight: number, style: 'normal' | 'italic'): string =>
-    path.join(FONT_DIR, `inter-${subset}-${weight}-${style}.woff`);
+  const file = (weight: number, style: 'normal' | 'italic'): string => path.join(FONT_DIR, `inter-${subset}-${weight}-${style}.woff`);
   return { normal: file(400, 'normal'), bold: file(700, 'normal'), italics: file(400, 'italic'), bolditalics: file(700, 'italic') };
 }
 

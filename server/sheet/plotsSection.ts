@@ -23,8 +23,28 @@ function couplingPlots(data: SheetData, half: number, polar: number): Content {
   ];
   return {
     columns: [
-      centred(half, polar, polarPlot({ width: polar, title: 'Speed share per motor', radiusTitle: 'radius: motor belt speed per unit carriage speed', directionsDeg: r.envelope.directionsDeg, series: series('speedShare') })),
-      centred(half, polar, polarPlot({ width: polar, title: 'Force share per motor', radiusTitle: 'radius: motor belt pull per unit carriage force', directionsDeg: r.envelope.directionsDeg, series: series('forceShare') })),
+      centred(
+        half,
+        polar,
+        polarPlot({
+          width: polar,
+          title: 'Speed share per motor',
+          radiusTitle: 'radius: motor belt speed per unit carriage speed',
+          directionsDeg: r.envelope.directionsDeg,
+          series: series('speedShare'),
+        }),
+      ),
+      centred(
+        half,
+        polar,
+        polarPlot({
+          width: polar,
+          title: 'Force share per motor',
+          radiusTitle: 'radius: motor belt pull per unit carriage force',
+          directionsDeg: r.envelope.directionsDeg,
+          series: series('forceShare'),
+        }),
+      ),
     ],
     columnGap: 14,
   };
@@ -40,9 +60,20 @@ function envelopePlot(data: SheetData, polar: number): string {
     directionsDeg: env.directionsDeg,
     series: [
       { label: 'At rest (speed going to zero)', values: env.accelMaxMPerS2, color: PALETTE.blue },
-      { label: `At cruise speed ${fixed(data.design.cruiseSpeedMmPerS, 0)} mm/s`, values: env.accelAtCruiseMPerS2, color: PALETTE.vermillion, dash: '4 2' },
+      {
+        label: `At cruise speed ${fixed(data.design.cruiseSpeedMmPerS, 0)} mm/s`,
+        values: env.accelAtCruiseMPerS2,
+        color: PALETTE.vermillion,
+        dash: '4 2',
+      },
     ],
-    markers: [{ directionDeg: worst.directionDeg, value: worst.accelMaxMPerS2, label: `Worst direction ${fixed(worst.directionDeg, 0)}°: ${fixed(worst.accelMaxMPerS2, 1)} m/s² at rest` }],
+    markers: [
+      {
+        directionDeg: worst.directionDeg,
+        value: worst.accelMaxMPerS2,
+        label: `Worst direction ${fixed(worst.directionDeg, 0)}°: ${fixed(worst.accelMaxMPerS2, 1)} m/s² at rest`,
+      },
+    ],
   });
 }
 
@@ -88,7 +119,13 @@ function torqueSpeedPlot(data: SheetData, width: number, height: number): string
     yTitle: 'Torque [N·m]',
     series: [
       { label: 'Available torque', x: ts.speedRevPerS, y: ts.torqueNm, color: PALETTE.blue },
-      { label: `Usable torque (× ${fixed(data.design.torqueMargin, 2)} margin)`, x: ts.speedRevPerS, y: ts.usableTorqueNm, color: PALETTE.vermillion, dash: '4 2' },
+      {
+        label: `Usable torque (× ${fixed(data.design.torqueMargin, 2)} margin)`,
+        x: ts.speedRevPerS,
+        y: ts.usableTorqueNm,
+        color: PALETTE.vermillion,
+        dash: '4 2',
+      },
     ],
     points: operatingMarkers(data),
   });
@@ -104,7 +141,11 @@ export function plotsSection(data: SheetData, width: number): Content[] {
     block(
       heading('7', 'Plots'),
       { text: 'Coupling map', style: 'h2', margin: [0, 0, 0, 2] },
-      { text: 'Share of each motor in carriage speed and force for every direction of travel. A motor alone moves the carriage along its lobe.', style: 'note', margin: [0, 0, 0, 4] },
+      {
+        text: 'Share of each motor in carriage speed and force for every direction of travel. A motor alone moves the carriage along its lobe.',
+        style: 'note',
+        margin: [0, 0, 0, 4],
+      },
       couplingPlots(data, half, polar),
     ),
     block(
@@ -119,7 +160,11 @@ export function plotsSection(data: SheetData, width: number): Content[] {
     ),
     block(
       { text: 'Stiffness map', style: 'h2', margin: [0, 10, 0, 2] },
-      { text: 'Lowest natural frequency of the carriage at every point of the travel. Low values ring longest after a change of acceleration.', style: 'note', margin: [0, 0, 0, 4] },
+      {
+        text: 'Lowest natural frequency of the carriage at every point of the travel. Low values ring longest after a change of acceleration.',
+        style: 'note',
+        margin: [0, 0, 0, 4],
+      },
       {
         svg: heatmap({
           width,
@@ -131,7 +176,12 @@ export function plotsSection(data: SheetData, width: number): Content[] {
           xMm: s.xMm,
           yMm: s.yMm,
           values: s.lowestFrequencyHz,
-          min: { value: s.min.frequencyHz, xMm: s.min.xMm, yMm: s.min.yMm, label: `lowest ${fixed(s.min.frequencyHz, 1)} Hz at X ${fixed(s.min.xMm, 1)} mm, Y ${fixed(s.min.yMm, 1)} mm` },
+          min: {
+            value: s.min.frequencyHz,
+            xMm: s.min.xMm,
+            yMm: s.min.yMm,
+            label: `lowest ${fixed(s.min.frequencyHz, 1)} Hz at X ${fixed(s.min.xMm, 1)} mm, Y ${fixed(s.min.yMm, 1)} mm`,
+          },
         }),
         width,
       },

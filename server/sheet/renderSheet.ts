@@ -7,8 +7,16 @@ import { COLOR, type Content, type ContentObject, contentWidth, PAGE_MARGINS, ST
 import { wordmarkGlyph } from './plots/glyphs';
 import { plotsSection } from './plotsSection';
 import {
-  beltsSection, cautionsBox, checksTable, driveSection, inputsSection, keyFigures, limitsSection, partsSection,
-  stiffnessSection, titleBlock,
+  beltsSection,
+  cautionsBox,
+  checksTable,
+  driveSection,
+  inputsSection,
+  keyFigures,
+  limitsSection,
+  partsSection,
+  stiffnessSection,
+  titleBlock,
 } from './sections';
 import type { SheetData, SheetInput } from './types';
 
@@ -33,11 +41,15 @@ export interface SheetDocDefinition extends ContentObject {
 
 function assertSheetInput(input: SheetInput): void {
   if (!/^[0-9a-f]{64}$/i.test(input.fingerprint)) throw new Error('[renderSheet] fingerprint must be 64 hex digits (SHA-256)');
-  if (input.paper !== 'A4' && input.paper !== 'LETTER') throw new Error(`[renderSheet] paper must be A4 or LETTER, got ${String(input.paper)}`);
-  if (!Number.isInteger(input.revisionNumber) || input.revisionNumber < 1) throw new Error('[renderSheet] revisionNumber must be a positive integer');
+  if (input.paper !== 'A4' && input.paper !== 'LETTER')
+    throw new Error(`[renderSheet] paper must be A4 or LETTER, got ${String(input.paper)}`);
+  if (!Number.isInteger(input.revisionNumber) || input.revisionNumber < 1)
+    throw new Error('[renderSheet] revisionNumber must be a positive integer');
   utcStamp(input.approval.approvedAt);
   if (input.result?.mechanism !== input.mechanism) {
-    throw new Error(`[renderSheet] mechanism ${String(input.mechanism)} does not match the frozen result's ${String(input.result?.mechanism)}`);
+    throw new Error(
+      `[renderSheet] mechanism ${String(input.mechanism)} does not match the frozen result's ${String(input.result?.mechanism)}`,
+    );
   }
 }
 
@@ -61,7 +73,11 @@ function header(input: SheetInput, width: number): (currentPage: number) => Cont
             alignment: 'right',
             stack: [
               { text: userTextRuns(input.designName, true), bold: true, fontSize: 8.5 },
-              { text: `Revision ${input.revisionNumber}  ·  approved ${utcStamp(input.approval.approvedAt).slice(0, 10)}`, fontSize: 7, color: COLOR.muted },
+              {
+                text: `Revision ${input.revisionNumber}  ·  approved ${utcStamp(input.approval.approvedAt).slice(0, 10)}`,
+                fontSize: 7,
+                color: COLOR.muted,
+              },
             ],
             margin: [0, 2, 0, 0],
           },

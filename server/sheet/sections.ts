@@ -48,7 +48,11 @@ export function titleBlock(data: SheetData, width: number): Content {
   return {
     stack: [
       safe(data.designName, { style: 'title', margin: [0, 0, 0, 2] }),
-      { text: `${MECHANISM_NAME[data.mechanism]}  ·  Revision ${data.revisionNumber}  ·  Approved design sheet`, style: 'subtitle', margin: [0, 0, 0, 8] },
+      {
+        text: `${MECHANISM_NAME[data.mechanism]}  ·  Revision ${data.revisionNumber}  ·  Approved design sheet`,
+        style: 'subtitle',
+        margin: [0, 0, 0, 8],
+      },
       {
         table: {
           widths: [width * 0.3 - 8, width * 0.3 - 8, width * 0.4 - 8],
@@ -64,7 +68,10 @@ export function titleBlock(data: SheetData, width: number): Content {
               field('Approved on', utcStamp(data.approval.approvedAt)),
             ],
             [
-              { colSpan: 3, ...field('Reviewer comment', comment ? safe(comment, { italics: true }) : { text: 'No comment.', color: COLOR.muted }) },
+              {
+                colSpan: 3,
+                ...field('Reviewer comment', comment ? safe(comment, { italics: true }) : { text: 'No comment.', color: COLOR.muted }),
+              },
               {},
               {},
             ],
@@ -95,21 +102,34 @@ export function cautionsBox(result: DesignResult, width: number): Content {
   return {
     table: {
       widths: [width - 2],
-      body: [[{
-        fillColor: COLOR.cautionFill,
-        columns: [
-          { svg: cautionIcon(24), width: 24, margin: [0, 1, 0, 0] },
+      body: [
+        [
           {
-            width: '*',
-            stack: [
-              { text: 'CAUTIONS — read before building, wiring or running this stage', bold: true, fontSize: 9, margin: [0, 0, 0, 4] },
-              { stack: items, fontSize: 7.5 },
-              ...(defer ? [{ text: [{ text: `${defer.title}. ` }, ...userTextRuns(defer.text, true)], fontSize: 7.5, bold: true, margin: [0, 2, 0, 0] }] : []),
+            fillColor: COLOR.cautionFill,
+            columns: [
+              { svg: cautionIcon(24), width: 24, margin: [0, 1, 0, 0] },
+              {
+                width: '*',
+                stack: [
+                  { text: 'CAUTIONS — read before building, wiring or running this stage', bold: true, fontSize: 9, margin: [0, 0, 0, 4] },
+                  { stack: items, fontSize: 7.5 },
+                  ...(defer
+                    ? [
+                        {
+                          text: [{ text: `${defer.title}. ` }, ...userTextRuns(defer.text, true)],
+                          fontSize: 7.5,
+                          bold: true,
+                          margin: [0, 2, 0, 0],
+                        },
+                      ]
+                    : []),
+                ],
+              },
             ],
+            columnGap: 10,
           },
         ],
-        columnGap: 10,
-      }]],
+      ],
     },
     layout: {
       hLineWidth: () => 1.4,
@@ -134,7 +154,11 @@ export function keyFigures(result: DesignResult, width: number): Content {
     ['Travel X × Y', `${fixed(result.travel.xMm, 0)} × ${fixed(result.travel.yMm, 0)}`, 'mm'],
     ['Steps per mm (per motor)', fixed(result.drive.stepsPerMm, 3), 'microsteps per mm of belt'],
     ['Worst acceleration at rest', fixed(worst.accelMaxMPerS2, 1), `m/s² at ${fixed(worst.directionDeg, 0)}°`],
-    ['Lowest resonance', fixed(result.stiffness.min.frequencyHz, 1), `Hz at X ${fixed(result.stiffness.min.xMm, 0)}, Y ${fixed(result.stiffness.min.yMm, 0)} mm`],
+    [
+      'Lowest resonance',
+      fixed(result.stiffness.min.frequencyHz, 1),
+      `Hz at X ${fixed(result.stiffness.min.xMm, 0)}, Y ${fixed(result.stiffness.min.yMm, 0)} mm`,
+    ],
     ['Checks', `${counts.ok} / ${counts.warn} / ${counts.fail}`, 'ok / warning / fail'],
   ];
   const w = (width - 4 * 8) / 5;
@@ -143,13 +167,17 @@ export function keyFigures(result: DesignResult, width: number): Content {
       width: w,
       table: {
         widths: [w],
-        body: [[{
-          stack: [
-            { text: name, style: 'label' },
-            { text: value, fontSize: 13, bold: true, margin: [0, 1, 0, 0] },
-            { text: unit, fontSize: 6.5, color: COLOR.muted },
+        body: [
+          [
+            {
+              stack: [
+                { text: name, style: 'label' },
+                { text: value, fontSize: 13, bold: true, margin: [0, 1, 0, 0] },
+                { text: unit, fontSize: 6.5, color: COLOR.muted },
+              ],
+            },
           ],
-        }]],
+        ],
       },
       layout: {
         hLineWidth: (i: number) => (i === 0 ? 1.6 : 0),
@@ -177,7 +205,12 @@ export function checksTable(result: DesignResult): Content[] {
   const order = { fail: 0, warn: 1, ok: 2 } as const;
   const sorted = [...result.checks].sort((a, b) => order[a.severity] - order[b.severity]);
   const rows = sorted.map((c) => [
-    { columns: [{ svg: severityIcon(c.severity, 9), width: 9 }, { text: SEVERITY_WORD[c.severity], bold: true, fontSize: 7, margin: [4, 0.5, 0, 0] }] },
+    {
+      columns: [
+        { svg: severityIcon(c.severity, 9), width: 9 },
+        { text: SEVERITY_WORD[c.severity], bold: true, fontSize: 7, margin: [4, 0.5, 0, 0] },
+      ],
+    },
     { stack: [safe(c.message), safe(c.id, { fontSize: 6, color: COLOR.muted })] },
     numCell(checkValue(c.value)),
     numCell(checkValue(c.limit)),
@@ -186,7 +219,11 @@ export function checksTable(result: DesignResult): Content[] {
   return [
     heading('1', 'Checks'),
     table([62, '*', 44, 44, 34], [th('Result'), th('Check'), th('Value', 'right'), th('Limit', 'right'), th('Unit')], rows),
-    { text: 'Ordered: fail, then warning, then ok. The shape and the word carry the result; colour only repeats it.', style: 'note', margin: [0, 3, 0, 0] },
+    {
+      text: 'Ordered: fail, then warning, then ok. The shape and the word carry the result; colour only repeats it.',
+      style: 'note',
+      margin: [0, 3, 0, 0],
+    },
   ];
 }
 
@@ -212,65 +249,85 @@ export function inputsSection(data: SheetData): Content[] {
   const [nameA, nameB] = motorNames(r);
   const inertia = (v: number | null): [string, string] => (v === null ? ['estimated', ''] : [sig(v * 1e7, 3), 'g·cm²']);
   const left: [string, Row[]][] = [
-    ['Frame & travel', [
-      ['Frame outside, X × Y', `${fixed(d.frame.outerXMm, 0)} × ${fixed(d.frame.outerYMm, 0)}`, 'mm'],
-      ['Frame profile', fixed(d.frame.extrusionMm, 0), 'mm'],
-      ['Carriage footprint, X × Y', `${fixed(d.frame.carriageXMm, 0)} × ${fixed(d.frame.carriageYMm, 0)}`, 'mm'],
-      ['Gantry beam depth', fixed(d.frame.gantryYMm, 0), 'mm'],
-      ['Clearance at each end stop', fixed(d.frame.clearanceMm, 1), 'mm'],
-      ...(d.wantedTravel ? [['Wanted travel, X × Y', `${fixed(d.wantedTravel.xMm, 0)} × ${fixed(d.wantedTravel.yMm, 0)}`, 'mm'] as Row] : []),
-      ['Usable travel, X × Y (result)', `${fixed(r.travel.xMm, 1)} × ${fixed(r.travel.yMm, 1)}`, 'mm'],
-    ]],
-    ['Belts & pulleys', [
-      ['Belt pitch', fixed(d.belt.pitchMm, 2), 'mm'],
-      ['Belt width', fixed(d.belt.widthMm, 1), 'mm'],
-      ['Belt mass per metre', sig(d.belt.linearMassKgPerM, 3), 'kg/m'],
-      ['Belt axial stiffness EA', grouped(d.belt.axialStiffnessN), 'N'],
-      ['Allowable tight-side tension', fixed(d.belt.allowableTensionN, 0), 'N'],
-      ['Minimum pulley teeth (profile)', fixed(d.belt.minPulleyTeeth, 0), 'teeth'],
-      ['Drive pulley', fixed(d.pulley.driveTeeth, 0), 'teeth'],
-      ['Drive pulley inertia', ...inertia(d.pulley.driveInertiaKgM2)],
-      ['Idlers', fixed(d.pulley.idlerTeeth, 0), 'teeth'],
-      ['Idler inertia', ...inertia(d.pulley.idlerInertiaKgM2)],
-      ['Pretension of each span', fixed(d.pretensionN, 1), 'N'],
-    ]],
+    [
+      'Frame & travel',
+      [
+        ['Frame outside, X × Y', `${fixed(d.frame.outerXMm, 0)} × ${fixed(d.frame.outerYMm, 0)}`, 'mm'],
+        ['Frame profile', fixed(d.frame.extrusionMm, 0), 'mm'],
+        ['Carriage footprint, X × Y', `${fixed(d.frame.carriageXMm, 0)} × ${fixed(d.frame.carriageYMm, 0)}`, 'mm'],
+        ['Gantry beam depth', fixed(d.frame.gantryYMm, 0), 'mm'],
+        ['Clearance at each end stop', fixed(d.frame.clearanceMm, 1), 'mm'],
+        ...(d.wantedTravel
+          ? [['Wanted travel, X × Y', `${fixed(d.wantedTravel.xMm, 0)} × ${fixed(d.wantedTravel.yMm, 0)}`, 'mm'] as Row]
+          : []),
+        ['Usable travel, X × Y (result)', `${fixed(r.travel.xMm, 1)} × ${fixed(r.travel.yMm, 1)}`, 'mm'],
+      ],
+    ],
+    [
+      'Belts & pulleys',
+      [
+        ['Belt pitch', fixed(d.belt.pitchMm, 2), 'mm'],
+        ['Belt width', fixed(d.belt.widthMm, 1), 'mm'],
+        ['Belt mass per metre', sig(d.belt.linearMassKgPerM, 3), 'kg/m'],
+        ['Belt axial stiffness EA', grouped(d.belt.axialStiffnessN), 'N'],
+        ['Allowable tight-side tension', fixed(d.belt.allowableTensionN, 0), 'N'],
+        ['Minimum pulley teeth (profile)', fixed(d.belt.minPulleyTeeth, 0), 'teeth'],
+        ['Drive pulley', fixed(d.pulley.driveTeeth, 0), 'teeth'],
+        ['Drive pulley inertia', ...inertia(d.pulley.driveInertiaKgM2)],
+        ['Idlers', fixed(d.pulley.idlerTeeth, 0), 'teeth'],
+        ['Idler inertia', ...inertia(d.pulley.idlerInertiaKgM2)],
+        ['Pretension of each span', fixed(d.pretensionN, 1), 'N'],
+      ],
+    ],
   ];
   const curve = d.motor.torqueCurve && d.motor.torqueCurve.length > 0;
   const right: [string, Row[]][] = [
-    ['Motors & drivers', [
-      ['Step angle', fixed(d.motor.stepAngleDeg, 2), '°'],
-      ['Holding torque', fixed(d.motor.holdingTorqueNm, 3), 'N·m'],
-      ['Rated phase current', fixed(d.motor.ratedCurrentA, 2), 'A'],
-      ['Phase resistance', fixed(d.motor.phaseResistanceOhm, 2), 'ohm'],
-      ['Phase inductance', fixed(d.motor.phaseInductanceMh, 2), 'mH'],
-      ['Rotor inertia', sig(d.motor.rotorInertiaKgM2 * 1e7, 3), 'g·cm²'],
-      ['Motor mass', fixed(d.motor.massKg, 3), 'kg'],
-      ['Torque–speed data', curve ? `table, ${d.motor.torqueCurve?.length} points` : 'motor model', ''],
-      ['Shaft speed limit', d.motor.maxSpeedRevPerS === null ? 'none' : fixed(d.motor.maxSpeedRevPerS, 1), d.motor.maxSpeedRevPerS === null ? '' : 'rev/s'],
-      ...(d.mechanism === 'cartesian' ? [['Motors on Y', fixed(d.yMotors, 0), ''] as Row] : []),
-      [`Direction of ${nameA}`, signWord(d.motorDirection.a), ''],
-      [`Direction of ${nameB}`, signWord(d.motorDirection.b), ''],
-      ['Driver microsteps', fixed(d.driver.microsteps, 0), 'per step'],
-      ['Driver supply', fixed(d.driver.supplyV, 1), 'V'],
-      ['Driver phase current (RMS)', fixed(d.driver.currentRmsA, 2), 'A'],
-      ['Torque margin (share used)', fixed(d.torqueMargin * 100, 0), '%'],
-    ]],
-    ['Moving masses', [
-      ['Carriage', fixed(d.masses.carriageKg, 3), 'kg'],
-      ['Tool', fixed(d.masses.toolKg, 3), 'kg'],
-      ['Gantry', fixed(d.masses.gantryKg, 3), 'kg'],
-      ['Moving mass in X / Y (result)', `${fixed(r.mass.xKg, 3)} / ${fixed(r.mass.yKg, 3)}`, 'kg'],
-      ['Rotor + pulley as belt mass', fixed(r.mass.reflectedPerMotorKg, 3), 'kg'],
-      ['Friction X / Y', `${fixed(d.frictionN.x, 1)} / ${fixed(d.frictionN.y, 1)}`, 'N'],
-      ['Cruise speed', fixed(d.cruiseSpeedMmPerS, 0), 'mm/s'],
-      ['Planned acceleration', d.plannedAccelMmPerS2 === null ? 'worst limit' : fixed(d.plannedAccelMmPerS2 / 1000, 2), d.plannedAccelMmPerS2 === null ? '' : 'm/s²'],
-      ['Tool mount lets go at', d.toolMount ? fixed(d.toolMount.holdN, 1) : 'none fitted', d.toolMount ? 'N' : ''],
-      ['Ringing tolerance', fixed(d.ringingToleranceMm, 3), 'mm'],
-    ]],
+    [
+      'Motors & drivers',
+      [
+        ['Step angle', fixed(d.motor.stepAngleDeg, 2), '°'],
+        ['Holding torque', fixed(d.motor.holdingTorqueNm, 3), 'N·m'],
+        ['Rated phase current', fixed(d.motor.ratedCurrentA, 2), 'A'],
+        ['Phase resistance', fixed(d.motor.phaseResistanceOhm, 2), 'ohm'],
+        ['Phase inductance', fixed(d.motor.phaseInductanceMh, 2), 'mH'],
+        ['Rotor inertia', sig(d.motor.rotorInertiaKgM2 * 1e7, 3), 'g·cm²'],
+        ['Motor mass', fixed(d.motor.massKg, 3), 'kg'],
+        ['Torque–speed data', curve ? `table, ${d.motor.torqueCurve?.length} points` : 'motor model', ''],
+        [
+          'Shaft speed limit',
+          d.motor.maxSpeedRevPerS === null ? 'none' : fixed(d.motor.maxSpeedRevPerS, 1),
+          d.motor.maxSpeedRevPerS === null ? '' : 'rev/s',
+        ],
+        ...(d.mechanism === 'cartesian' ? [['Motors on Y', fixed(d.yMotors, 0), ''] as Row] : []),
+        [`Direction of ${nameA}`, signWord(d.motorDirection.a), ''],
+        [`Direction of ${nameB}`, signWord(d.motorDirection.b), ''],
+        ['Driver microsteps', fixed(d.driver.microsteps, 0), 'per step'],
+        ['Driver supply', fixed(d.driver.supplyV, 1), 'V'],
+        ['Driver phase current (RMS)', fixed(d.driver.currentRmsA, 2), 'A'],
+        ['Torque margin (share used)', fixed(d.torqueMargin * 100, 0), '%'],
+      ],
+    ],
+    [
+      'Moving masses',
+      [
+        ['Carriage', fixed(d.masses.carriageKg, 3), 'kg'],
+        ['Tool', fixed(d.masses.toolKg, 3), 'kg'],
+        ['Gantry', fixed(d.masses.gantryKg, 3), 'kg'],
+        ['Moving mass in X / Y (result)', `${fixed(r.mass.xKg, 3)} / ${fixed(r.mass.yKg, 3)}`, 'kg'],
+        ['Rotor + pulley as belt mass', fixed(r.mass.reflectedPerMotorKg, 3), 'kg'],
+        ['Friction X / Y', `${fixed(d.frictionN.x, 1)} / ${fixed(d.frictionN.y, 1)}`, 'N'],
+        ['Cruise speed', fixed(d.cruiseSpeedMmPerS, 0), 'mm/s'],
+        [
+          'Planned acceleration',
+          d.plannedAccelMmPerS2 === null ? 'worst limit' : fixed(d.plannedAccelMmPerS2 / 1000, 2),
+          d.plannedAccelMmPerS2 === null ? '' : 'm/s²',
+        ],
+        ['Tool mount lets go at', d.toolMount ? fixed(d.toolMount.holdN, 1) : 'none fitted', d.toolMount ? 'N' : ''],
+        ['Ringing tolerance', fixed(d.ringingToleranceMm, 3), 'mm'],
+      ],
+    ],
   ];
-  return [
-    block(heading('2', 'Inputs'), { columns: [inputTable(left), inputTable(right)], columnGap: 14 }),
-  ];
+  return [block(heading('2', 'Inputs'), { columns: [inputTable(left), inputTable(right)], columnGap: 14 })];
 }
 
 /** Drive numbers per motor and the sign convention. Plain numbers only. */
@@ -284,7 +341,12 @@ export function driveSection(data: SheetData): Content[] {
     ['Microsteps per full step', ...both(fixed(drive.microsteps, 0)), unit('')],
     ['Drive pulley pitch diameter', ...both(fixed(drive.pitchDiameterMm, 3)), unit('mm')],
     ['Belt travel per revolution', ...both(fixed(drive.travelPerRevMm, 3)), unit('mm/rev')],
-    [{ text: 'Steps per mm of belt', bold: true }, numCell(fixed(drive.stepsPerMm, 3), true), numCell(fixed(drive.stepsPerMm, 3), true), unit('microsteps/mm')],
+    [
+      { text: 'Steps per mm of belt', bold: true },
+      numCell(fixed(drive.stepsPerMm, 3), true),
+      numCell(fixed(drive.stepsPerMm, 3), true),
+      unit('microsteps/mm'),
+    ],
     ['Full-step length (belt)', ...both(fixed(drive.fullStepMm, 4)), unit('mm')],
     ['Microstep length (belt)', ...both(fixed(drive.microstepBeltMm, 5)), unit('mm')],
     ['Carriage move per microstep, along X', ...both(fixed(drive.microstepMm.x, 5)), unit('mm')],
@@ -296,9 +358,11 @@ export function driveSection(data: SheetData): Content[] {
       heading('3', 'Drive numbers'),
       table(['*', 80, 80, 70], [th('Per motor'), th(nameA, 'right'), th(nameB, 'right'), th('Unit')], rows),
       {
-        text: 'Plain numbers for setting up the motion controller; this sheet gives no controller configuration text. ' +
+        text:
+          'Plain numbers for setting up the motion controller; this sheet gives no controller configuration text. ' +
           'A carriage move is the largest for one microstep of one motor while the other holds.',
-        style: 'note', margin: [0, 3, 0, 0],
+        style: 'note',
+        margin: [0, 3, 0, 0],
       },
     ),
     block(...signConvention(data)),
@@ -329,11 +393,16 @@ export function signConvention(data: SheetData): Content[] {
           stack: [
             safe(r.signConvention.a),
             safe(r.signConvention.b, { margin: [0, 2, 0, 0] }),
-            { text: `Direction setting of this design: ${nameA} ${signWord(dir.a)}, ${nameB} ${signWord(dir.b)} (already in the table).`, margin: [0, 2, 0, 0] },
             {
-              text: 'Angles: 0° is +X, 90° is +Y, counter-clockwise seen from above. Jog each motor a short way before the first ' +
+              text: `Direction setting of this design: ${nameA} ${signWord(dir.a)}, ${nameB} ${signWord(dir.b)} (already in the table).`,
+              margin: [0, 2, 0, 0],
+            },
+            {
+              text:
+                'Angles: 0° is +X, 90° is +Y, counter-clockwise seen from above. Jog each motor a short way before the first ' +
                 'homing; if one runs the other way, swap one of its coil pairs or invert it in the controller.',
-              style: 'note', margin: [0, 4, 0, 0],
+              style: 'note',
+              margin: [0, 4, 0, 0],
             },
           ],
         },
@@ -356,14 +425,16 @@ export function beltsSection(data: SheetData): Content[] {
     numCell(`${fixed(b.tightSideN, 1)} / ${fixed(b.allowableTensionN, 0)}`),
     numCell(fixed(b.slackSideN, 1)),
   ]);
-  const spans = r.belts.flatMap((b) => b.spans.map((s) => [
-    safe(b.label),
-    safe(s.label),
-    numCell(fixed(s.lengthMm, 1)),
-    { text: s.fixedLength ? 'no' : 'yes', alignment: 'center' },
-    numCell(fixed(data.design.pretensionN, 1)),
-    numCell(fixed(s.targetFrequencyHz, 1), true),
-  ]));
+  const spans = r.belts.flatMap((b) =>
+    b.spans.map((s) => [
+      safe(b.label),
+      safe(s.label),
+      numCell(fixed(s.lengthMm, 1)),
+      { text: s.fixedLength ? 'no' : 'yes', alignment: 'center' },
+      numCell(fixed(data.design.pretensionN, 1)),
+      numCell(fixed(s.targetFrequencyHz, 1), true),
+    ]),
+  );
   const park = r.parking;
   const centre = Math.abs(park.xMm - r.travel.xMm / 2) < 0.05 && Math.abs(park.yMm - r.travel.yMm / 2) < 0.05;
   const parking =
@@ -373,11 +444,25 @@ export function beltsSection(data: SheetData): Content[] {
     block(
       heading('4', 'Belts'),
       { text: 'Loops to cut', style: 'h2', margin: [0, 0, 0, 3] },
-      table([62, 50, 38, '*', 60, 46, 70, 46], [
-        th('Belt'), th('Cut length [mm]', 'right'), th('Teeth', 'right'), th('Pitch-line loop [mm]', 'right'), th('Teeth in mesh (wrap)', 'right'),
-        th('Peak pull [N]', 'right'), th('Tight side / allowed [N]', 'right'), th('Slack side [N]', 'right'),
-      ], loops),
-      { text: 'Cut length includes the clamp allowance at both ends; the teeth count is the pitch-line loop in whole teeth.', style: 'note', margin: [0, 3, 0, 0] },
+      table(
+        [62, 50, 38, '*', 60, 46, 70, 46],
+        [
+          th('Belt'),
+          th('Cut length [mm]', 'right'),
+          th('Teeth', 'right'),
+          th('Pitch-line loop [mm]', 'right'),
+          th('Teeth in mesh (wrap)', 'right'),
+          th('Peak pull [N]', 'right'),
+          th('Tight side / allowed [N]', 'right'),
+          th('Slack side [N]', 'right'),
+        ],
+        loops,
+      ),
+      {
+        text: 'Cut length includes the clamp allowance at both ends; the teeth count is the pitch-line loop in whole teeth.',
+        style: 'note',
+        margin: [0, 3, 0, 0],
+      },
     ),
     {
       stack: [
@@ -385,14 +470,25 @@ export function beltsSection(data: SheetData): Content[] {
         { text: parking, bold: true, fontSize: 7.5, margin: [0, 0, 0, 4] },
       ],
     },
-    table([60, '*', 52, 52, 54, 64], [
-      th('Belt'), th('Span'), th('Free length [mm]', 'right'), th('Moves with carriage', 'center'), th('Pretension [N]', 'right'), th('Target pluck [Hz]', 'right'),
-    ], spans),
+    table(
+      [60, '*', 52, 52, 54, 64],
+      [
+        th('Belt'),
+        th('Span'),
+        th('Free length [mm]', 'right'),
+        th('Moves with carriage', 'center'),
+        th('Pretension [N]', 'right'),
+        th('Target pluck [Hz]', 'right'),
+      ],
+      spans,
+    ),
     {
-      text: `Pluck frequency of a span f = (1 / 2L) · sqrt(T / m), with m = ${sig(data.design.belt.linearMassKgPerM, 3)} kg/m for this belt. ` +
+      text:
+        `Pluck frequency of a span f = (1 / 2L) · sqrt(T / m), with m = ${sig(data.design.belt.linearMassKgPerM, 3)} kg/m for this belt. ` +
         'Spans that do not move with the carriage can be checked at any position. Record measured frequencies against this sheet in the app; ' +
         'it reports the tension and flags a mismatch between belts.',
-      style: 'note', margin: [0, 3, 0, 0],
+      style: 'note',
+      margin: [0, 3, 0, 0],
     },
   ];
 }
@@ -419,13 +515,22 @@ export function limitsSection(data: SheetData): Content[] {
   return [
     block(
       heading('5', 'Limits'),
-      table(['*', 46, 70, 92, 64, 84], [
-        th('Direction'), th('Angle [°]', 'right'), th('Accel. at rest [m/s²]', 'right'),
-        th(`Accel. at ${fixed(data.design.cruiseSpeedMmPerS, 0)} mm/s [m/s²]`, 'right'), th('Max speed [mm/s]', 'right'), th('Limited by'),
-      ], rows),
+      table(
+        ['*', 46, 70, 92, 64, 84],
+        [
+          th('Direction'),
+          th('Angle [°]', 'right'),
+          th('Accel. at rest [m/s²]', 'right'),
+          th(`Accel. at ${fixed(data.design.cruiseSpeedMmPerS, 0)} mm/s [m/s²]`, 'right'),
+          th('Max speed [mm/s]', 'right'),
+          th('Limited by'),
+        ],
+        rows,
+      ),
       {
         text: `Limits use ${fixed(data.design.torqueMargin * 100, 0)} % of the available motor torque. Acceleration at rest is the limit as the speed goes to zero.`,
-        style: 'note', margin: [0, 3, 0, 0],
+        style: 'note',
+        margin: [0, 3, 0, 0],
       },
     ),
   ];
@@ -472,10 +577,20 @@ export function stiffnessSection(data: SheetData): Content[] {
             width: '*',
             stack: [
               { text: `Ringing at the weakest point (tolerance ${fixed(tol, 3)} mm)`, style: 'h2', margin: [0, 0, 0, 3] },
-              table(['*', 62, 66, 112], [
-                th('Acceleration'), th('Accel. [m/s²]', 'right'), th('Overshoot [mm]', 'right'), th('Accel. for tolerance [m/s²]', 'right'),
-              ], ringRows),
-              safe('Overshoot after an abrupt change of acceleration, about a / (2πf)²; bold where it exceeds the tolerance.', { style: 'note', margin: [0, 3, 0, 0] }),
+              table(
+                ['*', 62, 66, 112],
+                [
+                  th('Acceleration'),
+                  th('Accel. [m/s²]', 'right'),
+                  th('Overshoot [mm]', 'right'),
+                  th('Accel. for tolerance [m/s²]', 'right'),
+                ],
+                ringRows,
+              ),
+              safe('Overshoot after an abrupt change of acceleration, about a / (2πf)²; bold where it exceeds the tolerance.', {
+                style: 'note',
+                margin: [0, 3, 0, 0],
+              }),
             ],
           },
         ],
@@ -489,8 +604,5 @@ export function stiffnessSection(data: SheetData): Content[] {
 /** The parts list for ordering. */
 export function partsSection(result: DesignResult): Content[] {
   const rows = result.partsList.map((p) => [safe(p.item, { bold: true }), numCell(fixed(p.quantity, 0)), safe(p.spec)]);
-  return [
-    heading('8', 'Parts list'),
-    table([150, 30, '*'], [th('Item'), th('Qty', 'right'), th('Specification')], rows),
-  ];
+  return [heading('8', 'Parts list'), table([150, 30, '*'], [th('Item'), th('Qty', 'right'), th('Specification')], rows)];
 }

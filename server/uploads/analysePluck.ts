@@ -164,8 +164,7 @@ export function analysePluck(bytes: Buffer | Uint8Array, opts: AnalysePluckOptio
       const loudest = hum.reduce((a, b) => (b.salienceDb > a.salienceDb ? b : a));
       throw new PluckError(
         'no_tone',
-        `Only a steady mains hum near ${Math.round(loudest.frequencyHz)} Hz was found — ` +
-          'pluck the span closer to the microphone.',
+        `Only a steady mains hum near ${Math.round(loudest.frequencyHz)} Hz was found — ` + 'pluck the span closer to the microphone.',
       );
     }
     throw new PluckError('no_tone', NO_TONE);
@@ -335,8 +334,8 @@ function findPeaks(spec: Spectrum, lowHz: number, highHz: number, windowS: numbe
   const { power, binHz } = spec;
   const lo = Math.max(1, Math.ceil(lowHz / binHz));
   const hi = Math.min(power.length - 2, Math.floor(highHz / binHz));
-  const mainLobe = Math.max(1, Math.round((2.5 / windowS) / binHz));
-  const sideLobe = Math.max(mainLobe, Math.round((6 / windowS) / binHz));
+  const mainLobe = Math.max(1, Math.round(2.5 / windowS / binHz));
+  const sideLobe = Math.max(mainLobe, Math.round(6 / windowS / binHz));
   const peaks: Peak[] = [];
   for (let k = lo; k <= hi; k++) {
     const p = power[k];

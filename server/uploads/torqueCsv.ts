@@ -55,22 +55,69 @@ const MAX_DETAILS = 20;
 
 // Header spellings, compared after lower-casing and removing spaces and the separators · ⋅ • ∙ * . -
 const SPEED_UNITS: Record<string, TorqueCsvSpeedUnit> = {
-  'rev/s': 'rev/s', 'revs/s': 'rev/s', 'rev/sec': 'rev/s', 'revs/sec': 'rev/s', 'r/s': 'rev/s', rps: 'rev/s',
-  revpers: 'rev/s', revpersec: 'rev/s', revolutionspersecond: 'rev/s', 'revolutions/s': 'rev/s', '1/s': 'rev/s',
-  rpm: 'rpm', 'rev/min': 'rpm', 'revs/min': 'rpm', 'r/min': 'rpm', revpermin: 'rpm', revolutionsperminute: 'rpm',
-  'revolutions/min': 'rpm', '1/min': 'rpm', 'min^1': 'rpm', 'u/min': 'rpm',
+  'rev/s': 'rev/s',
+  'revs/s': 'rev/s',
+  'rev/sec': 'rev/s',
+  'revs/sec': 'rev/s',
+  'r/s': 'rev/s',
+  rps: 'rev/s',
+  revpers: 'rev/s',
+  revpersec: 'rev/s',
+  revolutionspersecond: 'rev/s',
+  'revolutions/s': 'rev/s',
+  '1/s': 'rev/s',
+  rpm: 'rpm',
+  'rev/min': 'rpm',
+  'revs/min': 'rpm',
+  'r/min': 'rpm',
+  revpermin: 'rpm',
+  revolutionsperminute: 'rpm',
+  'revolutions/min': 'rpm',
+  '1/min': 'rpm',
+  'min^1': 'rpm',
+  'u/min': 'rpm',
 };
 const TORQUE_UNITS: Record<string, TorqueCsvTorqueUnit> = {
-  nm: 'N·m', newtonmetre: 'N·m', newtonmeter: 'N·m', newtonmetres: 'N·m', newtonmeters: 'N·m',
-  ncm: 'N·cm', newtoncentimetre: 'N·cm', newtoncentimeter: 'N·cm', newtoncentimetres: 'N·cm', newtoncentimeters: 'N·cm',
-  ozin: 'oz·in', ozfin: 'oz·in', inoz: 'oz·in', inozf: 'oz·in', ounceinch: 'oz·in', ounceinches: 'oz·in',
-  ounceforceinch: 'oz·in', ounceforceinches: 'oz·in',
+  nm: 'N·m',
+  newtonmetre: 'N·m',
+  newtonmeter: 'N·m',
+  newtonmetres: 'N·m',
+  newtonmeters: 'N·m',
+  ncm: 'N·cm',
+  newtoncentimetre: 'N·cm',
+  newtoncentimeter: 'N·cm',
+  newtoncentimetres: 'N·cm',
+  newtoncentimeters: 'N·cm',
+  ozin: 'oz·in',
+  ozfin: 'oz·in',
+  inoz: 'oz·in',
+  inozf: 'oz·in',
+  ounceinch: 'oz·in',
+  ounceinches: 'oz·in',
+  ounceforceinch: 'oz·in',
+  ounceforceinches: 'oz·in',
 };
 /** Step rates need the motor's step angle to become a shaft speed, so they get their own message. */
 const STEP_RATE_UNITS = new Set(['hz', 'pps', 'sps', 'steps/s', 'pulses/s', 'step/s', 'pulse/s']);
 const QUANTITY_WORDS = new Set([
-  'speed', 'velocity', 'rotational', 'rotation', 'shaft', 'motor', 'angular', 'torque', 'pull-out', 'pullout',
-  'pull', 'out', 'available', 'max', 'maximum', 'dynamic', 'in', 'of',
+  'speed',
+  'velocity',
+  'rotational',
+  'rotation',
+  'shaft',
+  'motor',
+  'angular',
+  'torque',
+  'pull-out',
+  'pullout',
+  'pull',
+  'out',
+  'available',
+  'max',
+  'maximum',
+  'dynamic',
+  'in',
+  'of',
 ]);
 
 const SPEED_HINT = 'rev/s, rps or rpm';
@@ -110,9 +157,7 @@ export function torqueCsvUnitFactor(unit: TorqueCsvSpeedUnit | TorqueCsvTorqueUn
   return unit === 'rev/s' || unit === 'rpm' ? f.speed[unit] : f.torque[unit];
 }
 
-type HeaderColumn =
-  | { kind: 'speed'; unit: TorqueCsvSpeedUnit; name: string }
-  | { kind: 'torque'; unit: TorqueCsvTorqueUnit; name: string };
+type HeaderColumn = { kind: 'speed'; unit: TorqueCsvSpeedUnit; name: string } | { kind: 'torque'; unit: TorqueCsvTorqueUnit; name: string };
 
 /**
  * Parses a motor's torque–speed table. The header names the units, e.g. `speed_rpm,torque_Ncm` or
@@ -279,7 +324,11 @@ function parseHeader(cells: string[], line: number): [HeaderColumn, HeaderColumn
   const [a, b] = columns as [HeaderColumn, HeaderColumn];
   if (a.kind === b.kind) {
     throw new CsvError([
-      { line, column: b.name, message: `both columns are ${a.kind}s; one must be the speed (${SPEED_HINT}) and one the torque (${TORQUE_HINT})` },
+      {
+        line,
+        column: b.name,
+        message: `both columns are ${a.kind}s; one must be the speed (${SPEED_HINT}) and one the torque (${TORQUE_HINT})`,
+      },
     ]);
   }
   return [a, b];

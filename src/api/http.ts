@@ -164,7 +164,8 @@ function toApiError(status: number, body: unknown): ApiError {
     const { code, message, details } = body.error;
     return new ApiError(status, code || `http_${status}`, message, Array.isArray(details) ? details : [], body);
   }
-  const fallback = STATUS_MESSAGES[status] ?? (status >= 500 ? 'The server had a problem. Try again shortly.' : `Request failed (HTTP ${status}).`);
+  const fallback =
+    STATUS_MESSAGES[status] ?? (status >= 500 ? 'The server had a problem. Try again shortly.' : `Request failed (HTTP ${status}).`);
   return new ApiError(status, `http_${status}`, fallback, [], body);
 }
 

@@ -80,7 +80,9 @@ function itemsOf<T>(body: T[] | { items: T[] }): T[] {
 
 /** Lists one shelf; retired parts only when asked. */
 export const listParts = async <K extends PartKind>(kind: K, includeRetired = false): Promise<PartOf[K][]> =>
-  itemsOf(await get<PartOf[K][] | { items: PartOf[K][] }>(`/parts/${kind}`, { includeRetired: includeRetired ? 1 : undefined, pageSize: 100 }));
+  itemsOf(
+    await get<PartOf[K][] | { items: PartOf[K][] }>(`/parts/${kind}`, { includeRetired: includeRetired ? 1 : undefined, pageSize: 100 }),
+  );
 
 /** Adds a part to a shelf (admin). */
 export const createPart = <K extends PartKind>(kind: K, input: PartInput<K>): Promise<PartOf[K]> => post(`/parts/${kind}`, input);

@@ -122,8 +122,10 @@ export const addComment = (id: number, body: string, parentId?: number | null): 
   post(`/revisions/${id}/comments`, parentId ? { body, parentId } : { body });
 
 /** Approves a revision; the server renders and publishes its design sheet. */
-export const approveRevision = (id: number, comment: string): Promise<{ revision: RevisionDetail; sheet: { id: number; sha256: string } }> =>
-  post(`/revisions/${id}/approve`, { comment });
+export const approveRevision = (
+  id: number,
+  comment: string,
+): Promise<{ revision: RevisionDetail; sheet: { id: number; sha256: string } }> => post(`/revisions/${id}/approve`, { comment });
 
 /** Returns a revision to its designer with a reason (required). */
 export const returnRevision = (id: number, reason: string): Promise<RevisionDetail> => post(`/revisions/${id}/return`, { reason });

@@ -74,4 +74,5 @@ export const listSheets = (query: SheetListQuery = {}): Promise<Page<SheetListIt
 export const getSheet = (id: number): Promise<SheetDetail> => get(`/sheets/${id}`);
 
 /** The download address of a sheet's PDF (the browser fetches it itself). */
-export const sheetPdfUrl = (id: number, paper: SheetPaper = 'A4'): string => apiUrl(`/sheets/${id}/pdf`, { paper: paper === 'A4' ? 'a4' : 'letter' });
+export const sheetPdfUrl = (id: number, paper: SheetPaper = 'A4'): string =>
+  apiUrl(`/sheets/${id}/pdf`, { paper: paper === 'A4' ? 'a4' : 'letter' });

@@ -16,7 +16,9 @@ function readSaved(): ThemeName | null {
 }
 
 function systemPrefersDark(): boolean {
-  return typeof window !== 'undefined' && typeof window.matchMedia === 'function' && window.matchMedia('(prefers-color-scheme: dark)').matches;
+  return (
+    typeof window !== 'undefined' && typeof window.matchMedia === 'function' && window.matchMedia('(prefers-color-scheme: dark)').matches
+  );
 }
 
 function apply(dark: boolean): void {

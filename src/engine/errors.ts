@@ -54,14 +54,7 @@ export function throwInputError(scope: string, message: string, path = ''): neve
  * @param exclusiveMin - true when `min` itself is not allowed (e.g. lengths that must be > 0)
  * @returns the value, unchanged
  */
-export function requireNumber(
-  scope: string,
-  name: string,
-  value: unknown,
-  min = -Infinity,
-  max = Infinity,
-  exclusiveMin = false,
-): number {
+export function requireNumber(scope: string, name: string, value: unknown, min = -Infinity, max = Infinity, exclusiveMin = false): number {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
     throwInputError(scope, `must be a finite number, got ${String(value)}`, name);
   }

@@ -112,7 +112,13 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
   const states = t.layout.loops.map((loop) => solveLoop(loop, pcx, pcy));
 
   // --- masses (engine.md §4)
-  const mm = movingMassKg({ mechanism: mech, carriageKg: d.masses.carriageKg, toolKg: d.masses.toolKg, gantryKg: d.masses.gantryKg, motorKg: d.motor.massKg });
+  const mm = movingMassKg({
+    mechanism: mech,
+    carriageKg: d.masses.carriageKg,
+    toolKg: d.masses.toolKg,
+    gantryKg: d.masses.gantryKg,
+    motorKg: d.motor.massKg,
+  });
   const estimated = d.pulley.driveInertiaKgM2 === null || d.pulley.idlerInertiaKgM2 === null;
   const jDrive = d.pulley.driveInertiaKgM2 ?? pulleyInertiaEstimateKgM2({ teeth: zD, pitchMm: p, beltWidthMm: d.belt.widthMm });
   const jIdler = d.pulley.idlerInertiaKgM2 ?? pulleyInertiaEstimateKgM2({ teeth: zI, pitchMm: p, beltWidthMm: d.belt.widthMm });
@@ -135,9 +141,10 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
       }
     }
   });
-  const rotorSide: [number, number] = [0, 1].map(
-    (i) => (motorsOn[i] * d.motor.rotorInertiaKgM2 + drivesOn[i] * jDrive) / (rM * rM),
-  ) as [number, number];
+  const rotorSide: [number, number] = [0, 1].map((i) => (motorsOn[i] * d.motor.rotorInertiaKgM2 + drivesOn[i] * jDrive) / (rM * rM)) as [
+    number,
+    number,
+  ];
   const motorEq: [number, number] = [rotorSide[0] + beltCarried[0], rotorSide[1] + beltCarried[1]];
 
   // --- motor torque and envelope (engine.md §5, §6)
@@ -197,7 +204,8 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
       from: s.from,
       to: s.to,
       lengthMm: s.lengthMm,
-      targetFrequencyHz: s.lengthMm > 0 ? spanFrequencyHz({ tensionN: d.pretensionN, linearMassKgPerM: d.belt.linearMassKgPerM, spanMm: s.lengthMm }) : 0,
+      targetFrequencyHz:
+        s.lengthMm > 0 ? spanFrequencyHz({ tensionN: d.pretensionN, linearMassKgPerM: d.belt.linearMassKgPerM, spanMm: s.lengthMm }) : 0,
       // A span whose two ends ride the same body keeps its length wherever the carriage is: the one to pluck.
       fixedLength: body(s.from) === body(s.to),
     }));
@@ -301,7 +309,14 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
       id: 'B',
       axisLabel: motorLabels[1],
       count: motorsOn[1],
-      drives: mech === 'hbot' ? 'belt H' : mech === 'corexy' ? 'belt B' : d.yMotors === 2 ? 'belts Y (one motor per side)' : 'belts Y (through the cross shaft)',
+      drives:
+        mech === 'hbot'
+          ? 'belt H'
+          : mech === 'corexy'
+            ? 'belt B'
+            : d.yMotors === 2
+              ? 'belts Y (one motor per side)'
+              : 'belts Y (through the cross shaft)',
     },
   ];
 
@@ -381,8 +396,8 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
       matrix: k,
       inverse: kinv,
       singleMotorDirectionDeg: {
-        a: ((Math.atan2(kinv[1][0], kinv[0][0]) * DEG) + 360) % 360,
-        b: ((Math.atan2(kinv[1][1], kinv[0][1]) * DEG) + 360) % 360,
+        a: (Math.atan2(kinv[1][0], kinv[0][0]) * DEG + 360) % 360,
+        b: (Math.atan2(kinv[1][1], kinv[0][1]) * DEG + 360) % 360,
       },
     },
     signConvention: {

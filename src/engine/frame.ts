@@ -44,7 +44,12 @@ export function frameToTravel(d: TravelInput): TravelInfo {
   let xHi = W - e - c - d.frame.carriageXMm / 2;
   let yLo = e + c + hy / 2;
   let yHi = D - e - c - hy / 2;
-  const limitedBy = { xLow: 'carriage at the frame', xHigh: 'carriage at the frame', yLow: 'gantry at the frame', yHigh: 'gantry at the frame' };
+  const limitedBy = {
+    xLow: 'carriage at the frame',
+    xHigh: 'carriage at the frame',
+    yLow: 'gantry at the frame',
+    yHigh: 'gantry at the frame',
+  };
   const models: LoopModel[] = [];
   let sound = true;
   for (const loop of layout.loops) {

@@ -37,7 +37,15 @@ export {
 } from './motorTorque';
 export { moveTimeS } from './moveTime';
 export { frameToTravel, travelToFrame, type TravelInfo, type TravelInput } from './frame';
-export { buildBeltLayout, solveLoop, fitLoopModel, elementPosition, type BeltLayout, type LayoutLoop, type LayoutElement } from './beltLayout';
+export {
+  buildBeltLayout,
+  solveLoop,
+  fitLoopModel,
+  elementPosition,
+  type BeltLayout,
+  type LayoutLoop,
+  type LayoutElement,
+} from './beltLayout';
 export { solveBeltPath, type PathElement, type SolvedPath } from './beltPath';
 export { movingMassKg, effectiveMassKg, pulleyInertiaEstimateKgM2 } from './mass';
 export { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type EnvelopeInput, type EnvelopeResult } from './envelope';

@@ -32,7 +32,16 @@ function checkDirection(scope: string, d: MotorDirection | undefined): MotorDire
 export function kinematicsMatrix(mechanism: Mechanism, motorDirection?: MotorDirection): Matrix2 {
   const m = checkMechanism('kinematicsMatrix', mechanism);
   const d = checkDirection('kinematicsMatrix', motorDirection);
-  const base: Matrix2 = m === 'cartesian' ? [[1, 0], [0, 1]] : [[1, 1], [1, -1]];
+  const base: Matrix2 =
+    m === 'cartesian'
+      ? [
+          [1, 0],
+          [0, 1],
+        ]
+      : [
+          [1, 1],
+          [1, -1],
+        ];
   return [
     [d.a * base[0][0], d.a * base[0][1]],
     [d.b * base[1][0], d.b * base[1][1]],
@@ -48,12 +57,10 @@ export function kinematicsMatrix(mechanism: Mechanism, motorDirection?: MotorDir
  * @returns belt displacement at motor A and B [mm]
  * @see I. Moyer, CoreXY (corexy.com, 2012): ΔA = ΔX + ΔY, ΔB = ΔX − ΔY
  */
-export function carriageToMotor(args: {
-  mechanism: Mechanism;
-  dxMm: number;
-  dyMm: number;
-  motorDirection?: MotorDirection;
-}): { daMm: number; dbMm: number } {
+export function carriageToMotor(args: { mechanism: Mechanism; dxMm: number; dyMm: number; motorDirection?: MotorDirection }): {
+  daMm: number;
+  dbMm: number;
+} {
   const s = 'carriageToMotor';
   const k = kinematicsMatrix(checkMechanism(s, args?.mechanism), checkDirection(s, args?.motorDirection));
   const [da, db] = apply2(k, requireNumber(s, 'dxMm', args.dxMm), requireNumber(s, 'dyMm', args.dyMm));
@@ -70,12 +77,10 @@ export function carriageToMotor(args: {
  * @returns carriage displacement along X and Y [mm]
  * @see I. Moyer, CoreXY (corexy.com, 2012): ΔX = ½(ΔA + ΔB), ΔY = ½(ΔA − ΔB)
  */
-export function motorToCarriage(args: {
-  mechanism: Mechanism;
-  daMm: number;
-  dbMm: number;
-  motorDirection?: MotorDirection;
-}): { dxMm: number; dyMm: number } {
+export function motorToCarriage(args: { mechanism: Mechanism; daMm: number; dbMm: number; motorDirection?: MotorDirection }): {
+  dxMm: number;
+  dyMm: number;
+} {
   const s = 'motorToCarriage';
   const k = kinematicsMatrix(checkMechanism(s, args?.mechanism), checkDirection(s, args?.motorDirection));
   const [dx, dy] = apply2(inverse2(k), requireNumber(s, 'daMm', args.daMm), requireNumber(s, 'dbMm', args.dbMm));
@@ -91,12 +96,10 @@ export function motorToCarriage(args: {
  * @returns force on the carriage along X and Y [N]
  * @see engine.md §1 (virtual work: FA·δA + FB·δB = Fx·δX + Fy·δY for every δ)
  */
-export function beltPullsToForce(args: {
-  mechanism: Mechanism;
-  forceAN: number;
-  forceBN: number;
-  motorDirection?: MotorDirection;
-}): { forceXN: number; forceYN: number } {
+export function beltPullsToForce(args: { mechanism: Mechanism; forceAN: number; forceBN: number; motorDirection?: MotorDirection }): {
+  forceXN: number;
+  forceYN: number;
+} {
   const s = 'beltPullsToForce';
   const k = kinematicsMatrix(checkMechanism(s, args?.mechanism), checkDirection(s, args?.motorDirection));
   const [fx, fy] = apply2(transpose2(k), requireNumber(s, 'forceAN', args.forceAN), requireNumber(s, 'forceBN', args.forceBN));
@@ -111,12 +114,10 @@ export function beltPullsToForce(args: {
  * @param args.motorDirection - optional sign convention
  * @returns belt pull at motor A and B [N]
  */
-export function forceToBeltPulls(args: {
-  mechanism: Mechanism;
-  forceXN: number;
-  forceYN: number;
-  motorDirection?: MotorDirection;
-}): { forceAN: number; forceBN: number } {
+export function forceToBeltPulls(args: { mechanism: Mechanism; forceXN: number; forceYN: number; motorDirection?: MotorDirection }): {
+  forceAN: number;
+  forceBN: number;
+} {
   const s = 'forceToBeltPulls';
   const k = kinematicsMatrix(checkMechanism(s, args?.mechanism), checkDirection(s, args?.motorDirection));
   const [fa, fb] = apply2(inverse2(transpose2(k)), requireNumber(s, 'forceXN', args.forceXN), requireNumber(s, 'forceYN', args.forceYN));
@@ -131,10 +132,7 @@ export function forceToBeltPulls(args: {
  * @param directionRad - direction of travel θ from +X toward +Y [rad]
  * @returns shares for motor A and B [-]
  */
-export function couplingShares(
-  k: Matrix2,
-  directionRad: number,
-): { speedA: number; speedB: number; forceA: number; forceB: number } {
+export function couplingShares(k: Matrix2, directionRad: number): { speedA: number; speedB: number; forceA: number; forceB: number } {
   const c = Math.cos(directionRad);
   const s = Math.sin(directionRad);
   const [va, vb] = apply2(k, c, s);

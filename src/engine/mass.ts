@@ -37,13 +37,10 @@ export function pulleyInertiaEstimateKgM2(args: { teeth: number; pitchMm: number
  * @param args.motorKg - mass of one motor [kg]
  * @returns moving mass along X and Y [kg]
  */
-export function movingMassKg(args: {
-  mechanism: Mechanism;
-  carriageKg: number;
-  toolKg: number;
-  gantryKg: number;
-  motorKg: number;
-}): { xKg: number; yKg: number } {
+export function movingMassKg(args: { mechanism: Mechanism; carriageKg: number; toolKg: number; gantryKg: number; motorKg: number }): {
+  xKg: number;
+  yKg: number;
+} {
   const x = args.carriageKg + args.toolKg;
   const y = x + args.gantryKg + (args.mechanism === 'cartesian' ? args.motorKg : 0);
   return { xKg: x, yKg: y };

@@ -126,8 +126,9 @@ export function motorTorqueNm(args: { motor: MotorSpec; driver: DriverSpec; spee
  * @see engine.md §7 (k_θ ≈ N_r·T_hold)
  */
 export function motorHoldingStiffnessNmPerRad(motor: MotorSpec, driver: DriverSpec): number {
-  const low = motor.torqueCurve && motor.torqueCurve.length > 0
-    ? motor.torqueCurve[0].torqueNm
-    : (motor.holdingTorqueNm * driver.currentRmsA) / motor.ratedCurrentA;
+  const low =
+    motor.torqueCurve && motor.torqueCurve.length > 0
+      ? motor.torqueCurve[0].torqueNm
+      : (motor.holdingTorqueNm * driver.currentRmsA) / motor.ratedCurrentA;
   return rotorTeeth(motor.stepAngleDeg) * low;
 }

@@ -75,7 +75,11 @@ export function partsList(p: PartsInput): { item: string; quantity: number; spec
   }
   if (p.layout.mechanism === 'cartesian' && p.yMotors === 1) {
     const len = p.layout.outerXMm - 2 * p.layout.extrusionMm;
-    rows.push({ item: 'Y cross shaft', quantity: 1, spec: `joins both Y drive pulleys, about ${len.toFixed(0)} mm long, with two bearings` });
+    rows.push({
+      item: 'Y cross shaft',
+      quantity: 1,
+      spec: `joins both Y drive pulleys, about ${len.toFixed(0)} mm long, with two bearings`,
+    });
   }
   return rows;
 }

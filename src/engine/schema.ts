@@ -79,7 +79,11 @@ const motorSchema = z
     if (!curve) return;
     // A motor with no torque at standstill cannot hold the carriage: the stiffness model would have no spring.
     if (!(curve[0].torqueNm > 0)) {
-      ctx.addIssue({ code: 'custom', path: ['torqueCurve', 0, 'torqueNm'], message: 'the first torque of the table must be greater than 0' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['torqueCurve', 0, 'torqueNm'],
+        message: 'the first torque of the table must be greater than 0',
+      });
     }
     for (let i = 1; i < curve.length; i++) {
       if (!(curve[i].speedRevPerS > curve[i - 1].speedRevPerS)) {
@@ -93,11 +97,9 @@ const motorSchema = z
   });
 
 const driverSchema = z.strictObject({
-  microsteps: z
-    .number({ error: 'microsteps must be a number' })
-    .refine((v) => (MICROSTEP_OPTIONS as readonly number[]).includes(v), {
-      message: `microsteps must be a power of two from 1 to 256 (${MICROSTEP_OPTIONS.join(', ')})`,
-    }),
+  microsteps: z.number({ error: 'microsteps must be a number' }).refine((v) => (MICROSTEP_OPTIONS as readonly number[]).includes(v), {
+    message: `microsteps must be a power of two from 1 to 256 (${MICROSTEP_OPTIONS.join(', ')})`,
+  }),
   supplyV: pos(1000, 'supply voltage'),
   currentRmsA: pos(50, 'driver RMS current'),
 });
@@ -143,13 +145,19 @@ export const designInputSchema = z
     pretensionN: pos(100000, 'pretension'),
     torqueMargin: pos(1, 'torque margin').default(0.6),
     cruiseSpeedMmPerS: pos(100000, 'cruise speed'),
-    toolMount: z.strictObject({ holdN: pos(100000, 'tool mount hold force') }).nullable().default(null),
+    toolMount: z
+      .strictObject({ holdN: pos(100000, 'tool mount hold force') })
+      .nullable()
+      .default(null),
     map: z.strictObject({ points: int(2, 101, 'map points') }).default({ points: 41 }),
     ringingToleranceMm: pos(100, 'ringing tolerance').default(0.02),
     /** Acceleration the designer means to use; null → the envelope's worst-direction limit. */
     plannedAccelMmPerS2: pos(1e7, 'planned acceleration').nullable().default(null),
     /** Travel the designer needs; when set, the travel check fails if the frame gives less. */
-    wantedTravel: z.strictObject({ xMm: pos(10000, 'wanted X travel'), yMm: pos(10000, 'wanted Y travel') }).nullable().default(null),
+    wantedTravel: z
+      .strictObject({ xMm: pos(10000, 'wanted X travel'), yMm: pos(10000, 'wanted Y travel') })
+      .nullable()
+      .default(null),
   })
   .superRefine((d, ctx) => {
     if (d.yMotors === 2 && d.mechanism !== 'cartesian') {

@@ -253,8 +253,21 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
         kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
       }
       // Order of the 15 products: xx xy x0 x1 x2 | yy y0 y1 y2 | 00 01 02 | 11 12 | 22
-      let kxx = 0, kxy = 0, x0 = 0, x1 = 0, x2 = 0, kyy = 0, y0 = 0, y1 = 0, y2 = 0;
-      let h00 = km[0], h01 = 0, h02 = 0, h11 = km[1], h12 = 0, h22 = km[2];
+      let kxx = 0,
+        kxy = 0,
+        x0 = 0,
+        x1 = 0,
+        x2 = 0,
+        kyy = 0,
+        y0 = 0,
+        y1 = 0,
+        y2 = 0;
+      let h00 = km[0],
+        h01 = 0,
+        h02 = 0,
+        h11 = km[1],
+        h12 = 0,
+        h22 = km[2];
       for (let g = 0; g < ng; g++) {
         const k = kg[g];
         const o = g * 15;

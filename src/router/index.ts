@@ -24,18 +24,68 @@ const APP_NAME = 'Gantrywright';
 export const routes: RouteRecordRaw[] = [
   // The start page depends on the user's roles, so the guard below decides where `/` goes.
   { path: '/', name: 'home', component: { render: () => null }, meta: { title: 'Start' } },
-  { path: '/sign-in', name: 'sign-in', component: () => import('@/views/auth/SignInView.vue'), meta: { title: 'Sign in', public: true, guestOnly: true } },
-  { path: '/forgot', name: 'forgot', component: () => import('@/views/auth/ForgotView.vue'), meta: { title: 'Forgot password', public: true, guestOnly: true } },
-  { path: '/reset', name: 'reset', component: () => import('@/views/auth/ResetView.vue'), meta: { title: 'Set a new password', public: true } },
-  { path: '/designs', name: 'designs', component: () => import('@/views/designs/DesignsView.vue'), meta: { title: 'Designs', roles: DESIGN_ROLES } },
-  { path: '/designs/:id', name: 'workbench', component: () => import('@/views/workbench/WorkbenchView.vue'), meta: { title: 'Workbench', section: 'Designs', roles: DESIGN_ROLES } },
-  { path: '/review', name: 'review-desk', component: () => import('@/views/review/ReviewDeskView.vue'), meta: { title: 'Review desk', roles: REVIEW_ROLES } },
-  { path: '/review/:revisionId', name: 'review', component: () => import('@/views/review/ReviewView.vue'), meta: { title: 'Review', section: 'Review desk', roles: DESIGN_ROLES } },
-  { path: '/sheets', name: 'sheets', component: () => import('@/views/sheets/SheetsView.vue'), meta: { title: 'Sheets', roles: SHEET_ROLES } },
-  { path: '/sheets/:id', name: 'sheet', component: () => import('@/views/sheets/SheetView.vue'), meta: { title: 'Design sheet', section: 'Sheets', roles: SHEET_ROLES } },
+  {
+    path: '/sign-in',
+    name: 'sign-in',
+    component: () => import('@/views/auth/SignInView.vue'),
+    meta: { title: 'Sign in', public: true, guestOnly: true },
+  },
+  {
+    path: '/forgot',
+    name: 'forgot',
+    component: () => import('@/views/auth/ForgotView.vue'),
+    meta: { title: 'Forgot password', public: true, guestOnly: true },
+  },
+  {
+    path: '/reset',
+    name: 'reset',
+    component: () => import('@/views/auth/ResetView.vue'),
+    meta: { title: 'Set a new password', public: true },
+  },
+  {
+    path: '/designs',
+    name: 'designs',
+    component: () => import('@/views/designs/DesignsView.vue'),
+    meta: { title: 'Designs', roles: DESIGN_ROLES },
+  },
+  {
+    path: '/designs/:id',
+    name: 'workbench',
+    component: () => import('@/views/workbench/WorkbenchView.vue'),
+    meta: { title: 'Workbench', section: 'Designs', roles: DESIGN_ROLES },
+  },
+  {
+    path: '/review',
+    name: 'review-desk',
+    component: () => import('@/views/review/ReviewDeskView.vue'),
+    meta: { title: 'Review desk', roles: REVIEW_ROLES },
+  },
+  {
+    path: '/review/:revisionId',
+    name: 'review',
+    component: () => import('@/views/review/ReviewView.vue'),
+    meta: { title: 'Review', section: 'Review desk', roles: DESIGN_ROLES },
+  },
+  {
+    path: '/sheets',
+    name: 'sheets',
+    component: () => import('@/views/sheets/SheetsView.vue'),
+    meta: { title: 'Sheets', roles: SHEET_ROLES },
+  },
+  {
+    path: '/sheets/:id',
+    name: 'sheet',
+    component: () => import('@/views/sheets/SheetView.vue'),
+    meta: { title: 'Design sheet', section: 'Sheets', roles: SHEET_ROLES },
+  },
   { path: '/parts', name: 'parts', component: () => import('@/views/parts/PartsShelfView.vue'), meta: { title: 'Parts shelf' } },
   { path: '/team', name: 'team', component: () => import('@/views/team/TeamView.vue'), meta: { title: 'Team', roles: ADMIN_ROLES } },
-  { path: '/outbox', name: 'outbox', component: () => import('@/views/outbox/OutboxView.vue'), meta: { title: 'Outbox', roles: ADMIN_ROLES } },
+  {
+    path: '/outbox',
+    name: 'outbox',
+    component: () => import('@/views/outbox/OutboxView.vue'),
+    meta: { title: 'Outbox', roles: ADMIN_ROLES },
+  },
   { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/errors/NotFoundView.vue'), meta: { title: 'Not found' } },
 ];
 

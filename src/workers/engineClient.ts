@@ -1,4 +1,12 @@
-import { compareOutcomes, evaluateOutcome, sweepPoint, type CompareColumn, type Outcome, type SweepPoint, type SweepSpec } from './engineTasks';
+import {
+  compareOutcomes,
+  evaluateOutcome,
+  sweepPoint,
+  type CompareColumn,
+  type Outcome,
+  type SweepPoint,
+  type SweepSpec,
+} from './engineTasks';
 import type { EngineRequest, EngineResponse } from './engineProtocol';
 
 /** Progress callback of a sweep. */

@@ -55,7 +55,9 @@ const FILES = {
 
 function storedFiles(): string[] {
   if (!fs.existsSync(UPLOAD_DIR)) return [];
-  return (fs.readdirSync(UPLOAD_DIR, { recursive: true }) as string[]).map((p) => path.join(UPLOAD_DIR, p)).filter((p) => fs.statSync(p).isFile());
+  return (fs.readdirSync(UPLOAD_DIR, { recursive: true }) as string[])
+    .map((p) => path.join(UPLOAD_DIR, p))
+    .filter((p) => fs.statSync(p).isFile());
 }
 
 const isStored = (hash: string) => storedFiles().some((f) => path.basename(f) === hash);
@@ -78,28 +80,40 @@ describe('POST /api/designs/:id/attachments', () => {
     ['PNG', FILES.png, 'photo.png', 'image/png', 'image/png'],
     ['JPEG', FILES.jpeg, 'photo.jpeg', 'image/jpeg', 'image/jpeg'],
     ['CSV', FILES.csv, 'cut-list.csv', 'text/csv', 'text/csv; charset=utf-8'],
-  ])('when the owner attaches a %s, then 201, it is listed, stored under its SHA-256 and downloads byte for byte with safe headers', async (_kind, make, filename, declared, served) => {
-    // Arrange
-    const bytes = make();
-    // Act
-    const res = await upload('owner', bytes, filename, declared);
-    const list = await agents.maker.get(`/api/designs/${designId}/attachments`);
-    const download = await binary(agents.reviewer.get(`/api/attachments/${res.body.id}`));
-    // Assert
-    expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ designId, partId: null, fileName: filename, size: bytes.length, sha256: sha256(bytes), uploadedBy: { id: ownerId }, canDelete: true, url: `/api/attachments/${res.body.id}` });
-    expect(list.status).toBe(200);
-    expect(list.body.items.find((a: { id: number }) => a.id === res.body.id)).toMatchObject({ fileName: filename, canDelete: false });
-    expect(list.body.canUpload).toBe(false);
-    expect(isStored(sha256(bytes))).toBe(true);
-    expect(download.status).toBe(200);
-    expect(download.headers['content-type']).toBe(served);
-    expect(download.headers['content-disposition']).toBe(`attachment; filename=${filename}`);
-    expect(download.headers['x-content-type-options']).toBe('nosniff');
-    expect(download.headers['content-security-policy']).toContain('sandbox');
-    expect(sha256(download.body as Buffer)).toBe(sha256(bytes));
-    expect(await AuditLog.count({ where: { action: 'attachment.create', entityId: res.body.id } })).toBe(1);
-  });
+  ])(
+    'when the owner attaches a %s, then 201, it is listed, stored under its SHA-256 and downloads byte for byte with safe headers',
+    async (_kind, make, filename, declared, served) => {
+      // Arrange
+      const bytes = make();
+      // Act
+      const res = await upload('owner', bytes, filename, declared);
+      const list = await agents.maker.get(`/api/designs/${designId}/attachments`);
+      const download = await binary(agents.reviewer.get(`/api/attachments/${res.body.id}`));
+      // Assert
+      expect(res.status).toBe(201);
+      expect(res.body).toMatchObject({
+        designId,
+        partId: null,
+        fileName: filename,
+        size: bytes.length,
+        sha256: sha256(bytes),
+        uploadedBy: { id: ownerId },
+        canDelete: true,
+        url: `/api/attachments/${res.body.id}`,
+      });
+      expect(list.status).toBe(200);
+      expect(list.body.items.find((a: { id: number }) => a.id === res.body.id)).toMatchObject({ fileName: filename, canDelete: false });
+      expect(list.body.canUpload).toBe(false);
+      expect(isStored(sha256(bytes))).toBe(true);
+      expect(download.status).toBe(200);
+      expect(download.headers['content-type']).toBe(served);
+      expect(download.headers['content-disposition']).toBe(`attachment; filename=${filename}`);
+      expect(download.headers['x-content-type-options']).toBe('nosniff');
+      expect(download.headers['content-security-policy']).toContain('sandbox');
+      expect(sha256(download.body as Buffer)).toBe(sha256(bytes));
+      expect(await AuditLog.count({ where: { action: 'attachment.create', entityId: res.body.id } })).toBe(1);
+    },
+  );
 
   it('when the client name carries a path and characters that are unsafe in a header, then only a sanitised last segment is kept', async () => {
     const res = await upload('owner', FILES.png(), '..\\..\\secret<1>|x?.png', 'image/png');
@@ -113,10 +127,12 @@ describe('POST /api/designs/:id/attachments', () => {
     const res = await upload('owner', FILES.pdf(), 'Motor Ω curve.pdf', 'application/pdf');
     const download = await agents.owner.get(`/api/attachments/${res.body.id}`);
     expect(res.body.fileName).toBe('Motor Ω curve.pdf');
-    expect(download.headers['content-disposition']).toBe(`attachment; filename="Motor ? curve.pdf"; filename*=UTF-8''Motor%20%CE%A9%20curve.pdf`);
+    expect(download.headers['content-disposition']).toBe(
+      `attachment; filename="Motor ? curve.pdf"; filename*=UTF-8''Motor%20%CE%A9%20curve.pdf`,
+    );
   });
 
-  it('when an admin attaches to someone else\'s design, then 201; the admin lists with canUpload', async () => {
+  it("when an admin attaches to someone else's design, then 201; the admin lists with canUpload", async () => {
     const res = await upload('admin', FILES.csv(), 'bom.csv', 'text/csv');
     const list = await agents.admin.get(`/api/designs/${designId}/attachments`);
     expect(res.status).toBe(201);
@@ -144,7 +160,12 @@ describe('POST /api/designs/:id/attachments', () => {
     ['PDF bytes named .png', FILES.pdf, 'photo.png', 'image/png'],
     ['text named .png', FILES.csv, 'photo.png', 'image/png'],
     ['a GIF', () => Buffer.concat([Buffer.from('GIF89a'), Buffer.from([1, 0, 1, 0, 0, 0, 0]), unique()]), 'anim.gif', 'image/gif'],
-    ['a WAV (not a design attachment type)', () => Buffer.concat([Buffer.from('RIFF'), Buffer.alloc(4), Buffer.from('WAVEfmt '), unique()]), 'pluck.wav', 'audio/wav'],
+    [
+      'a WAV (not a design attachment type)',
+      () => Buffer.concat([Buffer.from('RIFF'), Buffer.alloc(4), Buffer.from('WAVEfmt '), unique()]),
+      'pluck.wav',
+      'audio/wav',
+    ],
     ['binary junk', () => Buffer.from([0, 1, 2, 3, 250, 251, 252, 0, 0, 9]), 'data.bin', 'application/octet-stream'],
     ['an empty file', () => Buffer.alloc(0), 'empty.pdf', 'application/pdf'],
   ])('when the file is %s, then 415 and nothing is stored', async (_what, make, filename, declared) => {
@@ -170,7 +191,10 @@ describe('POST /api/designs/:id/attachments', () => {
   it('when no file is sent, or two files, or an extra field, then 400 naming the field', async () => {
     const none = await agents.owner.post(`/api/designs/${designId}/attachments`).field('note', 'x');
     const empty = await agents.owner.post(`/api/designs/${designId}/attachments`).send({});
-    const two = await agents.owner.post(`/api/designs/${designId}/attachments`).attach('file', FILES.png(), 'a.png').attach('file', FILES.png(), 'b.png');
+    const two = await agents.owner
+      .post(`/api/designs/${designId}/attachments`)
+      .attach('file', FILES.png(), 'a.png')
+      .attach('file', FILES.png(), 'b.png');
     const wrongField = await agents.owner.post(`/api/designs/${designId}/attachments`).attach('upload', FILES.png(), 'a.png');
     expect(none.status).toBe(400);
     expect(none.body.error.details[0].path).toBe('note');
@@ -215,7 +239,7 @@ describe('DELETE /api/attachments/:id', () => {
     ['another designer', 403, 'otherDesigner'],
     ['a maker', 403, 'maker'],
     ['nobody signed in', 401, 'anonymous'],
-  ] as const)('when %s deletes the owner\'s attachment, then %i and it stays', async (_who, status, who) => {
+  ] as const)("when %s deletes the owner's attachment, then %i and it stays", async (_who, status, who) => {
     const bytes = FILES.png();
     const created = await upload('owner', bytes, 'keep.png', 'image/png');
     const res = await agents[who].delete(`/api/attachments/${created.body.id}`);
@@ -224,7 +248,7 @@ describe('DELETE /api/attachments/:id', () => {
     expect(isStored(sha256(bytes))).toBe(true);
   });
 
-  it('when an admin deletes the owner\'s attachment, then 204', async () => {
+  it("when an admin deletes the owner's attachment, then 204", async () => {
     const created = await upload('owner', FILES.png(), 'gone.png', 'image/png');
     expect((await agents.admin.delete(`/api/attachments/${created.body.id}`)).status).toBe(204);
   });

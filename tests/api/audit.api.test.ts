@@ -25,12 +25,26 @@ describe('GET /api/audit', () => {
     expect(res.body.total).toBe(2);
     expect(res.body.items).toEqual([
       {
-        id: expect.any(Number), actor: { id: adminUser.id, name: adminUser.name, email: adminUser.email },
-        action: 'user.roles', entity: 'user', entityId: user.id, from: 'maker', to: 'reviewer,maker', reason: null, at: expect.any(String),
+        id: expect.any(Number),
+        actor: { id: adminUser.id, name: adminUser.name, email: adminUser.email },
+        action: 'user.roles',
+        entity: 'user',
+        entityId: user.id,
+        from: 'maker',
+        to: 'reviewer,maker',
+        reason: null,
+        at: expect.any(String),
       },
       {
-        id: expect.any(Number), actor: { id: adminUser.id, name: adminUser.name, email: adminUser.email },
-        action: 'user.disable', entity: 'user', entityId: user.id, from: 'active', to: 'disabled', reason: null, at: expect.any(String),
+        id: expect.any(Number),
+        actor: { id: adminUser.id, name: adminUser.name, email: adminUser.email },
+        action: 'user.disable',
+        entity: 'user',
+        entityId: user.id,
+        from: 'active',
+        to: 'disabled',
+        reason: null,
+        at: expect.any(String),
       },
     ]);
   });

@@ -29,7 +29,9 @@ describe('POST /api/auth/login', () => {
     const res = await request(app).post('/api/auth/login').send({ email, password });
 
     expect(res.status).toBe(200);
-    expect(res.body).toEqual({ user: { id: user.id, email, name: user.name, roles: ['designer', 'reviewer'], disabled: false, createdAt: user.createdAt } });
+    expect(res.body).toEqual({
+      user: { id: user.id, email, name: user.name, roles: ['designer', 'reviewer'], disabled: false, createdAt: user.createdAt },
+    });
     expect(res.body.user).not.toHaveProperty('passwordHash');
     const cookie = sessionCookie(res);
     expect(cookie).toMatch(/HttpOnly/);
@@ -40,7 +42,9 @@ describe('POST /api/auth/login', () => {
 
   it('when the e-mail differs only in case and spaces, then sign-in still works', async () => {
     const { email, password } = await createUser();
-    const res = await request(app).post('/api/auth/login').send({ email: `  ${email.toUpperCase()} `, password });
+    const res = await request(app)
+      .post('/api/auth/login')
+      .send({ email: `  ${email.toUpperCase()} `, password });
     expect(res.status).toBe(200);
   });
 
@@ -48,7 +52,9 @@ describe('POST /api/auth/login', () => {
     const { email } = await createUser();
 
     const wrongPassword = await request(app).post('/api/auth/login').send({ email, password: 'not-the-password' });
-    const unknownEmail = await request(app).post('/api/auth/login').send({ email: uniqueEmail('ghost'), password: 'not-the-password' });
+    const unknownEmail = await request(app)
+      .post('/api/auth/login')
+      .send({ email: uniqueEmail('ghost'), password: 'not-the-password' });
 
     expect(wrongPassword.status).toBe(401);
     expect(unknownEmail.status).toBe(401);
@@ -66,7 +72,9 @@ describe('POST /api/auth/login', () => {
 
   it('when an invited user has not set a password yet, then any password gets the generic 401', async () => {
     const { email } = await createUser({ password: null });
-    const res = await request(app).post('/api/auth/login').send({ email, password: '' + 'anything-at-all' });
+    const res = await request(app)
+      .post('/api/auth/login')
+      .send({ email, password: '' + 'anything-at-all' });
     expect(res.body).toEqual(INVALID);
   });
 });
@@ -77,7 +85,8 @@ describe('login rate limit', () => {
     const limit = getConfig().loginRateLimit;
 
     const failures = [];
-    for (let i = 0; i < limit; i += 1) failures.push((await request(app).post('/api/auth/login').send({ email, password: 'wrong-password' })).status);
+    for (let i = 0; i < limit; i += 1)
+      failures.push((await request(app).post('/api/auth/login').send({ email, password: 'wrong-password' })).status);
     const blocked = await request(app).post('/api/auth/login').send({ email, password });
 
     expect(failures).toEqual(Array(limit).fill(401));
@@ -90,7 +99,8 @@ describe('login rate limit', () => {
   it('when one e-mail is blocked, then another e-mail from the same address can still sign in', async () => {
     const blockedUser = await createUser();
     const other = await createUser();
-    for (let i = 0; i <= getConfig().loginRateLimit; i += 1) await request(app).post('/api/auth/login').send({ email: blockedUser.email, password: 'wrong-password' });
+    for (let i = 0; i <= getConfig().loginRateLimit; i += 1)
+      await request(app).post('/api/auth/login').send({ email: blockedUser.email, password: 'wrong-password' });
 
     const res = await request(app).post('/api/auth/login').send({ email: other.email, password: other.password });
 
@@ -100,7 +110,8 @@ describe('login rate limit', () => {
   it('when sign-ins succeed, then they do not count toward the limit', async () => {
     const { email, password } = await createUser();
     const statuses = [];
-    for (let i = 0; i < getConfig().loginRateLimit + 2; i += 1) statuses.push((await request(app).post('/api/auth/login').send({ email, password })).status);
+    for (let i = 0; i < getConfig().loginRateLimit + 2; i += 1)
+      statuses.push((await request(app).post('/api/auth/login').send({ email, password })).status);
     expect(statuses.every((s) => s === 200)).toBe(true);
   });
 
@@ -110,7 +121,10 @@ describe('login rate limit', () => {
     await request(app).post('/api/auth/login').send({ email, password: 'wrong-password' });
 
     const key = `login:${createHash('sha256').update(`127.0.0.1|${email}`).digest('hex')}`;
-    const rows = await getSequelize().query<{ hits: number }>('SELECT hits FROM rate_limit_hits WHERE `key` = ?', { replacements: [key], type: QueryTypes.SELECT });
+    const rows = await getSequelize().query<{ hits: number }>('SELECT hits FROM rate_limit_hits WHERE `key` = ?', {
+      replacements: [key],
+      type: QueryTypes.SELECT,
+    });
 
     expect(rows).toEqual([{ hits: 2 }]);
   });
@@ -147,7 +161,9 @@ describe('sessions: GET /api/auth/me and POST /api/auth/logout', () => {
     ['for a user that does not exist', () => jwt.sign({}, getConfig().jwtSecret, { subject: '2147483000', expiresIn: 600 })],
   ])('when the session cookie is %s, then /me is 401', async (_label, makeToken) => {
     const { user } = await createUser();
-    const res = await request(app).get('/api/auth/me').set('Cookie', `gw_session=${makeToken(user.id)}`);
+    const res = await request(app)
+      .get('/api/auth/me')
+      .set('Cookie', `gw_session=${makeToken(user.id)}`);
     expect(res.status).toBe(401);
   });
 
@@ -236,8 +252,12 @@ describe('password reset', () => {
   });
 
   it('when the token is unknown or the new password too short, then 400 names the problem', async () => {
-    const unknown = await request(app).post('/api/auth/reset').send({ token: 'A'.repeat(43), password: 'long-enough-password' });
-    const short = await request(app).post('/api/auth/reset').send({ token: 'A'.repeat(43), password: 'short' });
+    const unknown = await request(app)
+      .post('/api/auth/reset')
+      .send({ token: 'A'.repeat(43), password: 'long-enough-password' });
+    const short = await request(app)
+      .post('/api/auth/reset')
+      .send({ token: 'A'.repeat(43), password: 'short' });
     expect(unknown.status).toBe(400);
     expect(unknown.body.error.code).toBe('invalid_token');
     expect(short.status).toBe(400);

@@ -58,7 +58,13 @@ const ROUTES: Route[] = [
   { method: 'get', path: '/api/users', query: ['page', 'pageSize'] },
   { method: 'get', path: '/api/users/:id' },
   { method: 'post', path: '/api/users', body: 'json', fields: { email: 'string', name: 'string', roles: 'array' } },
-  { method: 'patch', path: '/api/users/:id', body: 'json', valid: { name: 'Nobody' }, fields: { name: 'string', roles: 'array', disabled: 'boolean' } },
+  {
+    method: 'patch',
+    path: '/api/users/:id',
+    body: 'json',
+    valid: { name: 'Nobody' },
+    fields: { name: 'string', roles: 'array', disabled: 'boolean' },
+  },
   // audit.routes.ts, outbox.routes.ts
   { method: 'get', path: '/api/audit', query: ['page', 'pageSize', 'entityId'] },
   { method: 'get', path: '/api/outbox', query: ['page', 'pageSize'] },
@@ -67,7 +73,13 @@ const ROUTES: Route[] = [
   { method: 'post', path: '/api/designs', body: 'json', fields: { template: 'string', name: 'string' } },
   { method: 'get', path: '/api/designs/:id' },
   { method: 'get', path: '/api/designs/:id/export' },
-  { method: 'patch', path: '/api/designs/:id', body: 'json', valid: { name: 'x', version: 1 }, fields: { inputs: 'design', name: 'string', version: 'number' } },
+  {
+    method: 'patch',
+    path: '/api/designs/:id',
+    body: 'json',
+    valid: { name: 'x', version: 1 },
+    fields: { inputs: 'design', name: 'string', version: 'number' },
+  },
   { method: 'delete', path: '/api/designs/:id' },
   // designFlow.routes.ts
   { method: 'post', path: '/api/designs/:id/submit', body: 'json', valid: {}, isBodyOptional: true, fields: { version: 'number' } },
@@ -85,8 +97,20 @@ const ROUTES: Route[] = [
     { method: 'post', path: `/api/parts/${shelf}`, body: 'json', fields: { name: 'string', pitchMm: 'number', note: 'string?null' } },
     { method: 'get', path: `/api/parts/${shelf}/:id` },
     { method: 'get', path: `/api/parts/${shelf.slice(0, -1)}/:id` },
-    { method: 'patch', path: `/api/parts/${shelf}/:id`, body: 'json', valid: { name: 'x' }, fields: { name: 'string', retired: 'boolean' } },
-    { method: 'patch', path: `/api/parts/${shelf.slice(0, -1)}/:id`, body: 'json', valid: { name: 'x' }, fields: { name: 'string', retired: 'boolean' } },
+    {
+      method: 'patch',
+      path: `/api/parts/${shelf}/:id`,
+      body: 'json',
+      valid: { name: 'x' },
+      fields: { name: 'string', retired: 'boolean' },
+    },
+    {
+      method: 'patch',
+      path: `/api/parts/${shelf.slice(0, -1)}/:id`,
+      body: 'json',
+      valid: { name: 'x' },
+      fields: { name: 'string', retired: 'boolean' },
+    },
   ]),
   // torqueCurves.routes.ts
   { method: 'post', path: '/api/parts/motors/:id/torque-curve', body: 'multipart' },
@@ -100,15 +124,35 @@ const ROUTES: Route[] = [
   { method: 'get', path: '/api/revisions/:id' },
   { method: 'get', path: '/api/revisions/:id/diff' },
   { method: 'get', path: '/api/revisions/:id/comments' },
-  { method: 'post', path: '/api/revisions/:id/comments', body: 'json', valid: { body: 'hello' }, fields: { body: 'string', parentId: 'number?null' } },
-  { method: 'post', path: '/api/revisions/:id/approve', body: 'json', valid: { comment: 'ok' }, isBodyOptional: true, fields: { comment: 'string' } },
+  {
+    method: 'post',
+    path: '/api/revisions/:id/comments',
+    body: 'json',
+    valid: { body: 'hello' },
+    fields: { body: 'string', parentId: 'number?null' },
+  },
+  {
+    method: 'post',
+    path: '/api/revisions/:id/approve',
+    body: 'json',
+    valid: { comment: 'ok' },
+    isBodyOptional: true,
+    fields: { comment: 'string' },
+  },
   { method: 'post', path: '/api/revisions/:id/return', body: 'json', valid: { reason: 'fix it' }, fields: { reason: 'string' } },
   // sheets.routes.ts
   { method: 'get', path: '/api/sheets', query: ['page', 'pageSize', 'designId', 'current'] },
   { method: 'get', path: '/api/sheets/:id' },
   { method: 'get', path: '/api/sheets/:id/pdf', query: ['paper'] },
   // measurements.routes.ts
-  { method: 'post', path: '/api/sheets/:id/measurements', body: 'both', checksTargetFirst: true, valid: { spanId: 'x', frequencyHz: 100 }, fields: { spanId: 'string', frequencyHz: 'formNumber' } },
+  {
+    method: 'post',
+    path: '/api/sheets/:id/measurements',
+    body: 'both',
+    checksTargetFirst: true,
+    valid: { spanId: 'x', frequencyHz: 100 },
+    fields: { spanId: 'string', frequencyHz: 'formNumber' },
+  },
   { method: 'get', path: '/api/sheets/:id/measurements', query: ['page', 'pageSize'] },
   { method: 'get', path: '/api/sheets/:id/measurements/:measurementId' },
   { method: 'get', path: '/api/sheets/:id/measurements/:measurementId/recording' },
@@ -128,7 +172,12 @@ function deepJunk(levels = 50): unknown {
 function wrongValues(type: string): unknown[] {
   const [base, nullable] = type.split('?');
   const all: Record<string, unknown> = {
-    string: 'not-what-you-want-12abc', number: 42.5, boolean: true, array: [1, 'two', null], object: { nested: { junk: [] } }, deep: deepJunk(),
+    string: 'not-what-you-want-12abc',
+    number: 42.5,
+    boolean: true,
+    array: [1, 'two', null],
+    object: { nested: { junk: [] } },
+    deep: deepJunk(),
   };
   const values = Object.entries(all)
     .filter(([k]) => k !== base && !(base === 'design' && k === 'object') && !(base === 'formNumber' && k === 'number'))
@@ -181,15 +230,19 @@ const idRoutes = ROUTES.filter((r) => r.path.includes(':id'));
 const bodyRoutes = ROUTES.filter((r) => r.body === 'json' || r.body === 'both');
 
 describe('ids in the path', () => {
-  it.each(idRoutes.flatMap((r) => BAD_IDS.map((id) => [label(r), id, r] as const)))('when %s gets id %s, then 400 names the id', async (_l, id, r) => {
-    const res = await send(admin, r, withIds(r.path, id, '1'), r.valid);
-    const error = expectClientError(res, `${label(r)} id=${id}`, [400]);
-    expect(error.code).toBe('validation_failed');
-    expect((error.details as { path: string }[]).map((d) => d.path)).toContain('id');
-  });
+  it.each(idRoutes.flatMap((r) => BAD_IDS.map((id) => [label(r), id, r] as const)))(
+    'when %s gets id %s, then 400 names the id',
+    async (_l, id, r) => {
+      const res = await send(admin, r, withIds(r.path, id, '1'), r.valid);
+      const error = expectClientError(res, `${label(r)} id=${id}`, [400]);
+      expect(error.code).toBe('validation_failed');
+      expect((error.details as { path: string }[]).map((d) => d.path)).toContain('id');
+    },
+  );
 
   it.each(idRoutes.filter((r) => r.path.includes(':measurementId')).flatMap((r) => BAD_IDS.map((id) => [label(r), id, r] as const)))(
-    'when %s gets measurement id %s, then 400 names measurementId', async (_l, id, r) => {
+    'when %s gets measurement id %s, then 400 names measurementId',
+    async (_l, id, r) => {
       const res = await send(admin, r, withIds(r.path, String(sheetId), id));
       const error = expectClientError(res, `${label(r)} measurementId=${id}`, [400]);
       expect((error.details as { path: string }[]).map((d) => d.path)).toContain('measurementId');
@@ -202,7 +255,8 @@ describe('ids in the path', () => {
   });
 
   it.each(idRoutes.filter((r) => r.path.includes(':measurementId')).map((r) => [label(r), r] as const))(
-    'when %s names a real sheet but an unknown measurement, then 404', async (_l, r) => {
+    'when %s names a real sheet but an unknown measurement, then 404',
+    async (_l, r) => {
       const res = await send(admin, r, withIds(r.path, String(sheetId), UNKNOWN_ID));
       expectClientError(res, `${label(r)} unknown measurement`, [404]);
     },
@@ -213,28 +267,35 @@ describe('JSON bodies', () => {
   // An unknown id: an id route validates its body before it looks the id up, and nothing can change by mistake.
   const target = (r: Route) => withIds(r.path, r.checksTargetFirst ? String(sheetId) : UNKNOWN_ID);
 
-  it.each(bodyRoutes.flatMap((r) => Object.entries(r.fields ?? {}).flatMap(([field, type]) =>
-    wrongValues(type).map((value, i) => [label(r), field, i, r, value] as const))))(
-    'when %s gets a wrong type for %s (#%i), then 4xx and never 5xx', async (_l, field, _i, r, value) => {
-      const res = await send(admin, r, target(r), { ...(r.valid ?? {}), [field]: value });
-      const error = expectClientError(res, `${label(r)} ${field}=${JSON.stringify(value).slice(0, 40)}`);
-      expect(error.code).toBe('validation_failed');
-      expect((error.details as { path: string }[]).some((d) => d.path === field || d.path.startsWith(`${field}.`))).toBe(true);
-    },
-  );
+  it.each(
+    bodyRoutes.flatMap((r) =>
+      Object.entries(r.fields ?? {}).flatMap(([field, type]) =>
+        wrongValues(type).map((value, i) => [label(r), field, i, r, value] as const),
+      ),
+    ),
+  )('when %s gets a wrong type for %s (#%i), then 4xx and never 5xx', async (_l, field, _i, r, value) => {
+    const res = await send(admin, r, target(r), { ...(r.valid ?? {}), [field]: value });
+    const error = expectClientError(res, `${label(r)} ${field}=${JSON.stringify(value).slice(0, 40)}`);
+    expect(error.code).toBe('validation_failed');
+    expect((error.details as { path: string }[]).some((d) => d.path === field || d.path.startsWith(`${field}.`))).toBe(true);
+  });
 
   const shapes: [string, unknown][] = [
     ['an array', [{ a: 1 }]],
     ['an extra unknown field', { ...designDoc, unexpectedField: 1, __proto__x: { polluted: true } }],
     ['deeply nested junk', { junk: deepJunk(500) }],
   ];
-  it.each(bodyRoutes.flatMap((r) => shapes.map(([what, body]) => [label(r), what, r, body] as const)))('when %s gets %s, then 400', async (_l, _what, r, body) => {
-    const res = await send(admin, r, target(r), Array.isArray(body) ? body : { ...(r.valid ?? {}), ...(body as object) });
-    expectClientError(res, `${label(r)} ${_what}`, [400]);
-  });
+  it.each(bodyRoutes.flatMap((r) => shapes.map(([what, body]) => [label(r), what, r, body] as const)))(
+    'when %s gets %s, then 400',
+    async (_l, _what, r, body) => {
+      const res = await send(admin, r, target(r), Array.isArray(body) ? body : { ...(r.valid ?? {}), ...(body as object) });
+      expectClientError(res, `${label(r)} ${_what}`, [400]);
+    },
+  );
 
   it.each(bodyRoutes.filter((r) => !r.isBodyOptional).map((r) => [label(r), r] as const))(
-    'when %s gets an empty body, then 400 validation_failed', async (_l, r) => {
+    'when %s gets an empty body, then 400 validation_failed',
+    async (_l, r) => {
       const empty = await send(admin, r, target(r));
       const emptyObject = await send(admin, r, target(r), {});
       expect(expectClientError(empty, `${label(r)} no body`, [400]).code).toBe('validation_failed');
@@ -242,22 +303,31 @@ describe('JSON bodies', () => {
     },
   );
 
-  it.each(bodyRoutes.map((r) => [label(r), r] as const))('when %s gets JSON null, a bare string or broken JSON, then 400 invalid_json', async (_l, r) => {
-    for (const raw of ['null', '"text"', '12', '{"a": ', '{"a":1}}']) {
-      const res = await admin[r.method](target(r)).set('Content-Type', 'application/json').send(raw);
-      expect(expectClientError(res, `${label(r)} raw ${raw}`, [400]).code).toBe('invalid_json');
-    }
-  });
+  it.each(bodyRoutes.map((r) => [label(r), r] as const))(
+    'when %s gets JSON null, a bare string or broken JSON, then 400 invalid_json',
+    async (_l, r) => {
+      for (const raw of ['null', '"text"', '12', '{"a": ', '{"a":1}}']) {
+        const res = await admin[r.method](target(r)).set('Content-Type', 'application/json').send(raw);
+        expect(expectClientError(res, `${label(r)} raw ${raw}`, [400]).code).toBe('invalid_json');
+      }
+    },
+  );
 
-  it.each(bodyRoutes.filter((r) => r.body === 'json').map((r) => [label(r), r] as const))('when %s gets text/plain, then 415', async (_l, r) => {
-    const res = await admin[r.method](target(r)).set('Content-Type', 'text/plain').send('email=a&name=b');
-    expectClientError(res, `${label(r)} text/plain`, [415]);
-  });
+  it.each(bodyRoutes.filter((r) => r.body === 'json').map((r) => [label(r), r] as const))(
+    'when %s gets text/plain, then 415',
+    async (_l, r) => {
+      const res = await admin[r.method](target(r)).set('Content-Type', 'text/plain').send('email=a&name=b');
+      expectClientError(res, `${label(r)} text/plain`, [415]);
+    },
+  );
 
-  it.each(bodyRoutes.filter((r) => r.body === 'json').map((r) => [label(r), r] as const))('when %s gets a multipart form, then 4xx', async (_l, r) => {
-    const res = await admin[r.method](target(r)).field('name', 'x').attach('file', Buffer.from('hello'), 'a.txt');
-    expectClientError(res, `${label(r)} multipart`, [400, 404, 415]);
-  });
+  it.each(bodyRoutes.filter((r) => r.body === 'json').map((r) => [label(r), r] as const))(
+    'when %s gets a multipart form, then 4xx',
+    async (_l, r) => {
+      const res = await admin[r.method](target(r)).field('name', 'x').attach('file', Buffer.from('hello'), 'a.txt');
+      expectClientError(res, `${label(r)} multipart`, [400, 404, 415]);
+    },
+  );
 });
 
 describe('extreme values on real records', () => {
@@ -339,13 +409,16 @@ describe('multipart routes', () => {
   const multipart = ROUTES.filter((r) => r.body === 'multipart' || r.body === 'both');
   const realTarget = (r: Route) => withIds(r.path, String(r.path.startsWith('/api/sheets') ? sheetId : designId));
 
-  it.each(multipart.map((r) => [label(r), r] as const))('when %s gets JSON junk instead of a form, then 400 naming the field', async (_l, r) => {
-    for (const body of [{}, { file: 'not a file' }, { spanId: ['x'], frequencyHz: 'abc' }, [1, 2]]) {
-      const res = await send(admin, r, realTarget(r), body);
-      const error = expectClientError(res, `${label(r)} JSON ${JSON.stringify(body)}`, [400, 404]);
-      if (error.code === 'validation_failed') expect((error.details as unknown[]).length).toBeGreaterThan(0);
-    }
-  });
+  it.each(multipart.map((r) => [label(r), r] as const))(
+    'when %s gets JSON junk instead of a form, then 400 naming the field',
+    async (_l, r) => {
+      for (const body of [{}, { file: 'not a file' }, { spanId: ['x'], frequencyHz: 'abc' }, [1, 2]]) {
+        const res = await send(admin, r, realTarget(r), body);
+        const error = expectClientError(res, `${label(r)} JSON ${JSON.stringify(body)}`, [400, 404]);
+        if (error.code === 'validation_failed') expect((error.details as unknown[]).length).toBeGreaterThan(0);
+      }
+    },
+  );
 
   it.each(multipart.map((r) => [label(r), r] as const))('when %s gets text/plain, then 415', async (_l, r) => {
     const res = await admin.post(realTarget(r)).set('Content-Type', 'text/plain').send('hello');
@@ -376,29 +449,39 @@ describe('query parameters', () => {
   };
 
   it.each(lists.flatMap((r) => r.query!.flatMap((q) => (BAD[q] ?? []).map((v) => [label(r), q, v, r] as const))))(
-    'when %s gets %s=%s, then 400 names the parameter', async (_l, q, v, r) => {
+    'when %s gets %s=%s, then 400 names the parameter',
+    async (_l, q, v, r) => {
       const res = await admin.get(`${listPath(r)}?${q}=${encodeURIComponent(v)}`);
       const error = expectClientError(res, `${label(r)} ${q}=${v}`, [400]);
       expect((error.details as { path: string }[]).map((d) => d.path)).toContain(q);
     },
   );
 
-  it.each(lists.filter((r) => r.query!.includes('page')).map((r) => [label(r), r] as const))('when %s gets page twice, then 400', async (_l, r) => {
-    const res = await admin.get(`${listPath(r)}?page=1&page=2`);
-    expectClientError(res, `${label(r)} page twice`, [400]);
-  });
+  it.each(lists.filter((r) => r.query!.includes('page')).map((r) => [label(r), r] as const))(
+    'when %s gets page twice, then 400',
+    async (_l, r) => {
+      const res = await admin.get(`${listPath(r)}?page=1&page=2`);
+      expectClientError(res, `${label(r)} page twice`, [400]);
+    },
+  );
 });
 
 describe('signed out', () => {
-  it.each(ROUTES.filter((r) => !r.isPublic).map((r) => [label(r), r] as const))('when nobody is signed in, %s answers 401 JSON', async (_l, r) => {
-    const res = await send(request.agent(app), r, withIds(r.path, 'abc'), { junk: [1] });
-    expect(expectClientError(res, `${label(r)} anonymous`, [401]).code).toBe('unauthenticated');
-  });
+  it.each(ROUTES.filter((r) => !r.isPublic).map((r) => [label(r), r] as const))(
+    'when nobody is signed in, %s answers 401 JSON',
+    async (_l, r) => {
+      const res = await send(request.agent(app), r, withIds(r.path, 'abc'), { junk: [1] });
+      expect(expectClientError(res, `${label(r)} anonymous`, [401]).code).toBe('unauthenticated');
+    },
+  );
 
-  it.each(ROUTES.filter((r) => r.isPublic && r.fields).map((r) => [label(r), r] as const))('when nobody is signed in, %s still validates', async (_l, r) => {
-    const res = await send(request.agent(app), r, r.path, { junk: [1] });
-    expect(expectClientError(res, `${label(r)} anonymous junk`, [400]).code).toBe('validation_failed');
-  });
+  it.each(ROUTES.filter((r) => r.isPublic && r.fields).map((r) => [label(r), r] as const))(
+    'when nobody is signed in, %s still validates',
+    async (_l, r) => {
+      const res = await send(request.agent(app), r, r.path, { junk: [1] });
+      expect(expectClientError(res, `${label(r)} anonymous junk`, [400]).code).toBe('validation_failed');
+    },
+  );
 });
 
 describe('saved data stays', () => {

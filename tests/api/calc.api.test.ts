@@ -26,19 +26,24 @@ function design(edit: (d: DesignInput) => DesignInput = (d) => d): DesignInput {
 }
 
 describe('POST /api/calc', () => {
-  it.each(['admin', 'designer', 'reviewer', 'maker', 'none'] as Who[])('when a signed-in %s user posts a design, then 200 with the engine result', async (who) => {
-    const doc = design((d) => ({ ...d, frame: { ...d.frame, outerXMm: 520 } }));
+  it.each(['admin', 'designer', 'reviewer', 'maker', 'none'] as Who[])(
+    'when a signed-in %s user posts a design, then 200 with the engine result',
+    async (who) => {
+      const doc = design((d) => ({ ...d, frame: { ...d.frame, outerXMm: 520 } }));
 
-    const res = await agents[who].post('/api/calc').send({ design: doc });
+      const res = await agents[who].post('/api/calc').send({ design: doc });
 
-    expect(res.status).toBe(200);
-    expect(res.body).toEqual(overJson(evaluateDesign(doc)));
-    expect(res.body.engineVersion).toBe(ENGINE_VERSION);
-  });
+      expect(res.status).toBe(200);
+      expect(res.body).toEqual(overJson(evaluateDesign(doc)));
+      expect(res.body.engineVersion).toBe(ENGINE_VERSION);
+    },
+  );
 
   it('when the inputs change, then the result changes with them (not a cached answer)', async () => {
     const small = await agents.maker.post('/api/calc').send({ design: design() });
-    const teeth32 = await agents.maker.post('/api/calc').send({ design: design((d) => ({ ...d, pulley: { ...d.pulley, driveTeeth: 32 } })) });
+    const teeth32 = await agents.maker
+      .post('/api/calc')
+      .send({ design: design((d) => ({ ...d, pulley: { ...d.pulley, driveTeeth: 32 } })) });
 
     // steps/mm = full steps per rev × microsteps / (teeth × pitch): 200 × 16 / (20 × 2) = 80, and 50 with 32 teeth.
     expect(small.body.drive.stepsPerMm).toBeCloseTo(80, 9);
@@ -59,9 +64,17 @@ describe('POST /api/calc', () => {
   });
 
   it.each([
-    { what: 'microsteps 3', body: { design: design((d) => ({ ...d, driver: { ...d.driver, microsteps: 3 } })) }, paths: ['design.driver.microsteps'] },
+    {
+      what: 'microsteps 3',
+      body: { design: design((d) => ({ ...d, driver: { ...d.driver, microsteps: 3 } })) },
+      paths: ['design.driver.microsteps'],
+    },
     { what: 'an unknown field', body: { design: { ...design(), colour: 'blue' } }, paths: ['design.colour'] },
-    { what: 'a negative belt pitch', body: { design: design((d) => ({ ...d, belt: { ...d.belt, pitchMm: -2 } })) }, paths: ['design.belt.pitchMm'] },
+    {
+      what: 'a negative belt pitch',
+      body: { design: design((d) => ({ ...d, belt: { ...d.belt, pitchMm: -2 } })) },
+      paths: ['design.belt.pitchMm'],
+    },
     { what: 'no design', body: {}, paths: ['design'] },
     { what: 'a design that is not an object', body: { design: 'corexy' }, paths: ['design'] },
     { what: 'an extra body field', body: { design: design(), verbose: true }, paths: ['verbose'] },
@@ -91,7 +104,9 @@ describe('POST /api/calc/compare', () => {
 
   it('when not signed in, then 401; when invalid, then 400 naming the field', async () => {
     const anonymous = await request(app).post('/api/calc/compare').send({ design: design() });
-    const invalid = await agents.designer.post('/api/calc/compare').send({ design: design((d) => ({ ...d, masses: { ...d.masses, carriageKg: -1 } })) });
+    const invalid = await agents.designer
+      .post('/api/calc/compare')
+      .send({ design: design((d) => ({ ...d, masses: { ...d.masses, carriageKg: -1 } })) });
 
     expect(anonymous.status).toBe(401);
     expect(invalid.status).toBe(400);
@@ -147,7 +162,9 @@ describe('POST /api/calc/sweep', () => {
   });
 
   it('when not signed in, then 401', async () => {
-    const res = await request(app).post('/api/calc/sweep').send({ design: design(), path: 'pulley.driveTeeth', values: [20] });
+    const res = await request(app)
+      .post('/api/calc/sweep')
+      .send({ design: design(), path: 'pulley.driveTeeth', values: [20] });
     expect(res.status).toBe(401);
   });
 });

@@ -17,7 +17,11 @@ const users = {} as Record<Exclude<Who, 'anonymous'>, PublicUser>;
 
 beforeAll(async () => {
   const roles: Record<Exclude<Who, 'anonymous'>, Role[]> = {
-    owner: ['designer'], otherDesigner: ['designer'], admin: ['admin'], reviewer: ['reviewer'], maker: ['maker'],
+    owner: ['designer'],
+    otherDesigner: ['designer'],
+    admin: ['admin'],
+    reviewer: ['reviewer'],
+    maker: ['maker'],
   };
   for (const who of Object.keys(roles) as Array<Exclude<Who, 'anonymous'>>) {
     const signed = await signedInAs(app, roles[who]);
@@ -69,7 +73,9 @@ describe('role matrix for /api/designs', () => {
       expected: { owner: 204, otherDesigner: 403, admin: 204, reviewer: 403, maker: 403, anonymous: 401 },
     },
   ];
-  const cases = ROUTES.flatMap((route) => (Object.keys(route.expected) as Who[]).map((who) => ({ route, who, status: route.expected[who] })));
+  const cases = ROUTES.flatMap((route) =>
+    (Object.keys(route.expected) as Who[]).map((who) => ({ route, who, status: route.expected[who] })),
+  );
 
   it.each(cases)('when $who calls $route.name on a draft of the owner, then $status', async ({ route, who, status }) => {
     const design = await createDesign({ owner: users.owner });
@@ -104,8 +110,14 @@ describe('POST /api/designs', () => {
 
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({
-      name: doc.name, mechanism: 'corexy', status: 'draft', version: 1,
-      owner: { id: users.owner.id, name: users.owner.name }, inputs: doc, canEdit: true, canDelete: true,
+      name: doc.name,
+      mechanism: 'corexy',
+      status: 'draft',
+      version: 1,
+      owner: { id: users.owner.id, name: users.owner.name },
+      inputs: doc,
+      canEdit: true,
+      canDelete: true,
     });
     expect(got.status).toBe(200);
     expect(got.body.inputs).toEqual(doc);
@@ -142,15 +154,18 @@ describe('POST /api/designs', () => {
     expect(res.body.inputs).toMatchObject({ frictionN: { x: 0, y: 0 }, map: { points: 41 }, toolMount: null, ringingToleranceMm: 0.02 });
   });
 
-  it.each(['corexy', 'hbot', 'cartesian'] as const)('when created from the %s template with a name, then the inputs are the template under that name', async (mechanism) => {
-    const name = `From template ${uniqueTag()}`;
+  it.each(['corexy', 'hbot', 'cartesian'] as const)(
+    'when created from the %s template with a name, then the inputs are the template under that name',
+    async (mechanism) => {
+      const name = `From template ${uniqueTag()}`;
 
-    const res = await agents.owner.post('/api/designs').send({ template: mechanism, name });
+      const res = await agents.owner.post('/api/designs').send({ template: mechanism, name });
 
-    expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ name, mechanism, status: 'draft', version: 1 });
-    expect(res.body.inputs).toEqual({ ...defaultDesign(mechanism), name });
-  });
+      expect(res.status).toBe(201);
+      expect(res.body).toMatchObject({ name, mechanism, status: 'draft', version: 1 });
+      expect(res.body.inputs).toEqual({ ...defaultDesign(mechanism), name });
+    },
+  );
 
   it('when created from a template without a name, then the template name is used', async () => {
     const res = await agents.owner.post('/api/designs').send({ template: 'hbot' });
@@ -166,7 +181,11 @@ describe('POST /api/designs', () => {
 
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({
-      name: `Copy of ${source.name}`, mechanism: 'hbot', status: 'draft', version: 1, owner: { id: users.otherDesigner.id },
+      name: `Copy of ${source.name}`,
+      mechanism: 'hbot',
+      status: 'draft',
+      version: 1,
+      owner: { id: users.otherDesigner.id },
     });
     expect(res.body.id).not.toBe(source.id);
     expect(res.body.inputs).toEqual({ ...source.inputs, name: `Copy of ${source.name}` });
@@ -211,7 +230,7 @@ describe('POST /api/designs validation', () => {
     expect(listed.body.total).toBe(0);
   });
 
-  it('when microsteps is 3, then 400 at driver.microsteps with the form\'s message', async () => {
+  it("when microsteps is 3, then 400 at driver.microsteps with the form's message", async () => {
     const doc = documentNamed('Bad microsteps');
     doc.driver.microsteps = 3;
 
@@ -259,11 +278,17 @@ describe('GET /api/designs/:id', () => {
 
     expect(res.status).toBe(200);
     expect(res.body).toEqual({
-      id: design.id, name: design.name, mechanism: 'cartesian', status: 'draft',
+      id: design.id,
+      name: design.name,
+      mechanism: 'cartesian',
+      status: 'draft',
       owner: { id: users.owner.id, name: users.owner.name },
       travel: { xMm: expect.any(Number), yMm: expect.any(Number) },
-      version: 1, updatedAt: expect.any(String), createdAt: expect.any(String),
-      canEdit: false, canDelete: false,
+      version: 1,
+      updatedAt: expect.any(String),
+      createdAt: expect.any(String),
+      canEdit: false,
+      canDelete: false,
       inputs: design.inputs,
       updatedBy: { id: users.owner.id, name: users.owner.name },
       latestResultSummary: expect.objectContaining({ engineVersion: expect.any(String) }),
@@ -316,7 +341,7 @@ describe('PATCH /api/designs/:id', () => {
     expect((await storedDesign(design.id))?.mechanism).toBe('hbot');
   });
 
-  it('when an admin edits another user\'s draft, then it saves and records the admin as last editor', async () => {
+  it("when an admin edits another user's draft, then it saves and records the admin as last editor", async () => {
     const design = await createDesign({ owner: users.owner });
 
     const res = await agents.admin.patch(`/api/designs/${design.id}`).send({ name: 'Fixed by admin', version: 1 });
@@ -336,7 +361,9 @@ describe('PATCH /api/designs/:id', () => {
     expect(second.status).toBe(409);
     expect(second.body.error.code).toBe('version_conflict');
     expect(second.body.error.details).toEqual({
-      currentVersion: 2, updatedBy: { id: users.owner.id, name: users.owner.name }, updatedAt: got.body.updatedAt,
+      currentVersion: 2,
+      updatedBy: { id: users.owner.id, name: users.owner.name },
+      updatedAt: got.body.updatedAt,
     });
     expect(got.body).toMatchObject({ name: 'First save', version: 2 });
   });
@@ -344,7 +371,9 @@ describe('PATCH /api/designs/:id', () => {
   it('when saves race with the same version, then exactly one wins', async () => {
     const design = await createDesign({ owner: users.owner });
 
-    const results = await Promise.all([1, 2, 3, 4].map((n) => agents.owner.patch(`/api/designs/${design.id}`).send({ name: `Racer ${n}`, version: 1 })));
+    const results = await Promise.all(
+      [1, 2, 3, 4].map((n) => agents.owner.patch(`/api/designs/${design.id}`).send({ name: `Racer ${n}`, version: 1 })),
+    );
     const got = await agents.owner.get(`/api/designs/${design.id}`);
 
     const statuses = results.map((r) => r.status).sort();
@@ -360,19 +389,22 @@ describe('PATCH /api/designs/:id', () => {
     expect(res.body.error.details.currentVersion).toBe(1);
   });
 
-  it.each(['in_review', 'approved'] as DesignStatus[])('when the design is %s, then 409 not_editable and nothing changes', async (status) => {
-    const design = await createDesign({ owner: users.owner, name: 'Frozen one' });
-    await Design.update({ status }, { where: { id: design.id } });
+  it.each(['in_review', 'approved'] as DesignStatus[])(
+    'when the design is %s, then 409 not_editable and nothing changes',
+    async (status) => {
+      const design = await createDesign({ owner: users.owner, name: 'Frozen one' });
+      await Design.update({ status }, { where: { id: design.id } });
 
-    const byOwner = await agents.owner.patch(`/api/designs/${design.id}`).send({ name: 'Thawed', version: 1 });
-    const byAdmin = await agents.admin.patch(`/api/designs/${design.id}`).send({ name: 'Thawed', version: 1 });
-    const got = await agents.owner.get(`/api/designs/${design.id}`);
+      const byOwner = await agents.owner.patch(`/api/designs/${design.id}`).send({ name: 'Thawed', version: 1 });
+      const byAdmin = await agents.admin.patch(`/api/designs/${design.id}`).send({ name: 'Thawed', version: 1 });
+      const got = await agents.owner.get(`/api/designs/${design.id}`);
 
-    expect(byOwner.status).toBe(409);
-    expect(byOwner.body.error.code).toBe('not_editable');
-    expect(byAdmin.status).toBe(409);
-    expect(got.body).toMatchObject({ name: 'Frozen one', version: 1, status, canEdit: false });
-  });
+      expect(byOwner.status).toBe(409);
+      expect(byOwner.body.error.code).toBe('not_editable');
+      expect(byAdmin.status).toBe(409);
+      expect(got.body).toMatchObject({ name: 'Frozen one', version: 1, status, canEdit: false });
+    },
+  );
 
   it('when the design was returned, then its owner may edit it again', async () => {
     const design = await createDesign({ owner: users.owner, status: 'returned' });
@@ -388,7 +420,10 @@ describe('PATCH /api/designs/:id', () => {
     const res = await agents.owner.patch(`/api/designs/${design.id}`).send({ inputs, version: 1 });
 
     expect(res.status).toBe(400);
-    expect((res.body.error.details as Array<{ path: string }>).map((d) => d.path).sort()).toEqual(['inputs.belt.widthMm', 'inputs.driver.microsteps']);
+    expect((res.body.error.details as Array<{ path: string }>).map((d) => d.path).sort()).toEqual([
+      'inputs.belt.widthMm',
+      'inputs.driver.microsteps',
+    ]);
     expect((await storedDesign(design.id))?.version).toBe(1);
   });
 
@@ -424,17 +459,20 @@ describe('DELETE /api/designs/:id', () => {
     expect(audit).toMatchObject({ actorId: users.owner.id, fromState: 'draft' });
   });
 
-  it.each(['in_review', 'approved'] as DesignStatus[])('when the design is %s, then 409 for owner and admin and it stays', async (status) => {
-    const design = await createDesign({ owner: users.owner, status });
+  it.each(['in_review', 'approved'] as DesignStatus[])(
+    'when the design is %s, then 409 for owner and admin and it stays',
+    async (status) => {
+      const design = await createDesign({ owner: users.owner, status });
 
-    const byOwner = await agents.owner.delete(`/api/designs/${design.id}`);
-    const byAdmin = await agents.admin.delete(`/api/designs/${design.id}`);
+      const byOwner = await agents.owner.delete(`/api/designs/${design.id}`);
+      const byAdmin = await agents.admin.delete(`/api/designs/${design.id}`);
 
-    expect(byOwner.status).toBe(409);
-    expect(byOwner.body.error.code).toBe('not_deletable');
-    expect(byAdmin.status).toBe(409);
-    expect(await storedDesign(design.id)).not.toBeNull();
-  });
+      expect(byOwner.status).toBe(409);
+      expect(byOwner.body.error.code).toBe('not_deletable');
+      expect(byAdmin.status).toBe(409);
+      expect(await storedDesign(design.id)).not.toBeNull();
+    },
+  );
 
   it('when the design does not exist, then 404', async () => {
     const res = await agents.admin.delete('/api/designs/2147483000');
@@ -478,12 +516,21 @@ describe('GET /api/designs (list)', () => {
 
     const res = await agents.maker.get(`/api/designs?q=${tag}`);
 
-    expect(res.body.items).toEqual([{
-      id: design.id, name: design.name, mechanism: 'hbot', status: 'draft',
-      owner: { id: users.owner.id, name: users.owner.name },
-      travel: { xMm: expect.any(Number), yMm: expect.any(Number) },
-      version: 1, updatedAt: expect.any(String), createdAt: expect.any(String), canEdit: false, canDelete: false,
-    }]);
+    expect(res.body.items).toEqual([
+      {
+        id: design.id,
+        name: design.name,
+        mechanism: 'hbot',
+        status: 'draft',
+        owner: { id: users.owner.id, name: users.owner.name },
+        travel: { xMm: expect.any(Number), yMm: expect.any(Number) },
+        version: 1,
+        updatedAt: expect.any(String),
+        createdAt: expect.any(String),
+        canEdit: false,
+        canDelete: false,
+      },
+    ]);
     expect(res.body.items[0].travel.xMm).toBeGreaterThan(0);
   });
 
@@ -538,8 +585,9 @@ describe('GET /api/designs (list)', () => {
     const desc = await agents.owner.get(`/api/designs?q=${tag}&sort=-owner`);
 
     const ownerNames = (res: request.Response) => (res.body.items as Array<{ owner: { name: string } }>).map((i) => i.owner.name);
-    const sortedNames = [users.owner.name, users.owner.name, users.owner.name, users.otherDesigner.name, users.otherDesigner.name]
-      .sort((a, b) => a.localeCompare(b));
+    const sortedNames = [users.owner.name, users.owner.name, users.owner.name, users.otherDesigner.name, users.otherDesigner.name].sort(
+      (a, b) => a.localeCompare(b),
+    );
     expect(ownerNames(asc)).toEqual(sortedNames);
     expect(ownerNames(desc)).toEqual([...sortedNames].reverse());
   });
@@ -594,7 +642,9 @@ describe('GET /api/designs (list)', () => {
 describe('export and import', () => {
   it('when exported, then the design document downloads as an attachment and imports back as a new draft', async () => {
     const design = await createDesign({
-      owner: users.owner, name: 'Bench dispensing stage (rev B)', mechanism: 'corexy',
+      owner: users.owner,
+      name: 'Bench dispensing stage (rev B)',
+      mechanism: 'corexy',
       edit: (doc) => ({ ...doc, frame: { ...doc.frame, outerXMm: 505 }, driver: { ...doc.driver, microsteps: 32 } }),
     });
 

@@ -13,12 +13,17 @@ beforeAll(async () => {
 afterAll(() => closeSequelize());
 
 describe('unknown routes', () => {
-  it.each(['get', 'post', 'patch', 'delete'] as const)('when %s goes to an unknown /api path, then 404 JSON names the route', async (method) => {
-    const res = await request(app)[method]('/api/no-such-thing/42');
-    expect(res.status).toBe(404);
-    expect(res.headers['content-type']).toMatch(/application\/json/);
-    expect(res.body).toEqual({ error: { code: 'not_found', message: `No API route for ${method.toUpperCase()} /api/no-such-thing/42.` } });
-  });
+  it.each(['get', 'post', 'patch', 'delete'] as const)(
+    'when %s goes to an unknown /api path, then 404 JSON names the route',
+    async (method) => {
+      const res = await request(app)[method]('/api/no-such-thing/42');
+      expect(res.status).toBe(404);
+      expect(res.headers['content-type']).toMatch(/application\/json/);
+      expect(res.body).toEqual({
+        error: { code: 'not_found', message: `No API route for ${method.toUpperCase()} /api/no-such-thing/42.` },
+      });
+    },
+  );
 
   it('when a missing static file is requested, then 404 JSON, not the app shell', async () => {
     const res = await request(app).get('/assets/no-such-file.js');

@@ -69,7 +69,16 @@ describe('POST /api/sheets/:id/measurements (typed)', () => {
     const list = await agents.designer.get(`/api/sheets/${corexy.sheetId}/measurements`);
     // Assert
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ sheetId: corexy.sheetId, spanId: span.id, beltId: 'A', source: 'typed', confidence: null, spectrum: null, recording: null, frequencyHz });
+    expect(res.body).toMatchObject({
+      sheetId: corexy.sheetId,
+      spanId: span.id,
+      beltId: 'A',
+      source: 'typed',
+      confidence: null,
+      spectrum: null,
+      recording: null,
+      frequencyHz,
+    });
     expect(res.body.spanLengthMm).toBeCloseTo(span.lengthMm, 9);
     expect(res.body.tensionN).toBeCloseTo(stringLawN(mu, span.lengthMm, frequencyHz), 9);
     expect(res.body.targetFrequencyHz).toBeCloseTo(span.targetFrequencyHz, 9);
@@ -100,10 +109,23 @@ describe('POST /api/sheets/:id/measurements (recording)', () => {
     // Arrange
     const span = spanOf(corexy.result, corexy.result.belts[0].spans.find((s) => !s.fixedLength)!.id);
     const f0 = Number((span.targetFrequencyHz * 1.03).toFixed(2));
-    const wav = synthWav({ sampleRateHz: 16000, durationS: 2, pluck: typicalPluck(f0), hum: [[50, 0.02], [100, 0.01]], noiseRms: 0.005, seed: 11 });
+    const wav = synthWav({
+      sampleRateHz: 16000,
+      durationS: 2,
+      pluck: typicalPluck(f0),
+      hum: [
+        [50, 0.02],
+        [100, 0.01],
+      ],
+      noiseRms: 0.005,
+      seed: 11,
+    });
     const before = storedFiles().length;
     // Act
-    const res = await agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).field('spanId', span.id).attach('file', wav, { filename: 'pluck.wav', contentType: 'audio/wav' });
+    const res = await agents.maker
+      .post(`/api/sheets/${corexy.sheetId}/measurements`)
+      .field('spanId', span.id)
+      .attach('file', wav, { filename: 'pluck.wav', contentType: 'audio/wav' });
     // Assert
     expect(res.status).toBe(201);
     expect(res.body.source).toBe('recording');
@@ -122,11 +144,14 @@ describe('POST /api/sheets/:id/measurements (recording)', () => {
     const one = await agents.reviewer.get(`/api/sheets/${corexy.sheetId}/measurements/${res.body.id}`);
     expect(one.status).toBe(200);
     expect(one.body.spectrum).toEqual(res.body.spectrum);
-    const audio = await agents.maker.get(`/api/sheets/${corexy.sheetId}/measurements/${res.body.id}/recording`).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const audio = await agents.maker
+      .get(`/api/sheets/${corexy.sheetId}/measurements/${res.body.id}/recording`)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(audio.status).toBe(200);
     expect(audio.headers['content-type']).toBe('audio/wav');
     expect(sha256(audio.body as Buffer)).toBe(sha256(wav));
@@ -135,8 +160,17 @@ describe('POST /api/sheets/:id/measurements (recording)', () => {
   it('when the second harmonic is louder than the fundamental, then the fundamental is still reported', async () => {
     const span = spanOf(corexy.result, corexy.result.belts[1].spans.find((s) => !s.fixedLength)!.id);
     const f0 = Number(span.targetFrequencyHz.toFixed(1));
-    const wav = synthWav({ sampleRateHz: 22050, durationS: 1.5, pluck: typicalPluck(f0, { harmonicAmplitudes: [0.2, 0.6, 0.15, 0.05] }), noiseRms: 0.003, seed: 5 });
-    const res = await agents.admin.post(`/api/sheets/${corexy.sheetId}/measurements`).field('spanId', span.id).attach('file', wav, 'pluck-b.wav');
+    const wav = synthWav({
+      sampleRateHz: 22050,
+      durationS: 1.5,
+      pluck: typicalPluck(f0, { harmonicAmplitudes: [0.2, 0.6, 0.15, 0.05] }),
+      noiseRms: 0.003,
+      seed: 5,
+    });
+    const res = await agents.admin
+      .post(`/api/sheets/${corexy.sheetId}/measurements`)
+      .field('spanId', span.id)
+      .attach('file', wav, 'pluck-b.wav');
     expect(res.status).toBe(201);
     expect(Math.abs(res.body.frequencyHz - f0)).toBeLessThan(0.5);
   });
@@ -145,7 +179,12 @@ describe('POST /api/sheets/:id/measurements (recording)', () => {
 describe('POST /api/sheets/:id/measurements — bad input saves nothing', () => {
   const spanId = () => corexy.result.belts[0].referenceSpanId!;
 
-  async function expectNothingSaved(send: () => Promise<request.Response>, status: number, code?: string | RegExp, message?: RegExp): Promise<request.Response> {
+  async function expectNothingSaved(
+    send: () => Promise<request.Response>,
+    status: number,
+    code?: string | RegExp,
+    message?: RegExp,
+  ): Promise<request.Response> {
     const rowsBefore = await rowsOf(corexy.sheetId);
     const filesBefore = storedFiles().length;
     const auditBefore = await AuditLog.count({ where: { action: 'measurement.create', entityId: corexy.sheetId } });
@@ -159,8 +198,12 @@ describe('POST /api/sheets/:id/measurements — bad input saves nothing', () => 
     return res;
   }
 
-  it('when the span is not one of the sheet revision\'s spans, then 400 naming spanId', async () => {
-    const res = await expectNothingSaved(() => agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).send({ spanId: 'Z:nowhere->else', frequencyHz: 90 }), 400, 'validation_failed');
+  it("when the span is not one of the sheet revision's spans, then 400 naming spanId", async () => {
+    const res = await expectNothingSaved(
+      () => agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).send({ spanId: 'Z:nowhere->else', frequencyHz: 90 }),
+      400,
+      'validation_failed',
+    );
     expect(res.body.error.details[0].path).toBe('spanId');
     expect(res.body.error.details[0].message).toContain(corexy.result.belts[0].referenceSpanId);
   });
@@ -172,37 +215,81 @@ describe('POST /api/sheets/:id/measurements — bad input saves nothing', () => 
     [{ spanId: 'A:motor->backLeft', frequencyHz: 'ninety' }, 'frequencyHz'],
     [{ spanId: 'A:motor->backLeft', frequencyHz: 90, colour: 'red' }, 'colour'],
   ])('when the body is %j, then 400 naming %s', async (body, field) => {
-    const res = await expectNothingSaved(() => agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).send(body), 400, 'validation_failed');
+    const res = await expectNothingSaved(
+      () => agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).send(body),
+      400,
+      'validation_failed',
+    );
     expect(res.body.error.details.map((d: { path: string }) => d.path)).toContain(field);
   });
 
   it('when both a frequency and a recording are sent, then 400 and nothing is stored', async () => {
     const wav = synthWav({ sampleRateHz: 8000, durationS: 1, pluck: typicalPluck(120) });
-    await expectNothingSaved(() => agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).field('spanId', spanId()).field('frequencyHz', '120').attach('file', wav, 'p.wav'), 400, 'validation_failed');
+    await expectNothingSaved(
+      () =>
+        agents.maker
+          .post(`/api/sheets/${corexy.sheetId}/measurements`)
+          .field('spanId', spanId())
+          .field('frequencyHz', '120')
+          .attach('file', wav, 'p.wav'),
+      400,
+      'validation_failed',
+    );
   });
 
   it('when the recording is larger than 2 MB, then 413', async () => {
     const wav = synthWav({ sampleRateHz: 96000, durationS: 8, bitDepth: '24', pluck: typicalPluck(120) });
     expect(wav.length).toBeGreaterThan(2 * 1024 * 1024);
-    const res = await expectNothingSaved(() => agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).field('spanId', spanId()).attach('file', wav, 'long.wav'), 413, 'payload_too_large');
+    const res = await expectNothingSaved(
+      () => agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).field('spanId', spanId()).attach('file', wav, 'long.wav'),
+      413,
+      'payload_too_large',
+    );
     expect(res.body.error.message).toContain('2 MB');
   });
 
   it.each([
-    ['a PNG named .wav', Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(64, 1)]), 'photo.wav', 'audio/wav'],
+    [
+      'a PNG named .wav',
+      Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(64, 1)]),
+      'photo.wav',
+      'audio/wav',
+    ],
     ['a text file', Buffer.from('speed_rpm,torque_Ncm\n0,40\n'), 'notes.txt', 'text/plain'],
     ['a real WAV named .png', synthWav({ sampleRateHz: 8000, durationS: 1, pluck: typicalPluck(100) }), 'pluck.png', 'image/png'],
-    ['a real WAV declared as image/png', synthWav({ sampleRateHz: 8000, durationS: 1, pluck: typicalPluck(100) }), 'pluck.wav', 'image/png'],
+    [
+      'a real WAV declared as image/png',
+      synthWav({ sampleRateHz: 8000, durationS: 1, pluck: typicalPluck(100) }),
+      'pluck.wav',
+      'image/png',
+    ],
   ])('when the "recording" is %s, then 415', async (_what, bytes, filename, contentType) => {
-    await expectNothingSaved(() => agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).field('spanId', spanId()).attach('file', bytes, { filename, contentType }), 415, /unsupported_media_type|empty_file/);
+    await expectNothingSaved(
+      () =>
+        agents.maker
+          .post(`/api/sheets/${corexy.sheetId}/measurements`)
+          .field('spanId', spanId())
+          .attach('file', bytes, { filename, contentType }),
+      415,
+      /unsupported_media_type|empty_file/,
+    );
   });
 
   it.each([
     ['silent', synthWav({ sampleRateHz: 16000, durationS: 1.5 }), /silent/i],
     ['only noise', synthWav({ sampleRateHz: 16000, durationS: 1.5, noiseRms: 0.05, seed: 3 }), /no clear tone|pluck closer/i],
-    ['truncated (header says more data than there is)', synthWav({ sampleRateHz: 16000, durationS: 1.5, pluck: typicalPluck(110) }).subarray(0, 3001), /damaged|incomplete|again/i],
+    [
+      'truncated (header says more data than there is)',
+      synthWav({ sampleRateHz: 16000, durationS: 1.5, pluck: typicalPluck(110) }).subarray(0, 3001),
+      /damaged|incomplete|again/i,
+    ],
   ])('when the WAV is %s, then 422 with a message the maker understands', async (_what, wav, message) => {
-    await expectNothingSaved(() => agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).field('spanId', spanId()).attach('file', wav, 'pluck.wav'), 422, /^recording_/, message);
+    await expectNothingSaved(
+      () => agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).field('spanId', spanId()).attach('file', wav, 'pluck.wav'),
+      422,
+      /^recording_/,
+      message,
+    );
   });
 });
 
@@ -213,7 +300,9 @@ describe('roles and unknown sheets', () => {
     ['anonymous', 401],
   ] as const)('when a %s records a measurement, then %i and nothing is saved', async (who, status) => {
     const before = await rowsOf(corexy.sheetId);
-    const res = await agents[who].post(`/api/sheets/${corexy.sheetId}/measurements`).send({ spanId: corexy.result.belts[0].referenceSpanId, frequencyHz: 90 });
+    const res = await agents[who]
+      .post(`/api/sheets/${corexy.sheetId}/measurements`)
+      .send({ spanId: corexy.result.belts[0].referenceSpanId, frequencyHz: 90 });
     expect(res.status).toBe(status);
     expect(await rowsOf(corexy.sheetId)).toBe(before);
   });
@@ -221,7 +310,10 @@ describe('roles and unknown sheets', () => {
   it('when a designer uploads a recording, then 403 before the file is read and nothing is stored', async () => {
     const files = storedFiles().length;
     const wav = synthWav({ sampleRateHz: 8000, durationS: 1, pluck: typicalPluck(100) });
-    const res = await agents.designer.post(`/api/sheets/${corexy.sheetId}/measurements`).field('spanId', 'A:motor->backLeft').attach('file', wav, 'p.wav');
+    const res = await agents.designer
+      .post(`/api/sheets/${corexy.sheetId}/measurements`)
+      .field('spanId', 'A:motor->backLeft')
+      .attach('file', wav, 'p.wav');
     expect(res.status).toBe(403);
     expect(storedFiles().length).toBe(files);
   });
@@ -267,7 +359,11 @@ describe('GET /api/sheets/:id/measurements — crossed belts', () => {
     expect(pairOf(settled.body).differencePct).toBeCloseTo((0.02 / 0.99) * 100, 6);
     expect(settled.body.spans.find((s: { spanId: string }) => s.spanId === refB.id).count).toBe(2);
     // Unmeasured pairs are never flagged.
-    expect(settled.body.pairs.filter((p: { differencePct: number | null }) => p.differencePct === null).every((p: { isMismatch: boolean }) => !p.isMismatch)).toBe(true);
+    expect(
+      settled.body.pairs
+        .filter((p: { differencePct: number | null }) => p.differencePct === null)
+        .every((p: { isMismatch: boolean }) => !p.isMismatch),
+    ).toBe(true);
   });
 
   it('when the stage is cartesian (no crossed belts), then there are no pairs', async () => {
@@ -284,8 +380,13 @@ describe('GET /api/sheets/:id/measurements — crossed belts', () => {
   it('when another maker records a pluck, then the list shows who recorded it', async () => {
     const maker = await createUser({ roles: ['maker'], name: 'Pat Plucker' });
     const agent = await signIn(app, maker.email, maker.password);
-    const res = await agent.post(`/api/sheets/${corexy.sheetId}/measurements`).send({ spanId: corexy.result.belts[0].referenceSpanId, frequencyHz: 91 });
+    const res = await agent
+      .post(`/api/sheets/${corexy.sheetId}/measurements`)
+      .send({ spanId: corexy.result.belts[0].referenceSpanId, frequencyHz: 91 });
     const list = await agents.reviewer.get(`/api/sheets/${corexy.sheetId}/measurements`);
-    expect(list.body.items.find((m: { id: number }) => m.id === res.body.id).measuredBy).toEqual({ id: maker.user.id, name: 'Pat Plucker' });
+    expect(list.body.items.find((m: { id: number }) => m.id === res.body.id).measuredBy).toEqual({
+      id: maker.user.id,
+      name: 'Pat Plucker',
+    });
   });
 });

@@ -22,13 +22,32 @@ beforeAll(async () => {
 const uniqueTag = () => `p${randomBytes(5).toString('hex')}`;
 
 const BELT = {
-  profile: 'T5', standard: 'DIN 7721', pitchMm: 5, widthMm: 10, linearMassKgPerM: 0.024, axialStiffnessN: 120000,
-  allowableTensionN: 400, minPulleyTeeth: 10, source: 'test data', note: 'from memory',
+  profile: 'T5',
+  standard: 'DIN 7721',
+  pitchMm: 5,
+  widthMm: 10,
+  linearMassKgPerM: 0.024,
+  axialStiffnessN: 120000,
+  allowableTensionN: 400,
+  minPulleyTeeth: 10,
+  source: 'test data',
+  note: 'from memory',
 };
 const PULLEY = { teeth: 20, pitchMm: 2, profile: '2 mm round tooth', kind: 'drive', boreMm: 5, inertiaKgM2: 1.2e-6, note: '' };
 const MOTOR = {
-  frameMm: 42, stepAngleDeg: 1.8, holdingTorqueNm: 0.45, ratedCurrentA: 1.5, phaseResistanceOhm: 1.8, phaseInductanceMh: 3.2,
-  rotorInertiaKgM2: 5.7e-6, massKg: 0.28, torqueCurve: [{ speedRevPerS: 0, torqueNm: 0.4 }, { speedRevPerS: 10, torqueNm: 0.3 }], note: '',
+  frameMm: 42,
+  stepAngleDeg: 1.8,
+  holdingTorqueNm: 0.45,
+  ratedCurrentA: 1.5,
+  phaseResistanceOhm: 1.8,
+  phaseInductanceMh: 3.2,
+  rotorInertiaKgM2: 5.7e-6,
+  massKg: 0.28,
+  torqueCurve: [
+    { speedRevPerS: 0, torqueNm: 0.4 },
+    { speedRevPerS: 10, torqueNm: 0.3 },
+  ],
+  note: '',
 };
 const SHELVES = [
   { shelf: 'belts', kind: 'belt', body: BELT },
@@ -42,9 +61,21 @@ describe('role matrix for /api/parts', () => {
   const WRITE_PATCH = { admin: 200, designer: 403, reviewer: 403, maker: 403, anonymous: 401 };
   const cases = SHELVES.flatMap(({ shelf, kind, body }) => [
     { name: `GET /api/parts/${shelf}`, expected: READ, call: (a: Agent) => a.get(`/api/parts/${shelf}`) },
-    { name: `GET /api/parts/${shelf}/:id`, expected: READ, call: async (a: Agent) => a.get(`/api/parts/${shelf}/${(await createPart(kind)).id}`) },
-    { name: `POST /api/parts/${shelf}`, expected: WRITE_CREATE, call: (a: Agent) => a.post(`/api/parts/${shelf}`).send({ ...body, name: `Role ${uniqueTag()}` }) },
-    { name: `PATCH /api/parts/${shelf}/:id`, expected: WRITE_PATCH, call: async (a: Agent) => a.patch(`/api/parts/${shelf}/${(await createPart(kind)).id}`).send({ note: 'checked' }) },
+    {
+      name: `GET /api/parts/${shelf}/:id`,
+      expected: READ,
+      call: async (a: Agent) => a.get(`/api/parts/${shelf}/${(await createPart(kind)).id}`),
+    },
+    {
+      name: `POST /api/parts/${shelf}`,
+      expected: WRITE_CREATE,
+      call: (a: Agent) => a.post(`/api/parts/${shelf}`).send({ ...body, name: `Role ${uniqueTag()}` }),
+    },
+    {
+      name: `PATCH /api/parts/${shelf}/:id`,
+      expected: WRITE_PATCH,
+      call: async (a: Agent) => a.patch(`/api/parts/${shelf}/${(await createPart(kind)).id}`).send({ note: 'checked' }),
+    },
   ]).flatMap((route) => (Object.keys(route.expected) as Who[]).map((who) => ({ ...route, who, status: route.expected[who] })));
 
   it.each(cases)('when $who calls $name, then $status', async ({ call, who, status }) => {
@@ -56,20 +87,29 @@ describe('role matrix for /api/parts', () => {
 });
 
 describe('POST /api/parts/<shelf>', () => {
-  it.each(SHELVES)('when an admin adds to $shelf, then 201 with the fields as sent, and GET by id and the list return it', async ({ shelf, body }) => {
-    const name = `Added ${uniqueTag()}`;
+  it.each(SHELVES)(
+    'when an admin adds to $shelf, then 201 with the fields as sent, and GET by id and the list return it',
+    async ({ shelf, body }) => {
+      const name = `Added ${uniqueTag()}`;
 
-    const res = await agents.admin.post(`/api/parts/${shelf}`).send({ ...body, name });
-    const got = await agents.maker.get(`/api/parts/${shelf}/${res.body.id}`);
-    const listed = await agents.designer.get(`/api/parts/${shelf}?q=${encodeURIComponent(name)}`);
+      const res = await agents.admin.post(`/api/parts/${shelf}`).send({ ...body, name });
+      const got = await agents.maker.get(`/api/parts/${shelf}/${res.body.id}`);
+      const listed = await agents.designer.get(`/api/parts/${shelf}?q=${encodeURIComponent(name)}`);
 
-    expect(res.status).toBe(201);
-    expect(res.body).toEqual({
-      id: expect.any(Number), shelf, name, ...body, retired: false, createdAt: expect.any(String), updatedAt: expect.any(String),
-    });
-    expect(got.body).toEqual(res.body);
-    expect(listed.body).toEqual({ items: [res.body], total: 1, page: 1, pageSize: 100 });
-  });
+      expect(res.status).toBe(201);
+      expect(res.body).toEqual({
+        id: expect.any(Number),
+        shelf,
+        name,
+        ...body,
+        retired: false,
+        createdAt: expect.any(String),
+        updatedAt: expect.any(String),
+      });
+      expect(got.body).toEqual(res.body);
+      expect(listed.body).toEqual({ items: [res.body], total: 1, page: 1, pageSize: 100 });
+    },
+  );
 
   it('when optional fields are left out, then defaults apply (empty standard/source/note, no pulley inertia, no torque table)', async () => {
     const { standard: _s, source: _so, note: _n, ...belt } = BELT;
@@ -86,24 +126,37 @@ describe('POST /api/parts/<shelf>', () => {
   });
 
   it('when a form sends cleared text fields as null, then they are stored as empty text', async () => {
-    const res = await agents.admin.post('/api/parts/belts').send({ ...BELT, name: `Cleared ${uniqueTag()}`, standard: null, source: null, note: null });
+    const res = await agents.admin
+      .post('/api/parts/belts')
+      .send({ ...BELT, name: `Cleared ${uniqueTag()}`, standard: null, source: null, note: null });
     const patched = await agents.admin.patch(`/api/parts/belts/${res.body.id}`).send({ note: 'typed later' });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ standard: '', source: '', note: '' });
     expect(patched.body).toMatchObject({ standard: '', note: 'typed later' });
   });
 
-  it('when a belt is picked, then its fields fill a design\'s belt and the design is valid', async () => {
+  it("when a belt is picked, then its fields fill a design's belt and the design is valid", async () => {
     const res = await agents.admin.post('/api/parts/belts').send({ ...BELT, name: `Pick ${uniqueTag()}` });
     const { pitchMm, widthMm, linearMassKgPerM, axialStiffnessN, allowableTensionN, minPulleyTeeth } = res.body;
     const motorPart = await agents.admin.post('/api/parts/motors').send({ ...MOTOR, name: `Pick ${uniqueTag()}` });
-    const { stepAngleDeg, holdingTorqueNm, ratedCurrentA, phaseResistanceOhm, phaseInductanceMh, rotorInertiaKgM2, massKg, torqueCurve } = motorPart.body;
+    const { stepAngleDeg, holdingTorqueNm, ratedCurrentA, phaseResistanceOhm, phaseInductanceMh, rotorInertiaKgM2, massKg, torqueCurve } =
+      motorPart.body;
     const base = defaultDesign('corexy');
 
     const parsed = safeParseDesign({
       ...base,
       belt: { pitchMm, widthMm, linearMassKgPerM, axialStiffnessN, allowableTensionN, minPulleyTeeth },
-      motor: { ...base.motor, stepAngleDeg, holdingTorqueNm, ratedCurrentA, phaseResistanceOhm, phaseInductanceMh, rotorInertiaKgM2, massKg, torqueCurve },
+      motor: {
+        ...base.motor,
+        stepAngleDeg,
+        holdingTorqueNm,
+        ratedCurrentA,
+        phaseResistanceOhm,
+        phaseInductanceMh,
+        rotorInertiaKgM2,
+        massKg,
+        torqueCurve,
+      },
     });
 
     expect(parsed.ok).toBe(true);
@@ -119,7 +172,13 @@ describe('POST /api/parts/<shelf>', () => {
     { shelf: 'motors', body: { ...MOTOR, holdingTorqueNm: 'strong' }, paths: ['holdingTorqueNm'] },
     {
       shelf: 'motors',
-      body: { ...MOTOR, torqueCurve: [{ speedRevPerS: 5, torqueNm: 0.4 }, { speedRevPerS: 5, torqueNm: 0.3 }] },
+      body: {
+        ...MOTOR,
+        torqueCurve: [
+          { speedRevPerS: 5, torqueNm: 0.4 },
+          { speedRevPerS: 5, torqueNm: 0.3 },
+        ],
+      },
       paths: ['torqueCurve.1.speedRevPerS'],
     },
     { shelf: 'motors', body: { ...MOTOR, torqueCurve: [{ speedRevPerS: 0, torqueNm: 0.4 }] }, paths: ['torqueCurve'] },
@@ -151,7 +210,10 @@ describe('POST /api/parts/<shelf>', () => {
     const otherShelf = await agents.admin.post('/api/parts/pulleys').send({ ...PULLEY, name });
 
     expect(again.status).toBe(409);
-    expect(again.body.error).toMatchObject({ code: 'part_name_taken', details: [{ path: 'name', message: 'is already used by another belt' }] });
+    expect(again.body.error).toMatchObject({
+      code: 'part_name_taken',
+      details: [{ path: 'name', message: 'is already used by another belt' }],
+    });
     expect(otherShelf.status).toBe(201);
   });
 
@@ -173,7 +235,7 @@ describe('PATCH /api/parts/:kind/:id', () => {
     expect(got.body).toEqual({ ...created.body, allowableTensionN: 380, note: 'measured', updatedAt: expect.any(String) });
   });
 
-  it('when a motor\'s torque table is cleared with null, then it reads back as null', async () => {
+  it("when a motor's torque table is cleared with null, then it reads back as null", async () => {
     const created = await agents.admin.post('/api/parts/motors').send({ ...MOTOR, name: `Curve ${uniqueTag()}` });
     const res = await agents.admin.patch(`/api/parts/motors/${created.body.id}`).send({ torqueCurve: null });
     expect(res.status).toBe(200);
@@ -238,7 +300,10 @@ describe('retiring parts', () => {
     expect(retire.body.retired).toBe(true);
     expect(active.body.items.map((p: { id: number }) => p.id)).toEqual([keep.id]);
     expect(active.body.total).toBe(1);
-    expect(all.body.items.map((p: { id: number; retired: boolean }) => [p.id, p.retired])).toEqual([[keep.id, false], [old.id, true]]);
+    expect(all.body.items.map((p: { id: number; retired: boolean }) => [p.id, p.retired])).toEqual([
+      [keep.id, false],
+      [old.id, true],
+    ]);
     expect(byId.status).toBe(200);
     expect(byId.body).toMatchObject({ id: old.id, retired: true });
     expect(restore.body.retired).toBe(false);
@@ -250,7 +315,10 @@ describe('retiring parts', () => {
     await agents.admin.patch(`/api/parts/motors/${id}`).send({ retired: true });
     await agents.admin.patch(`/api/parts/motors/${id}`).send({ retired: false });
     const entries = await AuditLog.findAll({ where: { entity: 'part', entityId: id }, order: [['id', 'ASC']] });
-    expect(entries.map((e) => [e.action, e.fromState, e.toState])).toEqual([['part.retire', 'active', 'retired'], ['part.restore', 'retired', 'active']]);
+    expect(entries.map((e) => [e.action, e.fromState, e.toState])).toEqual([
+      ['part.retire', 'active', 'retired'],
+      ['part.restore', 'retired', 'active'],
+    ]);
   });
 });
 
@@ -307,7 +375,10 @@ describe('starter catalogue', () => {
     const base = defaultDesign('corexy');
     for (const belt of DEMO_BELTS) {
       const { pitchMm, widthMm, linearMassKgPerM, axialStiffnessN, allowableTensionN, minPulleyTeeth } = belt;
-      const parsed = safeParseDesign({ ...base, belt: { pitchMm, widthMm, linearMassKgPerM, axialStiffnessN, allowableTensionN, minPulleyTeeth } });
+      const parsed = safeParseDesign({
+        ...base,
+        belt: { pitchMm, widthMm, linearMassKgPerM, axialStiffnessN, allowableTensionN, minPulleyTeeth },
+      });
       expect(parsed.ok, belt.name).toBe(true);
     }
   });
@@ -316,8 +387,16 @@ describe('starter catalogue', () => {
     // ISO 5296: MXL 0.080 in, XL 0.200 in, L 0.375 in; DIN 7721: T2.5, T5, T10; ISO 13050: 3M, 5M;
     // 2 mm and 3 mm round-tooth belts: common practice.
     const expected: Record<string, number> = {
-      MXL: 0.08 * 25.4, XL: 0.2 * 25.4, L: 0.375 * 25.4, 'T2.5': 2.5, T5: 5, T10: 10, '3M': 3, '5M': 5,
-      '2 mm round tooth': 2, '3 mm round tooth': 3,
+      MXL: 0.08 * 25.4,
+      XL: 0.2 * 25.4,
+      L: 0.375 * 25.4,
+      'T2.5': 2.5,
+      T5: 5,
+      T10: 10,
+      '3M': 3,
+      '5M': 5,
+      '2 mm round tooth': 2,
+      '3 mm round tooth': 3,
     };
     expect([...new Set(DEMO_BELTS.map((b) => b.profile))].sort()).toEqual(Object.keys(expected).sort());
     for (const belt of DEMO_BELTS) expect(belt.pitchMm, belt.name).toBeCloseTo(expected[belt.profile], 9);

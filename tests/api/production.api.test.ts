@@ -34,5 +34,4 @@ describe('NODE_ENV=production', () => {
     expect(res.status).toBe(200);
     expect(res.body.outbox).toBe(false);
   });
-
 });

@@ -18,7 +18,8 @@ vi.mock('../../server/services/mail.service', async (importOriginal) => {
   const real = await importOriginal<typeof import('../../server/services/mail.service')>();
   return {
     ...real,
-    sendMail: async (input: Parameters<typeof real.sendMail>[0]) => (failing.addresses.has(String(input.to)) ? false : real.sendMail(input)),
+    sendMail: async (input: Parameters<typeof real.sendMail>[0]) =>
+      failing.addresses.has(String(input.to)) ? false : real.sendMail(input),
   };
 });
 
@@ -36,8 +37,14 @@ let anonymous: Agent;
 
 beforeAll(async () => {
   const roles: Record<Who, Role[]> = {
-    owner: ['designer'], otherDesigner: ['designer'], reviewer: ['reviewer'], reviewer2: ['reviewer'], admin: ['admin'],
-    maker: ['maker'], dual: ['designer', 'reviewer'], noRole: [],
+    owner: ['designer'],
+    otherDesigner: ['designer'],
+    reviewer: ['reviewer'],
+    reviewer2: ['reviewer'],
+    admin: ['admin'],
+    maker: ['maker'],
+    dual: ['designer', 'reviewer'],
+    noRole: [],
   };
   for (const who of Object.keys(roles) as Who[]) {
     const signed = await signedInAs(app, roles[who]);
@@ -73,7 +80,11 @@ async function auditOf(entity: string, entityId: number) {
 const canonical = (v: unknown): string => {
   if (v === null || typeof v !== 'object') return JSON.stringify(v) ?? 'null';
   if (Array.isArray(v)) return `[${v.map(canonical).join(',')}]`;
-  return `{${Object.keys(v).sort().filter((k) => (v as Record<string, unknown>)[k] !== undefined).map((k) => `${JSON.stringify(k)}:${canonical((v as Record<string, unknown>)[k])}`).join(',')}}`;
+  return `{${Object.keys(v)
+    .sort()
+    .filter((k) => (v as Record<string, unknown>)[k] !== undefined)
+    .map((k) => `${JSON.stringify(k)}:${canonical((v as Record<string, unknown>)[k])}`)
+    .join(',')}}`;
 };
 
 describe('POST /api/designs/:id/submit', () => {
@@ -87,13 +98,24 @@ describe('POST /api/designs/:id/submit', () => {
     // Assert
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({
-      designId: design.id, number: 1, status: 'in_review', engineVersion: ENGINE_VERSION, name: design.name,
-      author: { id: users.owner.id, name: users.owner.name }, returnReason: null, approvalComment: null, sheetId: null,
-      previousRevisionId: null, isOwn: true, permissions: { canDecide: false, canComment: true, canWithdraw: true },
+      designId: design.id,
+      number: 1,
+      status: 'in_review',
+      engineVersion: ENGINE_VERSION,
+      name: design.name,
+      author: { id: users.owner.id, name: users.owner.name },
+      returnReason: null,
+      approvalComment: null,
+      sheetId: null,
+      previousRevisionId: null,
+      isOwn: true,
+      permissions: { canDecide: false, canComment: true, canWithdraw: true },
     });
     expect(res.body.inputs).toEqual(design.inputs);
     expect(res.body.result).toEqual(JSON.parse(JSON.stringify(evaluateDesign(design.inputs))));
-    const expectedFingerprint = createHash('sha256').update(canonical({ inputs: res.body.inputs, result: res.body.result })).digest('hex');
+    const expectedFingerprint = createHash('sha256')
+      .update(canonical({ inputs: res.body.inputs, result: res.body.result }))
+      .digest('hex');
     expect(res.body.fingerprint).toBe(expectedFingerprint);
     expect(await designStatus(design.id)).toBe('in_review');
     const stored = await Revision.findByPk(res.body.id);
@@ -120,7 +142,13 @@ describe('POST /api/designs/:id/submit', () => {
       { action: 'design.submit', actorId: users.dual.id, from: 'draft', to: 'in_review', reason: 'Submitted revision 1' },
     ]);
     expect(await auditOf('revision', res.body.id)).toEqual([
-      { action: 'revision.submit', actorId: users.dual.id, from: null, to: 'in_review', reason: expect.stringContaining(res.body.fingerprint) },
+      {
+        action: 'revision.submit',
+        actorId: users.dual.id,
+        from: null,
+        to: 'in_review',
+        reason: expect.stringContaining(res.body.fingerprint),
+      },
     ]);
   });
 
@@ -130,12 +158,18 @@ describe('POST /api/designs/:id/submit', () => {
     const res = await agents.owner.post(`/api/designs/${design.id}/submit`).send({});
 
     expect(res.status).toBe(409);
-    expect(res.body.error).toMatchObject({ code: 'invalid_state', message: 'This design is in review; only a draft or a returned design can be submitted.' });
+    expect(res.body.error).toMatchObject({
+      code: 'invalid_state',
+      message: 'This design is in review; only a draft or a returned design can be submitted.',
+    });
     expect(await Revision.count({ where: { designId: design.id } })).toBe(1);
   });
 
   it.each([
-    ['otherDesigner', 403], ['reviewer', 403], ['maker', 403], ['noRole', 403],
+    ['otherDesigner', 403],
+    ['reviewer', 403],
+    ['maker', 403],
+    ['noRole', 403],
   ] as const)('when %s submits the owner’s draft, then %i and the design stays a draft', async (who, status) => {
     const design = await draft();
 
@@ -226,18 +260,24 @@ describe('POST /api/designs/:id/withdraw', () => {
     ]);
   });
 
-  it.each(['otherDesigner', 'reviewer', 'maker'] as const)('when %s withdraws the owner’s design, then 403 and it stays in review', async (who) => {
-    const { design } = await submitted();
-    const res = await agents[who].post(`/api/designs/${design.id}/withdraw`).send({});
-    expect(res.status).toBe(403);
-    expect(await designStatus(design.id)).toBe('in_review');
-  });
+  it.each(['otherDesigner', 'reviewer', 'maker'] as const)(
+    'when %s withdraws the owner’s design, then 403 and it stays in review',
+    async (who) => {
+      const { design } = await submitted();
+      const res = await agents[who].post(`/api/designs/${design.id}/withdraw`).send({});
+      expect(res.status).toBe(403);
+      expect(await designStatus(design.id)).toBe('in_review');
+    },
+  );
 
   it('when a draft is withdrawn, then 409', async () => {
     const design = await draft();
     const res = await agents.owner.post(`/api/designs/${design.id}/withdraw`).send({});
     expect(res.status).toBe(409);
-    expect(res.body.error).toMatchObject({ code: 'invalid_state', message: 'This design is a draft, not in review; there is nothing to withdraw.' });
+    expect(res.body.error).toMatchObject({
+      code: 'invalid_state',
+      message: 'This design is a draft, not in review; there is nothing to withdraw.',
+    });
   });
 
   it('when a withdrawn revision is approved or returned, then 409', async () => {
@@ -270,8 +310,20 @@ describe('POST /api/revisions/:id/return', () => {
     expect(mail.html).toContain('Lower the planned acceleration');
     expect(mail.text).toContain(`${getConfig().appUrl}/designs/${design.id}`);
     expect(history.body.items).toEqual([expect.objectContaining({ id: revision.id, status: 'returned', returnReason: reason })]);
-    expect((await auditOf('design', design.id)).at(-1)).toEqual({ action: 'design.return', actorId: users.reviewer.id, from: 'in_review', to: 'returned', reason });
-    expect((await auditOf('revision', revision.id)).at(-1)).toEqual({ action: 'revision.return', actorId: users.reviewer.id, from: 'in_review', to: 'returned', reason });
+    expect((await auditOf('design', design.id)).at(-1)).toEqual({
+      action: 'design.return',
+      actorId: users.reviewer.id,
+      from: 'in_review',
+      to: 'returned',
+      reason,
+    });
+    expect((await auditOf('revision', revision.id)).at(-1)).toEqual({
+      action: 'revision.return',
+      actorId: users.reviewer.id,
+      from: 'in_review',
+      to: 'returned',
+      reason,
+    });
   });
 
   it.each([
@@ -409,8 +461,19 @@ describe('approval end to end', () => {
 
     // Assert: state
     expect(res.status).toBe(200);
-    expect(res.body.revision).toMatchObject({ id: revision.id, status: 'approved', approvalComment: 'Fine to build.', decidedBy: { id: users.reviewer.id } });
-    expect(res.body.sheet).toMatchObject({ revisionId: revision.id, revisionNumber: 1, approvedBy: { id: users.reviewer.id }, comment: 'Fine to build.', isSuperseded: false });
+    expect(res.body.revision).toMatchObject({
+      id: revision.id,
+      status: 'approved',
+      approvalComment: 'Fine to build.',
+      decidedBy: { id: users.reviewer.id },
+    });
+    expect(res.body.sheet).toMatchObject({
+      revisionId: revision.id,
+      revisionNumber: 1,
+      approvedBy: { id: users.reviewer.id },
+      comment: 'Fine to build.',
+      isSuperseded: false,
+    });
     expect(res.body.revision.sheetId).toBe(res.body.sheet.id);
     expect(await designStatus(design.id)).toBe('approved');
     // Assert: mail
@@ -420,12 +483,26 @@ describe('approval end to end', () => {
     expect(toDesigner.text).toContain('Fine to build.');
     expect(toMaker.text).toContain(`${getConfig().appUrl}/sheets/${res.body.sheet.id}`);
     expect(toMaker.text).toContain(res.body.sheet.sha256);
-    expect((await fetchOutbox(emails.reviewer2)).filter((m) => m.subject.startsWith('Approved') && m.subject.includes(design.name))).toEqual([]);
+    expect(
+      (await fetchOutbox(emails.reviewer2)).filter((m) => m.subject.startsWith('Approved') && m.subject.includes(design.name)),
+    ).toEqual([]);
     // Assert: audit
     const designLog = await auditOf('design', design.id);
-    expect(designLog.at(-1)).toEqual({ action: 'design.approve', actorId: users.reviewer.id, from: 'in_review', to: 'approved', reason: 'Fine to build.' });
+    expect(designLog.at(-1)).toEqual({
+      action: 'design.approve',
+      actorId: users.reviewer.id,
+      from: 'in_review',
+      to: 'approved',
+      reason: 'Fine to build.',
+    });
     expect(await auditOf('sheet', res.body.sheet.id)).toEqual([
-      { action: 'sheet.publish', actorId: users.reviewer.id, from: null, to: 'published', reason: expect.stringContaining(res.body.sheet.sha256) },
+      {
+        action: 'sheet.publish',
+        actorId: users.reviewer.id,
+        from: null,
+        to: 'published',
+        reason: expect.stringContaining(res.body.sheet.sha256),
+      },
     ]);
     const adminLog = await agents.admin.get(`/api/audit?entity=design&entityId=${design.id}`);
     expect(adminLog.body.items.map((e: { action: string }) => e.action)).toEqual(['design.approve', 'design.submit']);
@@ -445,12 +522,18 @@ describe('approval end to end', () => {
 
 describe('reading revisions', () => {
   it.each([
-    ['owner', 200], ['reviewer', 200], ['admin', 200], ['maker', 403], ['otherDesigner', 403], ['noRole', 403],
+    ['owner', 200],
+    ['reviewer', 200],
+    ['admin', 200],
+    ['maker', 403],
+    ['otherDesigner', 403],
+    ['noRole', 403],
   ] as const)('when %s reads a revision in review, then %i', async (who, status) => {
     const { revision } = await submitted();
     const res = await agents[who].get(`/api/revisions/${revision.id}`);
     expect(res.status).toBe(status);
-    if (status === 403) expect(res.body.error.message).toBe('Only reviewers, admins and the design’s owner can read a revision before it is approved.');
+    if (status === 403)
+      expect(res.body.error.message).toBe('Only reviewers, admins and the design’s owner can read a revision before it is approved.');
   });
 
   it('when a reviewer lists revisions in review, then the oldest comes first and makers and designers are refused', async () => {
@@ -490,15 +573,31 @@ describe('comments', () => {
     const { revision } = await submitted();
 
     const first = await agents.reviewer.post(`/api/revisions/${revision.id}/comments`).send({ body: 'Why 20-tooth pulleys?' });
-    const reply = await agents.owner.post(`/api/revisions/${revision.id}/comments`).send({ body: 'Resolution: 0.0125 mm per microstep.', parentId: first.body.id });
+    const reply = await agents.owner
+      .post(`/api/revisions/${revision.id}/comments`)
+      .send({ body: 'Resolution: 0.0125 mm per microstep.', parentId: first.body.id });
     const list = await agents.reviewer.get(`/api/revisions/${revision.id}/comments`);
 
     expect(first.status).toBe(201);
     expect(reply.status).toBe(201);
     expect(list.status).toBe(200);
     expect(list.body.items).toEqual([
-      { id: first.body.id, revisionId: revision.id, parentId: null, author: { id: users.reviewer.id, name: users.reviewer.name, roles: ['reviewer'] }, body: 'Why 20-tooth pulleys?', createdAt: expect.any(String) },
-      { id: reply.body.id, revisionId: revision.id, parentId: first.body.id, author: { id: users.owner.id, name: users.owner.name, roles: ['designer'] }, body: 'Resolution: 0.0125 mm per microstep.', createdAt: expect.any(String) },
+      {
+        id: first.body.id,
+        revisionId: revision.id,
+        parentId: null,
+        author: { id: users.reviewer.id, name: users.reviewer.name, roles: ['reviewer'] },
+        body: 'Why 20-tooth pulleys?',
+        createdAt: expect.any(String),
+      },
+      {
+        id: reply.body.id,
+        revisionId: revision.id,
+        parentId: first.body.id,
+        author: { id: users.owner.id, name: users.owner.name, roles: ['designer'] },
+        body: 'Resolution: 0.0125 mm per microstep.',
+        createdAt: expect.any(String),
+      },
     ]);
   });
 
@@ -516,7 +615,9 @@ describe('comments', () => {
     const other = await agents.reviewer.post(`/api/revisions/${b.revision.id}/comments`).send({ body: 'on b' });
 
     const empty = await agents.reviewer.post(`/api/revisions/${a.revision.id}/comments`).send({ body: '  ' });
-    const wrongParent = await agents.reviewer.post(`/api/revisions/${a.revision.id}/comments`).send({ body: 'reply', parentId: other.body.id });
+    const wrongParent = await agents.reviewer
+      .post(`/api/revisions/${a.revision.id}/comments`)
+      .send({ body: 'reply', parentId: other.body.id });
 
     expect(empty.status).toBe(400);
     expect(empty.body.error.details).toEqual([{ path: 'body', message: 'must not be empty' }]);
@@ -526,25 +627,34 @@ describe('comments', () => {
 });
 
 describe('immutability of revisions', () => {
-  it.each(['put', 'patch', 'delete'] as const)('when anyone sends %s to a revision, then 404 and the revision is unchanged', async (method) => {
-    const { revision } = await submitted();
-    const before = await Revision.findByPk(revision.id);
+  it.each(['put', 'patch', 'delete'] as const)(
+    'when anyone sends %s to a revision, then 404 and the revision is unchanged',
+    async (method) => {
+      const { revision } = await submitted();
+      const before = await Revision.findByPk(revision.id);
 
-    const asAdmin = await agents.admin[method](`/api/revisions/${revision.id}`).send({ status: 'approved', inputs: {} });
-    const asOwner = await agents.owner[method](`/api/revisions/${revision.id}`).send({ inputs: {} });
-    const commentEdit = await agents.admin[method](`/api/revisions/${revision.id}/comments`).send({ body: 'x' });
+      const asAdmin = await agents.admin[method](`/api/revisions/${revision.id}`).send({ status: 'approved', inputs: {} });
+      const asOwner = await agents.owner[method](`/api/revisions/${revision.id}`).send({ inputs: {} });
+      const commentEdit = await agents.admin[method](`/api/revisions/${revision.id}/comments`).send({ body: 'x' });
 
-    expect([asAdmin.status, asOwner.status, commentEdit.status]).toEqual([404, 404, 404]);
-    const after = await Revision.findByPk(revision.id);
-    expect(after?.get({ plain: true })).toEqual(before?.get({ plain: true }));
-  });
+      expect([asAdmin.status, asOwner.status, commentEdit.status]).toEqual([404, 404, 404]);
+      const after = await Revision.findByPk(revision.id);
+      expect(after?.get({ plain: true })).toEqual(before?.get({ plain: true }));
+    },
+  );
 
   it('when the database is asked to change a frozen column, then the trigger refuses it (review state may still move)', async () => {
     const { revision } = await submitted();
 
     // fix: start each query only after the previous rejection is handled, or a fast second failure is unhandled.
-    await expect(getSequelize().query("UPDATE revisions SET inputs = JSON_SET(inputs, '$.name', 'forged') WHERE id = ?", { replacements: [revision.id] })).rejects.toThrow(/frozen/);
-    await expect(getSequelize().query('UPDATE revisions SET fingerprint = ? WHERE id = ?', { replacements: ['0'.repeat(64), revision.id] })).rejects.toThrow(/frozen/);
+    await expect(
+      getSequelize().query("UPDATE revisions SET inputs = JSON_SET(inputs, '$.name', 'forged') WHERE id = ?", {
+        replacements: [revision.id],
+      }),
+    ).rejects.toThrow(/frozen/);
+    await expect(
+      getSequelize().query('UPDATE revisions SET fingerprint = ? WHERE id = ?', { replacements: ['0'.repeat(64), revision.id] }),
+    ).rejects.toThrow(/frozen/);
     const row = await Revision.findByPk(revision.id);
     expect(row?.fingerprint).toBe(revision.fingerprint);
   });
@@ -599,7 +709,10 @@ describe('mail failures', () => {
     }
     failing.addresses.delete(rcpt.email);
     // Due, but held by another process for another minute.
-    await Notification.update({ nextAttemptAt: new Date(Date.now() - 1000), lockedUntil: new Date(Date.now() + 60_000) }, { where: { id: row!.id } });
+    await Notification.update(
+      { nextAttemptAt: new Date(Date.now() - 1000), lockedUntil: new Date(Date.now() + 60_000) },
+      { where: { id: row!.id } },
+    );
 
     await deliverQueuedMail();
 

@@ -45,13 +45,23 @@ function pdfText(bytes: Buffer): string {
 // One design taken through two approvals: revision 1 (its sheet later superseded) and revision 2.
 let designId: number;
 let designName: string;
-let first: { revisionId: number; sheet: { id: number; sha256: string; files: { paper: string; sha256: string; size: number; fileName: string }[] } };
+let first: {
+  revisionId: number;
+  sheet: { id: number; sha256: string; files: { paper: string; sha256: string; size: number; fileName: string }[] };
+};
 let second: { revisionId: number; sheet: { id: number; sha256: string } };
 let firstPdf: Buffer;
 
 beforeAll(async () => {
   dir = mkdtempSync(path.join(tmpdir(), 'gw-sheets-api-'));
-  const roles: Record<Who, Role[]> = { owner: ['designer'], otherDesigner: ['designer'], reviewer: ['reviewer'], admin: ['admin'], maker: ['maker'], noRole: [] };
+  const roles: Record<Who, Role[]> = {
+    owner: ['designer'],
+    otherDesigner: ['designer'],
+    reviewer: ['reviewer'],
+    admin: ['admin'],
+    maker: ['maker'],
+    noRole: [],
+  };
   for (const who of Object.keys(roles) as Who[]) {
     const signed = await signedInAs(app, roles[who]);
     agents[who] = signed.agent;
@@ -126,7 +136,12 @@ describe('GET /api/sheets/:id/pdf', () => {
   });
 
   it.each([
-    ['maker', 200], ['owner', 200], ['otherDesigner', 200], ['reviewer', 200], ['admin', 200], ['noRole', 403],
+    ['maker', 200],
+    ['owner', 200],
+    ['otherDesigner', 200],
+    ['reviewer', 200],
+    ['admin', 200],
+    ['noRole', 403],
   ] as const)('when %s downloads, then %i', async (who, status) => {
     const res = await agents[who].get(`/api/sheets/${first.sheet.id}/pdf`);
     expect(res.status).toBe(status);
@@ -159,10 +174,20 @@ describe('a later revision of the same design', () => {
     expect(res.status).toBe(200);
     expect(res.body.total).toBe(2);
     expect(res.body.items.map((s: { id: number }) => s.id)).toEqual([second.sheet.id, first.sheet.id]);
-    expect(res.body.items[0]).toMatchObject({ revisionNumber: 2, isSuperseded: false, supersededBy: null, design: { id: designId, name: `${designName} mk2` } });
+    expect(res.body.items[0]).toMatchObject({
+      revisionNumber: 2,
+      isSuperseded: false,
+      supersededBy: null,
+      design: { id: designId, name: `${designName} mk2` },
+    });
     expect(res.body.items[1]).toMatchObject({
-      revisionNumber: 1, isSuperseded: true, supersededBy: { sheetId: second.sheet.id, revisionNumber: 2 }, design: { id: designId, name: designName },
-      approvedBy: { id: users.reviewer.id, name: users.reviewer.name }, designer: { id: users.owner.id }, comment: 'First batch.',
+      revisionNumber: 1,
+      isSuperseded: true,
+      supersededBy: { sheetId: second.sheet.id, revisionNumber: 2 },
+      design: { id: designId, name: designName },
+      approvedBy: { id: users.reviewer.id, name: users.reviewer.name },
+      designer: { id: users.owner.id },
+      comment: 'First batch.',
     });
     expect(res.body.items[1]).not.toHaveProperty('a4Pdf');
   });
@@ -212,14 +237,17 @@ describe('POST /api/designs/:id/reopen', () => {
 });
 
 describe('immutability of sheets', () => {
-  it.each(['put', 'patch', 'delete'] as const)('when an admin sends %s to a sheet or its PDF, then 404 and the bytes are unchanged', async (method) => {
-    const one = await agents.admin[method](`/api/sheets/${first.sheet.id}`).send({ comment: 'x' });
-    const pdf = await agents.admin[method](`/api/sheets/${first.sheet.id}/pdf`).send({});
-    const after = await Sheet.findByPk(first.sheet.id);
+  it.each(['put', 'patch', 'delete'] as const)(
+    'when an admin sends %s to a sheet or its PDF, then 404 and the bytes are unchanged',
+    async (method) => {
+      const one = await agents.admin[method](`/api/sheets/${first.sheet.id}`).send({ comment: 'x' });
+      const pdf = await agents.admin[method](`/api/sheets/${first.sheet.id}/pdf`).send({});
+      const after = await Sheet.findByPk(first.sheet.id);
 
-    expect([one.status, pdf.status]).toEqual([404, 404]);
-    expect(sha256(after!.a4Pdf)).toBe(first.sheet.sha256);
-  });
+      expect([one.status, pdf.status]).toEqual([404, 404]);
+      expect(sha256(after!.a4Pdf)).toBe(first.sheet.sha256);
+    },
+  );
 
   it('when the database is asked to update a sheet, then the trigger refuses it', async () => {
     const update = getSequelize().query("UPDATE sheets SET comment = 'forged' WHERE id = ?", { replacements: [first.sheet.id] });
@@ -229,7 +257,13 @@ describe('immutability of sheets', () => {
 });
 
 describe('GET /api/sheets', () => {
-  it.each([['maker', 200], ['owner', 200], ['reviewer', 200], ['admin', 200], ['noRole', 403]] as const)('when %s lists sheets, then %i', async (who, status) => {
+  it.each([
+    ['maker', 200],
+    ['owner', 200],
+    ['reviewer', 200],
+    ['admin', 200],
+    ['noRole', 403],
+  ] as const)('when %s lists sheets, then %i', async (who, status) => {
     const res = await agents[who].get('/api/sheets?pageSize=5');
     expect(res.status).toBe(status);
     if (status === 200) {

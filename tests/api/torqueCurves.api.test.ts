@@ -33,12 +33,16 @@ afterAll(async () => {
 
 function storedFiles(): string[] {
   if (!fs.existsSync(UPLOAD_DIR)) return [];
-  return (fs.readdirSync(UPLOAD_DIR, { recursive: true }) as string[]).map((p) => path.join(UPLOAD_DIR, p)).filter((p) => fs.statSync(p).isFile());
+  return (fs.readdirSync(UPLOAD_DIR, { recursive: true }) as string[])
+    .map((p) => path.join(UPLOAD_DIR, p))
+    .filter((p) => fs.statSync(p).isFile());
 }
 
 const newMotor = () => createPart('motor');
 const post = (who: Who, motorId: number, csv: string | Buffer, filename = 'curve.csv', contentType = 'text/csv') =>
-  agents[who].post(`/api/parts/motors/${motorId}/torque-curve`).attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv), { filename, contentType });
+  agents[who]
+    .post(`/api/parts/motors/${motorId}/torque-curve`)
+    .attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv), { filename, contentType });
 
 async function curveOf(motorId: number): Promise<unknown> {
   const row = await Part.findByPk(motorId);
@@ -57,12 +61,22 @@ describe('POST /api/parts/motors/:id/torque-curve', () => {
     const info = await agents.maker.get(`/api/parts/motors/${motor.id}/torque-curve`);
     // Assert: 60 rpm = 1 rev/s; 1 N·cm = 0.01 N·m (exact SI prefixes).
     const expected = [
-      { speedRevPerS: 0, torqueNm: 0.4 }, { speedRevPerS: 1, torqueNm: 0.38 }, { speedRevPerS: 5, torqueNm: 0.3 }, { speedRevPerS: 10, torqueNm: 0.21 },
+      { speedRevPerS: 0, torqueNm: 0.4 },
+      { speedRevPerS: 1, torqueNm: 0.38 },
+      { speedRevPerS: 5, torqueNm: 0.3 },
+      { speedRevPerS: 10, torqueNm: 0.21 },
     ];
     expect(res.status).toBe(200);
     expect(res.body.motor).toMatchObject({ id: motor.id, shelf: 'motors', torqueCurve: expected });
     expect(res.body.sourceUnits).toEqual({ speed: 'rpm', torque: 'N·cm' });
-    expect(res.body.file).toMatchObject({ partId: motor.id, designId: null, fileName: 'pull-out.csv', mime: 'text/csv', size: csv.length, canDelete: false });
+    expect(res.body.file).toMatchObject({
+      partId: motor.id,
+      designId: null,
+      fileName: 'pull-out.csv',
+      mime: 'text/csv',
+      size: csv.length,
+      canDelete: false,
+    });
     expect(shelf.body.torqueCurve).toEqual(expected);
     expect(info.status).toBe(200);
     expect(info.body.file.id).toBe(res.body.file.id);
@@ -88,17 +102,25 @@ describe('POST /api/parts/motors/:id/torque-curve', () => {
     ['a word for a number', 'speed_rpm,torque_Ncm\n0,40\n300,thirty\n600,20\n', 3, 'torque_Ncm', /not a number/],
     ['no torque at standstill', 'speed_rpm,torque_Ncm\n# measured\n0,0\n300,30\n600,20\n', 3, 'torque_Ncm', /greater than 0/],
     ['a speed beyond the shelf range', 'speed_rps,torque_Nm\n0,0.4\n10,0.3\n2000,0.1\n', 4, 'speed_rps', /1000 rev\/s/],
-  ])('when the table has %s, then 400 naming line %i and column %s, and the motor keeps its curve', async (_what, csv, line, column, message) => {
-    const motor = await newMotor();
-    const files = storedFiles().length;
-    const res = await post('admin', motor.id, csv);
-    expect(res.status).toBe(400);
-    expect(res.body.error.code).toBe('invalid_csv');
-    expect(res.body.error.details[0]).toMatchObject({ line, column, message: expect.stringMatching(message), path: `file · line ${line} · ${column}` });
-    expect(await curveOf(motor.id)).toBeNull();
-    expect(await Attachment.count({ where: { partId: motor.id } })).toBe(0);
-    expect(storedFiles().length).toBe(files);
-  });
+  ])(
+    'when the table has %s, then 400 naming line %i and column %s, and the motor keeps its curve',
+    async (_what, csv, line, column, message) => {
+      const motor = await newMotor();
+      const files = storedFiles().length;
+      const res = await post('admin', motor.id, csv);
+      expect(res.status).toBe(400);
+      expect(res.body.error.code).toBe('invalid_csv');
+      expect(res.body.error.details[0]).toMatchObject({
+        line,
+        column,
+        message: expect.stringMatching(message),
+        path: `file · line ${line} · ${column}`,
+      });
+      expect(await curveOf(motor.id)).toBeNull();
+      expect(await Attachment.count({ where: { partId: motor.id } })).toBe(0);
+      expect(storedFiles().length).toBe(files);
+    },
+  );
 
   it.each([
     ['fewer than 3 points', 'speed_rpm,torque_Ncm\n0,40\n600,20\n', null, null],
@@ -116,7 +138,7 @@ describe('POST /api/parts/motors/:id/torque-curve', () => {
     await post('admin', motor.id, 'speed_rpm,torque_Ncm\n0,40\n300,30\n600,20\n');
     const second = await post('admin', motor.id, 'speed_rpm,torque_Ncm\n0,45\n300,35\n600,25\n900,15\n');
     expect(second.status).toBe(200);
-    expect((await curveOf(motor.id) as unknown[]).length).toBe(4);
+    expect(((await curveOf(motor.id)) as unknown[]).length).toBe(4);
     expect(await Attachment.count({ where: { partId: motor.id } })).toBe(2);
     expect((await agents.admin.get(`/api/parts/motors/${motor.id}/torque-curve`)).body.file.id).toBe(second.body.file.id);
     expect((await agents.admin.delete(`/api/attachments/${second.body.file.id}`)).status).toBe(409);

@@ -22,7 +22,11 @@ beforeAll(async () => {
 /** Every admin-only route, with a request that succeeds for an admin. */
 const ADMIN_ROUTES: Array<{ name: string; call: (agent: Agent) => Promise<request.Response>; okStatus: number }> = [
   { name: 'GET /api/users', call: (a) => a.get('/api/users'), okStatus: 200 },
-  { name: 'POST /api/users', call: (a) => a.post('/api/users').send({ email: uniqueEmail('invitee'), name: 'Invitee', roles: ['maker'] }), okStatus: 201 },
+  {
+    name: 'POST /api/users',
+    call: (a) => a.post('/api/users').send({ email: uniqueEmail('invitee'), name: 'Invitee', roles: ['maker'] }),
+    okStatus: 201,
+  },
   {
     name: 'PATCH /api/users/:id',
     call: async (a) => {
@@ -66,7 +70,12 @@ describe('GET /api/users', () => {
     expect(first.body.items).toHaveLength(2);
     expect(second.body.items).toHaveLength(1);
     expect(first.body.items[0]).toEqual({
-      id: expect.any(Number), email: expect.any(String), name: `Person ${tag} 1`, roles: [], disabled: false, createdAt: expect.any(String),
+      id: expect.any(Number),
+      email: expect.any(String),
+      name: `Person ${tag} 1`,
+      roles: [],
+      disabled: false,
+      createdAt: expect.any(String),
     });
   });
 

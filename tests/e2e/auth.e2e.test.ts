@@ -23,28 +23,31 @@ describe('sign-in journeys', () => {
     await browser?.close();
   });
 
-  it.each(ROLE_JOURNEYS)('when %s signs in, then lands on %s, sees exactly the navigation %j, and can sign out', async (email, start, nav) => {
-    // Arrange
-    const { context, page, pageErrors } = await openPage(browser, { baseURL });
-    await page.goto('/');
-    await page.waitForURL(/\/sign-in$/);
-    // Act
-    await signInThroughForm(page, email);
-    // Assert
-    await page.waitForURL((url) => url.pathname === start);
-    expect(await navKeys(page)).toEqual(nav);
-    await page.click('[data-test="user-menu"]');
-    await page.waitForSelector('[data-test="user-card"]');
-    expect(await page.textContent('[data-test="user-card"]')).toContain(email);
+  it.each(ROLE_JOURNEYS)(
+    'when %s signs in, then lands on %s, sees exactly the navigation %j, and can sign out',
+    async (email, start, nav) => {
+      // Arrange
+      const { context, page, pageErrors } = await openPage(browser, { baseURL });
+      await page.goto('/');
+      await page.waitForURL(/\/sign-in$/);
+      // Act
+      await signInThroughForm(page, email);
+      // Assert
+      await page.waitForURL((url) => url.pathname === start);
+      expect(await navKeys(page)).toEqual(nav);
+      await page.click('[data-test="user-menu"]');
+      await page.waitForSelector('[data-test="user-card"]');
+      expect(await page.textContent('[data-test="user-card"]')).toContain(email);
 
-    await signOut(page);
-    // Signed out for real: a private screen sends us back to sign-in, remembering where we were going.
-    await page.goto('/parts');
-    await waitForSignInWithNext(page, '/parts');
-    expect(await page.isVisible('[data-test="sign-in-submit"]')).toBe(true);
-    expect(pageErrors).toEqual([]);
-    await context.close();
-  });
+      await signOut(page);
+      // Signed out for real: a private screen sends us back to sign-in, remembering where we were going.
+      await page.goto('/parts');
+      await waitForSignInWithNext(page, '/parts');
+      expect(await page.isVisible('[data-test="sign-in-submit"]')).toBe(true);
+      expect(pageErrors).toEqual([]);
+      await context.close();
+    },
+  );
 
   it('when the password is wrong, then shows the server message and stays on sign-in', async () => {
     const { context, page, pageErrors } = await openPage(browser, { baseURL });
@@ -85,7 +88,15 @@ describe('sign-in journeys', () => {
     await page.waitForURL((url) => url.pathname === '/team');
     await page.waitForSelector('[data-test="team-row"][data-email="reviewer@example.test"]');
     const emails = await page.$$eval('[data-test="team-email"]', (els) => els.map((el) => el.textContent?.trim()));
-    expect(emails).toEqual(expect.arrayContaining(['admin@example.test', 'designer@example.test', 'designer2@example.test', 'reviewer@example.test', 'maker@example.test']));
+    expect(emails).toEqual(
+      expect.arrayContaining([
+        'admin@example.test',
+        'designer@example.test',
+        'designer2@example.test',
+        'reviewer@example.test',
+        'maker@example.test',
+      ]),
+    );
     expect(await page.title()).toBe('Team · Gantrywright');
     expect(pageErrors).toEqual([]);
     await context.close();

@@ -6,10 +6,26 @@ import { synthWav, typicalPluck } from '../unit/server/uploads/synthRecording';
 // Demo data seeded into gw_test_e2e by tests/helpers/e2eGlobalSetup.ts: the "Bench dispensing stage" (CoreXY) has a
 // current approved sheet, and maker@example.test records measurements on it.
 
-type SpanSummary = { spanId: string; label: string; beltId: string; fixedLength: boolean; lengthMm: number; targetFrequencyHz: number; targetTensionN: number; count: number; latest: { tensionN: number; frequencyHz: number } | null };
+type SpanSummary = {
+  spanId: string;
+  label: string;
+  beltId: string;
+  fixedLength: boolean;
+  lengthMm: number;
+  targetFrequencyHz: number;
+  targetTensionN: number;
+  count: number;
+  latest: { tensionN: number; frequencyHz: number } | null;
+};
 
 /** "35.12 N" → 35.12 (the page shows metric units by default). */
-const newtons = (text: string | null): number => Number((text ?? '').replace(/[^0-9.,−-]/g, '').replace(',', '').replace('−', '-'));
+const newtons = (text: string | null): number =>
+  Number(
+    (text ?? '')
+      .replace(/[^0-9.,−-]/g, '')
+      .replace(',', '')
+      .replace('−', '-'),
+  );
 
 async function currentBenchSheet(page: Page): Promise<number> {
   const res = await page.request.get('/api/sheets?current=true&pageSize=100');
@@ -57,7 +73,11 @@ describe('belt tension measurement journey', () => {
     // Act: choose the span from its row, switch to a recording, pick the file and send it.
     await page.click(`[data-test="record-${span.spanId}"]`);
     await page.click('[data-test="measurement-mode-recording"]');
-    await page.setInputFiles('[data-test="measurement-file"] input[type="file"]', { name: 'pluck-b.wav', mimeType: 'audio/wav', buffer: wav });
+    await page.setInputFiles('[data-test="measurement-file"] input[type="file"]', {
+      name: 'pluck-b.wav',
+      mimeType: 'audio/wav',
+      buffer: wav,
+    });
     await page.click('[data-test="measurement-submit"]');
 
     // Assert: the result panel and the span's row show the measured tension beside the target.
@@ -84,7 +104,11 @@ describe('belt tension measurement journey', () => {
 
     // A silent recording is refused with the server's message, and nothing new is listed.
     const before = (await spansOf(page, sheetId)).find((s) => s.spanId === span.spanId)!;
-    await page.setInputFiles('[data-test="measurement-file"] input[type="file"]', { name: 'quiet.wav', mimeType: 'audio/wav', buffer: synthWav({ sampleRateHz: 16000, durationS: 1.5 }) });
+    await page.setInputFiles('[data-test="measurement-file"] input[type="file"]', {
+      name: 'quiet.wav',
+      mimeType: 'audio/wav',
+      buffer: synthWav({ sampleRateHz: 16000, durationS: 1.5 }),
+    });
     await page.click('[data-test="measurement-submit"]');
     const error = page.locator('[data-test="measurement-error"]');
     await error.waitFor();

@@ -76,7 +76,9 @@ describe('review journey: submit, return, fix, resubmit, approve, download', () 
     await designer.page.reload();
     await designer.page.waitForSelector('[data-test="workbench"] [data-test="status-returned"]');
     expect(await designer.page.textContent('[data-test="return-reason-text"]')).toBe(reason);
-    const saved = designer.page.waitForResponse((r) => r.url().endsWith(`/api/designs/${designId}`) && r.request().method() === 'PATCH' && r.ok());
+    const saved = designer.page.waitForResponse(
+      (r) => r.url().endsWith(`/api/designs/${designId}`) && r.request().method() === 'PATCH' && r.ok(),
+    );
     await designer.page.fill('[data-test="input-pretensionN"]', '45');
     await saved;
     await designer.page.click('[data-test="design-submit"]');

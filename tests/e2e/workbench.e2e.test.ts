@@ -82,7 +82,9 @@ describe('workbench journey', () => {
     // Assert: the stiffness map now covers the larger travel, with other frequencies
     await page.waitForFunction(
       (before) => {
-        const el = document.querySelector('[data-test="stiffness-map"] .js-plotly-plot') as unknown as { data?: Array<{ x: number[]; z: number[][] }> } | null;
+        const el = document.querySelector('[data-test="stiffness-map"] .js-plotly-plot') as unknown as {
+          data?: Array<{ x: number[]; z: number[][] }>;
+        } | null;
         return !!el?.data && JSON.stringify(el.data[0].z) !== before;
       },
       JSON.stringify((stiffnessBefore as Array<{ z: unknown }>)[0].z),

@@ -14,8 +14,10 @@ export function assertTestEnvironment(): void {
   if (process.env.NODE_ENV !== 'test') problems.push(`NODE_ENV is "${process.env.NODE_ENV}", not "test"`);
   if (!process.env.DB_NAME?.startsWith('gw_test')) problems.push(`DB_NAME "${process.env.DB_NAME}" is not a gw_test_* database`);
   if (problems.length) {
-    throw new Error(`API and e2e tests need the throw-away MariaDB of scripts/test.ts (${problems.join('; ')}).\n`
-      + 'Run them with: npm test -- --project api   (or --project e2e)');
+    throw new Error(
+      `API and e2e tests need the throw-away MariaDB of scripts/test.ts (${problems.join('; ')}).\n` +
+        'Run them with: npm test -- --project api   (or --project e2e)',
+    );
   }
 }
 

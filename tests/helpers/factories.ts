@@ -27,7 +27,9 @@ export function uniqueEmail(prefix = 'user'): string {
  * Creates a user row directly (no HTTP). Each test makes its own users.
  * @returns the public user plus the e-mail and password to sign in with.
  */
-export async function createUser(options: { roles?: Role[]; disabled?: boolean; password?: string | null; name?: string; email?: string } = {}): Promise<{ user: PublicUser; email: string; password: string }> {
+export async function createUser(
+  options: { roles?: Role[]; disabled?: boolean; password?: string | null; name?: string; email?: string } = {},
+): Promise<{ user: PublicUser; email: string; password: string }> {
   getSequelize();
   const email = options.email ?? uniqueEmail(options.roles?.[0] ?? 'nobody');
   const password = options.password === undefined ? DEFAULT_PASSWORD : options.password;
@@ -50,7 +52,10 @@ export async function signIn(app: Express, email: string, password: string): Pro
 }
 
 /** Creates a user with `roles` and returns a signed-in agent for them. */
-export async function signedInAs(app: Express, roles: Role[]): Promise<{ agent: Agent; user: PublicUser; email: string; password: string }> {
+export async function signedInAs(
+  app: Express,
+  roles: Role[],
+): Promise<{ agent: Agent; user: PublicUser; email: string; password: string }> {
   const created = await createUser({ roles });
   return { ...created, agent: await signIn(app, created.email, created.password) };
 }
@@ -121,13 +126,27 @@ export async function createPart(kind: PartKind, fields: Record<string, unknown>
   getSequelize();
   const defaults: Record<PartKind, Record<string, unknown>> = {
     belt: {
-      profile: '2 mm round tooth', standard: 'common practice', pitchMm: 2, widthMm: 6, linearMassKgPerM: 0.0075,
-      axialStiffnessN: 40000, allowableTensionN: 250, minPulleyTeeth: 12, source: 'test',
+      profile: '2 mm round tooth',
+      standard: 'common practice',
+      pitchMm: 2,
+      widthMm: 6,
+      linearMassKgPerM: 0.0075,
+      axialStiffnessN: 40000,
+      allowableTensionN: 250,
+      minPulleyTeeth: 12,
+      source: 'test',
     },
     pulley: { teeth: 20, pitchMm: 2, profile: '2 mm round tooth', kind: 'drive', boreMm: 5, inertiaKgM2: null },
     motor: {
-      frameMm: 42, stepAngleDeg: 1.8, holdingTorqueNm: 0.45, ratedCurrentA: 1.5, phaseResistanceOhm: 1.8,
-      phaseInductanceMh: 3.2, rotorInertiaKgM2: 5.7e-6, massKg: 0.28, torqueCurve: null,
+      frameMm: 42,
+      stepAngleDeg: 1.8,
+      holdingTorqueNm: 0.45,
+      ratedCurrentA: 1.5,
+      phaseResistanceOhm: 1.8,
+      phaseInductanceMh: 3.2,
+      rotorInertiaKgM2: 5.7e-6,
+      massKg: 0.28,
+      torqueCurve: null,
     },
   };
   const { name, note, retired, ...data } = { ...defaults[kind], ...fields } as Record<string, unknown>;
@@ -159,16 +178,34 @@ export async function createApprovedSheet(options: {
   const frozen = freezeDesign(design.inputs);
   const now = new Date();
   const revision = await Revision.create({
-    designId: design.id, number: 1, status: 'approved',
-    inputs: frozen.inputs as unknown as Record<string, unknown>, result: frozen.result as unknown as Record<string, unknown>,
-    summary: frozen.summary, engineVersion: frozen.result.engineVersion, fingerprint: frozen.fingerprint,
-    authorId: options.owner.id, submittedAt: now, decidedById: options.approver.id, decidedAt: now, decisionNote: 'Approved in a test.',
+    designId: design.id,
+    number: 1,
+    status: 'approved',
+    inputs: frozen.inputs as unknown as Record<string, unknown>,
+    result: frozen.result as unknown as Record<string, unknown>,
+    summary: frozen.summary,
+    engineVersion: frozen.result.engineVersion,
+    fingerprint: frozen.fingerprint,
+    authorId: options.owner.id,
+    submittedAt: now,
+    decidedById: options.approver.id,
+    decidedAt: now,
+    decisionNote: 'Approved in a test.',
   });
   const placeholder = Buffer.from('%PDF-1.4\n% placeholder sheet of an API test\n%%EOF\n');
   const hash = createHash('sha256').update(placeholder).digest('hex');
   const sheet = await Sheet.create({
-    revisionId: revision.id, designId: design.id, approvedById: options.approver.id, approvedAt: now, comment: 'Approved in a test.',
-    a4Pdf: placeholder, a4Sha256: hash, a4Size: placeholder.length, letterPdf: placeholder, letterSha256: hash, letterSize: placeholder.length,
+    revisionId: revision.id,
+    designId: design.id,
+    approvedById: options.approver.id,
+    approvedAt: now,
+    comment: 'Approved in a test.',
+    a4Pdf: placeholder,
+    a4Sha256: hash,
+    a4Size: placeholder.length,
+    letterPdf: placeholder,
+    letterSha256: hash,
+    letterSize: placeholder.length,
   });
   return { sheetId: sheet.id, designId: design.id, revisionId: revision.id, inputs: frozen.inputs, result: frozen.result };
 }

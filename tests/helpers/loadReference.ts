@@ -82,7 +82,8 @@ function assertTableIsValid(raw: unknown, file: string): asserts raw is Referenc
   for (const key of ['shortName', 'title', 'edition', 'section', 'status', 'confirmedVia', 'howTranscribed'] as const) {
     if (typeof source[key] !== 'string' || source[key].trim() === '') fail(file, `source.${key} is missing`);
   }
-  if (!REFERENCE_STATUSES.includes(source.status as ReferenceStatus)) fail(file, `source.status "${source.status}" is not one of ${REFERENCE_STATUSES.join(', ')}`);
+  if (!REFERENCE_STATUSES.includes(source.status as ReferenceStatus))
+    fail(file, `source.status "${source.status}" is not one of ${REFERENCE_STATUSES.join(', ')}`);
   if (!table.units || typeof table.units !== 'object') fail(file, 'missing "units"');
   if (!Array.isArray(table.rows) || table.rows.length === 0) fail(file, '"rows" must be a non-empty array');
   const ids = new Set<string>();
@@ -91,8 +92,10 @@ function assertTableIsValid(raw: unknown, file: string): asserts raw is Referenc
     if (ids.has(row.id)) fail(file, `duplicate row id ${row.id}`);
     ids.add(row.id);
     if (row.inputs === null || typeof row.inputs !== 'object') fail(file, `${row.id}: "inputs" must be an object`);
-    if (row.expected === null || typeof row.expected !== 'object' || Object.keys(row.expected).length === 0) fail(file, `${row.id}: "expected" must be a non-empty object`);
-    if (row.status !== undefined && !REFERENCE_STATUSES.includes(row.status)) fail(file, `${row.id}: status "${row.status}" is not allowed`);
+    if (row.expected === null || typeof row.expected !== 'object' || Object.keys(row.expected).length === 0)
+      fail(file, `${row.id}: "expected" must be a non-empty object`);
+    if (row.status !== undefined && !REFERENCE_STATUSES.includes(row.status))
+      fail(file, `${row.id}: status "${row.status}" is not allowed`);
     if (row.tolerance !== undefined) {
       const { rel, abs } = row.tolerance;
       if (rel === undefined && abs === undefined) fail(file, `${row.id}: tolerance needs rel or abs`);
@@ -109,7 +112,10 @@ function assertTableIsValid(raw: unknown, file: string): asserts raw is Referenc
  * @param table - file name without `.json`, e.g. `pitches`
  * @returns the parsed table, typed with the caller's input and expected shapes
  */
-export function loadReference<I = Record<string, number>, E = Record<string, number>>(sourceSlug: string, table: string): ReferenceTable<I, E> {
+export function loadReference<I = Record<string, number>, E = Record<string, number>>(
+  sourceSlug: string,
+  table: string,
+): ReferenceTable<I, E> {
   const file = join(REFERENCE_DIR, sourceSlug, `${table}.json`);
   const raw: unknown = JSON.parse(readFileSync(file, 'utf8'));
   assertTableIsValid(raw, `${sourceSlug}/${table}.json`);
@@ -170,5 +176,8 @@ export type ReferenceCase<I, E> = [title: string, row: ReferenceRow<I, E>];
  * @param rows - a subset of its rows (default: all)
  */
 export function referenceCases<I, E>(table: ReferenceTable<I, E>, rows: ReferenceRow<I, E>[] = table.rows): ReferenceCase<I, E>[] {
-  return rows.map((row) => [`${row.id} (${sourceLabel(table as ReferenceTable<unknown, unknown>, row as ReferenceRow<unknown, unknown>)})`, row]);
+  return rows.map((row) => [
+    `${row.id} (${sourceLabel(table as ReferenceTable<unknown, unknown>, row as ReferenceRow<unknown, unknown>)})`,
+    row,
+  ]);
 }

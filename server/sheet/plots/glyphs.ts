@@ -11,7 +11,12 @@ export function wordmarkGlyph(size: number): string {
   const body = [
     el('rect', { x: 2 * s, y: 2 * s, width: 28 * s, height: 28 * s, rx: 4 * s, fill: INK }),
     // belt loop
-    el('path', { d: pathThrough([p(7, 7), p(25, 7), p(25, 25), p(7, 25)], true), fill: 'none', stroke: PALETTE.sky, 'stroke-width': 1.1 * s }),
+    el('path', {
+      d: pathThrough([p(7, 7), p(25, 7), p(25, 25), p(7, 25)], true),
+      fill: 'none',
+      stroke: PALETTE.sky,
+      'stroke-width': 1.1 * s,
+    }),
     // corner pulleys
     ...[p(7, 7), p(25, 7), p(25, 25), p(7, 25)].map(([x, y]) => el('circle', { cx: x, cy: y, r: 2.1 * s, fill: '#ffffff' })),
     // gantry beam
@@ -42,18 +47,37 @@ export function severityIcon(severity: Severity, size: number): string {
   if (severity === 'ok') {
     body = [
       el('circle', { cx: 6 * s, cy: 6 * s, r: 5.5 * s, fill: color }),
-      el('path', { d: pathThrough([p(3.3, 6.2), p(5.2, 8.1), p(8.8, 4.2)]), fill: 'none', stroke: '#ffffff', 'stroke-width': 1.5 * s, 'stroke-linecap': 'round', 'stroke-linejoin': 'round' }),
+      el('path', {
+        d: pathThrough([p(3.3, 6.2), p(5.2, 8.1), p(8.8, 4.2)]),
+        fill: 'none',
+        stroke: '#ffffff',
+        'stroke-width': 1.5 * s,
+        'stroke-linecap': 'round',
+        'stroke-linejoin': 'round',
+      }),
     ];
   } else if (severity === 'warn') {
     body = [
-      el('path', { d: pathThrough([p(6, 0.6), p(11.6, 11), p(0.4, 11)], true), fill: color, stroke: color, 'stroke-width': 0.6 * s, 'stroke-linejoin': 'round' }),
+      el('path', {
+        d: pathThrough([p(6, 0.6), p(11.6, 11), p(0.4, 11)], true),
+        fill: color,
+        stroke: color,
+        'stroke-width': 0.6 * s,
+        'stroke-linejoin': 'round',
+      }),
       el('rect', { x: 5.3 * s, y: 4 * s, width: 1.4 * s, height: 3.9 * s, fill: INK }),
       el('rect', { x: 5.3 * s, y: 8.7 * s, width: 1.4 * s, height: 1.4 * s, fill: INK }),
     ];
   } else {
     body = [
       el('rect', { x: 0.7 * s, y: 0.7 * s, width: 10.6 * s, height: 10.6 * s, fill: color }),
-      el('path', { d: `${pathThrough([p(3.5, 3.5), p(8.5, 8.5)])} ${pathThrough([p(8.5, 3.5), p(3.5, 8.5)])}`, fill: 'none', stroke: '#ffffff', 'stroke-width': 1.6 * s, 'stroke-linecap': 'round' }),
+      el('path', {
+        d: `${pathThrough([p(3.5, 3.5), p(8.5, 8.5)])} ${pathThrough([p(8.5, 3.5), p(3.5, 8.5)])}`,
+        fill: 'none',
+        stroke: '#ffffff',
+        'stroke-width': 1.6 * s,
+        'stroke-linecap': 'round',
+      }),
     ];
   }
   return svgDocument(size, size, body);
@@ -64,7 +88,13 @@ export function cautionIcon(size: number): string {
   const s = size / 24;
   const p = (x: number, y: number): [number, number] => [x * s, y * s];
   return svgDocument(size, size, [
-    el('path', { d: pathThrough([p(12, 1.5), p(23, 21.5), p(1, 21.5)], true), fill: PALETTE.yellow, stroke: INK, 'stroke-width': 1.6 * s, 'stroke-linejoin': 'round' }),
+    el('path', {
+      d: pathThrough([p(12, 1.5), p(23, 21.5), p(1, 21.5)], true),
+      fill: PALETTE.yellow,
+      stroke: INK,
+      'stroke-width': 1.6 * s,
+      'stroke-linejoin': 'round',
+    }),
     el('rect', { x: 10.8 * s, y: 7.5 * s, width: 2.4 * s, height: 7.5 * s, fill: INK }),
     el('rect', { x: 10.8 * s, y: 16.6 * s, width: 2.4 * s, height: 2.4 * s, fill: INK }),
   ]);

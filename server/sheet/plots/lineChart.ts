@@ -42,9 +42,30 @@ export function marker(shape: ChartPoint['shape'], x: number, y: number, size = 
     case 'square':
       return el('rect', { x: x - size, y: y - size, width: size * 2, height: size * 2, ...style });
     case 'diamond':
-      return el('path', { d: pathThrough([[x, y - size * 1.3], [x + size * 1.3, y], [x, y + size * 1.3], [x - size * 1.3, y]], true), ...style });
+      return el('path', {
+        d: pathThrough(
+          [
+            [x, y - size * 1.3],
+            [x + size * 1.3, y],
+            [x, y + size * 1.3],
+            [x - size * 1.3, y],
+          ],
+          true,
+        ),
+        ...style,
+      });
     case 'triangle':
-      return el('path', { d: pathThrough([[x, y - size * 1.3], [x + size * 1.2, y + size * 0.9], [x - size * 1.2, y + size * 0.9]], true), ...style });
+      return el('path', {
+        d: pathThrough(
+          [
+            [x, y - size * 1.3],
+            [x + size * 1.2, y + size * 0.9],
+            [x - size * 1.2, y + size * 0.9],
+          ],
+          true,
+        ),
+        ...style,
+      });
   }
 }
 
@@ -88,7 +109,16 @@ export function lineChart(opts: LineChartOptions): string {
 
   for (const s of opts.series) {
     const pts: [number, number][] = s.x.map((x, i) => [sx(x), sy(s.y[i])]);
-    parts.push(el('path', { d: pathThrough(pts), fill: 'none', stroke: s.color, 'stroke-width': 1.3, 'stroke-dasharray': s.dash, 'stroke-linejoin': 'round' }));
+    parts.push(
+      el('path', {
+        d: pathThrough(pts),
+        fill: 'none',
+        stroke: s.color,
+        'stroke-width': 1.3,
+        'stroke-dasharray': s.dash,
+        'stroke-linejoin': 'round',
+      }),
+    );
   }
   for (const p of opts.points ?? []) parts.push(marker(p.shape, sx(p.x), sy(p.y), 3, p.filled));
 

@@ -44,7 +44,11 @@ interface Run {
 }
 
 /** Split a closed signed curve into same-sign runs that meet at the centre where the value crosses zero. */
-function signedRuns(directionsDeg: readonly number[], values: readonly number[], toXY: (deg: number, r: number) => [number, number]): Run[] {
+function signedRuns(
+  directionsDeg: readonly number[],
+  values: readonly number[],
+  toXY: (deg: number, r: number) => [number, number],
+): Run[] {
   const n = Math.min(directionsDeg.length, values.length);
   if (n === 0) return [];
   const positive = (v: number): boolean => v >= 0;
@@ -133,24 +137,38 @@ export function polarPlot(opts: PolarPlotOptions): string {
   opts.series.forEach((s) => {
     if (s.signed) {
       for (const run of signedRuns(opts.directionsDeg, s.values, toXY)) {
-        parts.push(el('path', {
-          d: pathThrough(run.points), fill: 'none', stroke: s.color, 'stroke-width': 1.3,
-          'stroke-dasharray': run.positive ? undefined : NEGATIVE_DASH, 'stroke-linejoin': 'round',
-        }));
+        parts.push(
+          el('path', {
+            d: pathThrough(run.points),
+            fill: 'none',
+            stroke: s.color,
+            'stroke-width': 1.3,
+            'stroke-dasharray': run.positive ? undefined : NEGATIVE_DASH,
+            'stroke-linejoin': 'round',
+          }),
+        );
       }
       for (const sign of [1, -1] as const) {
         const i = extremeIndex(s.values, sign);
         if (i < 0) continue;
         // Inside the lobe, just short of its tip: always clear space, never on a spoke label.
         const [x, y] = toXY(opts.directionsDeg[i], Math.abs(s.values[i]) * 0.78);
-        parts.push(text(x, y, `${s.tag ?? ''}${sign > 0 ? '+' : '−'}`, { size: 7, bold: true, anchor: 'middle', middle: true, fill: s.color }));
+        parts.push(
+          text(x, y, `${s.tag ?? ''}${sign > 0 ? '+' : '−'}`, { size: 7, bold: true, anchor: 'middle', middle: true, fill: s.color }),
+        );
       }
     } else {
       const pts = opts.directionsDeg.map((d, i) => toXY(d, Math.abs(s.values[i] ?? 0)));
-      parts.push(el('path', {
-        d: pathThrough(pts, true), fill: 'none', stroke: s.color, 'stroke-width': 1.3,
-        'stroke-dasharray': s.dash, 'stroke-linejoin': 'round',
-      }));
+      parts.push(
+        el('path', {
+          d: pathThrough(pts, true),
+          fill: 'none',
+          stroke: s.color,
+          'stroke-width': 1.3,
+          'stroke-dasharray': s.dash,
+          'stroke-linejoin': 'round',
+        }),
+      );
     }
   });
 

@@ -61,7 +61,8 @@ export function text(x: number, y: number, content: string, opts: TextOptions = 
   return el(
     'text',
     {
-      x, y: yy,
+      x,
+      y: yy,
       'font-family': SVG_FONT,
       'font-size': size,
       'font-weight': opts.bold ? 'bold' : undefined,
@@ -87,11 +88,7 @@ export function pathThrough(points: readonly [number, number][], closed = false)
 
 /** A whole SVG document of the given size in PDF points. */
 export function svgDocument(width: number, height: number, body: string | string[]): string {
-  return el(
-    'svg',
-    { xmlns: 'http://www.w3.org/2000/svg', width, height, viewBox: `0 0 ${num(width)} ${num(height)}` },
-    body,
-  );
+  return el('svg', { xmlns: 'http://www.w3.org/2000/svg', width, height, viewBox: `0 0 ${num(width)} ${num(height)}` }, body);
 }
 
 /** About `count` round tick values covering [min, max] (1-2-5 steps). */
@@ -129,8 +126,15 @@ export function tickLabel(value: number, step: number): string {
 // Viridis (perceptually uniform, readable in greyscale and with colour-vision deficiencies): nine stops of
 // the matplotlib colormap, interpolated linearly in RGB.
 const VIRIDIS: readonly [number, number, number][] = [
-  [68, 1, 84], [71, 44, 122], [59, 81, 139], [44, 113, 142], [33, 144, 141],
-  [39, 173, 129], [92, 200, 99], [170, 220, 50], [253, 231, 37],
+  [68, 1, 84],
+  [71, 44, 122],
+  [59, 81, 139],
+  [44, 113, 142],
+  [33, 144, 141],
+  [39, 173, 129],
+  [92, 200, 99],
+  [170, 220, 50],
+  [253, 231, 37],
 ];
 
 /** Viridis colour for t in [0, 1] as #rrggbb. */

@@ -1,8 +1,12 @@
 import { onBeforeUnmount, ref, shallowRef, watch, type Ref, type ShallowRef } from 'vue';
 import { isApiError } from '@/api/http';
 import {
-  getMeasurement, listMeasurements, recordPluckRecording, recordTypedMeasurement,
-  type MeasurementDetail, type SheetMeasurements,
+  getMeasurement,
+  listMeasurements,
+  recordPluckRecording,
+  recordTypedMeasurement,
+  type MeasurementDetail,
+  type SheetMeasurements,
 } from '@/api/measurements';
 import { errorMessage } from '@/utils/message';
 
@@ -62,9 +66,10 @@ export function useSheetMeasurements(sheetId: Ref<number>): UseSheetMeasurements
     isSaving.value = true;
     saveError.value = '';
     try {
-      const saved = entry.mode === 'typed'
-        ? await recordTypedMeasurement(sheetId.value, entry.spanId, entry.frequencyHz)
-        : await recordPluckRecording(sheetId.value, entry.spanId, entry.file);
+      const saved =
+        entry.mode === 'typed'
+          ? await recordTypedMeasurement(sheetId.value, entry.spanId, entry.frequencyHz)
+          : await recordPluckRecording(sheetId.value, entry.spanId, entry.file);
       shown.value = saved;
       await load();
       return true;
@@ -85,10 +90,14 @@ export function useSheetMeasurements(sheetId: Ref<number>): UseSheetMeasurements
     }
   }
 
-  watch(sheetId, () => {
-    shown.value = null;
-    void load();
-  }, { immediate: true });
+  watch(
+    sheetId,
+    () => {
+      shown.value = null;
+      void load();
+    },
+    { immediate: true },
+  );
   onBeforeUnmount(() => {
     isActive = false;
   });

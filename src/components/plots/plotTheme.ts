@@ -65,11 +65,29 @@ function merge(a: Record<string, unknown>, b: Record<string, unknown>): Record<s
  * @param c - colours of the current theme
  */
 export function themedLayout(layout: PlotLayout, c: PlotColours): PlotLayout {
-  const axis = { gridcolor: c.grid, linecolor: c.grid, zerolinecolor: c.grid, tickfont: { color: c.muted }, title: { font: { color: c.text, size: 12 } }, automargin: true };
+  const axis = {
+    gridcolor: c.grid,
+    linecolor: c.grid,
+    zerolinecolor: c.grid,
+    tickfont: { color: c.muted },
+    title: { font: { color: c.text, size: 12 } },
+    automargin: true,
+  };
   const polar = {
     bgcolor: 'rgba(0,0,0,0)',
-    radialaxis: { gridcolor: c.grid, linecolor: c.grid, tickfont: { color: c.muted, size: 10 }, title: { font: { color: c.text, size: 11 } } },
-    angularaxis: { gridcolor: c.grid, linecolor: c.grid, tickfont: { color: c.muted, size: 10 }, direction: 'counterclockwise', rotation: 0 },
+    radialaxis: {
+      gridcolor: c.grid,
+      linecolor: c.grid,
+      tickfont: { color: c.muted, size: 10 },
+      title: { font: { color: c.text, size: 11 } },
+    },
+    angularaxis: {
+      gridcolor: c.grid,
+      linecolor: c.grid,
+      tickfont: { color: c.muted, size: 10 },
+      direction: 'counterclockwise',
+      rotation: 0,
+    },
   };
   let base: Record<string, unknown> = {
     font: { family: c.font, color: c.text, size: 12 },

@@ -37,7 +37,8 @@ export function resetRules(getPassword: () => string): FormRules {
       { min: PASSWORD_MIN_LENGTH, message: `Use at least ${PASSWORD_MIN_LENGTH} characters.`, trigger: 'blur' },
       {
         validator: (_rule, value: string, callback) => {
-          if (new TextEncoder().encode(value ?? '').length > PASSWORD_MAX_BYTES) callback(new Error(`Use at most ${PASSWORD_MAX_BYTES} bytes (about ${PASSWORD_MAX_BYTES} plain letters).`));
+          if (new TextEncoder().encode(value ?? '').length > PASSWORD_MAX_BYTES)
+            callback(new Error(`Use at most ${PASSWORD_MAX_BYTES} bytes (about ${PASSWORD_MAX_BYTES} plain letters).`));
           else callback();
         },
         trigger: 'blur',

@@ -33,7 +33,12 @@ export function parseDesignFile(text: string): ImportOutcome {
  */
 export async function readDesignFile(file: File): Promise<ImportOutcome> {
   if (file.size > IMPORT_MAX_BYTES) {
-    return { ok: false, issues: [{ path: '', message: `The file is ${Math.round(file.size / 1024)} kB; a design file is at most ${IMPORT_MAX_BYTES / 1024} kB.` }] };
+    return {
+      ok: false,
+      issues: [
+        { path: '', message: `The file is ${Math.round(file.size / 1024)} kB; a design file is at most ${IMPORT_MAX_BYTES / 1024} kB.` },
+      ],
+    };
   }
   return parseDesignFile(await file.text());
 }

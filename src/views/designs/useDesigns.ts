@@ -34,7 +34,8 @@ export function useDesigns() {
   const canRename = (row: DesignSummary): boolean =>
     row.canEdit ?? ((row.status === 'draft' || row.status === 'returned') && (isAdmin.value || (isMine(row) && auth.hasRole('designer'))));
   /** Drafts are deleted by their owner, or an admin (the server's flag when it sends one). */
-  const canDelete = (row: DesignSummary): boolean => row.canDelete ?? (row.status === 'draft' && (isAdmin.value || (isMine(row) && auth.hasRole('designer'))));
+  const canDelete = (row: DesignSummary): boolean =>
+    row.canDelete ?? (row.status === 'draft' && (isAdmin.value || (isMine(row) && auth.hasRole('designer'))));
 
   async function load(): Promise<void> {
     const mine = ++ticket;
@@ -63,12 +64,14 @@ export function useDesigns() {
   watch(q, () => {
     if (searchTimer) clearTimeout(searchTimer);
     searchTimer = setTimeout(() => {
-      if (page.value !== 1) page.value = 1; // the page watcher loads
+      if (page.value !== 1)
+        page.value = 1; // the page watcher loads
       else void load();
     }, SEARCH_DELAY_MS);
   });
   watch([status, mechanism, pageSize], () => {
-    if (page.value !== 1) page.value = 1; // the page watcher loads
+    if (page.value !== 1)
+      page.value = 1; // the page watcher loads
     else void load();
   });
   onScopeDispose(() => {
@@ -81,7 +84,13 @@ export function useDesigns() {
    * @param change - column property and order from the table
    */
   function onSortChange(change: { prop: string | null; order: 'ascending' | 'descending' | null }): void {
-    const SORTABLE: Record<string, DesignSortKey> = { name: 'name', updatedAt: 'updatedAt', status: 'status', mechanism: 'mechanism', owner: 'owner' };
+    const SORTABLE: Record<string, DesignSortKey> = {
+      name: 'name',
+      updatedAt: 'updatedAt',
+      status: 'status',
+      mechanism: 'mechanism',
+      owner: 'owner',
+    };
     const key = change.prop ? SORTABLE[change.prop] : undefined;
     if (!key || !change.order) {
       sortKey.value = 'updatedAt';

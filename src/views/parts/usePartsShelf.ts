@@ -77,5 +77,20 @@ export function usePartsShelf(initial: PartKind = 'belts') {
     }
   }
 
-  return { kind, showRetired, parts, isLoading, loadError, busyIds, isAdmin, shelf, isEditOpen, editing, load, openAdd, openEdit, setRetired };
+  return {
+    kind,
+    showRetired,
+    parts,
+    isLoading,
+    loadError,
+    busyIds,
+    isAdmin,
+    shelf,
+    isEditOpen,
+    editing,
+    load,
+    openAdd,
+    openEdit,
+    setRetired,
+  };
 }

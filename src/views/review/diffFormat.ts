@@ -20,7 +20,10 @@ export function inputLabel(path: string): string {
   const field = FIELD_BY_PATH.get(path);
   if (field) return field.label;
   if (EXTRA_LABELS[path]) return EXTRA_LABELS[path];
-  const words = path.replace(/\./g, ' ').replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase();
+  const words = path
+    .replace(/\./g, ' ')
+    .replace(/([a-z])([A-Z])/g, '$1 $2')
+    .toLowerCase();
   return words.charAt(0).toUpperCase() + words.slice(1);
 }
 

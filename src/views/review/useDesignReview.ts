@@ -51,11 +51,22 @@ export function useDesignReview(designId: Ref<number>, status: Ref<DesignStatus 
    * Freezes the stored inputs as a new revision and sends it for review.
    * @param version - the design version the designer sees (the server refuses a stale one)
    */
-  const submit = (version?: number) => run(() => submitDesign(designId.value, version), 'Submitted for review. Reviewers have been notified.', 'The design could not be submitted.');
+  const submit = (version?: number) =>
+    run(
+      () => submitDesign(designId.value, version),
+      'Submitted for review. Reviewers have been notified.',
+      'The design could not be submitted.',
+    );
   /** Takes the revision in review back; the design becomes a draft again. */
-  const withdraw = () => run(() => withdrawDesign(designId.value), 'Withdrawn. The design is a draft again.', 'The design could not be withdrawn.');
+  const withdraw = () =>
+    run(() => withdrawDesign(designId.value), 'Withdrawn. The design is a draft again.', 'The design could not be withdrawn.');
   /** Reopens an approved design as a draft for a new revision. */
-  const reopen = () => run(() => reopenDesign(designId.value), 'Reopened as a draft. The approved sheet stays available.', 'The design could not be reopened.');
+  const reopen = () =>
+    run(
+      () => reopenDesign(designId.value),
+      'Reopened as a draft. The approved sheet stays available.',
+      'The design could not be reopened.',
+    );
 
   watch([designId, status], () => void load(), { immediate: true });
 

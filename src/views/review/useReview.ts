@@ -1,7 +1,15 @@
 import { computed, ref, shallowRef, watch, type Ref } from 'vue';
 import {
-  addComment, approveRevision, getRevision, getRevisionDiff, listComments, returnRevision, withdrawDesign,
-  type RevisionComment, type RevisionDetail, type RevisionDiff,
+  addComment,
+  approveRevision,
+  getRevision,
+  getRevisionDiff,
+  listComments,
+  returnRevision,
+  withdrawDesign,
+  type RevisionComment,
+  type RevisionDetail,
+  type RevisionDiff,
 } from '@/api/revisions';
 import { isApiError } from '@/api/http';
 import { errorMessage, showError, showSuccess } from '@/utils/message';
@@ -153,7 +161,21 @@ export function useReview(id: Ref<number>) {
   watch(id, () => void load(), { immediate: true });
 
   return {
-    revision, diff, comments, threads, isLoading, loadError, notFound, diffError, isDeciding, isPosting, publishedSheetId,
-    load, approve, sendBack, withdraw, comment,
+    revision,
+    diff,
+    comments,
+    threads,
+    isLoading,
+    loadError,
+    notFound,
+    diffError,
+    isDeciding,
+    isPosting,
+    publishedSheetId,
+    load,
+    approve,
+    sendBack,
+    withdraw,
+    comment,
   };
 }

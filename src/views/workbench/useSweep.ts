@@ -65,9 +65,11 @@ export function useSweep(source: () => unknown, runner: EngineRunner = getEngine
   }
 
   const rangeProblem = computed(() => {
-    if (from.value === null || to.value === null || !Number.isFinite(from.value) || !Number.isFinite(to.value)) return 'Enter both ends of the range.';
+    if (from.value === null || to.value === null || !Number.isFinite(from.value) || !Number.isFinite(to.value))
+      return 'Enter both ends of the range.';
     if (from.value === to.value) return 'The range needs two different ends.';
-    if (!Number.isInteger(steps.value) || steps.value < 2 || steps.value > SWEEP_MAX_STEPS) return `Steps must be a whole number from 2 to ${SWEEP_MAX_STEPS}.`;
+    if (!Number.isInteger(steps.value) || steps.value < 2 || steps.value > SWEEP_MAX_STEPS)
+      return `Steps must be a whole number from 2 to ${SWEEP_MAX_STEPS}.`;
     return null;
   });
 
@@ -113,5 +115,22 @@ export function useSweep(source: () => unknown, runner: EngineRunner = getEngine
 
   onScopeDispose(stop);
 
-  return { fields: SWEEPABLE_FIELDS, fieldPath, field, from, to, steps, points, done, total, isRunning, error, rangeProblem, sweptField, suggestRange, run, stop };
+  return {
+    fields: SWEEPABLE_FIELDS,
+    fieldPath,
+    field,
+    from,
+    to,
+    steps,
+    points,
+    done,
+    total,
+    isRunning,
+    error,
+    rangeProblem,
+    sweptField,
+    suggestRange,
+    run,
+    stop,
+  };
 }

@@ -73,7 +73,11 @@ export function useWorkbench(id: Ref<number>) {
     canSave: () => canEdit.value,
     isInvalid: () => engine.issues.value.length > 0,
     save: async (payload, v) => {
-      const saved = await updateDesign(id.value, { inputs: payload.inputs as unknown as DesignInputRaw, name: payload.inputs.name, version: v });
+      const saved = await updateDesign(id.value, {
+        inputs: payload.inputs as unknown as DesignInputRaw,
+        name: payload.inputs.name,
+        version: v,
+      });
       design.value = { ...saved, inputs: design.value?.inputs ?? saved.inputs };
       return { version: saved.version };
     },

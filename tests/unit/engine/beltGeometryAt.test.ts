@@ -17,7 +17,7 @@ describe('beltGeometryAt', () => {
     [0, 0],
     [1, 0],
     [0, 1],
-  ])('when a crossed-belt carriage moves from the origin by (%i, %i) × 10 mm, then belt A\'s short arm shortens by ΔX + ΔY', (fx, fy) => {
+  ])("when a crossed-belt carriage moves from the origin by (%i, %i) × 10 mm, then belt A's short arm shortens by ΔX + ΔY", (fx, fy) => {
     // ΔA = ΔX + ΔY (CoreXY 2012): the arm from the right clamp round to motor A is what motor A reels in.
     const d = defaultDesign('corexy');
     const a0 = beltGeometryAt({ design: d, xMm: 0, yMm: 0 })[0].arms[0].lengthMm;

@@ -20,19 +20,22 @@ describe('solveBeltPath', () => {
   it.each([
     [150, (20 * 2) / Math.PI / 2, (60 * 2) / Math.PI / 2],
     [80, 6, 15],
-  ])('when an open drive C = %d mm is solved, then wraps and length match the closed forms (Britannica 1911, Shigley ch. 17)', (c, r1, r2) => {
-    // Arrange: small → big → small gives both spans and the big wrap; big → small → big gives the small wrap.
-    const there = solveBeltPath([pulley('p1', 0, r1), pulley('p2', c, r2), pulley('p1', 0, r1)]);
-    const back = solveBeltPath([pulley('p2', c, r2), pulley('p1', 0, r1), pulley('p2', c, r2)]);
-    // Act
-    const big = there.wraps[0].wrapRad;
-    const small = back.wraps[0].wrapRad;
-    const length = there.spans[0].lengthMm + there.spans[1].lengthMm + there.wraps[0].arcMm + back.wraps[0].arcMm;
-    // Assert
-    expect(small).toBeCloseTo(wrapAngleRad({ centerMm: c, d1Mm: 2 * r1, d2Mm: 2 * r2 }), 9);
-    expect(big).toBeCloseTo(2 * Math.PI - small, 9);
-    expect(length).toBeCloseTo(openBeltLengthExactMm({ centerMm: c, d1Mm: 2 * r1, d2Mm: 2 * r2 }), 6);
-  });
+  ])(
+    'when an open drive C = %d mm is solved, then wraps and length match the closed forms (Britannica 1911, Shigley ch. 17)',
+    (c, r1, r2) => {
+      // Arrange: small → big → small gives both spans and the big wrap; big → small → big gives the small wrap.
+      const there = solveBeltPath([pulley('p1', 0, r1), pulley('p2', c, r2), pulley('p1', 0, r1)]);
+      const back = solveBeltPath([pulley('p2', c, r2), pulley('p1', 0, r1), pulley('p2', c, r2)]);
+      // Act
+      const big = there.wraps[0].wrapRad;
+      const small = back.wraps[0].wrapRad;
+      const length = there.spans[0].lengthMm + there.spans[1].lengthMm + there.wraps[0].arcMm + back.wraps[0].arcMm;
+      // Assert
+      expect(small).toBeCloseTo(wrapAngleRad({ centerMm: c, d1Mm: 2 * r1, d2Mm: 2 * r2 }), 9);
+      expect(big).toBeCloseTo(2 * Math.PI - small, 9);
+      expect(length).toBeCloseTo(openBeltLengthExactMm({ centerMm: c, d1Mm: 2 * r1, d2Mm: 2 * r2 }), 6);
+    },
+  );
 
   it('when a span runs round a pulley clockwise, then the tangent point sits on the other side', () => {
     const r = solveBeltPath([

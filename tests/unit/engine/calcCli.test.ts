@@ -32,14 +32,22 @@ describe('scripts/calc.ts', () => {
   }, 130_000);
 
   it.each([
-    ['an invalid design', () => [file('bad.json', JSON.stringify({ ...defaultDesign('corexy'), driver: { microsteps: 3, supplyV: 24, currentRmsA: 1 } }))], /driver\.microsteps/],
+    [
+      'an invalid design',
+      () => [file('bad.json', JSON.stringify({ ...defaultDesign('corexy'), driver: { microsteps: 3, supplyV: 24, currentRmsA: 1 } }))],
+      /driver\.microsteps/,
+    ],
     ['a file that is not JSON', () => [file('broken.json', '{ "name": ')], /not valid JSON/],
     ['a file that does not exist', () => [join(dir, 'missing.json')], /cannot read .*no such file/],
     ['no file', () => [], /no design file given/],
-  ] as const)('when given %s, then it exits 2 and says what is wrong on stderr', (_what, args, message) => {
-    const r = run(...args());
-    expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(message);
-    expect(r.stdout).toBe('');
-  }, 130_000);
+  ] as const)(
+    'when given %s, then it exits 2 and says what is wrong on stderr',
+    (_what, args, message) => {
+      const r = run(...args());
+      expect(r.code).toBe(2);
+      expect(r.stderr).toMatch(message);
+      expect(r.stdout).toBe('');
+    },
+    130_000,
+  );
 });

@@ -30,9 +30,12 @@ describe('stepsPerMm', () => {
     [400, 16, 16, 2, 200],
     [200, 16, 20, 2.032, 78.7402],
     [200, 16, 20, 2.5, 64],
-  ])('when %i full steps × %i microsteps drive %i teeth of %d mm, then steps/mm is %d (common practice)', (full, micro, teeth, pitchMm, expected) => {
-    expect(stepsPerMm({ fullStepsPerRev: full, microsteps: micro, teeth, pitchMm })).toBeCloseTo(expected, 4);
-  });
+  ])(
+    'when %i full steps × %i microsteps drive %i teeth of %d mm, then steps/mm is %d (common practice)',
+    (full, micro, teeth, pitchMm, expected) => {
+      expect(stepsPerMm({ fullStepsPerRev: full, microsteps: micro, teeth, pitchMm })).toBeCloseTo(expected, 4);
+    },
+  );
 });
 
 describe('reflectedMassKg', () => {
@@ -40,9 +43,12 @@ describe('reflectedMassKg', () => {
     // Linear Motion Tips (Design World), belt and pulley inertia: m_eq = J/r², r = z·p/(2π)
     [5.7e-6, 20, 2, 0.140642],
     [5.7e-6, 16, 2, 0.219753],
-  ])('when J = %d kg·m² on %i teeth of %d mm, then the belt-line mass is %d kg (Linear Motion Tips)', (inertiaKgM2, teeth, pitchMm, expected) => {
-    expect(reflectedMassKg({ inertiaKgM2, teeth, pitchMm })).toBeCloseTo(expected, 5);
-  });
+  ])(
+    'when J = %d kg·m² on %i teeth of %d mm, then the belt-line mass is %d kg (Linear Motion Tips)',
+    (inertiaKgM2, teeth, pitchMm, expected) => {
+      expect(reflectedMassKg({ inertiaKgM2, teeth, pitchMm })).toBeCloseTo(expected, 5);
+    },
+  );
 });
 
 describe('fullStepsPerRev', () => {

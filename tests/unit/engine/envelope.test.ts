@@ -163,7 +163,18 @@ describe('motorForcesN', () => {
   it('when the coupling shares are read from the envelope, then they are K·u and K⁻ᵀ·u', () => {
     const flat = samplePullCurve(() => 30, 2, 5);
     const k = kinematicsMatrix('hbot', { a: -1, b: 1 });
-    const env = computeEnvelope({ k, xKg: 0.4, yKg: 0.9, motorEquivalentKg: [0.1, 0.1], beltCarriedKg: [0, 0], frictionXN: 0, frictionYN: 0, pull: [flat, flat], cruiseMPerS: 0.1, directions: 360 });
+    const env = computeEnvelope({
+      k,
+      xKg: 0.4,
+      yKg: 0.9,
+      motorEquivalentKg: [0.1, 0.1],
+      beltCarriedKg: [0, 0],
+      frictionXN: 0,
+      frictionYN: 0,
+      pull: [flat, flat],
+      cruiseMPerS: 0.1,
+      directions: 360,
+    });
     for (const deg of [0, 17, 45, 181, 270]) {
       const s = couplingShares(k, (deg * Math.PI) / 180);
       expect(env.speedShareA[deg]).toBeCloseTo(s.speedA, 12);

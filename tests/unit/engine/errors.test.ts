@@ -4,7 +4,9 @@ import { EngineInputError, pitchDiameterMm, stepsPerMm } from '@/engine';
 describe('EngineInputError', () => {
   it('when created with a scope, then the message carries the "[scope] what" prefix and the issues', () => {
     // Arrange / Act
-    const err = new EngineInputError('parseDesign', 'belt.pitchMm: must be greater than 0', [{ path: 'belt.pitchMm', message: 'must be greater than 0' }]);
+    const err = new EngineInputError('parseDesign', 'belt.pitchMm: must be greater than 0', [
+      { path: 'belt.pitchMm', message: 'must be greater than 0' },
+    ]);
     // Assert
     expect(err.message).toBe('[parseDesign] belt.pitchMm: must be greater than 0');
     expect(err.scope).toBe('parseDesign');

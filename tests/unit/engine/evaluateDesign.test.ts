@@ -3,7 +3,15 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { safeParseDesign } from '@/engine';
 import { wideRandomDocument } from './helpers/randomDesign';
-import { ENGINE_VERSION, EngineInputError, beltGeometryAt, defaultDesign, evaluateDesign, spanFrequencyHz, type DesignResult } from '@/engine';
+import {
+  ENGINE_VERSION,
+  EngineInputError,
+  beltGeometryAt,
+  defaultDesign,
+  evaluateDesign,
+  spanFrequencyHz,
+  type DesignResult,
+} from '@/engine';
 
 const EXAMPLES = fileURLToPath(new URL('../../../reference/examples/', import.meta.url));
 const demos = readdirSync(EXAMPLES)
@@ -65,7 +73,8 @@ describe('evaluateDesign', () => {
     for (const path of FORMAT_FIELDS) expect(get(r, path), path).toBeDefined();
     expect(r.engineVersion).toBe(ENGINE_VERSION);
     expect(r.envelope.directionsDeg).toEqual(Array.from({ length: 360 }, (_, i) => i));
-    for (const key of ['accelMaxMPerS2', 'accelAtCruiseMPerS2', 'speedMaxMPerS', 'limitingMotor'] as const) expect(r.envelope[key]).toHaveLength(360);
+    for (const key of ['accelMaxMPerS2', 'accelAtCruiseMPerS2', 'speedMaxMPerS', 'limitingMotor'] as const)
+      expect(r.envelope[key]).toHaveLength(360);
     for (const s of [r.coupling.speedShare, r.coupling.forceShare]) {
       expect(s.a).toHaveLength(360);
       expect(s.b).toHaveLength(360);
@@ -75,7 +84,9 @@ describe('evaluateDesign', () => {
     expect(r.stiffness.lowestFrequencyHz).toHaveLength(n);
     expect(r.stiffness.lowestFrequencyHz.every((row) => row.length === n)).toBe(true);
     for (const b of r.belts) {
-      expect(Object.keys(b)).toEqual(expect.arrayContaining(['id', 'loopLengthMm', 'loopTeeth', 'teethInMesh', 'spans', 'peakPullN', 'tightSideN', 'slackSideN']));
+      expect(Object.keys(b)).toEqual(
+        expect.arrayContaining(['id', 'loopLengthMm', 'loopTeeth', 'teethInMesh', 'spans', 'peakPullN', 'tightSideN', 'slackSideN']),
+      );
       for (const s of b.spans) expect(Object.keys(s)).toEqual(expect.arrayContaining(['id', 'lengthMm', 'targetFrequencyHz']));
     }
     for (const p of r.partsList) expect(Object.keys(p).sort()).toEqual(['item', 'quantity', 'spec']);
@@ -91,15 +102,21 @@ describe('evaluateDesign', () => {
     walk(evaluateDesign(design), 'result');
   });
 
-  it.each(demos)('when the demo %s is evaluated, then the span targets are the pluck frequencies at the pretension (Halliday ch. 16)', (_f, design) => {
-    const r = evaluateDesign(design);
-    for (const b of r.belts) {
-      for (const s of b.spans.filter((x) => x.lengthMm > 0)) {
-        expect(s.targetFrequencyHz).toBeCloseTo(spanFrequencyHz({ tensionN: design.pretensionN, linearMassKgPerM: design.belt.linearMassKgPerM, spanMm: s.lengthMm }), 9);
+  it.each(demos)(
+    'when the demo %s is evaluated, then the span targets are the pluck frequencies at the pretension (Halliday ch. 16)',
+    (_f, design) => {
+      const r = evaluateDesign(design);
+      for (const b of r.belts) {
+        for (const s of b.spans.filter((x) => x.lengthMm > 0)) {
+          expect(s.targetFrequencyHz).toBeCloseTo(
+            spanFrequencyHz({ tensionN: design.pretensionN, linearMassKgPerM: design.belt.linearMassKgPerM, spanMm: s.lengthMm }),
+            9,
+          );
+        }
+        expect(b.tightSideN - b.slackSideN).toBeCloseTo(b.peakPullN, 9);
       }
-      expect(b.tightSideN - b.slackSideN).toBeCloseTo(b.peakPullN, 9);
-    }
-  });
+    },
+  );
 
   it('when a crossed-belt design is evaluated, then steps/mm and microstep lengths follow engine.md §2', () => {
     // common practice: 200 × 16 / (20 × 2 mm) = 80 steps/mm; one microstep of one motor moves s/√2 along 45°
@@ -108,7 +125,10 @@ describe('evaluateDesign', () => {
     expect(r.drive.fullStepMm).toBeCloseTo(0.2, 12);
     expect(r.drive.microstepMm.diagonal).toBeCloseTo(0.0125 / Math.SQRT2, 12);
     expect(r.drive.microstepMm.x).toBeCloseTo(0.00625, 12);
-    expect(r.kinematics.matrix).toEqual([[1, 1], [1, -1]]);
+    expect(r.kinematics.matrix).toEqual([
+      [1, 1],
+      [1, -1],
+    ]);
     expect(r.kinematics.singleMotorDirectionDeg.a).toBeCloseTo(45, 9);
   });
 
@@ -130,7 +150,16 @@ describe('evaluateDesign', () => {
 
   it('when a torque table is given, then the result says the table was used and the chart follows it', () => {
     const d = defaultDesign('corexy');
-    const r = evaluateDesign({ ...d, motor: { ...d.motor, torqueCurve: [{ speedRevPerS: 0, torqueNm: 0.3 }, { speedRevPerS: 10, torqueNm: 0.1 }] } });
+    const r = evaluateDesign({
+      ...d,
+      motor: {
+        ...d.motor,
+        torqueCurve: [
+          { speedRevPerS: 0, torqueNm: 0.3 },
+          { speedRevPerS: 10, torqueNm: 0.1 },
+        ],
+      },
+    });
     expect(r.torqueSpeed.source).toBe('table');
     expect(r.torqueSpeed.speedRevPerS[r.torqueSpeed.speedRevPerS.length - 1]).toBeCloseTo(10, 9);
     expect(r.torqueSpeed.torqueNm[0]).toBeCloseTo(0.3, 12);
@@ -163,25 +192,30 @@ describe('evaluateDesign', () => {
 });
 
 describe('evaluateDesign reference spans', () => {
-  it.each(['corexy', 'hbot', 'cartesian'] as const)('when a %s design is evaluated, then each belt names its longest fixed-length span to pluck', (mech) => {
-    const r = evaluateDesign(defaultDesign(mech));
-    for (const b of r.belts) {
-      const fixed = b.spans.filter((s) => s.fixedLength);
-      expect(fixed.length).toBeGreaterThan(0);
-      const ref = b.spans.find((s) => s.id === b.referenceSpanId)!;
-      expect(ref.fixedLength).toBe(true);
-      expect(ref.lengthMm).toBe(Math.max(...fixed.map((s) => s.lengthMm)));
-    }
-  });
+  it.each(['corexy', 'hbot', 'cartesian'] as const)(
+    'when a %s design is evaluated, then each belt names its longest fixed-length span to pluck',
+    (mech) => {
+      const r = evaluateDesign(defaultDesign(mech));
+      for (const b of r.belts) {
+        const fixed = b.spans.filter((s) => s.fixedLength);
+        expect(fixed.length).toBeGreaterThan(0);
+        const ref = b.spans.find((s) => s.id === b.referenceSpanId)!;
+        expect(ref.fixedLength).toBe(true);
+        expect(ref.lengthMm).toBe(Math.max(...fixed.map((s) => s.lengthMm)));
+      }
+    },
+  );
 
   it('when the carriage moves, then the spans marked fixed keep their length', () => {
     const d = defaultDesign('hbot');
     const r = evaluateDesign(d);
     const moved = beltGeometryAt({ design: d, xMm: 3, yMm: r.travel.yMm - 2 });
-    r.belts.forEach((b, i) => b.spans.forEach((s, j) => {
-      if (s.fixedLength) expect(moved[i].spans[j].lengthMm).toBeCloseTo(s.lengthMm, 9);
-      else expect(Math.abs(moved[i].spans[j].lengthMm - s.lengthMm)).toBeGreaterThan(1);
-    }));
+    r.belts.forEach((b, i) =>
+      b.spans.forEach((s, j) => {
+        if (s.fixedLength) expect(moved[i].spans[j].lengthMm).toBeCloseTo(s.lengthMm, 9);
+        else expect(Math.abs(moved[i].spans[j].lengthMm - s.lengthMm)).toBeGreaterThan(1);
+      }),
+    );
   });
 });
 

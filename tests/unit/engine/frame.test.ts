@@ -12,7 +12,10 @@ describe('frameToTravel', () => {
     const rI = (d.pulley.idlerTeeth * d.belt.pitchMm) / (2 * Math.PI);
     const t = frameToTravel(d);
     expect(t.xMm).toBeCloseTo(d.frame.outerXMm - 2 * d.frame.extrusionMm - d.frame.carriageXMm - 2 * d.frame.clearanceMm - 6 * rI, 9);
-    expect(t.yMm).toBeCloseTo(d.frame.outerYMm - 2 * d.frame.extrusionMm - 2 * d.frame.clearanceMm - Math.max(d.frame.carriageYMm, d.frame.gantryYMm), 9);
+    expect(t.yMm).toBeCloseTo(
+      d.frame.outerYMm - 2 * d.frame.extrusionMm - 2 * d.frame.clearanceMm - Math.max(d.frame.carriageYMm, d.frame.gantryYMm),
+      9,
+    );
     expect(t.sound).toBe(true);
   });
 

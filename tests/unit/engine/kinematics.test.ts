@@ -24,16 +24,40 @@ const DIRS: MotorDirection[] = [
 describe('kinematicsMatrix', () => {
   it.each([
     // source: I. Moyer, CoreXY (corexy.com, 2012), inverse relation ΔA = ΔX + ΔY, ΔB = ΔX − ΔY (confirmed via MIT 865.15 class page)
-    ['corexy', [[1, 1], [1, -1]], 'CoreXY 2012'],
+    [
+      'corexy',
+      [
+        [1, 1],
+        [1, -1],
+      ],
+      'CoreXY 2012',
+    ],
     // source: same relation for the H layout (RepRap wiki "CoreXY": H-bot is the same parallel arrangement)
-    ['hbot', [[1, 1], [1, -1]], 'CoreXY 2012 / RepRap wiki'],
-    ['cartesian', [[1, 0], [0, 1]], 'one motor per axis (definition)'],
+    [
+      'hbot',
+      [
+        [1, 1],
+        [1, -1],
+      ],
+      'CoreXY 2012 / RepRap wiki',
+    ],
+    [
+      'cartesian',
+      [
+        [1, 0],
+        [0, 1],
+      ],
+      'one motor per axis (definition)',
+    ],
   ] as const)('when the mechanism is %s, then K is %j (%s)', (mech, expected) => {
     expect(kinematicsMatrix(mech)).toEqual(expected);
   });
 
   it('when motor B is wired the other way, then only its row flips', () => {
-    expect(kinematicsMatrix('corexy', { a: 1, b: -1 })).toEqual([[1, 1], [-1, 1]]);
+    expect(kinematicsMatrix('corexy', { a: 1, b: -1 })).toEqual([
+      [1, 1],
+      [-1, 1],
+    ]);
   });
 
   it('when an unknown mechanism is given, then it throws naming the mechanism', () => {
@@ -41,14 +65,17 @@ describe('kinematicsMatrix', () => {
   });
 
   // Property: K·K⁻¹ = I for every mechanism and sign convention.
-  it.each(MECHS.flatMap((m) => DIRS.map((d) => [m, d] as const)))('when K of %s %j is multiplied by its inverse, then it gives the identity', (mech, dir) => {
-    const k = kinematicsMatrix(mech, dir);
-    const i = multiply2(k, inverse2(k));
-    expect(i[0][0]).toBeCloseTo(1, 12);
-    expect(i[0][1]).toBeCloseTo(0, 12);
-    expect(i[1][0]).toBeCloseTo(0, 12);
-    expect(i[1][1]).toBeCloseTo(1, 12);
-  });
+  it.each(MECHS.flatMap((m) => DIRS.map((d) => [m, d] as const)))(
+    'when K of %s %j is multiplied by its inverse, then it gives the identity',
+    (mech, dir) => {
+      const k = kinematicsMatrix(mech, dir);
+      const i = multiply2(k, inverse2(k));
+      expect(i[0][0]).toBeCloseTo(1, 12);
+      expect(i[0][1]).toBeCloseTo(0, 12);
+      expect(i[1][0]).toBeCloseTo(0, 12);
+      expect(i[1][1]).toBeCloseTo(1, 12);
+    },
+  );
 });
 
 describe('carriageToMotor', () => {
@@ -106,18 +133,21 @@ describe('beltPullsToForce', () => {
   });
 
   // Property: power balance FA·vA + FB·vB = Fx·vx + Fy·vy (virtual work, engine.md §1).
-  it.each(MECHS.flatMap((m) => DIRS.map((d) => [m, d] as const)))('when %s %j carries random pulls and speeds, then motor power equals carriage power', (mechanism, motorDirection) => {
-    const r = prng(mechanism.length * 31 + motorDirection.a + 3 * motorDirection.b);
-    for (let i = 0; i < 25; i++) {
-      const fa = (r() - 0.5) * 100;
-      const fb = (r() - 0.5) * 100;
-      const vx = (r() - 0.5) * 2;
-      const vy = (r() - 0.5) * 2;
-      const f = beltPullsToForce({ mechanism, forceAN: fa, forceBN: fb, motorDirection });
-      const v = carriageToMotor({ mechanism, dxMm: vx, dyMm: vy, motorDirection });
-      expect(fa * v.daMm + fb * v.dbMm).toBeCloseTo(f.forceXN * vx + f.forceYN * vy, 9);
-    }
-  });
+  it.each(MECHS.flatMap((m) => DIRS.map((d) => [m, d] as const)))(
+    'when %s %j carries random pulls and speeds, then motor power equals carriage power',
+    (mechanism, motorDirection) => {
+      const r = prng(mechanism.length * 31 + motorDirection.a + 3 * motorDirection.b);
+      for (let i = 0; i < 25; i++) {
+        const fa = (r() - 0.5) * 100;
+        const fb = (r() - 0.5) * 100;
+        const vx = (r() - 0.5) * 2;
+        const vy = (r() - 0.5) * 2;
+        const f = beltPullsToForce({ mechanism, forceAN: fa, forceBN: fb, motorDirection });
+        const v = carriageToMotor({ mechanism, dxMm: vx, dyMm: vy, motorDirection });
+        expect(fa * v.daMm + fb * v.dbMm).toBeCloseTo(f.forceXN * vx + f.forceYN * vy, 9);
+      }
+    },
+  );
 });
 
 describe('forceToBeltPulls', () => {

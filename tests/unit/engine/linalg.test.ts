@@ -3,8 +3,18 @@ import { apply2, det2, inverse2, lowestEigenvalue2, multiply2, transpose2, type 
 
 describe('inverse2', () => {
   it.each([
-    [[[1, 1], [1, -1]]],
-    [[[2, 0.5], [-1, 3]]],
+    [
+      [
+        [1, 1],
+        [1, -1],
+      ],
+    ],
+    [
+      [
+        [2, 0.5],
+        [-1, 3],
+      ],
+    ],
   ] as [Matrix2][])('when %j is inverted, then the product with it is the identity', (m) => {
     const p = multiply2(m, inverse2(m));
     expect(p[0][0]).toBeCloseTo(1, 12);
@@ -16,9 +26,15 @@ describe('inverse2', () => {
 
 describe('det2, transpose2, apply2', () => {
   it('when applied to a known matrix, then they give the textbook values', () => {
-    const m: Matrix2 = [[1, 2], [3, 4]];
+    const m: Matrix2 = [
+      [1, 2],
+      [3, 4],
+    ];
     expect(det2(m)).toBe(-2);
-    expect(transpose2(m)).toEqual([[1, 3], [2, 4]]);
+    expect(transpose2(m)).toEqual([
+      [1, 3],
+      [2, 4],
+    ]);
     expect(apply2(m, 1, -1)).toEqual([-1, -1]);
   });
 });

@@ -28,7 +28,13 @@ describe('effectiveMassKg', () => {
     [90, 0.85 + 2 * 0.15],
     [45, (0.4 + 0.85) / 2 + 2 * 0.15],
   ])('when a crossed-belt carriage moves along %d°, then its effective mass is %d kg', (deg, expected) => {
-    const m = effectiveMassKg({ k: kinematicsMatrix('corexy'), xKg: 0.4, yKg: 0.85, motorEquivalentKg: [0.15, 0.15], directionRad: (deg * Math.PI) / 180 });
+    const m = effectiveMassKg({
+      k: kinematicsMatrix('corexy'),
+      xKg: 0.4,
+      yKg: 0.85,
+      motorEquivalentKg: [0.15, 0.15],
+      directionRad: (deg * Math.PI) / 180,
+    });
     expect(m).toBeCloseTo(expected, 12);
   });
 });

@@ -65,7 +65,10 @@ describe('motorTorqueNm', () => {
     [1.2, 1.5],
   ])('when the driver runs %d A RMS of a %d A motor at low speed, then τ = T_hold·I_rms/I_rated', (iRms, rated) => {
     const m = { ...motor, ratedCurrentA: rated };
-    expect(motorTorqueNm({ motor: m, driver: { ...driver, currentRmsA: iRms }, speedRevPerS: 0.01 })).toBeCloseTo((m.holdingTorqueNm * iRms) / rated, 9);
+    expect(motorTorqueNm({ motor: m, driver: { ...driver, currentRmsA: iRms }, speedRevPerS: 0.01 })).toBeCloseTo(
+      (m.holdingTorqueNm * iRms) / rated,
+      9,
+    );
   });
 
   it('when speed rises, then the available torque never rises (back-EMF and inductance, IBM TDB 1971)', () => {
@@ -79,7 +82,13 @@ describe('motorTorqueNm', () => {
   });
 
   it('when a torque table is given, then it replaces the model', () => {
-    const m = { ...motor, torqueCurve: [{ speedRevPerS: 0, torqueNm: 0.4 }, { speedRevPerS: 10, torqueNm: 0.2 }] };
+    const m = {
+      ...motor,
+      torqueCurve: [
+        { speedRevPerS: 0, torqueNm: 0.4 },
+        { speedRevPerS: 10, torqueNm: 0.2 },
+      ],
+    };
     expect(motorTorqueNm({ motor: m, driver, speedRevPerS: 5 })).toBeCloseTo(0.3, 12);
   });
 

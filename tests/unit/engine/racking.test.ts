@@ -1,5 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { defaultDesign, evaluateDesign, frameToTravel, guideReactionN, rackingMomentPerNewtonM, rackingTurnSpacingMm, solveLoop, type Mechanism } from '@/engine';
+import {
+  defaultDesign,
+  evaluateDesign,
+  frameToTravel,
+  guideReactionN,
+  rackingMomentPerNewtonM,
+  rackingTurnSpacingMm,
+  solveLoop,
+  type Mechanism,
+} from '@/engine';
 import { prng } from './helpers/randomDesign';
 
 /**
@@ -45,9 +54,12 @@ describe('rackingMomentPerNewtonM', () => {
     ['hbot', 0.5],
     ['corexy', 0],
     ['cartesian', 0],
-  ] as const)('when the mechanism is %s, then the moment per newton is %d × S (engine.md §7: M = Fx·S/2 for the H layout)', (mechanism, factor) => {
-    expect(rackingMomentPerNewtonM({ mechanism, turnSpacingMm: 400 })).toBeCloseTo((factor * 400) / 1000, 12);
-  });
+  ] as const)(
+    'when the mechanism is %s, then the moment per newton is %d × S (engine.md §7: M = Fx·S/2 for the H layout)',
+    (mechanism, factor) => {
+      expect(rackingMomentPerNewtonM({ mechanism, turnSpacingMm: 400 })).toBeCloseTo((factor * 400) / 1000, 12);
+    },
+  );
 
   it('when the H-belt gantry is cut free with random piece tensions, then the moment is Fx·S/2', () => {
     const r = prng(42);

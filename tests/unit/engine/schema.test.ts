@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { EngineInputError, MICROSTEP_OPTIONS, defaultDesign, designInputSchema, parseDesign, safeParseDesign, type Mechanism } from '@/engine';
+import {
+  EngineInputError,
+  MICROSTEP_OPTIONS,
+  defaultDesign,
+  designInputSchema,
+  parseDesign,
+  safeParseDesign,
+  type Mechanism,
+} from '@/engine';
 
 const MECHS: Mechanism[] = ['corexy', 'hbot', 'cartesian'];
 
@@ -106,7 +114,18 @@ describe('parseDesign', () => {
   it('when optional fields are left out, then the documented defaults are applied', () => {
     // Arrange
     const doc = withField('torqueMargin', undefined);
-    for (const p of ['description', 'motorDirection', 'yMotors', 'frictionN', 'toolMount', 'map', 'ringingToleranceMm', 'plannedAccelMmPerS2', 'wantedTravel', 'schemaVersion']) {
+    for (const p of [
+      'description',
+      'motorDirection',
+      'yMotors',
+      'frictionN',
+      'toolMount',
+      'map',
+      'ringingToleranceMm',
+      'plannedAccelMmPerS2',
+      'wantedTravel',
+      'schemaVersion',
+    ]) {
       delete doc[p];
     }
     delete (doc.frame as Record<string, unknown>).clearanceMm;

@@ -37,30 +37,33 @@ describe('carriageStiffnessNPerM', () => {
     [0.2, 0.3],
     [0.9, 0.1],
     [0.5, 0.5],
-  ])('when a crossed-belt carriage sits at (%d, %d) of its travel, then K_c = Kᵀ·diag(k_A, k_B)·K with k = EA(1/L₁ + 1/L₂) in series with the motor', (fx, fy) => {
-    // Arrange: engine.md §7, each loop's two arms in parallel (Rao ch. 1, springs in parallel, from memory), in series with k_θ/r²
-    const d = defaultDesign('corexy');
-    const t = frameToTravel(d);
-    const kMotor = 2.5e5;
-    const x = t.originXMm + fx * t.xMm;
-    const y = t.originYMm + fy * t.yMm;
-    const k = kinematicsMatrix('corexy');
-    const loopK = t.layout.loops.map((loop) => {
-      const arms = solveLoop(loop, x, y).pieces.map((p) => p.lengthMm / 1000);
-      return series(d.belt.axialStiffnessN * (1 / arms[0] + 1 / arms[1]), kMotor);
-    });
-    const expected = [
-      [loopK[0] * k[0][0] * k[0][0] + loopK[1] * k[1][0] * k[1][0], loopK[0] * k[0][0] * k[0][1] + loopK[1] * k[1][0] * k[1][1]],
-      [0, loopK[0] * k[0][1] * k[0][1] + loopK[1] * k[1][1] * k[1][1]],
-    ];
-    // Act
-    const kc = carriageStiffnessNPerM(inputFor(d, kMotor), x, y);
-    // Assert
-    expect(kc[0][0]).toBeCloseTo(expected[0][0], 3);
-    expect(kc[0][1]).toBeCloseTo(expected[0][1], 3);
-    expect(kc[1][0]).toBeCloseTo(expected[0][1], 3);
-    expect(kc[1][1]).toBeCloseTo(expected[1][1], 3);
-  });
+  ])(
+    'when a crossed-belt carriage sits at (%d, %d) of its travel, then K_c = Kᵀ·diag(k_A, k_B)·K with k = EA(1/L₁ + 1/L₂) in series with the motor',
+    (fx, fy) => {
+      // Arrange: engine.md §7, each loop's two arms in parallel (Rao ch. 1, springs in parallel, from memory), in series with k_θ/r²
+      const d = defaultDesign('corexy');
+      const t = frameToTravel(d);
+      const kMotor = 2.5e5;
+      const x = t.originXMm + fx * t.xMm;
+      const y = t.originYMm + fy * t.yMm;
+      const k = kinematicsMatrix('corexy');
+      const loopK = t.layout.loops.map((loop) => {
+        const arms = solveLoop(loop, x, y).pieces.map((p) => p.lengthMm / 1000);
+        return series(d.belt.axialStiffnessN * (1 / arms[0] + 1 / arms[1]), kMotor);
+      });
+      const expected = [
+        [loopK[0] * k[0][0] * k[0][0] + loopK[1] * k[1][0] * k[1][0], loopK[0] * k[0][0] * k[0][1] + loopK[1] * k[1][0] * k[1][1]],
+        [0, loopK[0] * k[0][1] * k[0][1] + loopK[1] * k[1][1] * k[1][1]],
+      ];
+      // Act
+      const kc = carriageStiffnessNPerM(inputFor(d, kMotor), x, y);
+      // Assert
+      expect(kc[0][0]).toBeCloseTo(expected[0][0], 3);
+      expect(kc[0][1]).toBeCloseTo(expected[0][1], 3);
+      expect(kc[1][0]).toBeCloseTo(expected[0][1], 3);
+      expect(kc[1][1]).toBeCloseTo(expected[1][1], 3);
+    },
+  );
 
   it.each([
     [1, 'one Y motor turns both Y belts through the cross shaft: (k_L + k_R) in series with one motor'],
@@ -100,24 +103,30 @@ describe('stiffnessMap', () => {
     map.yMm.forEach((yy, iy) =>
       map.xMm.forEach((xx, ix) => {
         const kc = carriageStiffnessNPerM(inp, inp.originXMm + xx, inp.originYMm + yy);
-        const expected = Math.min(naturalFrequencyHz({ stiffnessNPerM: kc[0][0], massKg: 0.4 }), naturalFrequencyHz({ stiffnessNPerM: kc[1][1], massKg: 0.9 }));
+        const expected = Math.min(
+          naturalFrequencyHz({ stiffnessNPerM: kc[0][0], massKg: 0.4 }),
+          naturalFrequencyHz({ stiffnessNPerM: kc[1][1], massKg: 0.9 }),
+        );
         expect(map.lowestFrequencyHz[iy][ix]).toBeCloseTo(expected, 6);
       }),
     );
   });
 
-  it.each(['corexy', 'hbot', 'cartesian'] as const)('when the %s map is computed point by point instead, then both agree (fast path = condensation)', (mech) => {
-    const d = { ...randomDesign(21, mech), yMotors: mech === 'cartesian' ? 2 : 1 } as DesignInput;
-    const inp = inputFor(d, 3e5, 6);
-    const map = stiffnessMap(inp);
-    map.yMm.forEach((yy, iy) =>
-      map.xMm.forEach((xx, ix) => {
-        const kc = carriageStiffnessNPerM(inp, inp.originXMm + xx, inp.originYMm + yy);
-        const lam = lowestEigenvalue2(kc[0][0], kc[0][1], kc[1][1], inp.xKg, inp.yKg);
-        expect(map.lowestFrequencyHz[iy][ix]).toBeCloseTo(Math.sqrt(lam) / (2 * Math.PI), 6);
-      }),
-    );
-  });
+  it.each(['corexy', 'hbot', 'cartesian'] as const)(
+    'when the %s map is computed point by point instead, then both agree (fast path = condensation)',
+    (mech) => {
+      const d = { ...randomDesign(21, mech), yMotors: mech === 'cartesian' ? 2 : 1 } as DesignInput;
+      const inp = inputFor(d, 3e5, 6);
+      const map = stiffnessMap(inp);
+      map.yMm.forEach((yy, iy) =>
+        map.xMm.forEach((xx, ix) => {
+          const kc = carriageStiffnessNPerM(inp, inp.originXMm + xx, inp.originYMm + yy);
+          const lam = lowestEigenvalue2(kc[0][0], kc[0][1], kc[1][1], inp.xKg, inp.yKg);
+          expect(map.lowestFrequencyHz[iy][ix]).toBeCloseTo(Math.sqrt(lam) / (2 * Math.PI), 6);
+        }),
+      );
+    },
+  );
 
   it('when the map is computed, then its minimum is the smallest grid value and lies on the grid', () => {
     const map = stiffnessMap(inputFor(defaultDesign('corexy'), 2e5, 11));

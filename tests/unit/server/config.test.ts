@@ -9,17 +9,34 @@ describe('loadConfig', () => {
   it('when only the two secrets are given, then every other setting takes the documented default', () => {
     const config = loadConfig(VALID);
     expect(config).toMatchObject({
-      nodeEnv: 'development', host: '127.0.0.1', port: 5180, appUrl: 'http://127.0.0.1:5180',
+      nodeEnv: 'development',
+      host: '127.0.0.1',
+      port: 5180,
+      appUrl: 'http://127.0.0.1:5180',
       db: { host: '127.0.0.1', port: 3407, name: 'gantrywright', user: 'gantry', password: 'a-db-password' },
-      sessionHours: 12, smtp: { host: '127.0.0.1', port: 2526, secure: false }, mailcatcherHttpPort: 2527,
-      mailFrom: 'Gantrywright <noreply@example.test>', loginRateLimit: 10, loginRateWindowMinutes: 15, trustProxy: false, logLevel: 'info',
+      sessionHours: 12,
+      smtp: { host: '127.0.0.1', port: 2526, secure: false },
+      mailcatcherHttpPort: 2527,
+      mailFrom: 'Gantrywright <noreply@example.test>',
+      loginRateLimit: 10,
+      loginRateWindowMinutes: 15,
+      trustProxy: false,
+      logLevel: 'info',
     });
     expect(config.dataDir).toBe(path.join(ROOT_DIR, '.data'));
     expect(config.uploadDir).toBe(path.join(ROOT_DIR, '.data', 'uploads'));
   });
 
   it('when values are given as strings, then numbers are coerced and paths resolved against the repository', () => {
-    const config = loadConfig({ ...VALID, PORT: '6000', DB_PORT: '3417', DATA_DIR: '.data-test', UPLOAD_DIR: '/srv/up', APP_URL: 'https://gw.example.test/', TRUST_PROXY: '1' });
+    const config = loadConfig({
+      ...VALID,
+      PORT: '6000',
+      DB_PORT: '3417',
+      DATA_DIR: '.data-test',
+      UPLOAD_DIR: '/srv/up',
+      APP_URL: 'https://gw.example.test/',
+      TRUST_PROXY: '1',
+    });
     expect(config.port).toBe(6000);
     expect(config.db.port).toBe(3417);
     expect(config.dataDir).toBe(path.join(ROOT_DIR, '.data-test'));
@@ -53,7 +70,9 @@ describe('loadConfig', () => {
   });
 
   it('when several variables are wrong, then the message lists all of them', () => {
-    expect(() => loadConfig({ PORT: 'x' })).toThrow(/PORT[\s\S]*DB_PASSWORD[\s\S]*JWT_SECRET|DB_PASSWORD[\s\S]*JWT_SECRET[\s\S]*PORT|PORT[\s\S]*JWT_SECRET/);
+    expect(() => loadConfig({ PORT: 'x' })).toThrow(
+      /PORT[\s\S]*DB_PASSWORD[\s\S]*JWT_SECRET|DB_PASSWORD[\s\S]*JWT_SECRET[\s\S]*PORT|PORT[\s\S]*JWT_SECRET/,
+    );
     try {
       loadConfig({ PORT: 'x' });
     } catch (err) {
@@ -63,7 +82,12 @@ describe('loadConfig', () => {
   });
 
   it('when production still uses the .env.example placeholders, then it refuses to start', () => {
-    expect(() => loadConfig({ NODE_ENV: 'production', DB_PASSWORD: 'change-me-dev-password', JWT_SECRET: 'change-me-to-a-random-string-of-32-or-more-characters' }))
-      .toThrow(/JWT_SECRET: still the placeholder[\s\S]*DB_PASSWORD: still the placeholder/);
+    expect(() =>
+      loadConfig({
+        NODE_ENV: 'production',
+        DB_PASSWORD: 'change-me-dev-password',
+        JWT_SECRET: 'change-me-to-a-random-string-of-32-or-more-characters',
+      }),
+    ).toThrow(/JWT_SECRET: still the placeholder[\s\S]*DB_PASSWORD: still the placeholder/);
   });
 });

@@ -37,10 +37,18 @@ describe('errorHandlerMiddleware', () => {
   });
 
   it('when an AppError is thrown, then its status, code, message and details are sent', async () => {
-    const err = new AppError('state_conflict', 'The design is already in review.', 409, { details: [{ path: 'status', message: 'is in_review' }] });
+    const err = new AppError('state_conflict', 'The design is already in review.', 409, {
+      details: [{ path: 'status', message: 'is in_review' }],
+    });
     const res = await request(appThrowing(err)).get('/boom');
     expect(res.status).toBe(409);
-    expect(res.body).toEqual({ error: { code: 'state_conflict', message: 'The design is already in review.', details: [{ path: 'status', message: 'is in_review' }] } });
+    expect(res.body).toEqual({
+      error: {
+        code: 'state_conflict',
+        message: 'The design is already in review.',
+        details: [{ path: 'status', message: 'is in_review' }],
+      },
+    });
   });
 
   it('when the error handler sees a ZodError from a service, then 400 with field paths', async () => {
@@ -54,12 +62,18 @@ describe('errorHandlerMiddleware', () => {
 describe('toErrorResponse', () => {
   it('when an engine input error arrives, then 400 invalid_input with its message', () => {
     const err = Object.assign(new Error('[beltTension] span length must be positive'), { name: 'EngineInputError' });
-    expect(toErrorResponse(err)).toMatchObject({ status: 400, body: { error: { code: 'invalid_input', message: '[beltTension] span length must be positive' } } });
+    expect(toErrorResponse(err)).toMatchObject({
+      status: 400,
+      body: { error: { code: 'invalid_input', message: '[beltTension] span length must be positive' } },
+    });
   });
 
   it('when a unique constraint fails, then 409 conflict naming the field', () => {
     const err = new UniqueConstraintError({ errors: [{ path: 'email', message: 'email must be unique' } as never] });
-    expect(toErrorResponse(err)).toMatchObject({ status: 409, body: { error: { code: 'conflict', details: [{ path: 'email', message: 'is already taken' }] } } });
+    expect(toErrorResponse(err)).toMatchObject({
+      status: 409,
+      body: { error: { code: 'conflict', details: [{ path: 'email', message: 'is already taken' }] } },
+    });
   });
 
   it('when the database connection fails, then 503 db_unavailable (not a bug)', () => {
@@ -76,13 +90,17 @@ describe('toErrorResponse', () => {
 describe('validate', () => {
   const app = express();
   app.use(express.json());
-  app.post('/items/:id', validate({
-    params: z.object({ id: z.string().regex(/^\d+$/).transform(Number) }),
-    query: z.object({ dryRun: z.enum(['yes', 'no']).default('no') }),
-    body: z.strictObject({ qty: z.number().int(), tags: z.array(z.string()).optional() }),
-  }), (req, res) => {
-    res.json({ params: req.params, query: req.query, body: req.body });
-  });
+  app.post(
+    '/items/:id',
+    validate({
+      params: z.object({ id: z.string().regex(/^\d+$/).transform(Number) }),
+      query: z.object({ dryRun: z.enum(['yes', 'no']).default('no') }),
+      body: z.strictObject({ qty: z.number().int(), tags: z.array(z.string()).optional() }),
+    }),
+    (req, res) => {
+      res.json({ params: req.params, query: req.query, body: req.body });
+    },
+  );
   app.use(errorHandlerMiddleware());
 
   it('when everything is valid, then the handler reads the parsed, coerced values', async () => {
@@ -92,7 +110,9 @@ describe('validate', () => {
   });
 
   it('when params, query and body are all wrong, then one 400 lists every problem with its path', async () => {
-    const res = await request(app).post('/items/x?dryRun=maybe').send({ qty: 1.5, tags: ['a', 2], extra: true });
+    const res = await request(app)
+      .post('/items/x?dryRun=maybe')
+      .send({ qty: 1.5, tags: ['a', 2], extra: true });
     expect(res.status).toBe(400);
     expect(res.body.error.details.map((d: { path: string }) => d.path)).toEqual(['id', 'dryRun', 'qty', 'tags.1', 'extra']);
   });

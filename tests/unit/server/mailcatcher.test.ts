@@ -13,8 +13,11 @@ function compose(options: ConstructorParameters<typeof MailComposer>[0]): Promis
 describe('parseMessage', () => {
   it('when nodemailer sends text + html (multipart/alternative), then both parts come back decoded', async () => {
     const raw = await compose({
-      from: 'Gantrywright <noreply@example.test>', to: 'ada@example.test', subject: 'Plain subject',
-      text: 'Line one\nLine two with = sign and ümlaut', html: '<p>Hello <b>Ada</b> — ✓</p>',
+      from: 'Gantrywright <noreply@example.test>',
+      to: 'ada@example.test',
+      subject: 'Plain subject',
+      text: 'Line one\nLine two with = sign and ümlaut',
+      html: '<p>Hello <b>Ada</b> — ✓</p>',
     });
 
     const message = parseMessage(raw, { to: ['ada@example.test'] });
@@ -28,7 +31,12 @@ describe('parseMessage', () => {
   });
 
   it('when the subject and names are non-ASCII (RFC 2047 encoded words), then they are decoded', async () => {
-    const raw = await compose({ from: 'Zoë Ångström <z@example.test>', to: 'b@example.test', subject: 'Grüße — Spannweite ✓ '.repeat(4).trim(), text: 'x' });
+    const raw = await compose({
+      from: 'Zoë Ångström <z@example.test>',
+      to: 'b@example.test',
+      subject: 'Grüße — Spannweite ✓ '.repeat(4).trim(),
+      text: 'x',
+    });
     const message = parseMessage(raw);
     expect(message.subject).toBe('Grüße — Spannweite ✓ '.repeat(4).trim());
     expect(message.from).toBe('Zoë Ångström <z@example.test>');
@@ -43,7 +51,11 @@ describe('parseMessage', () => {
 
   it('when there is an attachment (multipart/mixed), then body parts are still found and the attachment is listed', async () => {
     const raw = await compose({
-      from: 'a@example.test', to: 'b@example.test', subject: 's', text: 'see sheet', html: '<p>see sheet</p>',
+      from: 'a@example.test',
+      to: 'b@example.test',
+      subject: 's',
+      text: 'see sheet',
+      html: '<p>see sheet</p>',
       attachments: [{ filename: 'sheet.pdf', content: Buffer.alloc(3000, 7), contentType: 'application/pdf' }],
     });
     const message = parseMessage(raw);
@@ -71,7 +83,8 @@ describe('decodeEncodedWords and parseHeaderParams', () => {
 
   it('when a content type has quoted parameters, then value and parameters are split', () => {
     expect(parseHeaderParams('Multipart/Alternative; boundary="--_b;1"; charset=utf-8')).toEqual({
-      value: 'multipart/alternative', params: { boundary: '--_b;1', charset: 'utf-8' },
+      value: 'multipart/alternative',
+      params: { boundary: '--_b;1', charset: 'utf-8' },
     });
   });
 });
@@ -91,7 +104,9 @@ describe('startMailCatcher', () => {
     await transport.sendMail({ from: 'noreply@example.test', to: 'two@example.test', subject: 'second', text: 'hello' });
 
     const all = (await (await fetch(`http://127.0.0.1:${catcher.httpPort}/messages`)).json()) as Array<{ subject: string }>;
-    const onlyTwo = (await (await fetch(`http://127.0.0.1:${catcher.httpPort}/messages?to=TWO@example.test`)).json()) as Array<{ subject: string }>;
+    const onlyTwo = (await (await fetch(`http://127.0.0.1:${catcher.httpPort}/messages?to=TWO@example.test`)).json()) as Array<{
+      subject: string;
+    }>;
     expect(all.map((m: { subject: string }) => m.subject)).toEqual(['first', 'second']);
     expect(onlyTwo.map((m: { subject: string }) => m.subject)).toEqual(['second']);
 
@@ -107,7 +122,8 @@ describe('startMailCatcher', () => {
 
   it('when the SMTP port is taken, then starting fails with a message naming the port', async () => {
     catcher = await startMailCatcher({ smtpPort: 0, httpPort: 0, dir, log: () => undefined });
-    await expect(startMailCatcher({ smtpPort: catcher.smtpPort, httpPort: 0, dir, log: () => undefined }))
-      .rejects.toThrow(`SMTP port ${catcher.smtpPort} on 127.0.0.1 is already in use`);
+    await expect(startMailCatcher({ smtpPort: catcher.smtpPort, httpPort: 0, dir, log: () => undefined })).rejects.toThrow(
+      `SMTP port ${catcher.smtpPort} on 127.0.0.1 is already in use`,
+    );
   });
 });

@@ -61,7 +61,11 @@ describe('api/http request', () => {
     // Arrange
     fetchMock.mockResolvedValue(
       jsonResponse(400, {
-        error: { code: 'validation_failed', message: 'The request is not valid.', details: [{ path: 'roles.0', message: 'must be one of admin, designer' }] },
+        error: {
+          code: 'validation_failed',
+          message: 'The request is not valid.',
+          details: [{ path: 'roles.0', message: 'must be one of admin, designer' }],
+        },
       }),
     );
     // Act
@@ -123,7 +127,11 @@ describe('api/http request', () => {
 describe('api/http apiUrl', () => {
   it.each([
     ['/sheets/3/pdf', undefined, '/api/sheets/3/pdf'],
-    ['/designs', { q: 'plotter stage', page: 2, status: undefined, sort: null, flag: false }, '/api/designs?q=plotter+stage&page=2&flag=false'],
+    [
+      '/designs',
+      { q: 'plotter stage', page: 2, status: undefined, sort: null, flag: false },
+      '/api/designs?q=plotter+stage&page=2&flag=false',
+    ],
     ['/designs', { q: '' }, '/api/designs'],
   ])('when given %s with %o, then builds %s', (path, params, expected) => {
     expect(apiUrl(path, params)).toBe(expected);

@@ -62,7 +62,10 @@ describe('DesignAttachmentsPanel', () => {
   it('when the design has files, then each is listed with its kind, size, uploader and a download link', async () => {
     // Arrange
     api.listAttachments.mockResolvedValue(
-      page([attachment(1, 'motor-datasheet.pdf'), attachment(2, 'frame.png', { mime: 'image/png', size: 2_411_724, uploadedBy: null, canDelete: false })]),
+      page([
+        attachment(1, 'motor-datasheet.pdf'),
+        attachment(2, 'frame.png', { mime: 'image/png', size: 2_411_724, uploadedBy: null, canDelete: false }),
+      ]),
     );
     // Act
     const wrapper = await mountPanel();
@@ -95,7 +98,9 @@ describe('DesignAttachmentsPanel', () => {
 
   it('when delete is confirmed, then the API deletes that file and the list is reloaded', async () => {
     // Arrange
-    api.listAttachments.mockResolvedValueOnce(page([attachment(1, 'motor-datasheet.pdf'), attachment(2, 'notes.csv', { mime: 'text/csv' })]));
+    api.listAttachments.mockResolvedValueOnce(
+      page([attachment(1, 'motor-datasheet.pdf'), attachment(2, 'notes.csv', { mime: 'text/csv' })]),
+    );
     api.listAttachments.mockResolvedValueOnce(page([attachment(2, 'notes.csv', { mime: 'text/csv' })]));
     api.deleteAttachment.mockResolvedValue(undefined);
     message.confirmAction.mockResolvedValue(true);
@@ -104,7 +109,9 @@ describe('DesignAttachmentsPanel', () => {
     await rows(wrapper)[0].get('[data-test="attachment-delete"]').trigger('click');
     await flushPromises();
     // Assert
-    expect(message.confirmAction).toHaveBeenCalledWith(expect.objectContaining({ message: 'Delete "motor-datasheet.pdf" from this design?', isDanger: true }));
+    expect(message.confirmAction).toHaveBeenCalledWith(
+      expect.objectContaining({ message: 'Delete "motor-datasheet.pdf" from this design?', isDanger: true }),
+    );
     expect(api.deleteAttachment).toHaveBeenCalledWith(1);
     expect(rows(wrapper).map((r) => r.attributes('data-name'))).toEqual(['notes.csv']);
     expect(message.showSuccess).toHaveBeenCalledWith('Deleted motor-datasheet.pdf.');

@@ -11,7 +11,10 @@ function mountSidebar(roles: Role[], isOutboxEnabled: boolean) {
         createTestingPinia({
           createSpy: vi.fn,
           initialState: {
-            auth: { user: { id: 1, email: 'x@example.test', name: 'X', roles, disabled: false, createdAt: '2025-01-01T00:00:00Z' }, isLoaded: true },
+            auth: {
+              user: { id: 1, email: 'x@example.test', name: 'X', roles, disabled: false, createdAt: '2025-01-01T00:00:00Z' },
+              isLoaded: true,
+            },
             health: { health: { status: 'ok', db: 'up', version: '0.1.0', outbox: isOutboxEnabled } },
           },
         }),

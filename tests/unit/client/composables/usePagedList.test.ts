@@ -15,7 +15,14 @@ function controlledFetch() {
 
 function mountList(fetchPage: (page: number) => Promise<PageAnswer<string>>): PagedList<string> {
   let list!: PagedList<string>;
-  mount(defineComponent({ setup: () => { list = usePagedList(fetchPage, 'The list could not be loaded.'); return () => h('div'); } }));
+  mount(
+    defineComponent({
+      setup: () => {
+        list = usePagedList(fetchPage, 'The list could not be loaded.');
+        return () => h('div');
+      },
+    }),
+  );
   return list;
 }
 

@@ -15,7 +15,14 @@ const api = await import('@/api/designs');
 
 vi.setConfig({ testTimeout: 60_000 });
 
-const DESIGNER: User = { id: 2, email: 'designer@example.test', name: 'Dana Designer', roles: ['designer'], disabled: false, createdAt: '2026-01-01T00:00:00Z' };
+const DESIGNER: User = {
+  id: 2,
+  email: 'designer@example.test',
+  name: 'Dana Designer',
+  roles: ['designer'],
+  disabled: false,
+  createdAt: '2026-01-01T00:00:00Z',
+};
 
 function row(over: Partial<DesignSummary>): DesignSummary {
   return {
@@ -57,7 +64,10 @@ describe('DesignsView', () => {
 
   it('when it opens, then it asks the server for the newest first and lists each design with status words and travel in mm', async () => {
     // Arrange / Act
-    const { wrapper } = await mountView([row({ id: 1 }), row({ id: 2, name: 'Pen plotter', mechanism: 'hbot', status: 'in_review', canEdit: false, canDelete: false })]);
+    const { wrapper } = await mountView([
+      row({ id: 1 }),
+      row({ id: 2, name: 'Pen plotter', mechanism: 'hbot', status: 'in_review', canEdit: false, canDelete: false }),
+    ]);
     // Assert
     expect(api.listDesigns).toHaveBeenCalledWith(expect.objectContaining({ page: 1, pageSize: 20, sort: '-updatedAt' }));
     const names = wrapper.findAll('[data-test="design-row"]').map((r) => r.text());

@@ -7,8 +7,34 @@ import MeasurementSpectrum from '@/components/measurements/MeasurementSpectrum.v
 vi.setConfig({ testTimeout: 60_000 });
 
 const SPANS: SpanSummary[] = [
-  { spanId: 'a-front', beltId: 'a', beltLabel: 'Belt A', label: 'A front span', lengthMm: 300, fixedLength: false, isReference: false, targetFrequencyHz: 120, targetTensionN: 48, latest: null, count: 0, status: 'unmeasured' },
-  { spanId: 'a-back', beltId: 'a', beltLabel: 'Belt A', label: 'A back span', lengthMm: 400, fixedLength: true, isReference: true, targetFrequencyHz: 100, targetTensionN: 48, latest: null, count: 0, status: 'unmeasured' },
+  {
+    spanId: 'a-front',
+    beltId: 'a',
+    beltLabel: 'Belt A',
+    label: 'A front span',
+    lengthMm: 300,
+    fixedLength: false,
+    isReference: false,
+    targetFrequencyHz: 120,
+    targetTensionN: 48,
+    latest: null,
+    count: 0,
+    status: 'unmeasured',
+  },
+  {
+    spanId: 'a-back',
+    beltId: 'a',
+    beltLabel: 'Belt A',
+    label: 'A back span',
+    lengthMm: 400,
+    fixedLength: true,
+    isReference: true,
+    targetFrequencyHz: 100,
+    targetTensionN: 48,
+    latest: null,
+    count: 0,
+    status: 'unmeasured',
+  },
 ];
 
 function mountForm(props: { error?: string } = {}) {
@@ -75,7 +101,11 @@ describe('MeasurementSpectrum', () => {
   it('when drawn, then the found and target frequencies are marked and the axis spans six times the higher of them', () => {
     // Arrange / Act
     const wrapper = mount(MeasurementSpectrum, {
-      props: { spectrum: { frequencyHz: [0, 250, 500, 750, 1000, 2000], magnitudeDb: [-80, -40, -10, -30, -50, -70] }, frequencyHz: 92.5, targetFrequencyHz: 100 },
+      props: {
+        spectrum: { frequencyHz: [0, 250, 500, 750, 1000, 2000], magnitudeDb: [-80, -40, -10, -30, -50, -70] },
+        frequencyHz: 92.5,
+        targetFrequencyHz: 100,
+      },
       global: { stubs: { BasePlot: true } },
     });
     // Assert

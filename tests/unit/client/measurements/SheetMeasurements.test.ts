@@ -75,7 +75,15 @@ function summary(extra: Partial<SheetMeasurementsData> = {}): SheetMeasurementsD
       span('a-back', 'a', { latest: a, count: 1, status: 'high' }),
       span('b-back', 'b', { latest: b, count: 1, status: 'low' }),
     ],
-    pairs: [{ spanIds: ['a-back', 'b-back'], labels: ['Belt A back', 'Belt B back'], tensionsN: [58.08, 40.63], differencePct: 35.37, isMismatch: true }],
+    pairs: [
+      {
+        spanIds: ['a-back', 'b-back'],
+        labels: ['Belt A back', 'Belt B back'],
+        tensionsN: [58.08, 40.63],
+        differencePct: 35.37,
+        isMismatch: true,
+      },
+    ],
     tolerances: { crossedBeltPct: 5, targetPct: 10, source: 'common practice' },
     canRecord: true,
     ...extra,
@@ -116,7 +124,8 @@ async function typeFrequency(wrapper: Awaited<ReturnType<typeof mountSection>>, 
   await flushPromises();
 }
 
-const row = (wrapper: Awaited<ReturnType<typeof mountSection>>, spanId: string) => wrapper.get(`[data-test="measurement-row"][data-span="${spanId}"]`);
+const row = (wrapper: Awaited<ReturnType<typeof mountSection>>, spanId: string) =>
+  wrapper.get(`[data-test="measurement-row"][data-span="${spanId}"]`);
 
 describe('SheetMeasurements', () => {
   beforeEach(() => {
@@ -197,7 +206,9 @@ describe('SheetMeasurements', () => {
     expect(wrapper.get('[data-test="result-frequency"]').text()).toContain('97.5 Hz');
     expect(wrapper.find('[data-test="measurement-error"]').exists()).toBe(false);
     // the list is asked again so the summary follows
-    expect(fetchMock.mock.calls.filter(([url, init]) => url === '/api/sheets/5/measurements' && (init?.method ?? 'GET') === 'GET')).toHaveLength(2);
+    expect(
+      fetchMock.mock.calls.filter(([url, init]) => url === '/api/sheets/5/measurements' && (init?.method ?? 'GET') === 'GET'),
+    ).toHaveLength(2);
     wrapper.unmount();
   });
 
@@ -219,7 +230,12 @@ describe('SheetMeasurements', () => {
   it('when the API answers 422, then its message is shown to the maker beside the form', async () => {
     // Arrange
     serve(summary(), () =>
-      json(422, { error: { code: 'measurement_out_of_range', message: 'The frequency 4000 Hz is far from the target of 100 Hz: pluck the span again.' } }),
+      json(422, {
+        error: {
+          code: 'measurement_out_of_range',
+          message: 'The frequency 4000 Hz is far from the target of 100 Hz: pluck the span again.',
+        },
+      }),
     );
     const wrapper = await mountSection();
     // Act
@@ -227,7 +243,9 @@ describe('SheetMeasurements', () => {
     await wrapper.get('[data-test="measurement-form"]').trigger('submit');
     await flushPromises();
     // Assert
-    expect(wrapper.get('[data-test="measurement-error"]').text()).toContain('The frequency 4000 Hz is far from the target of 100 Hz: pluck the span again.');
+    expect(wrapper.get('[data-test="measurement-error"]').text()).toContain(
+      'The frequency 4000 Hz is far from the target of 100 Hz: pluck the span again.',
+    );
     // the typed value stays for correcting it
     expect(wrapper.get<HTMLInputElement>('[data-test="measurement-frequency"] input').element.value).toBe('4000.0');
     wrapper.unmount();

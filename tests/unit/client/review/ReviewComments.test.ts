@@ -19,7 +19,13 @@ function mountComments(threads: CommentNode[], { canComment = true, isPosting = 
 describe('buildThreads', () => {
   it('when comments answer each other, then replies nest under their parent, oldest first', () => {
     // Arrange
-    const flat = [comment(1, 'Why 24 V?'), comment(2, 'Second thread'), comment(3, 'For speed.', 1), comment(4, 'Thanks.', 3), comment(5, 'Agreed.', 1)];
+    const flat = [
+      comment(1, 'Why 24 V?'),
+      comment(2, 'Second thread'),
+      comment(3, 'For speed.', 1),
+      comment(4, 'Thanks.', 3),
+      comment(5, 'Agreed.', 1),
+    ];
     // Act
     const threads = buildThreads(flat);
     // Assert

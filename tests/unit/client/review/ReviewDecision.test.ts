@@ -26,7 +26,13 @@ function revision(extra: Partial<RevisionDetail> = {}): RevisionDetail {
     sheetId: null,
     engineVersion: '1.0.0',
     fingerprint: 'cd'.repeat(32),
-    summary: { checks: { ok: 10, warn: 0, fail: 0 }, stepsPerMm: 80, travel: { xMm: 300, yMm: 300 }, worstAccelMPerS2: 12, lowestFrequencyHz: 40 },
+    summary: {
+      checks: { ok: 10, warn: 0, fail: 0 },
+      stepsPerMm: 80,
+      travel: { xMm: 300, yMm: 300 },
+      worstAccelMPerS2: 12,
+      lowestFrequencyHz: 40,
+    },
     isOwn: false,
     inputs: {} as RevisionDetail['inputs'],
     result: {} as RevisionDetail['result'],
@@ -45,7 +51,11 @@ async function mountDecision(rev: RevisionDetail) {
     ],
   });
   await router.push('/');
-  const wrapper = mount(ReviewDecision, { props: { revision: rev, isDeciding: false }, global: { plugins: [router] }, attachTo: document.body });
+  const wrapper = mount(ReviewDecision, {
+    props: { revision: rev, isDeciding: false },
+    global: { plugins: [router] },
+    attachTo: document.body,
+  });
   await flushPromises();
   return wrapper;
 }
@@ -88,7 +98,9 @@ describe('ReviewDecision', () => {
     // Assert
     expect(wrapper.emitted('return')).toBeUndefined();
     expect(inBody('[data-test="return-reason"]')!.closest('.el-form-item')!.classList).toContain('is-error');
-    await vi.waitFor(() => expect(inBody('[data-test="return-dialog"] .el-form-item__error')?.textContent).toContain('a reason is required'));
+    await vi.waitFor(() =>
+      expect(inBody('[data-test="return-dialog"] .el-form-item__error')?.textContent).toContain('a reason is required'),
+    );
     wrapper.unmount();
   });
 
@@ -136,7 +148,12 @@ describe('ReviewDecision', () => {
 
   it('when the revision was returned, then the outcome shows the reviewer and the reason', async () => {
     const wrapper = await mountDecision(
-      revision({ status: 'returned', decidedBy: { id: 4, name: 'Rui Reviewer' }, decidedAt: '2026-03-02T09:30:00Z', returnReason: 'Motor current too high.' }),
+      revision({
+        status: 'returned',
+        decidedBy: { id: 4, name: 'Rui Reviewer' },
+        decidedAt: '2026-03-02T09:30:00Z',
+        returnReason: 'Motor current too high.',
+      }),
     );
     expect(wrapper.get('[data-test="review-outcome"]').text()).toContain('Rui Reviewer');
     expect(wrapper.get('[data-test="review-return-reason"]').text()).toBe('Motor current too high.');
@@ -145,7 +162,9 @@ describe('ReviewDecision', () => {
   });
 
   it('when the revision was approved with a sheet, then it links to that sheet', async () => {
-    const wrapper = await mountDecision(revision({ status: 'approved', decidedBy: { id: 4, name: 'Rui Reviewer' }, decidedAt: '2026-03-02T09:30:00Z', sheetId: 55 }));
+    const wrapper = await mountDecision(
+      revision({ status: 'approved', decidedBy: { id: 4, name: 'Rui Reviewer' }, decidedAt: '2026-03-02T09:30:00Z', sheetId: 55 }),
+    );
     expect(wrapper.get('[data-test="review-sheet-link"]').attributes('href')).toBe('/sheets/55');
     wrapper.unmount();
   });

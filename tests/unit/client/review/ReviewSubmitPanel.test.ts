@@ -41,7 +41,13 @@ function revision(number: number, status: RevisionStatus, extra: Partial<Revisio
     sheetId: null,
     engineVersion: '1.0.0',
     fingerprint: 'ab'.repeat(32),
-    summary: { checks: { ok: 10, warn: 0, fail: 0 }, stepsPerMm: 80, travel: { xMm: 300, yMm: 300 }, worstAccelMPerS2: 12, lowestFrequencyHz: 40 },
+    summary: {
+      checks: { ok: 10, warn: 0, fail: 0 },
+      stepsPerMm: 80,
+      travel: { xMm: 300, yMm: 300 },
+      worstAccelMPerS2: 12,
+      lowestFrequencyHz: 40,
+    },
     isOwn: true,
     ...extra,
   };
@@ -66,7 +72,14 @@ async function mountPanel({ status, canChange = true, prepare, roles = ['designe
     ],
   });
   await router.push('/');
-  const user: User = { id: 3, email: 'dana@example.test', name: 'Dana Designer', roles, disabled: false, createdAt: '2026-01-01T00:00:00Z' };
+  const user: User = {
+    id: 3,
+    email: 'dana@example.test',
+    name: 'Dana Designer',
+    roles,
+    disabled: false,
+    createdAt: '2026-01-01T00:00:00Z',
+  };
   const pinia = createTestingPinia({ createSpy: vi.fn, stubActions: false, initialState: { auth: { user, isLoaded: true } } });
   const wrapper = mount(ReviewSubmitPanel, {
     props: { designId: 7, status, canChange, prepare },
@@ -166,7 +179,9 @@ describe('ReviewSubmitPanel', () => {
   });
 
   it('when the newest revision is approved although an older one was returned, then no return reason is shown', async () => {
-    api.listDesignRevisions.mockResolvedValue(page([revision(2, 'approved'), revision(1, 'returned', { returnReason: 'Fix the motor current.' })]));
+    api.listDesignRevisions.mockResolvedValue(
+      page([revision(2, 'approved'), revision(1, 'returned', { returnReason: 'Fix the motor current.' })]),
+    );
     const wrapper = await mountPanel({ status: 'approved' });
     expect(wrapper.find('[data-test="return-reason-text"]').exists()).toBe(false);
     wrapper.unmount();

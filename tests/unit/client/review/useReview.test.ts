@@ -26,7 +26,14 @@ const REVISION = { id: 31, designId: 7, number: 2, status: 'in_review' } as Revi
 const DIFF = { revisionId: 31, number: 2, previous: null, inputs: [], results: [] } as RevisionDiff;
 
 function comment(id: number, body: string, parentId: number | null = null): RevisionComment {
-  return { id, revisionId: 31, parentId, author: { id: 4, name: 'Rui Reviewer', roles: ['reviewer'] }, body, createdAt: '2026-03-02T08:00:00Z' };
+  return {
+    id,
+    revisionId: 31,
+    parentId,
+    author: { id: 4, name: 'Rui Reviewer', roles: ['reviewer'] },
+    body,
+    createdAt: '2026-03-02T08:00:00Z',
+  };
 }
 
 async function start() {

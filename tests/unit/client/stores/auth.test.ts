@@ -72,7 +72,9 @@ describe('useAuthStore', () => {
   });
 
   it('when fetchMe is forced, then asks the server again', async () => {
-    api.fetchCurrentUser.mockResolvedValueOnce({ user: DESIGNER }).mockResolvedValueOnce({ user: { ...DESIGNER, roles: ['designer', 'reviewer'] } });
+    api.fetchCurrentUser
+      .mockResolvedValueOnce({ user: DESIGNER })
+      .mockResolvedValueOnce({ user: { ...DESIGNER, roles: ['designer', 'reviewer'] } });
     const auth = useAuthStore();
     await auth.fetchMe();
     await auth.fetchMe({ force: true });

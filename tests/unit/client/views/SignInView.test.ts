@@ -7,7 +7,14 @@ import type { User } from '@/api/types';
 import { useAuthStore } from '@/stores/auth';
 import SignInView from '@/views/auth/SignInView.vue';
 
-const MAKER: User = { id: 5, email: 'maker@example.test', name: 'Mo Maker', roles: ['maker'], disabled: false, createdAt: '2025-01-01T00:00:00Z' };
+const MAKER: User = {
+  id: 5,
+  email: 'maker@example.test',
+  name: 'Mo Maker',
+  roles: ['maker'],
+  disabled: false,
+  createdAt: '2025-01-01T00:00:00Z',
+};
 
 async function mountSignIn(path = '/sign-in') {
   const router = createRouter({

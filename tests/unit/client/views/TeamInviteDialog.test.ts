@@ -8,7 +8,14 @@ import TeamInviteDialog from '@/views/team/TeamInviteDialog.vue';
 vi.mock('@/api/users', () => ({ listUsers: vi.fn(), inviteUser: vi.fn(), updateUser: vi.fn() }));
 const api = vi.mocked(usersApi);
 
-const NEW_USER: User = { id: 9, email: 'rita@example.test', name: 'Rita Rivet', roles: ['maker'], disabled: false, createdAt: '2025-01-01T00:00:00Z' };
+const NEW_USER: User = {
+  id: 9,
+  email: 'rita@example.test',
+  name: 'Rita Rivet',
+  roles: ['maker'],
+  disabled: false,
+  createdAt: '2025-01-01T00:00:00Z',
+};
 
 async function mountDialog() {
   const wrapper = mount(TeamInviteDialog, { props: { modelValue: true }, attachTo: document.body });

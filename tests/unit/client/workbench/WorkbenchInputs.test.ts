@@ -53,9 +53,9 @@ describe('WorkbenchInputs', () => {
     // Arrange
     const { wrapper, model } = mountForm();
     // The API validates with the same zod schema: take its message for this value as the expectation.
-    const apiMessage = designInputSchema.safeParse({ ...defaultDesign('corexy'), belt: { ...defaultDesign('corexy').belt, pitchMm: -2 } }).error?.issues.find(
-      (i) => i.path.join('.') === 'belt.pitchMm',
-    )?.message;
+    const apiMessage = designInputSchema
+      .safeParse({ ...defaultDesign('corexy'), belt: { ...defaultDesign('corexy').belt, pitchMm: -2 } })
+      .error?.issues.find((i) => i.path.join('.') === 'belt.pitchMm')?.message;
     // Act
     await wrapper.get('input[data-test="input-belt.pitchMm"]').setValue('-2');
     await flushPromises();

@@ -16,7 +16,13 @@ describe('splitBySign', () => {
 
 describe('limitingRanges', () => {
   it('when motors take turns, then the ranges list each run of directions', () => {
-    expect(limitingRanges(['A', 'A', 'B', 'B', 'B', 'A'])).toEqual({ A: [[0, 1], [5, 5]], B: [[2, 4]] });
+    expect(limitingRanges(['A', 'A', 'B', 'B', 'B', 'A'])).toEqual({
+      A: [
+        [0, 1],
+        [5, 5],
+      ],
+      B: [[2, 4]],
+    });
   });
 });
 

@@ -70,7 +70,11 @@ describe('useAutosave', () => {
     expect(save).toHaveBeenCalledTimes(1);
     expect(autosave.status.value).toBe('conflict');
     expect(autosave.isConflictOpen.value).toBe(true);
-    expect(autosave.conflict.value).toEqual({ currentVersion: 5, updatedBy: { id: 7, name: 'Dana Designer' }, updatedAt: '2026-01-05T10:00:00.000Z' });
+    expect(autosave.conflict.value).toEqual({
+      currentVersion: 5,
+      updatedBy: { id: 7, name: 'Dana Designer' },
+      updatedAt: '2026-01-05T10:00:00.000Z',
+    });
     scope.stop();
   });
 
@@ -137,7 +141,10 @@ describe('useAutosave', () => {
   });
 
   it('when the network fails, then the status says so and the next change tries again', async () => {
-    const save = vi.fn().mockRejectedValueOnce(new ApiError(0, 'network_error', 'Cannot reach the server.')).mockResolvedValueOnce({ version: 4 });
+    const save = vi
+      .fn()
+      .mockRejectedValueOnce(new ApiError(0, 'network_error', 'Cannot reach the server.'))
+      .mockResolvedValueOnce({ version: 4 });
     const { doc, autosave, scope } = setup({ save });
     await edit(doc, 500);
     await vi.advanceTimersByTimeAsync(800);

@@ -44,7 +44,13 @@ export function randomDesign(seed: number, mechanism: Mechanism, opts: { square?
       gantryYMm: between(30, 60),
       clearanceMm: between(2, 10),
     },
-    belt: { ...base.belt, pitchMm: pick([2, 3]), widthMm: pick([6, 9]), linearMassKgPerM: between(0.004, 0.02), axialStiffnessN: between(2e4, 1e5) },
+    belt: {
+      ...base.belt,
+      pitchMm: pick([2, 3]),
+      widthMm: pick([6, 9]),
+      linearMassKgPerM: between(0.004, 0.02),
+      axialStiffnessN: between(2e4, 1e5),
+    },
     pulley: { driveTeeth: teeth, idlerTeeth: pick([16, 20, 24]), driveInertiaKgM2: null, idlerInertiaKgM2: null },
     motor: {
       ...base.motor,
@@ -83,8 +89,22 @@ export function wideRandomDocument(seed: number): Record<string, unknown> {
   const base = defaultDesign(mech);
   return {
     ...base,
-    frame: { outerXMm: b(100, 3000), outerYMm: b(100, 3000), extrusionMm: b(5, 80), carriageXMm: b(5, 300), carriageYMm: b(5, 300), gantryYMm: b(5, 200), clearanceMm: b(0, 50) },
-    belt: { ...base.belt, pitchMm: pick([1, 2, 3, 5, 8, 14]), linearMassKgPerM: b(0.001, 0.5), axialStiffnessN: b(100, 1e7), allowableTensionN: b(1, 1e4) },
+    frame: {
+      outerXMm: b(100, 3000),
+      outerYMm: b(100, 3000),
+      extrusionMm: b(5, 80),
+      carriageXMm: b(5, 300),
+      carriageYMm: b(5, 300),
+      gantryYMm: b(5, 200),
+      clearanceMm: b(0, 50),
+    },
+    belt: {
+      ...base.belt,
+      pitchMm: pick([1, 2, 3, 5, 8, 14]),
+      linearMassKgPerM: b(0.001, 0.5),
+      axialStiffnessN: b(100, 1e7),
+      allowableTensionN: b(1, 1e4),
+    },
     pulley: { ...base.pulley, driveTeeth: Math.round(b(6, 80)), idlerTeeth: Math.round(b(6, 80)) },
     motor: {
       ...base.motor,
@@ -95,7 +115,13 @@ export function wideRandomDocument(seed: number): Record<string, unknown> {
       phaseInductanceMh: pick([0, b(0, 100)]),
       rotorInertiaKgM2: pick([0, b(0, 1e-3)]),
       massKg: b(0, 10),
-      torqueCurve: r() < 0.3 ? [{ speedRevPerS: 0, torqueNm: b(0.01, 2) }, { speedRevPerS: b(0.1, 50), torqueNm: b(0, 2) }] : null,
+      torqueCurve:
+        r() < 0.3
+          ? [
+              { speedRevPerS: 0, torqueNm: b(0.01, 2) },
+              { speedRevPerS: b(0.1, 50), torqueNm: b(0, 2) },
+            ]
+          : null,
       maxSpeedRevPerS: r() < 0.2 ? b(0.1, 50) : null,
     },
     driver: { microsteps: pick([1, 4, 256]), supplyV: b(1, 200), currentRmsA: b(0.05, 10) },

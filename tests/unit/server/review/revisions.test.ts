@@ -2,15 +2,32 @@ import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { defaultDesign, evaluateDesign, parseDesign } from '@/engine';
 import {
-  canonicalJson, diffInputs, diffKeyResults, flattenLeaves, freezeDesign, isOwnWork, mayComment, mayReadRevision, revisionFingerprint,
+  canonicalJson,
+  diffInputs,
+  diffKeyResults,
+  flattenLeaves,
+  freezeDesign,
+  isOwnWork,
+  mayComment,
+  mayReadRevision,
+  revisionFingerprint,
 } from '../../../../server/services/revisions.service';
 import type { PublicUser } from '../../../../server/services/users.service';
 
-const user = (id: number, roles: PublicUser['roles']): PublicUser => ({ id, email: `u${id}@example.test`, name: `U${id}`, roles, disabled: false, createdAt: '' });
+const user = (id: number, roles: PublicUser['roles']): PublicUser => ({
+  id,
+  email: `u${id}@example.test`,
+  name: `U${id}`,
+  roles,
+  disabled: false,
+  createdAt: '',
+});
 
 describe('canonicalJson', () => {
   it('when keys come in another order, then the text is the same', () => {
-    expect(canonicalJson({ b: 1, a: { d: [3, { y: 1, x: 2 }], c: 'é' } })).toBe(canonicalJson({ a: { c: 'é', d: [3, { x: 2, y: 1 }] }, b: 1 }));
+    expect(canonicalJson({ b: 1, a: { d: [3, { y: 1, x: 2 }], c: 'é' } })).toBe(
+      canonicalJson({ a: { c: 'é', d: [3, { x: 2, y: 1 }] }, b: 1 }),
+    );
     expect(canonicalJson({ b: 1, a: 2 })).toBe('{"a":2,"b":1}');
   });
 
@@ -73,7 +90,11 @@ describe('freezeDesign', () => {
 
 describe('flattenLeaves and diffInputs', () => {
   it('when flattened, then nested objects give dotted paths and lists stay whole', () => {
-    expect([...flattenLeaves({ a: { b: 1, c: [1, 2] }, d: null })]).toEqual([['a.b', 1], ['a.c', [1, 2]], ['d', null]]);
+    expect([...flattenLeaves({ a: { b: 1, c: [1, 2] }, d: null })]).toEqual([
+      ['a.b', 1],
+      ['a.c', [1, 2]],
+      ['d', null],
+    ]);
   });
 
   it('when one value changes, one path appears and another disappears, then each is reported once with old and new', () => {
@@ -111,7 +132,8 @@ describe('diffKeyResults', () => {
     expect(steps.isChanged).toBe(true);
     expect(steps.new! / steps.old!).toBeCloseTo(2, 12);
     expect(travel).toMatchObject({ isChanged: false, old: before.travel.xMm, new: after.travel.xMm });
-    for (const belt of after.belts) expect(rows.find((r) => r.key === `belts.${belt.id}.cutLengthMm`)).toMatchObject({ new: belt.cutLengthMm });
+    for (const belt of after.belts)
+      expect(rows.find((r) => r.key === `belts.${belt.id}.cutLengthMm`)).toMatchObject({ new: belt.cutLengthMm });
   });
 
   it('when there is no previous result, then every row is new with old null', () => {

@@ -34,7 +34,12 @@ function applyStyle(base: Inherited, node: Record<string, unknown>, styles: Styl
 }
 
 function decodeXml(s: string): string {
-  return s.replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&#(\d+);/g, (_, d) => String.fromCodePoint(Number(d))).replace(/&amp;/g, '&');
+  return s
+    .replace(/&lt;/g, '<')
+    .replace(/&gt;/g, '>')
+    .replace(/&quot;/g, '"')
+    .replace(/&#(\d+);/g, (_, d) => String.fromCodePoint(Number(d)))
+    .replace(/&amp;/g, '&');
 }
 
 /** Characters of every <text> element of an SVG string, with the family and weight svg-to-pdfkit picks. */
@@ -63,7 +68,8 @@ export function docChars(doc: Record<string, unknown>): PlacedChar[] {
   const walk = (node: Node, inh: Inherited, where: string): void => {
     if (node === null || node === undefined) return;
     if (typeof node === 'string' || typeof node === 'number') {
-      for (const char of Array.from(String(node)).filter((c) => c !== '\n')) out.push({ char, file: fontFile(inh.font, inh.bold, inh.italics), where });
+      for (const char of Array.from(String(node)).filter((c) => c !== '\n'))
+        out.push({ char, file: fontFile(inh.font, inh.bold, inh.italics), where });
       return;
     }
     if (Array.isArray(node)) {
@@ -86,7 +92,11 @@ export function docChars(doc: Record<string, unknown>): PlacedChar[] {
   for (const key of ['header', 'footer'] as const) {
     const fn = doc[key];
     if (typeof fn === 'function') {
-      for (const [page, count] of [[1, 12], [12, 12]]) walk(fn(page, count, { width: 600, height: 800 }), base, `${key}(${page})`);
+      for (const [page, count] of [
+        [1, 12],
+        [12, 12],
+      ])
+        walk(fn(page, count, { width: 600, height: 800 }), base, `${key}(${page})`);
     } else if (fn) {
       walk(fn, base, key);
     }

@@ -33,25 +33,31 @@ function missingGlyphs(chars: PlacedChar[]): string[] {
 }
 
 describe('buildSheetDoc glyph coverage', () => {
-  it.each(['A4', 'LETTER'] as const)('when the example design is laid out on %s, then every character exists in the font it is drawn with', (paper) => {
-    // Arrange
-    const doc = buildSheetDoc(exampleSheetInput({ paper }));
+  it.each(['A4', 'LETTER'] as const)(
+    'when the example design is laid out on %s, then every character exists in the font it is drawn with',
+    (paper) => {
+      // Arrange
+      const doc = buildSheetDoc(exampleSheetInput({ paper }));
 
-    // Act
-    const chars = docChars(doc);
+      // Act
+      const chars = docChars(doc);
 
-    // Assert
-    expect(chars.length).toBeGreaterThan(3000);
-    expect(chars.some((c) => c.where.endsWith('svg'))).toBe(true);
-    expect(chars.some((c) => c.where.startsWith('footer'))).toBe(true);
-    expect(missingGlyphs(chars)).toEqual([]);
-  });
+      // Assert
+      expect(chars.length).toBeGreaterThan(3000);
+      expect(chars.some((c) => c.where.endsWith('svg'))).toBe(true);
+      expect(chars.some((c) => c.where.startsWith('footer'))).toBe(true);
+      expect(missingGlyphs(chars)).toEqual([]);
+    },
+  );
 
-  it.each(['hbot', 'cartesian'] as const)('when the mechanism is %s, then every character exists in the font it is drawn with', (mechanism) => {
-    const chars = docChars(buildSheetDoc(exampleSheetInput({}, designFor(mechanism, { yMotors: mechanism === 'cartesian' ? 2 : 1 }))));
-    expect(chars.length).toBeGreaterThan(3000);
-    expect(missingGlyphs(chars)).toEqual([]);
-  });
+  it.each(['hbot', 'cartesian'] as const)(
+    'when the mechanism is %s, then every character exists in the font it is drawn with',
+    (mechanism) => {
+      const chars = docChars(buildSheetDoc(exampleSheetInput({}, designFor(mechanism, { yMotors: mechanism === 'cartesian' ? 2 : 1 }))));
+      expect(chars.length).toBeGreaterThan(3000);
+      expect(missingGlyphs(chars)).toEqual([]);
+    },
+  );
 
   it('when names and the comment hold letters beyond latin, then each goes to a subset that has it, arrows are spelled out and the rest become "?"', () => {
     // Arrange: Polish, Greek and Cyrillic letters have subsets; CJK and an emoji have none.
@@ -78,7 +84,10 @@ describe('buildSheetDoc glyph coverage', () => {
   it('when a character the latin file lacks is put into the doc, then the walker reports it (negative control)', () => {
     // Arrange
     const doc = buildSheetDoc(exampleSheetInput());
-    (doc.content as unknown[]).push({ text: 'a ≤ b' }, { svg: '<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"><text font-family="Inter" x="0" y="5">ω</text></svg>' });
+    (doc.content as unknown[]).push(
+      { text: 'a ≤ b' },
+      { svg: '<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"><text font-family="Inter" x="0" y="5">ω</text></svg>' },
+    );
 
     // Act
     const missing = missingGlyphs(docChars(doc));

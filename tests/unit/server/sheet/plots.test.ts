@@ -23,7 +23,7 @@ describe('niceTicks / niceMax / tickLabel', () => {
     expect(niceMax(96.7)).toBe(100);
   });
 
-  it('when a label is negative or fractional, then it uses a true minus sign and the step\'s decimals', () => {
+  it("when a label is negative or fractional, then it uses a true minus sign and the step's decimals", () => {
     expect(tickLabel(-1, 0.5)).toBe('\u22121.0');
     expect(tickLabel(0.25, 0.25)).toBe('0.25');
     expect(tickLabel(200, 100)).toBe('200');
@@ -31,7 +31,7 @@ describe('niceTicks / niceMax / tickLabel', () => {
 });
 
 describe('viridis', () => {
-  it('when asked for both ends, then it gives the colormap\'s first and last colours', () => {
+  it("when asked for both ends, then it gives the colormap's first and last colours", () => {
     expect(viridis(0)).toBe('#440154');
     expect(viridis(1)).toBe('#fde725');
     expect(viridis(-3)).toBe('#440154');
@@ -44,7 +44,13 @@ describe('polarPlot', () => {
     const values = DIRS.map((d) => Math.cos((d * Math.PI) / 180));
 
     // Act
-    const svg = polarPlot({ width: 200, title: 'T', radiusTitle: 'radius [-]', directionsDeg: DIRS, series: [{ label: 'Motor A', tag: 'A', values, color: '#0072B2', signed: true }] });
+    const svg = polarPlot({
+      width: 200,
+      title: 'T',
+      radiusTitle: 'radius [-]',
+      directionsDeg: DIRS,
+      series: [{ label: 'Motor A', tag: 'A', values, color: '#0072B2', signed: true }],
+    });
 
     // Assert
     const curves = [...svg.matchAll(/<path d="[^"]*" fill="none" stroke="#0072B2"([^>]*)\/>/g)].map((m) => m[1]);
@@ -55,8 +61,17 @@ describe('polarPlot', () => {
   });
 
   it('when a value of 1 lies at 0° on a 0..1 axis, then its point sits on the outer circle to the right', () => {
-    const svg = polarPlot({ width: 200, title: 'T', radiusTitle: 'r', directionsDeg: [0, 90, 180, 270], series: [{ label: 'S', values: [1, 0.5, 0.5, 0.5], color: '#000000' }], rMax: 1 });
-    const outer = [...svg.matchAll(/<circle cx="([\d.]+)" cy="([\d.]+)" r="([\d.]+)" fill="none" stroke="#d5d9e0" stroke-width="0.8"\/>/g)][0];
+    const svg = polarPlot({
+      width: 200,
+      title: 'T',
+      radiusTitle: 'r',
+      directionsDeg: [0, 90, 180, 270],
+      series: [{ label: 'S', values: [1, 0.5, 0.5, 0.5], color: '#000000' }],
+      rMax: 1,
+    });
+    const outer = [
+      ...svg.matchAll(/<circle cx="([\d.]+)" cy="([\d.]+)" r="([\d.]+)" fill="none" stroke="#d5d9e0" stroke-width="0.8"\/>/g),
+    ][0];
     const [cx, , r] = outer.slice(1).map(Number);
     const first = /<path d="M([\d.]+) ([\d.]+)/.exec(svg.slice(svg.indexOf('stroke="#000000"') - 200));
     expect(first).not.toBeNull();
@@ -69,10 +84,24 @@ describe('heatmap', () => {
     // Arrange
     const xMm = [0, 100, 200];
     const yMm = [0, 100];
-    const values = [[40, 50, 60], [55, 65, 80]];
+    const values = [
+      [40, 50, 60],
+      [55, 65, 80],
+    ];
 
     // Act
-    const svg = heatmap({ width: 300, maxPlotHeight: 100, title: 'Map', xTitle: 'X [mm]', yTitle: 'Y [mm]', barTitle: 'f [Hz]', xMm, yMm, values, min: { value: 40, xMm: 0, yMm: 0, label: 'lowest 40 Hz' } });
+    const svg = heatmap({
+      width: 300,
+      maxPlotHeight: 100,
+      title: 'Map',
+      xTitle: 'X [mm]',
+      yTitle: 'Y [mm]',
+      barTitle: 'f [Hz]',
+      xMm,
+      yMm,
+      values,
+      min: { value: 40, xMm: 0, yMm: 0, label: 'lowest 40 Hz' },
+    });
 
     // Assert: one path per colour step; the lowest value is the darkest step and starts where the ring is.
     const fills = [...svg.matchAll(/<path d="(M[^"]*)" fill="(#[0-9a-f]{6})"\/>/g)].map((m) => ({ d: m[1], fill: m[2] }));
@@ -91,11 +120,20 @@ describe('heatmap', () => {
 describe('lineChart', () => {
   it('when drawn with points, then axis titles, legend labels and one marker per point appear and text is escaped', () => {
     const svg = lineChart({
-      width: 240, height: 160, title: 'Torque <model>', xTitle: 'Motor speed [rev/s]', yTitle: 'Torque [N·m]',
+      width: 240,
+      height: 160,
+      title: 'Torque <model>',
+      xTitle: 'Motor speed [rev/s]',
+      yTitle: 'Torque [N·m]',
       series: [{ label: 'Available', x: [0, 10, 20], y: [0.36, 0.3, 0], color: '#0072B2' }],
-      points: [{ x: 5, y: 0.2, label: 'Cruise', shape: 'square' }, { x: 15, y: 0.1, label: 'Top', shape: 'diamond' }],
+      points: [
+        { x: 5, y: 0.2, label: 'Cruise', shape: 'square' },
+        { x: 15, y: 0.1, label: 'Top', shape: 'diamond' },
+      ],
     });
-    expect(texts(svg)).toEqual(expect.arrayContaining(['Torque &lt;model&gt;', 'Motor speed [rev/s]', 'Torque [N·m]', 'Available', 'Cruise', 'Top']));
+    expect(texts(svg)).toEqual(
+      expect.arrayContaining(['Torque &lt;model&gt;', 'Motor speed [rev/s]', 'Torque [N·m]', 'Available', 'Cruise', 'Top']),
+    );
     expect(svg).not.toContain('<model>');
   });
 });
@@ -117,7 +155,18 @@ describe('heatmap on a fine grid', () => {
     const n = 101;
     const grid = Array.from({ length: n }, (_, i) => i * 3);
     const values = grid.map((y) => grid.map((x) => 60 + 0.05 * x + 0.1 * y));
-    const svg = heatmap({ width: 400, maxPlotHeight: 300, title: 'Map', xTitle: 'X [mm]', yTitle: 'Y [mm]', barTitle: 'f [Hz]', xMm: grid, yMm: grid, values, min: { value: 60, xMm: 0, yMm: 0, label: 'lowest' } });
+    const svg = heatmap({
+      width: 400,
+      maxPlotHeight: 300,
+      title: 'Map',
+      xTitle: 'X [mm]',
+      yTitle: 'Y [mm]',
+      barTitle: 'f [Hz]',
+      xMm: grid,
+      yMm: grid,
+      values,
+      min: { value: 60, xMm: 0, yMm: 0, label: 'lowest' },
+    });
     const cellPaths = [...svg.matchAll(/<path d="M[^"]*" fill="#[0-9a-f]{6}"\/>/g)];
     expect(cellPaths.length).toBeGreaterThan(10);
     expect(cellPaths.length).toBeLessThanOrEqual(48);

@@ -73,7 +73,9 @@ describe('renderSheet', () => {
     for (const belt of input.result.belts) {
       expect(flat).toContain(`${belt.label} ${belt.cutLengthMm.toFixed(0)} ${belt.loopTeeth}`);
       for (const span of belt.spans) {
-        expect(flat).toMatch(new RegExp(`${span.lengthMm.toFixed(1)} (yes|no) ${input.inputs.pretensionN.toFixed(1)} ${span.targetFrequencyHz.toFixed(1)}`));
+        expect(flat).toMatch(
+          new RegExp(`${span.lengthMm.toFixed(1)} (yes|no) ${input.inputs.pretensionN.toFixed(1)} ${span.targetFrequencyHz.toFixed(1)}`),
+        );
       }
     }
     const { xMm, yMm } = input.result.parking;
@@ -83,7 +85,9 @@ describe('renderSheet', () => {
   it('when the text is extracted, then the limits along X, Y, the diagonal and the worst direction and the lowest resonance are printed', () => {
     const flat = poppler('pdftotext', a4, '-layout').replace(/\s+/g, ' ');
     const { axes } = input.result.envelope;
-    expect(flat).toContain(`Along X 0 ${axes.x.accelMaxMPerS2.toFixed(2)} ${axes.x.accelAtCruiseMPerS2.toFixed(2)} ${(axes.x.speedMaxMPerS * 1000).toFixed(0)}`);
+    expect(flat).toContain(
+      `Along X 0 ${axes.x.accelMaxMPerS2.toFixed(2)} ${axes.x.accelAtCruiseMPerS2.toFixed(2)} ${(axes.x.speedMaxMPerS * 1000).toFixed(0)}`,
+    );
     expect(flat).toContain(`Along Y 90 ${axes.y.accelMaxMPerS2.toFixed(2)}`);
     expect(flat).toContain(`Along the diagonal 45 ${axes.diagonal.accelMaxMPerS2.toFixed(2)}`);
     expect(flat).toContain(`Worst direction ${axes.worst.directionDeg} ${axes.worst.accelMaxMPerS2.toFixed(2)}`);
@@ -133,20 +137,23 @@ describe('renderSheet', () => {
     expect(again.equals(a4)).toBe(true);
   });
 
-  it.each(['hbot', 'cartesian'] as const)('when the mechanism is %s, then the sheet renders with its own motor names and racking', async (mechanism) => {
-    // Arrange
-    const other = exampleSheetInput({}, designFor(mechanism));
+  it.each(['hbot', 'cartesian'] as const)(
+    'when the mechanism is %s, then the sheet renders with its own motor names and racking',
+    async (mechanism) => {
+      // Arrange
+      const other = exampleSheetInput({}, designFor(mechanism));
 
-    // Act
-    const flat = poppler('pdftotext', await renderSheet(other), '-layout').replace(/\s+/g, ' ');
+      // Act
+      const flat = poppler('pdftotext', await renderSheet(other), '-layout').replace(/\s+/g, ' ');
 
-    // Assert
-    expect(flat).toContain(other.designName);
-    expect(flat).toContain(mechanism === 'cartesian' ? 'Motor X' : 'Motor A');
-    expect(flat).toContain('Racking.');
-    if (mechanism === 'hbot') expect(other.result.racking.momentPerNewtonM).toBeGreaterThan(0);
-    if (mechanism === 'hbot') expect(flat).toContain(`${other.result.racking.peakMomentNm.toFixed(2)} N·m`);
-  });
+      // Assert
+      expect(flat).toContain(other.designName);
+      expect(flat).toContain(mechanism === 'cartesian' ? 'Motor X' : 'Motor A');
+      expect(flat).toContain('Racking.');
+      if (mechanism === 'hbot') expect(other.result.racking.momentPerNewtonM).toBeGreaterThan(0);
+      if (mechanism === 'hbot') expect(flat).toContain(`${other.result.racking.peakMomentNm.toFixed(2)} N·m`);
+    },
+  );
 
   it.each([
     ['a fingerprint that is not SHA-256 hex', { fingerprint: 'abc' }, /fingerprint/],
@@ -154,7 +161,11 @@ describe('renderSheet', () => {
     ['an approval date that is not a date', { approval: { reviewerName: 'R', approvedAt: 'soon', comment: '' } }, /approvedAt/],
     ['a revision number of zero', { revisionNumber: 0 }, /revisionNumber/],
     ['a mechanism that differs from the frozen result', { mechanism: 'hbot' as const }, /mechanism/],
-    ['frozen inputs that the schema rejects', { inputs: { ...exampleSheetInput().inputs, driver: { microsteps: 3, supplyV: 24, currentRmsA: 1.2 } } }, /driver\.microsteps/],
+    [
+      'frozen inputs that the schema rejects',
+      { inputs: { ...exampleSheetInput().inputs, driver: { microsteps: 3, supplyV: 24, currentRmsA: 1.2 } } },
+      /driver\.microsteps/,
+    ],
   ])('when given %s, then it rejects naming the field', async (_name, override, message) => {
     await expect(renderSheet(exampleSheetInput(override))).rejects.toThrow(message);
   });

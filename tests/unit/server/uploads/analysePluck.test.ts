@@ -5,15 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { analysePluck, PluckError, type PluckAnalysis } from '../../../../server/uploads';
 import { expectWithinTolerance, loadReference, referenceCases } from '../../../helpers/loadReference';
-import {
-  gaussian,
-  synthSamples,
-  synthWav,
-  typicalPluck,
-  writeWav,
-  type BitDepth,
-  type RecordingSpec,
-} from './synthRecording';
+import { gaussian, synthSamples, synthWav, typicalPluck, writeWav, type BitDepth, type RecordingSpec } from './synthRecording';
 import { buildWav, int16Bytes } from './wavBytes';
 
 /** Both mains frequencies at once (no real supply has both; it tests both rejections in one file), plus a 3rd harmonic. */
@@ -112,11 +104,49 @@ describe('analysePluck', { timeout: 30_000 }, () => {
     // [case, belt f0, hum lines, pluck overrides, recording length s]
     const cases: Array<[string, number, Array<[number, number]>, Partial<ReturnType<typeof typicalPluck>>, number]> = [
       ['a belt at 100 Hz under loud 50 Hz hum', 100, [[50, 0.2]], {}, 2],
-      ['a belt at 100 Hz under 50 Hz hum with its 100 Hz and 150 Hz harmonics', 100, [[50, 0.15], [100, 0.03], [150, 0.05]], {}, 2],
-      ['a belt at 120 Hz under 60 Hz hum with its 120 Hz and 180 Hz harmonics', 120, [[60, 0.15], [120, 0.03], [180, 0.05]], {}, 2],
+      [
+        'a belt at 100 Hz under 50 Hz hum with its 100 Hz and 150 Hz harmonics',
+        100,
+        [
+          [50, 0.15],
+          [100, 0.03],
+          [150, 0.05],
+        ],
+        {},
+        2,
+      ],
+      [
+        'a belt at 120 Hz under 60 Hz hum with its 120 Hz and 180 Hz harmonics',
+        120,
+        [
+          [60, 0.15],
+          [120, 0.03],
+          [180, 0.05],
+        ],
+        {},
+        2,
+      ],
       ['a belt at 50 Hz over weaker 50 Hz hum', 50, [[50, 0.05]], {}, 2],
-      ['a belt at 52.8 Hz, 2.8 Hz from loud 50 Hz hum', 52.8, [[50, 0.1], [150, 0.03]], { harmonicAmplitudes: [0.15, 0.1] }, 2.5],
-      ['a weak pluck at 73 Hz under hum louder than the pluck', 73, [[50, 0.3], [60, 0.2]], { harmonicAmplitudes: [0.1, 0.05, 0.02] }, 2],
+      [
+        'a belt at 52.8 Hz, 2.8 Hz from loud 50 Hz hum',
+        52.8,
+        [
+          [50, 0.1],
+          [150, 0.03],
+        ],
+        { harmonicAmplitudes: [0.15, 0.1] },
+        2.5,
+      ],
+      [
+        'a weak pluck at 73 Hz under hum louder than the pluck',
+        73,
+        [
+          [50, 0.3],
+          [60, 0.2],
+        ],
+        { harmonicAmplitudes: [0.1, 0.05, 0.02] },
+        2,
+      ],
       ['a belt at 100 Hz under 50 Hz hum and no quiet part to fit the hum in', 100, [[50, 0.2]], { onsetS: 0.02 }, 0.9],
     ];
 
@@ -138,7 +168,16 @@ describe('analysePluck', { timeout: 30_000 }, () => {
 
     it('when the recording holds only steady mains hum and noise, then it throws no_tone naming the hum', () => {
       // Arrange
-      const spec: RecordingSpec = { sampleRateHz: 44100, durationS: 3, hum: [[50, 0.2], [150, 0.05]], noiseRms: 0.005, seed: 3 };
+      const spec: RecordingSpec = {
+        sampleRateHz: 44100,
+        durationS: 3,
+        hum: [
+          [50, 0.2],
+          [150, 0.05],
+        ],
+        noiseRms: 0.005,
+        seed: 3,
+      };
       // Act
       const error = pluckErrorOf(() => analyse(spec));
       // Assert
@@ -160,30 +199,43 @@ describe('analysePluck', { timeout: 30_000 }, () => {
       [8, 0.0075, 0.42],
     ];
 
-    it.each(cases)('when a span at %s N (μ %s kg/m, L %s m) is plucked, then the tension from the found frequency is within 1 %', (tensionN, mu, spanM) => {
-      // Arrange
-      const f0 = frequencyOf(tensionN, mu, spanM);
-      const spec: RecordingSpec = { sampleRateHz: 48000, durationS: 2, pluck: typicalPluck(f0), hum: MAINS_HUM, noiseRms: 0.01, seed: 5 };
-      // Act
-      const measuredN = tensionOf(analyse(spec).frequencyHz, mu, spanM);
-      // Assert
-      expect(Math.abs(measuredN - tensionN) / tensionN).toBeLessThanOrEqual(0.01);
-    });
+    it.each(cases)(
+      'when a span at %s N (μ %s kg/m, L %s m) is plucked, then the tension from the found frequency is within 1 %',
+      (tensionN, mu, spanM) => {
+        // Arrange
+        const f0 = frequencyOf(tensionN, mu, spanM);
+        const spec: RecordingSpec = { sampleRateHz: 48000, durationS: 2, pluck: typicalPluck(f0), hum: MAINS_HUM, noiseRms: 0.01, seed: 5 };
+        // Act
+        const measuredN = tensionOf(analyse(spec).frequencyHz, mu, spanM);
+        // Assert
+        expect(Math.abs(measuredN - tensionN) / tensionN).toBeLessThanOrEqual(0.01);
+      },
+    );
 
     const spanTension = loadReference<{ frequencyHz: number; linearMassKgPerM: number; spanMm: number }, { tensionN: number }>(
       'halliday-resnick-walker',
       'span-tension',
     );
 
-    it.each(referenceCases(spanTension))('when %s is plucked at its frequency, then the tension from the recording is within 1 % of the published one', (_title, row) => {
-      // Arrange
-      const { frequencyHz, linearMassKgPerM, spanMm } = row.inputs;
-      const spec: RecordingSpec = { sampleRateHz: 44100, durationS: 2, pluck: typicalPluck(frequencyHz), hum: MAINS_HUM, noiseRms: 0.01, seed: 9 };
-      // Act
-      const measuredN = tensionOf(analyse(spec).frequencyHz, linearMassKgPerM, spanMm / 1000);
-      // Assert
-      expectWithinTolerance(measuredN, row.expected.tensionN, { rel: 0.01 }, `${row.id} tension from the recording`);
-    });
+    it.each(referenceCases(spanTension))(
+      'when %s is plucked at its frequency, then the tension from the recording is within 1 % of the published one',
+      (_title, row) => {
+        // Arrange
+        const { frequencyHz, linearMassKgPerM, spanMm } = row.inputs;
+        const spec: RecordingSpec = {
+          sampleRateHz: 44100,
+          durationS: 2,
+          pluck: typicalPluck(frequencyHz),
+          hum: MAINS_HUM,
+          noiseRms: 0.01,
+          seed: 9,
+        };
+        // Act
+        const measuredN = tensionOf(analyse(spec).frequencyHz, linearMassKgPerM, spanMm / 1000);
+        // Assert
+        expectWithinTolerance(measuredN, row.expected.tensionN, { rel: 0.01 }, `${row.id} tension from the recording`);
+      },
+    );
   });
 
   describe('recordings without a tone', () => {
@@ -204,15 +256,18 @@ describe('analysePluck', { timeout: 30_000 }, () => {
       [44100, 0.1, 2],
       [96000, 0.2, 3],
       [22050, 0.01, 4],
-    ])('when the recording at %s Hz is white noise of RMS %s (seed %s), then it throws no_tone asking to pluck closer', (rate, rms, seed) => {
-      // Arrange
-      const spec: RecordingSpec = { sampleRateHz: rate, durationS: 2, noiseRms: rms, seed };
-      // Act
-      const error = pluckErrorOf(() => analyse(spec));
-      // Assert
-      expect(error.code).toBe('no_tone');
-      expect(error.message).toBe('No clear tone found — pluck closer to the microphone.');
-    });
+    ])(
+      'when the recording at %s Hz is white noise of RMS %s (seed %s), then it throws no_tone asking to pluck closer',
+      (rate, rms, seed) => {
+        // Arrange
+        const spec: RecordingSpec = { sampleRateHz: rate, durationS: 2, noiseRms: rms, seed };
+        // Act
+        const error = pluckErrorOf(() => analyse(spec));
+        // Assert
+        expect(error.code).toBe('no_tone');
+        expect(error.message).toBe('No clear tone found — pluck closer to the microphone.');
+      },
+    );
 
     it('when the recording is shorter than half a second, then it throws no_tone asking for a longer one', () => {
       // Arrange
@@ -226,7 +281,12 @@ describe('analysePluck', { timeout: 30_000 }, () => {
 
     it('when the only tone lies above the band, then it throws no_tone', () => {
       // Arrange
-      const spec: RecordingSpec = { sampleRateHz: 44100, durationS: 2, pluck: typicalPluck(300, { harmonicAmplitudes: [0.5] }), noiseRms: 0.005 };
+      const spec: RecordingSpec = {
+        sampleRateHz: 44100,
+        durationS: 2,
+        pluck: typicalPluck(300, { harmonicAmplitudes: [0.5] }),
+        noiseRms: 0.005,
+      };
       // Act
       const error = pluckErrorOf(() => analyse(spec, { maxHz: 200 }));
       // Assert
@@ -240,9 +300,29 @@ describe('analysePluck', { timeout: 30_000 }, () => {
     withFmtIdBroken.write('fmX ', 12, 'ascii');
     const floatWithNaN = writeWav(Float64Array.from([0, 0.1, NaN, 0.2, ...new Array(8000).fill(0)]), 8000, '32f');
     const alaw = buildWav({ formatTag: 6, channels: 1, sampleRateHz: 8000, bitsPerSample: 8, data: new Uint8Array(8000) });
-    const pcm12 = buildWav({ formatTag: 1, channels: 1, sampleRateHz: 8000, bitsPerSample: 12, blockAlign: 2, data: new Uint8Array(16000) });
-    const threeChannels = buildWav({ formatTag: 1, channels: 3, sampleRateHz: 8000, bitsPerSample: 16, data: int16Bytes(new Array(3 * 8000).fill(0)) });
-    const wrongBlockAlign = buildWav({ formatTag: 1, channels: 2, sampleRateHz: 8000, bitsPerSample: 16, blockAlign: 3, data: new Uint8Array(12000) });
+    const pcm12 = buildWav({
+      formatTag: 1,
+      channels: 1,
+      sampleRateHz: 8000,
+      bitsPerSample: 12,
+      blockAlign: 2,
+      data: new Uint8Array(16000),
+    });
+    const threeChannels = buildWav({
+      formatTag: 1,
+      channels: 3,
+      sampleRateHz: 8000,
+      bitsPerSample: 16,
+      data: int16Bytes(new Array(3 * 8000).fill(0)),
+    });
+    const wrongBlockAlign = buildWav({
+      formatTag: 1,
+      channels: 2,
+      sampleRateHz: 8000,
+      bitsPerSample: 16,
+      blockAlign: 3,
+      data: new Uint8Array(12000),
+    });
     const png = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52]);
     const avi = Buffer.concat([Buffer.from('RIFF'), Buffer.alloc(4), Buffer.from('AVI LIST'), Buffer.alloc(32)]);
 
@@ -307,7 +387,12 @@ describe('analysePluck', { timeout: 30_000 }, () => {
 
     it('when the same pluck is recorded with more noise, then the confidence drops', () => {
       // Arrange
-      const base: RecordingSpec = { sampleRateHz: 44100, durationS: 2, pluck: typicalPluck(95, { harmonicAmplitudes: [0.1, 0.05] }), seed: 4 };
+      const base: RecordingSpec = {
+        sampleRateHz: 44100,
+        durationS: 2,
+        pluck: typicalPluck(95, { harmonicAmplitudes: [0.1, 0.05] }),
+        seed: 4,
+      };
       // Act
       const clean = analyse({ ...base, noiseRms: 0.001 });
       const noisy = analyse({ ...base, noiseRms: 0.03 });
@@ -321,23 +406,27 @@ describe('analysePluck', { timeout: 30_000 }, () => {
   describe('options', () => {
     it('when the band starts above a weak fundamental, then the strongest tone inside the band is returned', () => {
       // Arrange
-      const spec: RecordingSpec = { sampleRateHz: 44100, durationS: 2, pluck: typicalPluck(80, { harmonicAmplitudes: [0.2, 0.5] }), noiseRms: 0.005 };
+      const spec: RecordingSpec = {
+        sampleRateHz: 44100,
+        durationS: 2,
+        pluck: typicalPluck(80, { harmonicAmplitudes: [0.2, 0.5] }),
+        noiseRms: 0.005,
+      };
       // Act
       const result = analyse(spec, { minHz: 100 });
       // Assert
       expect(Math.abs(result.frequencyHz - 160)).toBeLessThanOrEqual(0.5);
     });
 
-    it.each([
-      [{ minHz: 0 }],
-      [{ minHz: 200, maxHz: 100 }],
-      [{ maxHz: Number.NaN }],
-    ])('when the band is %o, then it throws RangeError', (opts) => {
-      // Arrange
-      const bytes = synthWav({ sampleRateHz: 8000, durationS: 1, pluck: typicalPluck(100) });
-      // Act / Assert
-      expect(() => analysePluck(bytes, opts)).toThrow(RangeError);
-    });
+    it.each([[{ minHz: 0 }], [{ minHz: 200, maxHz: 100 }], [{ maxHz: Number.NaN }]])(
+      'when the band is %o, then it throws RangeError',
+      (opts) => {
+        // Arrange
+        const bytes = synthWav({ sampleRateHz: 8000, durationS: 1, pluck: typicalPluck(100) });
+        // Act / Assert
+        expect(() => analysePluck(bytes, opts)).toThrow(RangeError);
+      },
+    );
   });
 
   describe('synthesis helper', () => {

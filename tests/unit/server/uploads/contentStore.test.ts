@@ -3,15 +3,7 @@ import { mkdtemp, readdir, readFile, rm, stat, writeFile } from 'node:fs/promise
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import {
-  assertSha256,
-  ContentStoreError,
-  contentPath,
-  readBytes,
-  removeBytes,
-  sha256Of,
-  storeBytes,
-} from '../../../../server/uploads';
+import { assertSha256, ContentStoreError, contentPath, readBytes, removeBytes, sha256Of, storeBytes } from '../../../../server/uploads';
 
 let root: string;
 
@@ -51,7 +43,11 @@ describe('storeBytes', { timeout: 30_000 }, () => {
     // Act
     const stored = await storeBytes(root, bytes);
     // Assert
-    expect(stored).toEqual({ sha256: expectedSha, relPath: `${expectedSha.slice(0, 2)}/${expectedSha.slice(2, 4)}/${expectedSha}`, size: bytes.length });
+    expect(stored).toEqual({
+      sha256: expectedSha,
+      relPath: `${expectedSha.slice(0, 2)}/${expectedSha.slice(2, 4)}/${expectedSha}`,
+      size: bytes.length,
+    });
     expect(await readFile(join(root, stored.relPath))).toEqual(bytes);
     expect(await listFiles(root)).toEqual([stored.relPath]);
   });

@@ -57,7 +57,14 @@ describe('decodeWav', () => {
   it('when the file is extensible-format 32-bit float, then the samples are read as floats, not integers', () => {
     // Arrange
     const values = [0, 0.25, -0.5, 0.75, -1];
-    const bytes = buildWav({ formatTag: 0xfffe, subformat: 3, channels: 1, sampleRateHz: 48000, bitsPerSample: 32, data: float32Bytes(values) });
+    const bytes = buildWav({
+      formatTag: 0xfffe,
+      subformat: 3,
+      channels: 1,
+      sampleRateHz: 48000,
+      bitsPerSample: 32,
+      data: float32Bytes(values),
+    });
     // Act
     const decoded = decodeWav(bytes);
     // Assert
@@ -67,7 +74,14 @@ describe('decodeWav', () => {
 
   it('when the file is extensible-format 16-bit PCM, then it decodes like plain PCM', () => {
     // Arrange
-    const bytes = buildWav({ formatTag: 0xfffe, subformat: 1, channels: 1, sampleRateHz: 44100, bitsPerSample: 16, data: int16Bytes([0, 16384, -32768]) });
+    const bytes = buildWav({
+      formatTag: 0xfffe,
+      subformat: 1,
+      channels: 1,
+      sampleRateHz: 44100,
+      bitsPerSample: 16,
+      data: int16Bytes([0, 16384, -32768]),
+    });
     // Act
     const decoded = decodeWav(bytes);
     // Assert
@@ -100,7 +114,14 @@ describe('decodeWav', () => {
 
   it('when the data chunk declares more bytes than the file holds, then it throws corrupt', () => {
     // Arrange
-    const bytes = buildWav({ formatTag: 1, channels: 1, sampleRateHz: 8000, bitsPerSample: 16, data: int16Bytes([1, 2, 3, 4]), declaredDataSize: 400 });
+    const bytes = buildWav({
+      formatTag: 1,
+      channels: 1,
+      sampleRateHz: 8000,
+      bitsPerSample: 16,
+      data: int16Bytes([1, 2, 3, 4]),
+      declaredDataSize: 400,
+    });
     // Act
     const error = decodeError(bytes);
     // Assert

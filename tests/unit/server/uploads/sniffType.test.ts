@@ -77,21 +77,40 @@ describe('assertTypeMatches', () => {
   // [case, file name, declared type, bytes, allowed, code, message fragment]
   const refusals: Array<[string, string, string, Buffer, SniffedMime[], string, RegExp]> = [
     ['a .png name on PDF bytes', 'photo.png', 'image/png', PDF, ALL, 'type_mismatch', /"photo.png" is named .png but contains PDF data/],
-    ['a PDF type on PNG bytes', 'image.png', 'application/pdf', PNG, ALL, 'type_mismatch', /was sent as application\/pdf but contains PNG data/],
+    [
+      'a PDF type on PNG bytes',
+      'image.png',
+      'application/pdf',
+      PNG,
+      ALL,
+      'type_mismatch',
+      /was sent as application\/pdf but contains PNG data/,
+    ],
     ['an .exe name on PDF bytes', 'setup.exe', 'application/octet-stream', PDF, ALL, 'type_mismatch', /named .exe/],
     ['an .html name on text', 'page.html', 'text/html', TEXT, ALL, 'type_mismatch', /named .html/],
-    ['a WAV where only documents are accepted', 'pluck.wav', 'audio/wav', WAV, ['application/pdf', 'image/png', 'image/jpeg', 'text/csv'], 'unsupported_type', /is a WAV file; accepted here: PDF, PNG, JPEG, text\/CSV/],
+    [
+      'a WAV where only documents are accepted',
+      'pluck.wav',
+      'audio/wav',
+      WAV,
+      ['application/pdf', 'image/png', 'image/jpeg', 'text/csv'],
+      'unsupported_type',
+      /is a WAV file; accepted here: PDF, PNG, JPEG, text\/CSV/,
+    ],
     ['a ZIP archive', 'parts.zip', 'application/zip', ZIP, ALL, 'unsupported_type', /not a file type we accept/],
     ['a ZIP renamed .pdf', 'parts.pdf', 'application/pdf', ZIP, ALL, 'unsupported_type', /not a file type we accept/],
     ['an empty file', 'empty.csv', 'text/csv', Buffer.alloc(0), ALL, 'empty_file', /"empty.csv" is empty/],
   ];
 
-  it.each(refusals)('when the upload is %s, then it throws UploadTypeError (415)', (_name, filename, declared, bytes, allowed, code, message) => {
-    // Arrange / Act
-    const error = uploadTypeErrorOf(() => assertTypeMatches(declared, filename, bytes, allowed));
-    // Assert
-    expect(error.code).toBe(code);
-    expect(error.httpStatus).toBe(415);
-    expect(error.message).toMatch(message);
-  });
+  it.each(refusals)(
+    'when the upload is %s, then it throws UploadTypeError (415)',
+    (_name, filename, declared, bytes, allowed, code, message) => {
+      // Arrange / Act
+      const error = uploadTypeErrorOf(() => assertTypeMatches(declared, filename, bytes, allowed));
+      // Assert
+      expect(error.code).toBe(code);
+      expect(error.httpStatus).toBe(415);
+      expect(error.message).toMatch(message);
+    },
+  );
 });

@@ -92,7 +92,14 @@ export function toCodes(x: Float64Array, bitDepth: BitDepth): number[] {
 export function writeWav(x: Float64Array, sampleRateHz: number, bitDepth: BitDepth = '16', channels: 1 | 2 = 1): Buffer {
   const wav = new WaveFileClass();
   if (channels === 1) wav.fromScratch(1, sampleRateHz, bitDepth, toCodes(x, bitDepth));
-  else wav.fromScratch(2, sampleRateHz, bitDepth, [toCodes(x, bitDepth), toCodes(x.map((v) => 0.8 * v), bitDepth)]);
+  else
+    wav.fromScratch(2, sampleRateHz, bitDepth, [
+      toCodes(x, bitDepth),
+      toCodes(
+        x.map((v) => 0.8 * v),
+        bitDepth,
+      ),
+    ]);
   return Buffer.from(wav.toBuffer());
 }
 

@@ -72,7 +72,10 @@ describe('parseTorqueCsv', () => {
       });
     });
 
-    const factors = loadReference<{ value: number; fromUnit: string; toUnit: string }, { factor: number }>('nist-sp811', 'conversion-factors');
+    const factors = loadReference<{ value: number; fromUnit: string; toUnit: string }, { factor: number }>(
+      'nist-sp811',
+      'conversion-factors',
+    );
     const ozIn = factors.rows.filter((r) => r.id === 'NIST-OZFIN');
 
     it.each(referenceCases(factors, ozIn))('when the torque is in oz·in, then the factor to N·m is %s', (_title, row) => {
@@ -82,17 +85,23 @@ describe('parseTorqueCsv', () => {
       expectWithinTolerance(factor, row.expected.factor, row.tolerance, `${row.id} oz·in → N·m`);
     });
 
-    const conversions = loadReference<{ value: number; fromUnit: string; toUnit: string }, { converted: number }>('nist-sp811', 'conversions');
+    const conversions = loadReference<{ value: number; fromUnit: string; toUnit: string }, { converted: number }>(
+      'nist-sp811',
+      'conversions',
+    );
     const ozInWorked = conversions.rows.filter((r) => r.id === 'CONV-OZFIN');
 
-    it.each(referenceCases(conversions, ozInWorked))('when a table holds the %s torque, then its point carries the published N·m', (_title, row) => {
-      // Arrange
-      const text = `speed (rev/s), torque (oz·in)\n0,${row.inputs.value}\n1,50\n2,40\n`;
-      // Act
-      const { points } = parseTorqueCsv(text);
-      // Assert
-      expectWithinTolerance(points[0].torqueNm, row.expected.converted, row.tolerance, `${row.id} ${row.inputs.value} oz·in`);
-    });
+    it.each(referenceCases(conversions, ozInWorked))(
+      'when a table holds the %s torque, then its point carries the published N·m',
+      (_title, row) => {
+        // Arrange
+        const text = `speed (rev/s), torque (oz·in)\n0,${row.inputs.value}\n1,50\n2,40\n`;
+        // Act
+        const { points } = parseTorqueCsv(text);
+        // Assert
+        expectWithinTolerance(points[0].torqueNm, row.expected.converted, row.tolerance, `${row.id} ${row.inputs.value} oz·in`);
+      },
+    );
 
     it.each([
       ['rev/s', 1],
@@ -108,7 +117,8 @@ describe('parseTorqueCsv', () => {
   describe('file conventions', () => {
     it('when the file has a BOM, CRLF line ends, blank lines, # comments, spaces and quotes, then all points are read', () => {
       // Arrange
-      const text = '\uFEFF# motor 17HS19 (invented)\r\nspeed_rpm , torque_Ncm\r\n\r\n"0", "40"\r\n  60 ,38\r\n# mid-table note\r\n\r\n120,30\r\n';
+      const text =
+        '\uFEFF# motor 17HS19 (invented)\r\nspeed_rpm , torque_Ncm\r\n\r\n"0", "40"\r\n  60 ,38\r\n# mid-table note\r\n\r\n120,30\r\n';
       // Act
       const { points } = parseTorqueCsv(text);
       // Assert
@@ -153,19 +163,71 @@ describe('parseTorqueCsv', () => {
   describe('errors name line and column', () => {
     // [case, text, expected first detail]
     const cases: Array<[string, string, CsvErrorDetail]> = [
-      ['speed going down', 'speed_rpm,torque_Ncm\n0,40\n60,38\n50,30\n', { line: 4, column: 'speed_rpm', message: 'speed must increase from row to row: 50 rpm follows 60 rpm on line 3' }],
-      ['a repeated speed', 'speed_rpm,torque_Ncm\n0,40\n60,38\n60,30\n', { line: 4, column: 'speed_rpm', message: 'speed must increase from row to row: 60 rpm follows 60 rpm on line 3' }],
-      ['negative torque', 'speed_rpm,torque_Ncm\n0,40\n60,-1\n120,30\n', { line: 3, column: 'torque_Ncm', message: 'torque must not be negative (found -1)' }],
-      ['negative speed', 'speed_rpm,torque_Ncm\n-60,40\n0,38\n120,30\n', { line: 2, column: 'speed_rpm', message: 'speed must not be negative (found -60)' }],
-      ['text in a number cell', 'speed_rpm,torque_Ncm\n0,40\n60,abc\n120,30\n', { line: 3, column: 'torque_Ncm', message: '"abc" is not a number' }],
-      ['a number with a unit in its cell', 'speed (rev/s),torque (N·m)\n0,0.4\n1 rps,0.38\n2,0.3\n', { line: 3, column: 'speed (rev/s)', message: '"1 rps" is not a number' }],
-      ['an overflowing number', 'speed_rpm,torque_Ncm\n0,40\n60,1e999\n120,30\n', { line: 3, column: 'torque_Ncm', message: '"1e999" is not a number' }],
-      ['an empty cell', 'speed_rpm,torque_Ncm\n0,40\n60,""\n120,30\n', { line: 3, column: 'torque_Ncm', message: 'empty cell; a number is needed' }],
-      ['a row with three values', 'speed_rpm,torque_Ncm\n0,40\n60,38,1\n120,30\n', { line: 3, column: null, message: 'expected 2 values (speed_rpm, torque_Ncm), found 3' }],
-      ['a bad row after blank and comment lines', 'speed_rpm,torque_Ncm\n\n# note\n0,40\n\n60,x\n120,30\n', { line: 6, column: 'torque_Ncm', message: '"x" is not a number' }],
-      ['two points only', 'speed_rpm,torque_Ncm\n0,40\n60,38\n', { line: null, column: null, message: 'at least 3 points are needed to draw a curve, found 2' }],
-      ['a header only', 'speed_rpm,torque_Ncm\n', { line: null, column: null, message: 'at least 3 points are needed to draw a curve, found 0' }],
-      ['an unclosed quote', 'speed_rpm,torque_Ncm\n0,40\n"60,38\n120,30\n', { line: 4, column: null, message: 'a quote (") is opened but never closed' }],
+      [
+        'speed going down',
+        'speed_rpm,torque_Ncm\n0,40\n60,38\n50,30\n',
+        { line: 4, column: 'speed_rpm', message: 'speed must increase from row to row: 50 rpm follows 60 rpm on line 3' },
+      ],
+      [
+        'a repeated speed',
+        'speed_rpm,torque_Ncm\n0,40\n60,38\n60,30\n',
+        { line: 4, column: 'speed_rpm', message: 'speed must increase from row to row: 60 rpm follows 60 rpm on line 3' },
+      ],
+      [
+        'negative torque',
+        'speed_rpm,torque_Ncm\n0,40\n60,-1\n120,30\n',
+        { line: 3, column: 'torque_Ncm', message: 'torque must not be negative (found -1)' },
+      ],
+      [
+        'negative speed',
+        'speed_rpm,torque_Ncm\n-60,40\n0,38\n120,30\n',
+        { line: 2, column: 'speed_rpm', message: 'speed must not be negative (found -60)' },
+      ],
+      [
+        'text in a number cell',
+        'speed_rpm,torque_Ncm\n0,40\n60,abc\n120,30\n',
+        { line: 3, column: 'torque_Ncm', message: '"abc" is not a number' },
+      ],
+      [
+        'a number with a unit in its cell',
+        'speed (rev/s),torque (N·m)\n0,0.4\n1 rps,0.38\n2,0.3\n',
+        { line: 3, column: 'speed (rev/s)', message: '"1 rps" is not a number' },
+      ],
+      [
+        'an overflowing number',
+        'speed_rpm,torque_Ncm\n0,40\n60,1e999\n120,30\n',
+        { line: 3, column: 'torque_Ncm', message: '"1e999" is not a number' },
+      ],
+      [
+        'an empty cell',
+        'speed_rpm,torque_Ncm\n0,40\n60,""\n120,30\n',
+        { line: 3, column: 'torque_Ncm', message: 'empty cell; a number is needed' },
+      ],
+      [
+        'a row with three values',
+        'speed_rpm,torque_Ncm\n0,40\n60,38,1\n120,30\n',
+        { line: 3, column: null, message: 'expected 2 values (speed_rpm, torque_Ncm), found 3' },
+      ],
+      [
+        'a bad row after blank and comment lines',
+        'speed_rpm,torque_Ncm\n\n# note\n0,40\n\n60,x\n120,30\n',
+        { line: 6, column: 'torque_Ncm', message: '"x" is not a number' },
+      ],
+      [
+        'two points only',
+        'speed_rpm,torque_Ncm\n0,40\n60,38\n',
+        { line: null, column: null, message: 'at least 3 points are needed to draw a curve, found 2' },
+      ],
+      [
+        'a header only',
+        'speed_rpm,torque_Ncm\n',
+        { line: null, column: null, message: 'at least 3 points are needed to draw a curve, found 0' },
+      ],
+      [
+        'an unclosed quote',
+        'speed_rpm,torque_Ncm\n0,40\n"60,38\n120,30\n',
+        { line: 4, column: null, message: 'a quote (") is opened but never closed' },
+      ],
     ];
 
     it.each(cases)('when the table has %s, then CsvError names where', (_name, text, expected) => {
@@ -179,8 +241,18 @@ describe('parseTorqueCsv', () => {
 
     // [case, text, column, message fragment]
     const headerCases: Array<[string, string, string | null, RegExp]> = [
-      ['an unknown torque unit', 'speed_rpm,torque_kgcm\n0,1\n1,1\n2,1\n', 'torque_kgcm', /unknown unit "kgcm"; use rev\/s, rps or rpm for speed and N·m, N·cm or oz·in/],
-      ['a step rate instead of a speed', 'speed_pps,torque_Ncm\n0,1\n1,1\n2,1\n', 'speed_pps', /step or pulse rates depend on the step angle/],
+      [
+        'an unknown torque unit',
+        'speed_rpm,torque_kgcm\n0,1\n1,1\n2,1\n',
+        'torque_kgcm',
+        /unknown unit "kgcm"; use rev\/s, rps or rpm for speed and N·m, N·cm or oz·in/,
+      ],
+      [
+        'a step rate instead of a speed',
+        'speed_pps,torque_Ncm\n0,1\n1,1\n2,1\n',
+        'speed_pps',
+        /step or pulse rates depend on the step angle/,
+      ],
       ['no units', 'speed,torque\n0,1\n1,1\n2,1\n', 'speed', /no unit given/],
       ['two speed columns', 'speed_rpm,speed_rps\n0,1\n1,1\n2,1\n', 'speed_rps', /both columns are speeds/],
       ['a torque label on a speed unit', 'torque_rpm,torque_Ncm\n0,1\n1,1\n2,1\n', 'torque_rpm', /says torque but its unit rpm is a speed/],
