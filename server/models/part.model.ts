@@ -15,7 +15,7 @@ export type PartKind = (typeof PART_KINDS)[number];
 
 /**
  * One entry of the shared parts shelf (a belt, pulley or motor). The kind-specific numbers live in
- * `data`, shaped like the matching design sub-object so picking a part fills the workbench form.
+ * `data`, shaped like the matching design sub-object so picking a part fills the Design desk form.
  * A retired part is hidden from pickers but stays readable by id.
  */
 export class Part extends Model<InferAttributes<Part>, InferCreationAttributes<Part>> {

@@ -16,7 +16,7 @@ import { createDesign, deleteDesign, exportDesign, getDesign, listDesigns, updat
 const idOf = (params: unknown) => (params as { id: number }).id;
 
 /**
- * /api/designs: the Designs table and the workbench's load/save.
+ * /api/designs: the Designs table and the Design desk's load/save.
  * Everyone signed in reads; designers (and admins) create, and change or delete their own drafts (admins any).
  */
 export function createDesignsRouter(): Router {

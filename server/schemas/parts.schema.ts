@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { paginationSchema } from './common.schema';
 
-// Ranges follow the design schema (src/engine/schema.ts) so any part on the shelf can fill the workbench
+// Ranges follow the design schema (src/engine/schema.ts) so any part on the shelf can fill the Design desk
 // form without the form then rejecting it.
 
 const finite = () => z.number({ message: 'must be a number' }).refine(Number.isFinite, 'must be a finite number');

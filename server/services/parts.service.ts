@@ -150,7 +150,7 @@ export async function createPart(actor: PublicUser, kind: PartKind, input: PartI
 
 /**
  * Changes some fields of a part and/or retires or restores it (admin). The merged part is validated as a
- * whole, so the shelf never holds a part the workbench would reject.
+ * whole, so the shelf never holds a part the Design desk would reject.
  */
 export async function updatePart(actor: PublicUser, kind: PartKind, id: number, patch: PartPatch): Promise<PublicPart> {
   const sequelize = getSequelize();

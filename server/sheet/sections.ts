@@ -94,7 +94,7 @@ export function titleBlock(data: SheetData, width: number): Content {
   };
 }
 
-/** The boxed cautions of page 1, worded by the engine so the sheet and the workbench say the same. */
+/** The boxed cautions of page 1, worded by the engine so the sheet and the Design desk say the same. */
 export function cautionsBox(result: DesignResult, width: number): Content {
   const hazards = result.cautions.filter((c) => c.id !== 'codes-and-practice');
   const defer = result.cautions.find((c) => c.id === 'codes-and-practice');
@@ -242,7 +242,7 @@ function signWord(sign: 1 | -1): string {
   return sign === -1 ? 'reversed' : 'as drawn';
 }
 
-/** The design inputs in the workbench's four groups, with units. */
+/** The design inputs in the Design desk's four groups, with units. */
 export function inputsSection(data: SheetData): Content[] {
   const d = data.design;
   const r = data.result;

@@ -17,7 +17,7 @@ export interface BeltGeometry {
 
 /**
  * Belt geometry at any carriage position: loop lengths, free spans, the holding arms and the wraps, for the
- * workbench's "move the carriage" view and for pluck targets at a position other than the parking one.
+ * Design desk's "move the carriage" view and for pluck targets at a position other than the parking one.
  * @param args.design - a validated design (mechanism, frame, belt, pulleys, Y motors)
  * @param args.xMm - carriage position along the X travel, 0 … travel X [mm]
  * @param args.yMm - carriage position along the Y travel, 0 … travel Y [mm]

@@ -21,7 +21,7 @@ function setPath(doc: Record<string, unknown>, parts: string[], value: unknown):
 }
 
 /**
- * Varies one input of a design over a list of values and returns the key outputs per value (workbench "what if").
+ * Varies one input of a design over a list of values and returns the key outputs per value (Design desk "what if").
  * An invalid value gives an entry with its issues instead of stopping the sweep.
  * @param input - the base design (validated first)
  * @param path - dotted path of the field to vary, e.g. "pulley.driveTeeth"

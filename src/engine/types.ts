@@ -51,7 +51,7 @@ export interface Check {
   unit: string;
 }
 
-/** One safety caution shown on every sheet and on the workbench (engine.md §9). */
+/** One safety caution shown on every sheet and on the Design desk (engine.md §9). */
 export interface Caution {
   id: 'pinch-points' | 'electrical-supply' | 'stored-energy' | 'codes-and-practice';
   title: string;
@@ -148,7 +148,7 @@ export interface LayoutDrawing {
   belts: { id: string; segments: { x1Mm: number; y1Mm: number; x2Mm: number; y2Mm: number }[] }[];
 }
 
-/** The full result of evaluateDesign (format.md "Result" plus what the workbench draws). */
+/** The full result of evaluateDesign (format.md "Result" plus what the Design desk draws). */
 export interface DesignResult {
   engineVersion: string;
   mechanism: Mechanism;

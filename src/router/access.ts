@@ -5,7 +5,7 @@ import type { Role } from '@/api/types';
  * decide what the UI offers, so a person is not shown screens that would refuse them.
  */
 
-/** Designs and the workbench. */
+/** Designs and the Design desk. */
 export const DESIGN_ROLES: readonly Role[] = ['designer', 'reviewer', 'admin'];
 /** Review desk and review pages. */
 export const REVIEW_ROLES: readonly Role[] = ['reviewer', 'admin'];

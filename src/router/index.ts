@@ -50,9 +50,9 @@ export const routes: RouteRecordRaw[] = [
   },
   {
     path: '/designs/:id',
-    name: 'workbench',
-    component: () => import('@/views/workbench/WorkbenchView.vue'),
-    meta: { title: 'Workbench', section: 'Designs', roles: DESIGN_ROLES },
+    name: 'design-desk',
+    component: () => import('@/views/desk/DesignDeskView.vue'),
+    meta: { title: 'Design desk', section: 'Designs', roles: DESIGN_ROLES },
   },
   {
     path: '/review',

@@ -7,7 +7,7 @@ import type { Mechanism } from '@/engine';
 export const DESIGN_PAGE_SIZES = [10, 20, 50] as const;
 
 /**
- * How the Designs table is filtered, sorted and paged. Kept in a store so that coming back from the workbench
+ * How the Designs table is filtered, sorted and paged. Kept in a store so that coming back from the Design desk
  * shows the same page, search and filters.
  */
 export const useDesignsStore = defineStore('designs', () => {

@@ -1,7 +1,7 @@
 import { MECHANISMS, evaluateDesign, safeParseDesign, type DesignResult, type InputIssue, type Mechanism } from '@/engine';
 
 /**
- * The engine work the workbench asks for — one evaluation, the same inputs under every mechanism, and a
+ * The engine work the Design desk asks for — one evaluation, the same inputs under every mechanism, and a
  * sweep of one input — written once and run either in the engine Web Worker or, where workers do not
  * exist (tests), on the main thread.
  */

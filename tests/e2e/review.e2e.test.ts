@@ -36,7 +36,7 @@ describe('review journey: submit, return, fix, resubmit, approve, download', () 
     const name = `Review journey stage ${Date.now().toString(36)}`;
     const reason = 'Raise the belt pretension to 45 N so the slack side stays taut at full acceleration.';
 
-    // Arrange: the designer's draft (made through the API of their own session; the journey starts at the workbench).
+    // Arrange: the designer's draft (made through the API of their own session; the journey starts at the Design desk).
     const designer = await openPage(browser, { baseURL });
     const reviewer = await openPage(browser, { baseURL });
     const maker = await openPage(browser, { baseURL });
@@ -47,11 +47,11 @@ describe('review journey: submit, return, fix, resubmit, approve, download', () 
     expect(created.status()).toBe(201);
     const designId = ((await created.json()) as { id: number }).id;
 
-    // Act 1: the designer submits from the workbench.
+    // Act 1: the designer submits from the Design desk.
     await designer.page.goto(`/designs/${designId}`);
     await designer.page.click('[data-test="design-submit"]');
     await confirmBox(designer.page);
-    await designer.page.waitForSelector('[data-test="workbench"] [data-test="status-in_review"]');
+    await designer.page.waitForSelector('[data-test="design-desk"] [data-test="status-in_review"]');
 
     // Act 2: the reviewer finds it on the desk, reads it, comments and returns it with a reason.
     await reviewer.page.goto('/sign-in');
@@ -72,9 +72,9 @@ describe('review journey: submit, return, fix, resubmit, approve, download', () 
     await reviewer.page.click('[data-test="return-confirm"]');
     expect(await reviewer.page.textContent('[data-test="review-return-reason"]')).toBe(reason);
 
-    // Act 3: the designer sees the reason on the workbench, fixes the pretension and submits again.
+    // Act 3: the designer sees the reason on the Design desk, fixes the pretension and submits again.
     await designer.page.reload();
-    await designer.page.waitForSelector('[data-test="workbench"] [data-test="status-returned"]');
+    await designer.page.waitForSelector('[data-test="design-desk"] [data-test="status-returned"]');
     expect(await designer.page.textContent('[data-test="return-reason-text"]')).toBe(reason);
     const saved = designer.page.waitForResponse(
       (r) => r.url().endsWith(`/api/designs/${designId}`) && r.request().method() === 'PATCH' && r.ok(),
@@ -83,7 +83,7 @@ describe('review journey: submit, return, fix, resubmit, approve, download', () 
     await saved;
     await designer.page.click('[data-test="design-submit"]');
     await confirmBox(designer.page);
-    await designer.page.waitForSelector('[data-test="workbench"] [data-test="status-in_review"]');
+    await designer.page.waitForSelector('[data-test="design-desk"] [data-test="status-in_review"]');
 
     // Act 4: the reviewer opens revision 2, sees the change, and approves it with a comment.
     await openFromDesk(reviewer.page, name, 2);

@@ -57,7 +57,7 @@ export function usePartsShelf(initial: PartKind = 'belts') {
     if (retired) {
       const ok = await confirmAction({
         title: `Retire “${part.name}”?`,
-        message: 'It stays readable in designs that use it, but is no longer offered on the workbench. You can restore it later.',
+        message: 'It stays readable in designs that use it, but is no longer offered on the Design desk. You can restore it later.',
         confirmText: 'Retire',
         isDanger: true,
       });

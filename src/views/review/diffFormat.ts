@@ -1,10 +1,10 @@
 import { formatNumber } from '@/components/units/quantities';
-import { ALL_FIELDS } from '@/views/workbench/fields';
+import { ALL_FIELDS } from '@/views/desk/fields';
 
-/** Labels and stored units of the workbench inputs, by dotted path. */
+/** Labels and stored units of the Design desk inputs, by dotted path. */
 const FIELD_BY_PATH = new Map(ALL_FIELDS.map((f) => [f.path, f]));
 
-/** Paths the workbench form does not list, in words. */
+/** Paths the Design desk form does not list, in words. */
 const EXTRA_LABELS: Record<string, string> = {
   name: 'Design name',
   description: 'Description',
@@ -12,7 +12,7 @@ const EXTRA_LABELS: Record<string, string> = {
 };
 
 /**
- * A label for an input path: the workbench's own label when it has one, else the path in words
+ * A label for an input path: the Design desk's own label when it has one, else the path in words
  * ("frictionN.x" → "Friction n x").
  * @param path - dotted path in the design document
  */

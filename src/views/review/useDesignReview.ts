@@ -4,7 +4,7 @@ import { listDesignRevisions, reopenDesign, submitDesign, withdrawDesign, type R
 import { showError, showSuccess } from '@/utils/message';
 
 /**
- * The review side of one design, for its workbench: its revision history (with the latest return reason),
+ * The review side of one design, for its Design desk: its revision history (with the latest return reason),
  * and submit / withdraw / reopen. The server enforces who may do what; `canChange` only decides what to offer.
  * @param designId - the design
  * @param status - the design's current status (the caller reloads the design after `changed`)

@@ -46,7 +46,7 @@ async function mountView(items: DesignSummary[]) {
     history: createMemoryHistory(),
     routes: [
       { path: '/designs', component: DesignsView },
-      { path: '/designs/:id', name: 'workbench', component: { render: () => null } },
+      { path: '/designs/:id', name: 'design-desk', component: { render: () => null } },
     ],
   });
   await router.push('/designs');

@@ -19,7 +19,7 @@ vi.mock('@/views/auth/SignInView.vue', () => ({ default: { render: () => null } 
 vi.mock('@/views/auth/ForgotView.vue', () => ({ default: { render: () => null } }));
 vi.mock('@/views/auth/ResetView.vue', () => ({ default: { render: () => null } }));
 vi.mock('@/views/designs/DesignsView.vue', () => ({ default: { render: () => null } }));
-vi.mock('@/views/workbench/WorkbenchView.vue', () => ({ default: { render: () => null } }));
+vi.mock('@/views/desk/DesignDeskView.vue', () => ({ default: { render: () => null } }));
 vi.mock('@/views/review/ReviewDeskView.vue', () => ({ default: { render: () => null } }));
 vi.mock('@/views/review/ReviewView.vue', () => ({ default: { render: () => null } }));
 vi.mock('@/views/sheets/SheetsView.vue', () => ({ default: { render: () => null } }));

@@ -6,7 +6,7 @@ import QuantityInput from '@/components/units/QuantityInput.vue';
 import UnitToggle from '@/components/units/UnitToggle.vue';
 import { UNITS_STORAGE_KEY, useUnitsStore } from '@/stores/units';
 
-/** A length input and a torque input next to the unit toggle, as on the workbench. */
+/** A length input and a torque input next to the unit toggle, as on the Design desk. */
 function mountHarness(initialMm: number, initialNm: number) {
   const lengthMm = ref<number | null>(initialMm);
   const torqueNm = ref<number | null>(initialNm);

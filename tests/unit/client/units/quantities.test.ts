@@ -1,5 +1,5 @@
 /**
- * Unit conversions and number formatting of the workbench. Factors are checked against NIST SP 811 (2008),
+ * Unit conversions and number formatting of the Design desk. Factors are checked against NIST SP 811 (2008),
  * Appendix B.8: 1 in = 25.4 mm (exact), 1 ozf·in = 7.061 552 E-03 N·m, 1 lbf = 4.448 222 N, 1 lb = 0.453 592 37 kg.
  */
 import { describe, expect, it } from 'vitest';

@@ -3,7 +3,7 @@ import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, openPage, signInThroughForm } from '../helpers/browser';
 
 /**
- * The designing journey on the workbench, in headless chromium against the built app and a demo-seeded
+ * The designing journey on the Design desk, in headless chromium against the built app and a demo-seeded
  * database (tests/helpers/e2eGlobalSetup.ts). Assertions read the numbers the plots actually draw (Plotly keeps
  * its traces on the plot's div as `.data`), not just that a plot is there.
  */
@@ -35,7 +35,7 @@ async function typeInto(page: Page, path: string, value: string): Promise<void> 
   await input.blur();
 }
 
-describe('workbench journey', () => {
+describe('Design desk journey', () => {
   const baseURL = inject('baseUrl');
   let browser: Browser;
   let designUrl = '';
@@ -61,7 +61,7 @@ describe('workbench journey', () => {
     await page.click('[data-test="new-design-create"]');
     await page.waitForURL(/\/designs\/\d+/);
     designUrl = new URL(page.url()).pathname;
-    await page.waitForSelector('[data-test="workbench-inputs"]');
+    await page.waitForSelector('[data-test="desk-inputs"]');
     await waitForLiveResults(page);
     expect(await page.inputValue('input[data-test="input-frame.outerXMm"]')).toBe('460');
 
@@ -113,7 +113,7 @@ describe('workbench journey', () => {
 
     // Act: reload
     await page.reload();
-    await page.waitForSelector('[data-test="workbench-inputs"]');
+    await page.waitForSelector('[data-test="desk-inputs"]');
     // Assert: the design was saved, and the unit choice kept
     expect(await page.inputValue('input[data-test="input-frame.outerXMm"]')).toBe('23.622');
     expect(await page.inputValue('input[data-test="input-belt.widthMm"]')).toBe('0.354331');
@@ -136,7 +136,7 @@ describe('workbench journey', () => {
     await signInThroughForm(page, 'reviewer@example.test');
     // Act
     await page.goto(designUrl);
-    await page.waitForSelector('[data-test="workbench-inputs"]');
+    await page.waitForSelector('[data-test="desk-inputs"]');
     // Assert
     await page.waitForSelector('[data-test="read-only-banner"]');
     expect(await page.isDisabled('input[data-test="input-frame.outerXMm"]')).toBe(true);

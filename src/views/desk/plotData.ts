@@ -1,7 +1,7 @@
 import { motorForcesN, type DesignResult, type EnvelopeInput } from '@/engine';
 
 /**
- * Pure helpers that turn an engine result into the series the workbench plots. The numbers all come from the
+ * Pure helpers that turn an engine result into the series the Design desk plots. The numbers all come from the
  * engine; these only pick, split and convert them.
  */
 

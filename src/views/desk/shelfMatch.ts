@@ -1,7 +1,7 @@
 import type { BeltPart, MotorPart, PulleyPart } from '@/api/parts';
 import { getAt } from './paths';
 
-/** The parts of the shelf the workbench offers. */
+/** The parts of the shelf the Design desk offers. */
 export interface Shelf {
   belts: BeltPart[];
   pulleys: PulleyPart[];

@@ -19,7 +19,7 @@ export interface OptionalPart {
   defaultValue: unknown;
 }
 
-/** One input of the workbench form. */
+/** One input of the Design desk form. */
 export interface FieldDef {
   /** Dotted path in the design document; also the path of schema issues and API details. */
   path: string;
@@ -49,7 +49,7 @@ export interface FieldGroup {
   fields: FieldDef[];
 }
 
-/** Mechanism labels used across the workbench and the designs list. */
+/** Mechanism labels used across the Design desk and the designs list. */
 export const MECHANISM_LABELS: Record<Mechanism, string> = {
   corexy: 'CoreXY — crossed belts',
   hbot: 'H-bot — one H-shaped belt',
@@ -73,7 +73,7 @@ const num = (
   extra: Partial<FieldDef> = {},
 ): FieldDef => ({ path, label, help, control: 'number', quantity, stored, isSweepable: true, ...extra });
 
-/** Every input of a design, grouped as on the workbench. */
+/** Every input of a design, grouped as on the Design desk. */
 export const FIELD_GROUPS: FieldGroup[] = [
   {
     id: 'frame',

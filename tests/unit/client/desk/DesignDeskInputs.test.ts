@@ -4,11 +4,11 @@ import { flushPromises, mount } from '@vue/test-utils';
 import { createPinia, setActivePinia } from 'pinia';
 import { defaultDesign, designInputSchema, safeParseDesign } from '@/engine';
 import { formIssues } from '@/composables/useEngine';
-import WorkbenchInputs from '@/views/workbench/WorkbenchInputs.vue';
-import { setAt } from '@/views/workbench/paths';
+import DesignDeskInputs from '@/views/desk/DesignDeskInputs.vue';
+import { setAt } from '@/views/desk/paths';
 
 /**
- * The form as the workbench wires it: the design document in a reactive object, field messages from the shared
+ * The form as the Design desk wires it: the design document in a reactive object, field messages from the shared
  * schema (safeParseDesign), and `set` events written back by path.
  */
 function mountForm(isReadOnly = false) {
@@ -22,7 +22,7 @@ function mountForm(isReadOnly = false) {
   const Harness = defineComponent({
     setup() {
       return () =>
-        h(WorkbenchInputs, {
+        h(DesignDeskInputs, {
           model,
           errors: errors.value,
           isReadOnly,
@@ -43,7 +43,7 @@ const fieldError = (wrapper: ReturnType<typeof mountForm>['wrapper'], path: stri
 // The whole form (about fifty Element Plus fields) renders slowly in jsdom; give each case room.
 vi.setConfig({ testTimeout: 60_000 });
 
-describe('WorkbenchInputs', () => {
+describe('DesignDeskInputs', () => {
   beforeEach(() => {
     localStorage.clear();
     setActivePinia(createPinia());

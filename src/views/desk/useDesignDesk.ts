@@ -16,11 +16,11 @@ const EDITABLE_STATUSES = new Set(['draft', 'returned']);
 export type EditableDesign = Record<string, unknown> & { name: string; mechanism: Mechanism };
 
 /**
- * State and actions of the workbench for one design: loading, editing, live results, autosave with
+ * State and actions of the Design desk for one design: loading, editing, live results, autosave with
  * conflict handling, and who may edit.
  * @param id - the design id from the route
  */
-export function useWorkbench(id: Ref<number>) {
+export function useDesignDesk(id: Ref<number>) {
   const auth = useAuthStore();
   const { user } = storeToRefs(auth);
 

@@ -4,7 +4,7 @@ import { errorMessage } from '@/utils/message';
 import type { Shelf } from './shelfMatch';
 
 /**
- * The Parts shelf as the workbench offers it: every belt, pulley and motor, retired ones included (shown but not
+ * The Parts shelf as the Design desk offers it: every belt, pulley and motor, retired ones included (shown but not
  * offered) so an old design still names the part it was built from.
  * @returns `shelf` (null until loaded), `error`, `load()`
  */

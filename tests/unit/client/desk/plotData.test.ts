@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { defaultDesign, evaluateDesign } from '@/engine';
-import { limitingRanges, pullsAtLimit, splitBySign } from '@/views/workbench/plotData';
+import { limitingRanges, pullsAtLimit, splitBySign } from '@/views/desk/plotData';
 
 describe('splitBySign', () => {
   it('when a series changes sign, then each part holds magnitudes and both meet at the crossing', () => {
