@@ -13,7 +13,8 @@ import { guideReactionN, rackingMomentPerNewtonM, rackingTurnSpacingMm } from '.
 import { parseDesign, type DesignInput } from './schema';
 import { stiffnessMap } from './stiffness';
 import { spanFrequencyHz } from './tension';
-import type { AxisLimits, BeltReport, DesignResult, LayoutDrawing, LayoutPart, RingingFigure } from './types';
+import { layoutDrawing } from './layoutDrawing';
+import type { AxisLimits, BeltReport, DesignResult, RingingFigure } from './types';
 import { ENGINE_VERSION } from './version';
 
 /** Number of directions of the envelope: one per degree. */
@@ -321,39 +322,16 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
   ];
 
   // --- drawing
-  const parts: LayoutPart[] = [];
-  t.layout.loops.forEach((loop, i) => {
-    const drive = loop.elements.find((e) => e.kind === 'drive');
-    loop.elements.forEach((e, j) => {
-      const pos = states[i].positions[j];
-      const coord = e.motor ? t.layout.motorVars.find((v) => v.id === e.motor)!.coordinate : null;
-      parts.push({
-        id: e.id,
-        label: e.label,
-        belt: loop.id,
-        kind: e.kind,
-        body: e.body,
-        toothed: e.kind === 'clamp' ? false : e.sense === (drive ? drive.sense : 1),
-        xMm: pos.xMm,
-        yMm: pos.yMm,
-        radiusMm: e.radiusMm,
-        teeth: e.teeth,
-        motor: coord === null ? null : coord === 0 ? 'A' : 'B',
-        wrapDeg: j > 0 && j < loop.elements.length - 1 ? states[i].path.wraps[j - 1].wrapRad * DEG : 0,
-      });
-    });
+  const drawing = layoutDrawing({
+    layout: t.layout,
+    states,
+    frame: d.frame,
+    beltWidthMm: d.belt.widthMm,
+    parkXMm: pcx,
+    parkYMm: pcy,
+    origin: { xMm: t.originXMm, yMm: t.originYMm },
+    travel: { xMm: t.xMm, yMm: t.yMm },
   });
-  const drawing: LayoutDrawing = {
-    frame: { outerXMm: d.frame.outerXMm, outerYMm: d.frame.outerYMm, extrusionMm: d.frame.extrusionMm },
-    carriage: { xMm: pcx, yMm: pcy, widthMm: d.frame.carriageXMm, depthMm: d.frame.carriageYMm },
-    gantry: { yMm: pcy, depthMm: d.frame.gantryYMm, fromXMm: d.frame.extrusionMm, toXMm: d.frame.outerXMm - d.frame.extrusionMm },
-    travel: { fromXMm: t.originXMm, fromYMm: t.originYMm, toXMm: t.originXMm + t.xMm, toYMm: t.originYMm + t.yMm },
-    parts,
-    belts: t.layout.loops.map((loop, i) => ({
-      id: loop.id,
-      segments: states[i].path.spans.map((s) => ({ x1Mm: s.x1Mm, y1Mm: s.y1Mm, x2Mm: s.x2Mm, y2Mm: s.y2Mm })),
-    })),
-  };
 
   const ringingFig = {
     x: ringing(axes.x.accelMaxMPerS2, fMin, tol),

@@ -1,4 +1,4 @@
-import { buildBeltLayout, fitLoopModel, type BeltLayout, type LayoutInput, type LoopModel } from './beltLayout';
+import { buildBeltLayout, fitLoopModel, SHAFT_RADIUS_MM, type BeltLayout, type Body, type LayoutInput, type LoopModel } from './beltLayout';
 import { requireNumber } from './errors';
 import type { InputIssue } from './errors';
 
@@ -24,13 +24,38 @@ export interface TravelInfo {
   models: LoopModel[];
 }
 
+/** A flat-loop pulley with its flanged radius, for the clearance rules of {@link frameToTravel}. */
+interface Disc {
+  label: string;
+  level: number;
+  body: Body;
+  xMm: number;
+  yMm: number;
+  radiusMm: number;
+}
+
+function flatDiscs(layout: BeltLayout): Disc[] {
+  const out: Disc[] = [];
+  for (const loop of layout.loops) {
+    if (loop.plane.kind !== 'flat') continue;
+    for (const e of loop.elements) {
+      if (e.kind === 'clamp') continue;
+      out.push({ label: e.label, level: e.level, body: e.body, xMm: e.baseXMm, yMm: e.baseYMm, radiusMm: e.radiusMm });
+    }
+  }
+  return out;
+}
+
 /**
  * Usable travel from the frame: the carriage centre may move while (1) the carriage keeps the clearance from the
  * frame's inner faces, (2) the gantry (depth = the larger of gantry beam and carriage depth) does the same in Y,
- * and (3) every belt span that changes with position stays at least one clearance long, so no clamp or gantry
- * pulley runs into another pulley. Spans are affine in position (see buildBeltLayout), so each rule is one
- * inequality and travel is the intersection of intervals.
- * @param d - mechanism, frame [mm], belt pitch [mm], pulley teeth, Y motor count
+ * (3) every belt span that changes with position stays at least one clearance long, so no clamp or gantry
+ * pulley runs into another pulley along its belt, (4) every pulley riding the gantry keeps the clearance from every
+ * frame pulley — flange to flange on its own level, its bolt outside the other's flange on the other level — and
+ * (5) the carriage body keeps the clearance from every pulley's flange (its clamps sit at the belt levels). Spans
+ * are affine in position and the pairs of (4) and (5) keep a fixed offset across the motion, so each rule is one
+ * interval and travel is their intersection (docs/models/belt-layout.md "Travel").
+ * @param d - mechanism, frame [mm], belt pitch and width [mm], pulley teeth, Y motor count
  * @returns travel [mm] along X and Y with its origin and the limiting rule at each end
  */
 export function frameToTravel(d: TravelInput): TravelInfo {
@@ -38,10 +63,13 @@ export function frameToTravel(d: TravelInput): TravelInfo {
   const D = d.frame.outerYMm;
   const e = d.frame.extrusionMm;
   const c = d.frame.clearanceMm;
-  const hy = Math.max(d.frame.carriageYMm, d.frame.gantryYMm);
+  const cx = d.frame.carriageXMm;
+  const cy = d.frame.carriageYMm;
+  const hy = Math.max(cy, d.frame.gantryYMm);
   const layout = buildBeltLayout(d);
-  let xLo = e + c + d.frame.carriageXMm / 2;
-  let xHi = W - e - c - d.frame.carriageXMm / 2;
+  const m = layout.flangeMm;
+  let xLo = e + c + cx / 2;
+  let xHi = W - e - c - cx / 2;
   let yLo = e + c + hy / 2;
   let yHi = D - e - c - hy / 2;
   const limitedBy = {
@@ -69,6 +97,40 @@ export function frameToTravel(d: TravelInput): TravelInfo {
         if (s.gy < 0 && bound < yHi) [yHi, limitedBy.yHigh] = [bound, what];
       }
     }
+  }
+  const discs = flatDiscs(layout);
+  const gantry = discs.filter((p) => p.body === 'gantry');
+  // (4) A gantry pulley keeps its X offset from a frame pulley: the pair forbids one band of the gantry's Y.
+  for (const g of gantry) {
+    for (const f of discs.filter((p) => p.body === 'frame')) {
+      const need = (g.level === f.level ? g.radiusMm + f.radiusMm + 2 * m : Math.max(g.radiusMm, f.radiusMm) + m + SHAFT_RADIUS_MM) + c;
+      const dx = g.xMm - f.xMm;
+      if (Math.abs(dx) >= need) continue;
+      const h = Math.sqrt(need * need - dx * dx);
+      const at = f.yMm - g.yMm;
+      const what = `${g.label} at ${f.label}`;
+      if (at > D / 2 && at - h < yHi) [yHi, limitedBy.yHigh] = [at - h, what];
+      if (at <= D / 2 && at + h > yLo) [yLo, limitedBy.yLow] = [at + h, what];
+    }
+  }
+  // (5) The carriage keeps its Y offset from a gantry pulley: the pair forbids one band of the carriage's X.
+  for (const g of gantry) {
+    const reach = g.radiusMm + m + c;
+    const ey = Math.max(0, Math.abs(g.yMm) - cy / 2);
+    if (ey >= reach) continue;
+    const h = Math.sqrt(reach * reach - ey * ey) + cx / 2;
+    const what = `carriage at ${g.label}`;
+    if (g.xMm > W / 2 && g.xMm - h < xHi) [xHi, limitedBy.xHigh] = [g.xMm - h, what];
+    if (g.xMm <= W / 2 && g.xMm + h > xLo) [xLo, limitedBy.xLow] = [g.xMm + h, what];
+  }
+  // (5) A frame pulley inside the band the carriage sweeps over its X travel limits the carriage's Y instead
+  // (a box test: conservative, and it only bites when a pulley reaches far into the frame).
+  for (const f of discs.filter((p) => p.body === 'frame')) {
+    const reach = f.radiusMm + m + c;
+    if (f.xMm + reach <= xLo - cx / 2 || f.xMm - reach >= xHi + cx / 2) continue;
+    const what = `carriage at ${f.label}`;
+    if (f.yMm > D / 2 && f.yMm - reach - cy / 2 < yHi) [yHi, limitedBy.yHigh] = [f.yMm - reach - cy / 2, what];
+    if (f.yMm <= D / 2 && f.yMm + reach + cy / 2 > yLo) [yLo, limitedBy.yLow] = [f.yMm + reach + cy / 2, what];
   }
   return { xMm: xHi - xLo, yMm: yHi - yLo, originXMm: xLo, originYMm: yLo, limitedBy, sound, layout, models };
 }

@@ -42,6 +42,13 @@ export {
   solveLoop,
   fitLoopModel,
   elementPosition,
+  planPosition,
+  levelName,
+  flangeMarginMm,
+  FLANGE_PITCHES,
+  SHAFT_RADIUS_MM,
+  type BeltLevel,
+  type LoopPlane,
   type BeltLayout,
   type LayoutLoop,
   type LayoutElement,
@@ -72,7 +79,9 @@ export type {
   BeltSpan,
   LayoutDrawing,
   LayoutPart,
+  LayoutBelt,
 } from './types';
 export { compareMechanisms, keyFigures, type KeyFigures, type ComparisonRow } from './compareMechanisms';
 export { sweep, type SweepPoint } from './sweep';
 export { beltGeometryAt, type BeltGeometry } from './beltGeometryAt';
+export { layoutDrawing, layoutDrawingAt } from './layoutDrawing';

@@ -1,4 +1,4 @@
-import type { BeltLayout } from './beltLayout';
+import { levelName, type BeltLayout, type LayoutElement, type LayoutLoop } from './beltLayout';
 import type { BeltReport } from './types';
 
 /** Belt allowance at each clamp for cutting the belt [mm] (common practice: a clamp grips 10–20 mm). */
@@ -18,67 +18,96 @@ export interface PartsInput {
   ratedCurrentA: number;
 }
 
+type Row = { item: string; quantity: number; spec: string };
+
+interface Placed {
+  loop: LayoutLoop;
+  el: LayoutElement;
+  toothed: boolean;
+}
+
 /**
- * Parts the layout needs, for ordering: motors, drive pulleys, toothed and smooth idlers with sizes, one belt
- * per loop with its cut length, and the cross shaft of a single-motor cartesian Y drive.
+ * Parts the layout needs, for ordering and for assembly: the motors; every pulley and idler as it sits — toothed
+ * or smooth, size, tag, belt level, corner or body, and whether it shares a bolt with another (stacked idlers,
+ * each on its own bearings); one belt per loop with its cut length; the cross shaft of a single-motor cartesian
+ * Y drive (docs/models/belt-layout.md "Parts").
  * @param p - layout, belt reports and the design's part data
  * @returns rows {item, quantity, spec}
  */
-export function partsList(p: PartsInput): { item: string; quantity: number; spec: string }[] {
-  const rows: { item: string; quantity: number; spec: string }[] = [];
+export function partsList(p: PartsInput): Row[] {
+  const rows: Row[] = [];
+  const mech = p.layout.mechanism;
   const dPitch = (z: number) => ((z * p.beltPitchMm) / Math.PI).toFixed(2);
-  const motors = p.layout.mechanism === 'cartesian' ? 1 + p.yMotors : 2;
+  const size = (z: number) => `${z} teeth, ${p.beltPitchMm} mm pitch, for ${p.beltWidthMm} mm belt, pitch diameter ${dPitch(z)} mm`;
+  const motors = mech === 'cartesian' ? 1 + p.yMotors : 2;
   rows.push({
     item: 'Stepper motor',
     quantity: motors,
     spec: `${p.stepAngleDeg}° step, holding torque ${p.holdingTorqueNm} N·m at ${p.ratedCurrentA} A rated`,
   });
-  let drives = 0;
-  let toothed = 0;
-  let smooth = 0;
+  const placed: Placed[] = [];
   for (const loop of p.layout.loops) {
     const drive = loop.elements.find((e) => e.kind === 'drive');
     const toothSense = drive ? drive.sense : 1;
-    for (const e of loop.elements) {
-      if (e.kind === 'drive') drives++;
-      else if (e.kind === 'idler') {
-        if (e.sense === toothSense) toothed++;
-        else smooth++;
-      }
+    for (const el of loop.elements)
+      if (el.kind !== 'clamp') placed.push({ loop, el, toothed: el.kind === 'drive' || el.sense === toothSense });
+  }
+  const where = (x: Placed) => `${x.el.label}, ${levelName(mech, x.el.level)} (${x.loop.label})`;
+  const axis = (x: Placed) =>
+    x.loop.plane.kind === 'flat' ? 'axis vertical' : x.loop.plane.runsAlong === 'y' ? 'axis along X' : 'axis along Y';
+  const shaft = (x: Placed): string => {
+    if (x.el.kind !== 'drive') return `on its own bolt and bearings, ${axis(x)}`;
+    if (mech === 'cartesian' && x.loop.id !== 'X' && p.yMotors === 1) return `on the Y cross shaft, ${axis(x)}`;
+    const motor = x.el.label.match(/motor (\w)/)?.[1];
+    return `${motor ? `on the shaft of motor ${motor}` : 'on the shaft of its own Y motor'}, ${axis(x)}`;
+  };
+  for (const x of placed.filter((q) => q.el.kind === 'drive')) {
+    rows.push({ item: `Drive pulley ${x.el.tag}`, quantity: 1, spec: `${size(x.el.teeth)}; ${where(x)}; ${shaft(x)}` });
+  }
+  const done = new Set<string>();
+  for (const x of placed.filter((q) => q.el.kind === 'idler')) {
+    if (done.has(x.el.id)) continue;
+    const kind = x.toothed ? 'Toothed idler' : 'Smooth idler';
+    const back = x.toothed ? '' : ' (runs on the belt back)';
+    const spec = x.toothed ? size(x.el.teeth) : `belt-line diameter ${dPitch(x.el.teeth)} mm, for ${p.beltWidthMm} mm belt`;
+    const mates = x.el.stackId ? placed.filter((q) => q.el.stackId === x.el.stackId && q.el.kind === 'idler') : [x];
+    mates.forEach((q) => done.add(q.el.id));
+    if (mates.length === 1) {
+      rows.push({ item: `${kind} ${x.el.tag}${back}`, quantity: 1, spec: `${spec}; ${where(x)}; ${shaft(x)}` });
+      continue;
     }
-  }
-  rows.push({
-    item: 'Drive pulley',
-    quantity: drives,
-    spec: `${p.driveTeeth} teeth, ${p.beltPitchMm} mm pitch, for ${p.beltWidthMm} mm belt, pitch diameter ${dPitch(p.driveTeeth)} mm`,
-  });
-  if (toothed > 0) {
+    const same = mates.every((q) => q.toothed === x.toothed);
     rows.push({
-      item: 'Toothed idler',
-      quantity: toothed,
-      spec: `${p.idlerTeeth} teeth, ${p.beltPitchMm} mm pitch, for ${p.beltWidthMm} mm belt, pitch diameter ${dPitch(p.idlerTeeth)} mm`,
+      item: `${same ? kind : 'Idler'} ${mates.map((q) => q.el.tag).join(' + ')}, stacked`,
+      quantity: mates.length,
+      spec:
+        `${spec}; ${mates.length} idlers stacked on one bolt, each on its own bearings (they turn opposite ways), ${axis(x)}: ` +
+        mates.map(where).join('; '),
     });
   }
-  if (smooth > 0) {
-    rows.push({
-      item: 'Smooth idler (runs on the belt back)',
-      quantity: smooth,
-      spec: `belt-line diameter ${dPitch(p.idlerTeeth)} mm, for ${p.beltWidthMm} mm belt`,
-    });
-  }
+  const runsOn = (l: LayoutLoop): string => {
+    const on = `runs on the ${levelName(mech, l.level)}`;
+    if (l.plane.kind === 'flat') return on;
+    return l.plane.runsAlong === 'y'
+      ? `${on}, upright (pulley axes along X): the upper run is clamped to the gantry, the lower run returns below it`
+      : `${on}, upright (pulley axes along Y) behind the carriage: the lower run is clamped to the carriage, the upper run returns above it`;
+  };
   for (const b of p.belts) {
+    const loop = p.layout.loops.find((l) => l.id === b.id);
     rows.push({
       item: `Belt, ${b.label}`,
       quantity: 1,
-      spec: `${p.beltPitchMm} mm pitch, ${p.beltWidthMm} mm wide, cut ${b.cutLengthMm.toFixed(0)} mm (${b.loopTeeth} teeth on the pitch line + ${CLAMP_ALLOWANCE_MM} mm at each clamp)`,
+      spec:
+        `${p.beltPitchMm} mm pitch, ${p.beltWidthMm} mm wide, cut ${b.cutLengthMm.toFixed(0)} mm (${b.loopTeeth} teeth on the pitch line + ` +
+        `${CLAMP_ALLOWANCE_MM} mm at each clamp)${loop ? `; ${runsOn(loop)}` : ''}`,
     });
   }
-  if (p.layout.mechanism === 'cartesian' && p.yMotors === 1) {
+  if (mech === 'cartesian' && p.yMotors === 1) {
     const len = p.layout.outerXMm - 2 * p.layout.extrusionMm;
     rows.push({
       item: 'Y cross shaft',
       quantity: 1,
-      spec: `joins both Y drive pulleys, about ${len.toFixed(0)} mm long, with two bearings`,
+      spec: `joins both Y drive pulleys (YL1, YR1) along the back, about ${len.toFixed(0)} mm long, with two bearings`,
     });
   }
   return rows;

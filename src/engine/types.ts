@@ -121,14 +121,26 @@ export interface BeltReport {
 /** A pulley, idler or clamp as drawn at the parking position. */
 export interface LayoutPart {
   id: string;
+  /** Short name on the drawings and in the span table ("A2"); "" for a clamp. Missing in results of engine 1.0. */
+  tag?: string;
+  /** Plain-words name starting with the tag ("A2 motor A pulley, back-right corner"). */
   label: string;
   belt: string;
   kind: 'drive' | 'idler' | 'clamp';
   body: 'frame' | 'gantry' | 'carriage';
   /** True when the belt's teeth run on it (toothed idler); false for a smooth idler on the belt's back. */
   toothed: boolean;
+  /** Plan position [mm] (an upright loop's element on the loop's plan line). */
   xMm: number;
   yMm: number;
+  /** Height above its upright loop's lower run [mm]; 0 in a flat loop. */
+  zMm?: number;
+  /** Belt level, 1 lower, 2 upper (docs/models/belt-layout.md). */
+  level?: 1 | 2;
+  /** Direction of the pulley's axis: vertical in a flat loop, along X or Y in an upright one. */
+  axis?: 'vertical' | 'x' | 'y';
+  /** Ids of the parts on the same bolt (stacked idlers, each on its own bearings). */
+  stackedWith?: string[];
   radiusMm: number;
   teeth: number;
   /** Motor coordinate of a drive pulley. */
@@ -136,16 +148,33 @@ export interface LayoutPart {
   wrapDeg: number;
 }
 
+/** One belt as drawn. */
+export interface LayoutBelt {
+  id: string;
+  label?: string;
+  level?: 1 | 2;
+  /** 'flat': in a horizontal level; 'upright': in a vertical plane (its runs overlap in plan). */
+  plane?: 'flat' | 'upright';
+  /** Straight spans in plan [mm]. */
+  segments: { x1Mm: number; y1Mm: number; x2Mm: number; y2Mm: number }[];
+  /** An upright loop in its own plane: position along its runs (X or Y) and height above the lower run [mm]. */
+  elevation?: { along: 'x' | 'y'; segments: { u1Mm: number; z1Mm: number; u2Mm: number; z2Mm: number }[] };
+}
+
 /** Geometry for drawing the layout in plan, frame coordinates from the outer front-left corner [mm]. */
 export interface LayoutDrawing {
   frame: { outerXMm: number; outerYMm: number; extrusionMm: number };
   carriage: { xMm: number; yMm: number; widthMm: number; depthMm: number };
   gantry: { yMm: number; depthMm: number; fromXMm: number; toXMm: number };
-  /** Travel rectangle of the carriage centre. */
+  /** Travel rectangle of the carriage centre; (fromXMm, fromYMm) is travel position (0, 0), the origin. */
   travel: { fromXMm: number; fromYMm: number; toXMm: number; toYMm: number };
+  /** The belt levels and the belts on each, lowest first. Missing in results of engine 1.0. */
+  levels?: { level: 1 | 2; label: string; belts: string[] }[];
+  /** Belt width and flange allowance outside each pitch circle [mm], for drawing pulleys to size. */
+  beltWidthMm?: number;
+  flangeMm?: number;
   parts: LayoutPart[];
-  /** Straight spans per belt, as segments. */
-  belts: { id: string; segments: { x1Mm: number; y1Mm: number; x2Mm: number; y2Mm: number }[] }[];
+  belts: LayoutBelt[];
 }
 
 /** The full result of evaluateDesign (format.md "Result" plus what the Design desk draws). */

@@ -1,5 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { buildBeltLayout, fitLoopModel, frameToTravel, kinematicsMatrix, solveLoop, type Mechanism } from '@/engine';
+import {
+  buildBeltLayout,
+  defaultDesign,
+  evaluateDesign,
+  fitLoopModel,
+  frameToTravel,
+  kinematicsMatrix,
+  solveLoop,
+  type Mechanism,
+} from '@/engine';
 import { randomDesign, SEEDS } from './helpers/randomDesign';
 
 const MECHS: Mechanism[] = ['corexy', 'hbot', 'cartesian'];
@@ -112,5 +121,68 @@ describe('buildBeltLayout', () => {
       expect(eb.baseYMm).toBeCloseTo(ea.baseYMm, 12);
       expect(eb.baseXMm).toBeCloseTo(ea.body === 'carriage' ? -ea.baseXMm : d.frame.outerXMm - ea.baseXMm, 12);
     });
+  });
+
+  it.each([
+    ['corexy', { A: 1, B: 2 }],
+    ['hbot', { H: 1 }],
+    ['cartesian', { X: 2, YL: 1, YR: 1 }],
+  ] as const)('when the %s layout is built, then each belt and all its elements sit on the level %j', (mech, levels) => {
+    const layout = buildBeltLayout(randomDesign(7, mech));
+    expect(Object.fromEntries(layout.loops.map((l) => [l.id, l.level]))).toEqual(levels);
+    for (const l of layout.loops) for (const e of l.elements) expect(e.level).toBe(l.level);
+  });
+
+  it('when the crossed-belt layout is solved, then each motor pulley takes half a turn (twice the old quarter-turn wrap)', () => {
+    // The old layout turned each belt a quarter turn at its motor, so a 20-tooth pulley had 5 teeth in mesh; each
+    // motor now sits alone in its back corner and the belt goes round it and back: 10 teeth in mesh.
+    const r = evaluateDesign(defaultDesign('corexy'));
+    for (const b of r.belts) {
+      expect(b.driveWrapDeg).toBeCloseTo(180, 6);
+      expect(b.teethInMesh).toBeCloseTo(10, 6);
+    }
+  });
+
+  it('when the crossed-belt layout is built, then only idler pairs share a centre, on one stack id, one per level', () => {
+    const layout = buildBeltLayout(randomDesign(21, 'corexy'));
+    const els = layout.loops.flatMap((l) => l.elements.filter((e) => e.kind !== 'clamp'));
+    const frame = els.filter((e) => e.body === 'frame');
+    const pairs = frame.flatMap((e, i) =>
+      frame
+        .slice(i + 1)
+        .filter((f) => Math.hypot(e.baseXMm - f.baseXMm, e.baseYMm - f.baseYMm) < 1e-9)
+        .map((f) => [e, f]),
+    );
+    expect(pairs.map(([e, f]) => `${e.tag}+${f.tag}`).sort()).toEqual(['A3+B4', 'A4+B3']);
+    for (const [e, f] of pairs) {
+      expect([e.kind, f.kind]).toEqual(['idler', 'idler']);
+      expect(e.stackId).toBe(f.stackId);
+      expect(e.level).not.toBe(f.level);
+    }
+  });
+
+  it('when the H layout is solved anywhere in the travel, then the passing run lies behind the carriage', () => {
+    const d = randomDesign(33, 'hbot');
+    const t = frameToTravel(d);
+    const loop = t.layout.loops[0];
+    for (const [fx, fy] of [
+      [0, 0],
+      [1, 1],
+      [0.5, 0.2],
+    ]) {
+      const cy = t.originYMm + fy * t.yMm;
+      const st = solveLoop(loop, t.originXMm + fx * t.xMm, cy);
+      const passing = st.path.spans.find((s) => s.from === 'H.gantryRightBack')!;
+      expect(passing.to).toBe('H.gantryLeftBack');
+      expect(Math.min(passing.y1Mm, passing.y2Mm)).toBeGreaterThan(cy + d.frame.carriageYMm / 2);
+    }
+  });
+
+  it('when every element is listed, then its label starts with its tag and tags are unique', () => {
+    for (const mech of ['corexy', 'hbot', 'cartesian'] as const) {
+      const els = buildBeltLayout(defaultDesign(mech)).loops.flatMap((l) => l.elements.filter((e) => e.kind !== 'clamp'));
+      for (const e of els) expect(e.label.startsWith(`${e.tag} `)).toBe(true);
+      expect(new Set(els.map((e) => e.tag)).size).toBe(els.length);
+    }
   });
 });

@@ -3,24 +3,40 @@ import { defaultDesign, frameToTravel, travelToFrame, type Mechanism } from '@/e
 import { randomDesign, SEEDS } from './helpers/randomDesign';
 
 describe('frameToTravel', () => {
-  it('when the crossed-belt template is measured, then X travel = W − 2e − cx − 2c − 6·r_idler and Y travel = D − 2e − 2c − depth', () => {
-    // Derivation: the left gantry idler of belt A sits 3 idler radii in from the left belt line (front-left
-    // idler's return run at 2r plus its own radius) and the belt leaves it at its centre line; the carriage
-    // clamp must stay one clearance away. Belt B mirrors it on the right. In Y the gantry body (the deeper of
-    // beam and carriage) limits first.
+  it('when the crossed-belt template is measured, then X and Y travel follow the flange clearances of its gantry idlers', () => {
+    // Derivation (docs/models/belt-layout.md "Travel"): at the right gantry end the smooth idler A1 sits 2R + r in
+    // from the right belt line, on the carriage's centre line; the carriage face stops one clearance short of its
+    // flange (r + m), so each side loses 2R + 2r + m + c. In Y the gantry idler B5 stacks over the front-right
+    // idlers on the same X and must stay 2r + 2m + c away from them; at the back A1 sits beside motor A (R + r
+    // apart in X) and may come within √((R + r + 2m + c)² − (R + r)²) in Y of it.
     const d = defaultDesign('corexy');
-    const rI = (d.pulley.idlerTeeth * d.belt.pitchMm) / (2 * Math.PI);
+    const p = d.belt.pitchMm;
+    const r = (d.pulley.idlerTeeth * p) / (2 * Math.PI);
+    const R = (d.pulley.driveTeeth * p) / (2 * Math.PI);
+    const m = 1.25 * p;
+    const { outerXMm: W, outerYMm: D, extrusionMm: e, carriageXMm: cx, clearanceMm: c } = d.frame;
     const t = frameToTravel(d);
-    expect(t.xMm).toBeCloseTo(d.frame.outerXMm - 2 * d.frame.extrusionMm - d.frame.carriageXMm - 2 * d.frame.clearanceMm - 6 * rI, 9);
-    expect(t.yMm).toBeCloseTo(
-      d.frame.outerYMm - 2 * d.frame.extrusionMm - 2 * d.frame.clearanceMm - Math.max(d.frame.carriageYMm, d.frame.gantryYMm),
-      9,
-    );
+    expect(t.xMm).toBeCloseTo(W - 2 * e - cx - 2 * (2 * R + 2 * r + m + c), 9);
+    const yLo = e + r + r + (2 * r + 2 * m + c);
+    const yHi = D - e - R - r - Math.sqrt((R + r + 2 * m + c) ** 2 - (R + r) ** 2);
+    expect(t.yMm).toBeCloseTo(yHi - yLo, 9);
     expect(t.sound).toBe(true);
   });
 
+  it('when the cartesian template is measured, then its upright loops give the travel of the belt spans alone', () => {
+    // The X loop stands behind the carriage and the Y loops at the frame sides, so only the clamp spans limit X and Y.
+    const d = defaultDesign('cartesian');
+    const p = d.belt.pitchMm;
+    const r = (d.pulley.idlerTeeth * p) / (2 * Math.PI);
+    const R = (d.pulley.driveTeeth * p) / (2 * Math.PI);
+    const { outerXMm: W, extrusionMm: e, carriageXMm: cx, clearanceMm: c } = d.frame;
+    // The clamp spans end where the belt leaves the X idler (r in from the right belt line) and the X motor pulley.
+    expect(frameToTravel(d).xMm).toBeCloseTo(W - 2 * e - cx - 2 * c - r - R, 9);
+  });
+
   it.each([
-    ['corexy', 'span A.gantryLeft – A.clampLeft'],
+    ['corexy', 'carriage at B1 gantry idler, left end'],
+    ['hbot', 'carriage at H8 gantry idler, left end, front'],
     ['cartesian', 'span X.motor – X.clampLeft'],
   ] as const)('when the %s template is measured, then the low X end is limited by %s', (mech, limit) => {
     expect(frameToTravel(defaultDesign(mech)).limitedBy.xLow).toBe(limit);
