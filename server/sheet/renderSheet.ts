@@ -5,6 +5,7 @@ import { BASE_FONT, sheetFontFiles } from './fonts';
 import { userTextRuns, utcStamp } from './format';
 import { COLOR, type Content, type ContentObject, contentWidth, PAGE_MARGINS, STYLES } from './layout';
 import { wordmarkGlyph } from './plots/glyphs';
+import { layoutSection } from './layoutSection';
 import { plotsSection } from './plotsSection';
 import {
   beltsSection,
@@ -149,6 +150,7 @@ export function buildSheetDoc(input: SheetInput): SheetDocDefinition {
       ...inputsSection(data),
       ...driveSection(data),
       ...beltsSection(data),
+      ...layoutSection(data, width),
       ...limitsSection(data),
       ...stiffnessSection(data),
       ...plotsSection(data, width),
