@@ -1,4 +1,7 @@
-import type { BeltReport, Check, RingingFigure, Severity } from './types';
+import { formatSignificant, makeCheck, qty, severityOf } from './checkText';
+import type { BeltReport, Check, RingingFigure } from './types';
+
+// What each check compares and why its limits are where they are: docs/checks.md.
 
 /** Highest share of available torque common practice lets a stepper design use (50–70 % of pull-out). */
 export const TORQUE_MARGIN_LIMIT = 0.7;
@@ -6,10 +9,12 @@ export const TORQUE_MARGIN_LIMIT = 0.7;
 export const MIN_TEETH_IN_MESH = 6;
 /** Below this many teeth in mesh the belt keeps under 40 % of its capacity: treated as a failure (our judgement). */
 export const FAIL_TEETH_IN_MESH = 3;
-/** Share of the allowable tension above which the tight side is flagged before it fails (our judgement). */
-export const TENSION_WARN_SHARE = 0.8;
-/** Slack-side reserve, as a share of pretension, below which the slack side is flagged (our judgement). */
-export const SLACK_WARN_SHARE = 0.25;
+/** Share of an allowable above which a belt or guide load is flagged before it fails (our judgement). */
+export const LOAD_WARN_SHARE = 0.8;
+/** Slack side below this share of the pretension: the belt may jump teeth under peak pull (our judgement). */
+export const RATCHET_WARN_SHARE = 0.25;
+/** Planned acceleration or cruise speed within this share of the worst direction's limit warns (our judgement). */
+export const PLAN_WARN_SHARE = 0.9;
 /** Ringing beyond this many tolerances is a failure rather than a warning (our judgement). */
 export const RINGING_FAIL_FACTOR = 5;
 /**
@@ -36,7 +41,7 @@ export function teethInMeshFactor(teethInMesh: number): number {
   return Math.max(0, Math.min(1, 1 - 0.2 * (MIN_TEETH_IN_MESH - whole)));
 }
 
-/** What the checks look at. */
+/** What the checks look at (SI unless the name says otherwise). */
 export interface CheckInput {
   torqueMargin: number;
   currentRmsA: number;
@@ -50,196 +55,329 @@ export interface CheckInput {
   ringingToleranceMm: number;
   /** Planned acceleration if the designer set one [m/s²]. */
   plannedAccelMPerS2: number | null;
+  /** What the stage can hold in its worst direction up to cruise speed, and that direction [m/s², °]. */
   worstAccelMPerS2: number;
-  bestAccelMPerS2: number;
+  worstAccelDirectionDeg: number;
   cruiseSpeedMPerS: number;
+  /** Top speed in the worst direction, and that direction [m/s, °]. */
   worstSpeedMPerS: number;
-  bestSpeedMPerS: number;
+  worstSpeedDirectionDeg: number;
   travel: { xMm: number; yMm: number };
   outer: { xMm: number; yMm: number };
   wantedTravel: { xMm: number; yMm: number } | null;
   toolKg: number;
   toolHoldN: number | null;
-  /** Highest acceleration the tool sees anywhere on the envelope [m/s²]. */
+  /** Acceleration the tool sees: the planned one, else the best the motors give anywhere [m/s²]. */
   toolAccelMPerS2: number;
+  /** H loop only: peak racking moment and the guides' rating [N·m] (null when the mechanism has no racking). */
+  racking: { momentNm: number; ratingNm: number; ratingIsTypical: boolean } | null;
 }
 
-function sev(fail: boolean, warn: boolean): Severity {
-  return fail ? 'fail' : warn ? 'warn' : 'ok';
+/** "belt A" → "Belt A": a label as the subject of a sentence. */
+const cap = (s: string): string => s.charAt(0).toUpperCase() + s.slice(1);
+
+function motorChecks(c: CheckInput): Check[] {
+  const over = c.torqueMargin > TORQUE_MARGIN_LIMIT;
+  const above = c.currentRmsA > c.ratedCurrentA;
+  return [
+    makeCheck({
+      id: 'torque-margin',
+      severity: severityOf(false, over),
+      value: c.torqueMargin,
+      limit: TORQUE_MARGIN_LIMIT,
+      kind: 'ratio',
+      parts: over
+        ? ['Torque margin ', qty(c.torqueMargin, 'ratio'), ' is above ', qty(TORQUE_MARGIN_LIMIT, 'ratio'), ': a stepper run that close to its pull-out torque risks lost steps (common practice: 50–70 %).']
+        : ['Torque margin ', qty(c.torqueMargin, 'ratio'), ' is within common practice (50–70 % of the pull-out torque).'],
+    }),
+    makeCheck({
+      id: 'driver-current',
+      severity: severityOf(false, above),
+      value: c.currentRmsA,
+      limit: c.ratedCurrentA,
+      kind: 'currentA',
+      parts: above
+        ? ['Driver current (RMS) ', qty(c.currentRmsA, 'currentA'), ' is above the Rated current ', qty(c.ratedCurrentA, 'currentA'), ': the extra current buys no torque (the results use the rated current) and overheats the motor.']
+        : ['Driver current (RMS) ', qty(c.currentRmsA, 'currentA'), ' is within the Rated current ', qty(c.ratedCurrentA, 'currentA'), '.'],
+    }),
+  ];
 }
 
-const fmt = (v: number, digits = 2) => (Math.abs(v) >= 100 ? v.toFixed(0) : v.toFixed(digits));
-
-/**
- * The design checks of engine.md §8, each {id, severity, message, value, limit, unit}.
- * @param c - the numbers the checks compare
- * @returns checks in a stable order
- */
-export function designChecks(c: CheckInput): Check[] {
-  const out: Check[] = [];
-  out.push({
-    id: 'torque-margin',
-    severity: sev(false, c.torqueMargin > TORQUE_MARGIN_LIMIT),
-    message:
-      c.torqueMargin > TORQUE_MARGIN_LIMIT
-        ? `The design uses ${fmt(c.torqueMargin * 100, 0)} % of the available torque; above ${TORQUE_MARGIN_LIMIT * 100} % a stepper risks lost steps (common practice: 50–70 %).`
-        : `The design uses ${fmt(c.torqueMargin * 100, 0)} % of the available torque, within common practice (50–70 %).`,
-    value: c.torqueMargin,
-    limit: TORQUE_MARGIN_LIMIT,
-    unit: '',
-  });
-  out.push({
-    id: 'driver-current',
-    severity: sev(false, c.currentRmsA > c.ratedCurrentA),
-    message:
-      c.currentRmsA > c.ratedCurrentA
-        ? `Driver current ${fmt(c.currentRmsA)} A is above the motor's rated ${fmt(c.ratedCurrentA)} A: the motor runs hot.`
-        : `Driver current ${fmt(c.currentRmsA)} A is within the motor's rated ${fmt(c.ratedCurrentA)} A.`,
-    value: c.currentRmsA,
-    limit: c.ratedCurrentA,
-    unit: 'A',
-  });
+function pulleyCheck(c: CheckInput): Check {
   const minTeeth = Math.min(c.driveTeeth, c.idlerTeeth);
-  out.push({
+  const small = minTeeth < c.minPulleyTeeth;
+  return makeCheck({
     id: 'pulley-min-teeth',
-    severity: sev(minTeeth < c.minPulleyTeeth, false),
-    message:
-      minTeeth < c.minPulleyTeeth
-        ? `A ${minTeeth}-tooth pulley is smaller than the belt's minimum of ${c.minPulleyTeeth} teeth.`
-        : `The smallest pulley has ${minTeeth} teeth, at least the belt's minimum of ${c.minPulleyTeeth}.`,
+    severity: severityOf(small, false),
     value: minTeeth,
     limit: c.minPulleyTeeth,
+    kind: 'count',
     unit: 'teeth',
+    parts: small
+      ? ['A ', qty(minTeeth, 'count'), '-tooth pulley is smaller than the Smallest pulley for this belt, ', qty(c.minPulleyTeeth, 'count'), ' teeth.']
+      : ['The smallest pulley has ', qty(minTeeth, 'count'), ' teeth, at least the Smallest pulley for this belt (', qty(c.minPulleyTeeth, 'count'), ').'],
   });
-  for (const b of c.belts) {
-    const whole = Math.floor(b.teethInMesh + 1e-9);
-    out.push({
-      id: `teeth-in-mesh:${b.id}`,
-      severity: sev(whole < FAIL_TEETH_IN_MESH, whole < MIN_TEETH_IN_MESH),
-      message:
-        whole < MIN_TEETH_IN_MESH
-          ? `${b.label}: ${whole} teeth in mesh on the drive pulley (${fmt(b.driveWrapDeg, 0)}° wrap); below 6 the belt loses 20 % of its capacity per missing tooth (common practice).`
-          : `${b.label}: ${whole} teeth in mesh on the drive pulley, at least 6 (common practice).`,
+}
+
+function beltChecks(c: CheckInput, b: BeltReport): Check[] {
+  const subject = cap(b.label);
+  const t = b.tension;
+  const whole = Math.floor(b.teethInMesh + 1e-9);
+  const where = (p: { xMm: number; yMm: number; directionDeg: number }) => [
+    ' at X ',
+    qty(p.xMm, 'lengthMm'),
+    ', Y ',
+    qty(p.yMm, 'lengthMm'),
+    ' moving at ',
+    qty(p.directionDeg, 'angleDeg'),
+  ];
+  const tightOver = t.worstTightN > t.tensileAllowableN;
+  const slackGone = t.worstSlackN <= 0;
+  const ratchet = t.worstSlackN < RATCHET_WARN_SHARE * t.pretensionN;
+  const toothOver = t.toothLoadN > t.toothAllowableN;
+  const typical = t.toothAllowableIsTypical ? ' (typical value; enter the belt maker’s figure)' : '';
+  return [
+    makeCheck({
+      id: 'teeth-in-mesh',
+      subject,
+      severity: severityOf(whole < FAIL_TEETH_IN_MESH, whole < MIN_TEETH_IN_MESH),
       value: whole,
       limit: MIN_TEETH_IN_MESH,
+      kind: 'count',
       unit: 'teeth',
-    });
-    out.push({
-      id: `belt-working-tension:${b.id}`,
-      severity: sev(b.tightSideN > b.allowableTensionN, b.tightSideN > TENSION_WARN_SHARE * b.allowableTensionN),
-      message:
-        b.tightSideN > b.allowableTensionN
-          ? `${b.label}: tight side ${fmt(b.tightSideN)} N exceeds the allowable ${fmt(b.allowableTensionN)} N.`
-          : `${b.label}: tight side ${fmt(b.tightSideN)} N against an allowable ${fmt(b.allowableTensionN)} N.`,
-      value: b.tightSideN,
-      limit: b.allowableTensionN,
-      unit: 'N',
-    });
-    out.push({
-      id: `belt-slack-side:${b.id}`,
-      severity: sev(b.slackSideN <= 0, b.slackSideN < SLACK_WARN_SHARE * c.pretensionN),
-      message:
-        b.slackSideN <= 0
-          ? `${b.label}: the slack side goes slack (${fmt(b.slackSideN)} N) at peak pull; raise the pretension to at least half the peak pull ${fmt(b.peakPullN / 2)} N (common practice).`
-          : `${b.label}: the slack side keeps ${fmt(b.slackSideN)} N at peak pull.`,
-      value: b.slackSideN,
+      parts:
+        whole < MIN_TEETH_IN_MESH
+          ? [`${subject}: `, qty(whole, 'count'), ' teeth in mesh on the drive pulley (', qty(b.driveWrapDeg, 'angleDeg'), ' wrap); below 6 each missing tooth costs 20 % of the tooth capacity (common practice).']
+          : [`${subject}: `, qty(whole, 'count'), ' teeth in mesh on the drive pulley, at least 6 (common practice).'],
+    }),
+    makeCheck({
+      id: 'belt-tensile',
+      subject,
+      severity: severityOf(tightOver, t.worstTightN > LOAD_WARN_SHARE * t.tensileAllowableN),
+      value: t.worstTightN,
+      limit: t.tensileAllowableN,
+      kind: 'forceN',
+      parts: [
+        `${subject}: the tight side reaches `,
+        qty(t.worstTightN, 'forceN'),
+        ...where(t.worstTightAt),
+        tightOver ? ', above the Allowable tension ' : ', against an Allowable tension of ',
+        qty(t.tensileAllowableN, 'forceN'),
+        '.',
+      ],
+    }),
+    makeCheck({
+      id: 'belt-slack',
+      subject,
+      severity: severityOf(slackGone, false),
+      value: t.worstSlackN,
       limit: 0,
-      unit: 'N',
-    });
-  }
+      kind: 'forceN',
+      parts: slackGone
+        ? [`${subject}: the slack side goes slack (`, qty(t.worstSlackN, 'forceN'), ')', ...where(t.worstSlackAt), '; raise the Belt pretension above ', qty(t.pretensionN - t.worstSlackN, 'forceN'), ' or lower the pull.']
+        : [`${subject}: the slack side keeps at least `, qty(t.worstSlackN, 'forceN'), ' everywhere on the travel (lowest', ...where(t.worstSlackAt), ').'],
+    }),
+    makeCheck({
+      id: 'belt-ratcheting',
+      subject,
+      severity: severityOf(false, ratchet),
+      value: t.worstSlackN,
+      limit: RATCHET_WARN_SHARE * t.pretensionN,
+      kind: 'forceN',
+      parts: ratchet
+        ? [`${subject}: the slack side falls to `, qty(t.worstSlackN, 'forceN'), ', below ', qty(RATCHET_WARN_SHARE, 'ratio'), ' of the Belt pretension: under peak pull the belt may jump teeth on the drive pulley.']
+        : [`${subject}: the slack side keeps more than `, qty(RATCHET_WARN_SHARE, 'ratio'), ' of the Belt pretension, so the teeth stay seated.'],
+    }),
+    makeCheck({
+      id: 'belt-tooth-load',
+      subject,
+      severity: severityOf(toothOver, t.toothLoadN > LOAD_WARN_SHARE * t.toothAllowableN),
+      value: t.toothLoadN,
+      limit: t.toothAllowableN,
+      kind: 'forceN',
+      parts: [
+        `${subject}: the peak pull `,
+        qty(t.peakPullN, 'forceN'),
+        ` over ${formatSignificant(t.countedTeeth)} counted teeth loads each tooth with `,
+        qty(t.toothLoadN, 'forceN'),
+        toothOver ? ', above the Allowable load per tooth ' : ', against an Allowable load per tooth of ',
+        qty(t.toothAllowableN, 'forceN'),
+        `${typical}.`,
+      ],
+    }),
+  ];
+}
+
+function ringingCheck(c: CheckInput): Check {
   const amp = c.ringingPlanned.amplitudeMm;
-  out.push({
+  const over = amp > c.ringingToleranceMm;
+  return makeCheck({
     id: 'resonance',
-    severity: sev(amp > RINGING_FAIL_FACTOR * c.ringingToleranceMm, amp > c.ringingToleranceMm),
-    message:
-      amp > c.ringingToleranceMm
-        ? `At ${fmt(c.ringingPlanned.accelMPerS2)} m/s² the carriage rings by about ${amp.toPrecision(2)} mm at the weakest point, more than the ${c.ringingToleranceMm} mm tolerance; keep acceleration under ${fmt(c.ringingPlanned.accelForToleranceMPerS2)} m/s² or stiffen the belts.`
-        : `At ${fmt(c.ringingPlanned.accelMPerS2)} m/s² the carriage rings by about ${amp.toPrecision(2)} mm at the weakest point, within the ${c.ringingToleranceMm} mm tolerance.`,
+    severity: severityOf(amp > RINGING_FAIL_FACTOR * c.ringingToleranceMm, over),
     value: amp,
     limit: c.ringingToleranceMm,
-    unit: 'mm',
+    kind: 'lengthMm',
+    parts: over
+      ? ['At ', qty(c.ringingPlanned.accelMPerS2, 'accelMPerS2'), ' the carriage rings by about ', qty(amp, 'lengthMm'), ' at the weakest point, more than the Ringing tolerance ', qty(c.ringingToleranceMm, 'lengthMm'), '; keep the acceleration under ', qty(c.ringingPlanned.accelForToleranceMPerS2, 'accelMPerS2'), ' or stiffen the belts.']
+      : ['At ', qty(c.ringingPlanned.accelMPerS2, 'accelMPerS2'), ' the carriage rings by about ', qty(amp, 'lengthMm'), ' at the weakest point, within the Ringing tolerance ', qty(c.ringingToleranceMm, 'lengthMm'), '.'],
   });
+}
+
+function planChecks(c: CheckInput): Check[] {
+  const out: Check[] = [];
   if (c.plannedAccelMPerS2 !== null) {
     const a = c.plannedAccelMPerS2;
-    out.push({
-      id: 'planned-acceleration',
-      severity: sev(a > c.bestAccelMPerS2, a > c.worstAccelMPerS2),
-      message:
-        a > c.worstAccelMPerS2
-          ? `The planned ${fmt(a)} m/s² exceeds what the motors give in the worst direction (${fmt(c.worstAccelMPerS2)} m/s²).`
-          : `The planned ${fmt(a)} m/s² is within what the motors give in every direction (worst ${fmt(c.worstAccelMPerS2)} m/s²).`,
-      value: a,
-      limit: c.worstAccelMPerS2,
-      unit: 'm/s²',
-    });
+    const lim = c.worstAccelMPerS2;
+    out.push(
+      makeCheck({
+        id: 'planned-acceleration',
+        severity: severityOf(a > lim, a > PLAN_WARN_SHARE * lim),
+        value: a,
+        limit: lim,
+        kind: 'accelMPerS2',
+        parts:
+          a > lim
+            ? ['The Planned acceleration ', qty(a, 'accelMPerS2'), ' is more than the stage can hold moving at ', qty(c.worstAccelDirectionDeg, 'angleDeg'), ' (', qty(lim, 'accelMPerS2'), ', its worst direction up to the Cruise speed).']
+            : a > PLAN_WARN_SHARE * lim
+              ? ['The Planned acceleration ', qty(a, 'accelMPerS2'), ' is within 10 % of what the stage can hold moving at ', qty(c.worstAccelDirectionDeg, 'angleDeg'), ' (', qty(lim, 'accelMPerS2'), ').']
+              : ['The Planned acceleration ', qty(a, 'accelMPerS2'), ' is within what the stage can hold in every direction (worst ', qty(lim, 'accelMPerS2'), ' at ', qty(c.worstAccelDirectionDeg, 'angleDeg'), ').'],
+      }),
+    );
   }
   const v = c.cruiseSpeedMPerS;
-  out.push({
-    id: 'cruise-speed',
-    severity: sev(v > c.bestSpeedMPerS, v > c.worstSpeedMPerS),
-    message:
-      v > c.worstSpeedMPerS
-        ? `Cruise speed ${fmt(v)} m/s is above the highest speed in the worst direction (${fmt(c.worstSpeedMPerS)} m/s).`
-        : `Cruise speed ${fmt(v)} m/s is reachable in every direction (worst ${fmt(c.worstSpeedMPerS)} m/s).`,
-    value: v,
-    limit: c.worstSpeedMPerS,
-    unit: 'm/s',
-  });
+  const vl = c.worstSpeedMPerS;
+  out.push(
+    makeCheck({
+      id: 'cruise-speed',
+      severity: severityOf(v > vl, v > PLAN_WARN_SHARE * vl),
+      value: v,
+      limit: vl,
+      kind: 'speedMPerS',
+      parts:
+        v > vl
+          ? ['The Cruise speed ', qty(v, 'speedMPerS'), ' is above the top speed moving at ', qty(c.worstSpeedDirectionDeg, 'angleDeg'), ' (', qty(vl, 'speedMPerS'), ', the worst direction).']
+          : v > PLAN_WARN_SHARE * vl
+            ? ['The Cruise speed ', qty(v, 'speedMPerS'), ' is within 10 % of the top speed moving at ', qty(c.worstSpeedDirectionDeg, 'angleDeg'), ' (', qty(vl, 'speedMPerS'), ').']
+            : ['The Cruise speed ', qty(v, 'speedMPerS'), ' is reachable in every direction (worst ', qty(vl, 'speedMPerS'), ' at ', qty(c.worstSpeedDirectionDeg, 'angleDeg'), ').'],
+    }),
+  );
+  return out;
+}
+
+function travelChecks(c: CheckInput): Check[] {
+  const out: Check[] = [];
   if (c.wantedTravel) {
     for (const axis of ['x', 'y'] as const) {
       const have = axis === 'x' ? c.travel.xMm : c.travel.yMm;
       const want = axis === 'x' ? c.wantedTravel.xMm : c.wantedTravel.yMm;
-      out.push({
-        id: `travel-wanted:${axis}`,
-        severity: sev(have < want, false),
-        message:
-          have < want
-            ? `${axis.toUpperCase()} travel ${fmt(have)} mm is short of the wanted ${fmt(want)} mm.`
-            : `${axis.toUpperCase()} travel ${fmt(have)} mm covers the wanted ${fmt(want)} mm.`,
-        value: have,
-        limit: want,
-        unit: 'mm',
-      });
+      const name = axis === 'x' ? 'X' : 'Y';
+      out.push(
+        makeCheck({
+          id: 'travel-wanted',
+          subject: `${name} travel`,
+          severity: severityOf(have < want, false),
+          value: have,
+          limit: want,
+          kind: 'lengthMm',
+          parts:
+            have < want
+              ? [`${name} travel `, qty(have, 'lengthMm'), ` is short of the Wanted travel ${name} `, qty(want, 'lengthMm'), '.']
+              : [`${name} travel `, qty(have, 'lengthMm'), ` covers the Wanted travel ${name} `, qty(want, 'lengthMm'), '.'],
+        }),
+      );
     }
   }
   const share = Math.min(c.travel.xMm / c.outer.xMm, c.travel.yMm / c.outer.yMm);
-  out.push({
-    id: 'travel-vs-frame',
-    severity: sev(false, share < TRAVEL_SHARE_WARN),
-    message:
-      share < TRAVEL_SHARE_WARN
-        ? `Only ${fmt(share * 100, 0)} % of the frame size is usable travel along one axis; carriage, clearances or pulleys take most of it.`
-        : `At least ${fmt(share * 100, 0)} % of the frame size is usable travel along each axis.`,
-    value: share,
-    limit: TRAVEL_SHARE_WARN,
-    unit: '',
-  });
-  if (c.toolHoldN !== null) {
-    const need = c.toolKg * c.toolAccelMPerS2;
-    out.push({
+  out.push(
+    makeCheck({
+      id: 'travel-vs-frame',
+      severity: severityOf(false, share < TRAVEL_SHARE_WARN),
+      value: share,
+      limit: TRAVEL_SHARE_WARN,
+      kind: 'ratio',
+      parts:
+        share < TRAVEL_SHARE_WARN
+          ? ['Only ', qty(share, 'ratio'), ' of the frame size is usable travel along one axis; carriage, clearances or pulleys take most of it.']
+          : ['At least ', qty(share, 'ratio'), ' of the frame size is usable travel along each axis.'],
+    }),
+  );
+  return out;
+}
+
+function toolChecks(c: CheckInput): Check[] {
+  if (c.toolHoldN === null) return [];
+  const need = c.toolKg * c.toolAccelMPerS2;
+  const hold = c.toolHoldN;
+  const out: Check[] = [
+    makeCheck({
       id: 'tool-mount-hold',
-      severity: sev(c.toolHoldN < need, c.toolHoldN < TOOL_HOLD_MARGIN * need),
-      message:
-        c.toolHoldN < TOOL_HOLD_MARGIN * need
-          ? `The tool mount holds ${fmt(c.toolHoldN)} N; the tool needs ${fmt(need)} N at ${fmt(c.toolAccelMPerS2)} m/s², ${TOOL_HOLD_MARGIN}× that with margin.`
-          : `The tool mount holds ${fmt(c.toolHoldN)} N, at least ${TOOL_HOLD_MARGIN}× the ${fmt(need)} N the tool needs at ${fmt(c.toolAccelMPerS2)} m/s².`,
-      value: c.toolHoldN,
+      severity: severityOf(hold < need, hold < TOOL_HOLD_MARGIN * need),
+      value: hold,
       limit: TOOL_HOLD_MARGIN * need,
-      unit: 'N',
-    });
-    if (need > 0) {
-      out.push({
+      kind: 'forceN',
+      parts:
+        hold < TOOL_HOLD_MARGIN * need
+          ? ['The Tool mount hold force ', qty(hold, 'forceN'), ' is short of the ', qty(TOOL_HOLD_MARGIN * need, 'forceN'), ` the tool needs at `, qty(c.toolAccelMPerS2, 'accelMPerS2'), ` with a ${TOOL_HOLD_MARGIN}× margin.`]
+          : ['The Tool mount hold force ', qty(hold, 'forceN'), ` is at least ${TOOL_HOLD_MARGIN}× the `, qty(need, 'forceN'), ' the tool needs at ', qty(c.toolAccelMPerS2, 'accelMPerS2'), '.'],
+    }),
+  ];
+  if (need > 0) {
+    const tight = hold > TOOL_RELEASE_FACTOR * need;
+    out.push(
+      makeCheck({
         id: 'tool-mount-release',
-        severity: sev(false, c.toolHoldN > TOOL_RELEASE_FACTOR * need),
-        message:
-          c.toolHoldN > TOOL_RELEASE_FACTOR * need
-            ? `The tool mount holds more than ${TOOL_RELEASE_FACTOR}× its working load (${fmt(need)} N): it will hardly let go in a crash.`
-            : `The tool mount holds at most ${TOOL_RELEASE_FACTOR}× its working load, so it can still let go in a crash.`,
-        value: c.toolHoldN,
+        severity: severityOf(false, tight),
+        value: hold,
         limit: TOOL_RELEASE_FACTOR * need,
-        unit: 'N',
-      });
-    }
+        kind: 'forceN',
+        parts: tight
+          ? ['The Tool mount hold force ', qty(hold, 'forceN'), ` is more than ${TOOL_RELEASE_FACTOR}× the working load `, qty(need, 'forceN'), ': it will hardly let go in a crash.']
+          : ['The Tool mount hold force is at most ', `${TOOL_RELEASE_FACTOR}× the working load `, qty(need, 'forceN'), ', so it can still let go in a crash.'],
+      }),
+    );
   }
   return out;
+}
+
+function rackingCheck(c: CheckInput): Check[] {
+  if (!c.racking) return [];
+  const { momentNm, ratingNm, ratingIsTypical } = c.racking;
+  const typical = ratingIsTypical ? ' (typical value for two small profile-rail carriages; enter your guides’ rating)' : '';
+  return [
+    makeCheck({
+      id: 'racking',
+      subject: 'Y guides',
+      severity: severityOf(momentNm > ratingNm, momentNm > LOAD_WARN_SHARE * ratingNm),
+      value: momentNm,
+      limit: ratingNm,
+      kind: 'momentNm',
+      parts: [
+        'The H-shaped belt twists the gantry with up to ',
+        qty(momentNm, 'momentNm'),
+        momentNm > ratingNm ? ', above the Guide yaw moment rating ' : ', against a Guide yaw moment rating of ',
+        qty(ratingNm, 'momentNm'),
+        `${typical}.`,
+      ],
+    }),
+  ];
+}
+
+/**
+ * The design checks, each {id, severity, message, value, limit, unit, kind, parts, subject}, in a stable order.
+ * Messages use the labels the Design desk shows and metric units; `parts` carries the numbers for other units.
+ * @param c - the numbers the checks compare
+ * @returns checks
+ * @see docs/checks.md
+ */
+export function designChecks(c: CheckInput): Check[] {
+  return [
+    ...motorChecks(c),
+    pulleyCheck(c),
+    ...c.belts.flatMap((b) => beltChecks(c, b)),
+    ...rackingCheck(c),
+    ringingCheck(c),
+    ...planChecks(c),
+    ...travelChecks(c),
+    ...toolChecks(c),
+  ];
 }

@@ -9,7 +9,8 @@ export interface KeyFigures {
   travelXMm: number;
   travelYMm: number;
   stepsPerMm: number;
-  microstepMm: { x: number; y: number; diagonal: number };
+  /** Carriage figures of one microstep (docs/resolution.md). */
+  microstep: { oneMotorMm: number; oneMotorDirectionDeg: number; axisMm: number; diagonalMm: number };
   accelMaxMPerS2: { x: number; y: number; diagonal: number; worst: number };
   speedMaxMPerS: { x: number; y: number; diagonal: number; worst: number };
   lowestFrequencyHz: number;
@@ -34,7 +35,7 @@ export function keyFigures(r: DesignResult): KeyFigures {
     travelXMm: r.travel.xMm,
     travelYMm: r.travel.yMm,
     stepsPerMm: r.drive.stepsPerMm,
-    microstepMm: { ...r.drive.microstepMm },
+    microstep: { ...r.drive.microstep },
     accelMaxMPerS2: { x: a.x.accelMaxMPerS2, y: a.y.accelMaxMPerS2, diagonal: a.diagonal.accelMaxMPerS2, worst: a.worst.accelMaxMPerS2 },
     speedMaxMPerS: {
       x: a.x.speedMaxMPerS,

@@ -18,7 +18,7 @@ export interface PullCurve {
 /**
  * Samples a pull function on [0, top] for the envelope.
  * @param pullAt - available belt pull at a belt speed [N at m/s]
- * @param topMPerS - belt speed from which the pull is zero (back-EMF limit, table end or speed limit) [m/s]
+ * @param topMPerS - belt speed from which the pull is taken as zero (model tail, table end or speed limit) [m/s]
  * @param samples - number of samples (≥ 2)
  * @returns the sampled curve
  */
@@ -130,6 +130,11 @@ export interface EnvelopeResult {
   peakBeltPullN: [number, number];
   /** Largest X force the belts put on the carriage anywhere on the envelope [N]. */
   peakForceXN: number;
+  /**
+   * Signed belt pulls of both coordinates at every envelope point: per direction, accelerating and braking at the
+   * limit at rest and at cruise (4 per direction), belt and idler inertia included (docs/belt-tension.md §4).
+   */
+  pullPairs: { aN: Float64Array; bN: Float64Array; directionDeg: Float64Array };
 }
 
 function accelBound(alpha: number, beta: number, p: number): number {
@@ -138,14 +143,14 @@ function accelBound(alpha: number, beta: number, p: number): number {
 }
 
 /**
- * Acceleration and speed envelope (engine.md §6). For direction u = (cos θ, sin θ) and acceleration a the
+ * Acceleration and speed envelope. For direction u = (cos θ, sin θ) and acceleration a the
  * carriage needs F = diag(m_x, m_y)·u·a + friction (each guide's friction opposes its own motion), the motors
  * pull K⁻ᵀ·F and also accelerate their own equivalent mass at (K·u)·a. Each motor's pull is affine in a,
  * αᵢ·a + βᵢ, and must stay within ±Pᵢ(speed), so a_max = minᵢ (Pᵢ − sign(αᵢ)·βᵢ)/|αᵢ|. v_max is the speed up to
  * which every motor still covers its friction share βᵢ.
  * @param inp - matrix, masses [kg], friction [N], pull curves, cruise speed [m/s], number of directions
  * @returns per-direction limits [m/s², m/s], shares and the limiting motor
- * @see engine.md §6; virtual work for K⁻ᵀ (engine.md §1)
+ * @see docs/envelope.md; virtual work for K⁻ᵀ (docs/envelope.md §1)
  */
 export function computeEnvelope(inp: EnvelopeInput): EnvelopeResult {
   const n = inp.directions;
@@ -162,7 +167,9 @@ export function computeEnvelope(inp: EnvelopeInput): EnvelopeResult {
     forceShareB: new Array(n),
     peakBeltPullN: [0, 0],
     peakForceXN: 0,
+    pullPairs: { aN: new Float64Array(4 * n), bN: new Float64Array(4 * n), directionDeg: new Float64Array(4 * n) },
   };
+  const pp = out.pullPairs;
   const [pa, pb] = inp.pull;
   const pa0 = pa.pullN[0];
   const pb0 = pb.pullN[0];
@@ -210,12 +217,20 @@ export function computeEnvelope(inp: EnvelopeInput): EnvelopeResult {
       aCruise = rest(pullAtSpeed(pa, absSa * inp.cruiseMPerS), pullAtSpeed(pb, absSb * inp.cruiseMPerS))[0];
     }
     // Belt pulls at the limits: the carriage-side force plus what the belt itself (and its idlers) carries.
-    for (const a of [a0, aCruise]) {
-      const pullA = Math.abs(carA * a + betaA + inp.beltCarriedKg[0] * sa * a);
-      const pullB = Math.abs(carB * a + betaB + inp.beltCarriedKg[1] * sb * a);
-      if (pullA > out.peakBeltPullN[0]) out.peakBeltPullN[0] = pullA;
-      if (pullB > out.peakBeltPullN[1]) out.peakBeltPullN[1] = pullB;
-      const fX = Math.abs(mx * a + fx);
+    // Braking at the same rate (friction then helps) is kept too: its pulls belong to the same envelope.
+    const beltA = carA + inp.beltCarriedKg[0] * sa;
+    const beltB = carB + inp.beltCarriedKg[1] * sb;
+    for (let q = 0; q < 4; q++) {
+      const a = q < 2 ? a0 : aCruise;
+      const sgn = q % 2 === 0 ? 1 : -1;
+      const pullA = sgn * beltA * a + betaA;
+      const pullB = sgn * beltB * a + betaB;
+      pp.aN[4 * i + q] = pullA;
+      pp.bN[4 * i + q] = pullB;
+      pp.directionDeg[4 * i + q] = deg;
+      if (Math.abs(pullA) > out.peakBeltPullN[0]) out.peakBeltPullN[0] = Math.abs(pullA);
+      if (Math.abs(pullB) > out.peakBeltPullN[1]) out.peakBeltPullN[1] = Math.abs(pullB);
+      const fX = Math.abs(sgn * mx * a + fx);
       if (fX > out.peakForceXN) out.peakForceXN = fX;
     }
     out.directionsDeg[i] = deg;

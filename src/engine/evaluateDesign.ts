@@ -1,21 +1,26 @@
-import { solveLoop, type MotorVar } from './beltLayout';
+import { solveLoop, type LoopState, type MotorVar } from './beltLayout';
+import { beltTensionOverTravel, type LoopTensionResult } from './beltTensionMap';
 import { CAUTIONS } from './cautions';
-import { designChecks, teethInMeshFactor } from './checks';
+import { designChecks, MIN_TEETH_IN_MESH, teethInMeshFactor } from './checks';
 import { fullStepsPerRev } from './drive';
-import { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type EnvelopeInput } from './envelope';
-import { frameToTravel } from './frame';
+import { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type EnvelopeInput, type EnvelopeResult } from './envelope';
+import { frameToTravel, type TravelInfo } from './frame';
 import { kinematicsMatrix } from './kinematics';
 import { inverse2, type Matrix2 } from './linalg';
 import { effectiveMassKg, movingMassKg, pulleyInertiaEstimateKgM2 } from './mass';
-import { motorHoldingStiffnessNmPerRad, torqueConstantNmPerA, torqueSpeedFunction } from './motorTorque';
+import { microstepFigures } from './microstep';
+import { modelTopSpeedRevPerS, motorHoldingStiffnessNmPerRad, torqueConstantNmPerA, torqueSpeedFunction } from './motorTorque';
 import { CLAMP_ALLOWANCE_MM, partsList } from './partsList';
 import { guideReactionN, rackingMomentPerNewtonM, rackingTurnSpacingMm } from './racking';
 import { parseDesign, type DesignInput } from './schema';
-import { stiffnessMap } from './stiffness';
+import { stiffnessMap, type StiffnessResult } from './stiffness';
 import { spanFrequencyHz } from './tension';
+import { TYPICAL_YAW_MOMENT_RATING_NM, typicalToothAllowableN } from './typicalValues';
 import { layoutDrawing } from './layoutDrawing';
 import type { AxisLimits, BeltReport, DesignResult, RingingFigure } from './types';
 import { ENGINE_VERSION } from './version';
+
+// The models behind every step are in docs/ (docs/README.md lists them).
 
 /** Number of directions of the envelope: one per degree. */
 export const ENVELOPE_DIRECTIONS = 360;
@@ -31,27 +36,29 @@ function directionWords(dx: number, dy: number): string {
   return `${parts.join(' ')} (${Math.round(deg)}°)`;
 }
 
+/** Available torque of one motor (model or table, no margin), where its usable curve ends and V/k_e. */
+interface TorqueSource {
+  at: (revPerS: number) => number;
+  source: 'model' | 'table';
+  topRevPerS: number;
+  backEmfSpeedRevPerS: number;
+}
+
 /**
- * Available torque of one motor at a shaft speed, model or table (no margin).
- * @param d - validated design
- * @returns torque function [N·m at rev/s], its source and the speed where it ends [rev/s]
+ * Available torque of one motor at a shaft speed, model or table (no margin). The model's curve has no ceiling
+ * at V/k_e; it ends where the model stops being trustworthy (modelTopSpeedRevPerS), a table at its last row,
+ * and both at the designer's shaft speed limit.
  */
-function torqueSource(d: DesignInput): { at: (n: number) => number; source: 'model' | 'table'; topRevPerS: number } {
+function torqueSource(d: DesignInput): TorqueSource {
   const table = d.motor.torqueCurve && d.motor.torqueCurve.length > 0;
-  let top: number;
-  if (table) {
-    const curve = d.motor.torqueCurve!;
-    top = curve[curve.length - 1].speedRevPerS;
-  } else {
-    const ke = torqueConstantNmPerA(d.motor);
-    top = d.driver.supplyV / ke / (2 * Math.PI);
-  }
+  let top = table ? d.motor.torqueCurve![d.motor.torqueCurve!.length - 1].speedRevPerS : modelTopSpeedRevPerS(d.motor, d.driver);
   if (d.motor.maxSpeedRevPerS !== null) top = Math.min(top, d.motor.maxSpeedRevPerS);
   const torque = torqueSpeedFunction(d.motor, d.driver);
   return {
     at: (n: number) => (n > top ? 0 : torque(n)),
     source: table ? 'table' : 'model',
     topRevPerS: Math.max(top, 1e-9),
+    backEmfSpeedRevPerS: d.driver.supplyV / torqueConstantNmPerA(d.motor) / (2 * Math.PI),
   };
 }
 
@@ -64,67 +71,56 @@ function ringing(accel: number, fHz: number, tolMm: number): RingingFigure {
   };
 }
 
-/**
- * Evaluates a design: validates it with the schema, then computes kinematics, drive numbers, travel, belt
- * layout, masses, motor torque, the acceleration/speed envelope, belt tensions, the stiffness map, ringing,
- * racking, parts and checks (engine.md §1–9).
- * @param input - a design document (format.md), unvalidated
- * @returns the full result (format.md "Result" plus drawing data)
- * @throws EngineInputError with field paths when the design is invalid
- */
-export function evaluateDesign(input: unknown): DesignResult {
-  const d = parseDesign(input);
-  return evaluateValidDesign(d);
-}
-
-/**
- * Same as {@link evaluateDesign} for an already validated design (skips the schema pass).
- * @param d - validated design
- * @returns the full result
- */
-export function evaluateValidDesign(d: DesignInput): DesignResult {
-  const mech = d.mechanism;
-  const k: Matrix2 = kinematicsMatrix(mech, d.motorDirection);
-  const kinv = inverse2(k);
-
-  // --- drive numbers (engine.md §2)
+/** Drive pulley radius and the drive numbers of the result (docs/resolution.md). */
+function driveNumbers(d: DesignInput, k: Matrix2): { rM: number; section: DesignResult['drive'] } {
   const p = d.belt.pitchMm;
-  const zD = d.pulley.driveTeeth;
-  const zI = d.pulley.idlerTeeth;
-  const travelPerRev = zD * p;
-  const pitchDiameter = travelPerRev / Math.PI;
-  const rM = pitchDiameter / 2 / 1000;
-  const rIM = (zI * p) / (2 * Math.PI) / 1000;
+  const travelPerRev = d.pulley.driveTeeth * p;
   const full = fullStepsPerRev(d.motor.stepAngleDeg);
   const fullStep = travelPerRev / full;
   const micro = fullStep / d.driver.microsteps;
-  const colMax = (f: (j: number) => number) => Math.max(Math.abs(f(0)), Math.abs(f(1)));
-  const microstepMm = {
-    x: micro * colMax((j) => kinv[0][j]),
-    y: micro * colMax((j) => kinv[1][j]),
-    diagonal: (micro * colMax((j) => kinv[0][j] + kinv[1][j])) / Math.SQRT2,
+  return {
+    rM: travelPerRev / Math.PI / 2 / 1000,
+    section: {
+      pitchDiameterMm: travelPerRev / Math.PI,
+      travelPerRevMm: travelPerRev,
+      stepsPerMm: (full * d.driver.microsteps) / travelPerRev,
+      fullStepMm: fullStep,
+      fullStepsPerRev: full,
+      microsteps: d.driver.microsteps,
+      microstepBeltMm: micro,
+      microstep: microstepFigures(k, micro),
+    },
   };
+}
 
-  // --- travel and layout (engine.md §3)
-  const t = frameToTravel(d);
-  const parking = { xMm: t.xMm / 2, yMm: t.yMm / 2 };
-  const pcx = t.originXMm + parking.xMm;
-  const pcy = t.originYMm + parking.yMm;
-  const states = t.layout.loops.map((loop) => solveLoop(loop, pcx, pcy));
+/** Moving masses and each motor coordinate's belt-line equivalent mass (docs/envelope.md §2). */
+interface MassModel {
+  xKg: number;
+  yKg: number;
+  motorsOn: [number, number];
+  motorEq: [number, number];
+  beltCarried: [number, number];
+  reflectedPerMotorKg: number;
+  beltKg: number;
+  jDrive: number;
+  jIdler: number;
+  estimated: boolean;
+}
 
-  // --- masses (engine.md §4)
+function massModel(d: DesignInput, t: TravelInfo, states: LoopState[], rM: number): MassModel {
+  const p = d.belt.pitchMm;
+  const rIM = (d.pulley.idlerTeeth * p) / (2 * Math.PI) / 1000;
   const mm = movingMassKg({
-    mechanism: mech,
+    mechanism: d.mechanism,
     carriageKg: d.masses.carriageKg,
     toolKg: d.masses.toolKg,
     gantryKg: d.masses.gantryKg,
     motorKg: d.motor.massKg,
   });
-  const estimated = d.pulley.driveInertiaKgM2 === null || d.pulley.idlerInertiaKgM2 === null;
-  const jDrive = d.pulley.driveInertiaKgM2 ?? pulleyInertiaEstimateKgM2({ teeth: zD, pitchMm: p, beltWidthMm: d.belt.widthMm });
-  const jIdler = d.pulley.idlerInertiaKgM2 ?? pulleyInertiaEstimateKgM2({ teeth: zI, pitchMm: p, beltWidthMm: d.belt.widthMm });
-  const reflectedPerMotor = (d.motor.rotorInertiaKgM2 + jDrive) / (rM * rM);
-  const motorsOn: [number, number] = [1, mech === 'cartesian' ? d.yMotors : 1];
+  const w = d.belt.widthMm;
+  const jDrive = d.pulley.driveInertiaKgM2 ?? pulleyInertiaEstimateKgM2({ teeth: d.pulley.driveTeeth, pitchMm: p, beltWidthMm: w, hasHub: true });
+  const jIdler = d.pulley.idlerInertiaKgM2 ?? pulleyInertiaEstimateKgM2({ teeth: d.pulley.idlerTeeth, pitchMm: p, beltWidthMm: w, hasHub: false });
+  const motorsOn: [number, number] = [1, d.mechanism === 'cartesian' ? d.yMotors : 1];
   const drivesOn: [number, number] = [0, 0];
   const beltCarried: [number, number] = [0, 0];
   let beltKg = 0;
@@ -135,34 +131,47 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
     const loopEq = loopKg + (idlers * jIdler) / (rIM * rIM);
     beltCarried[0] += loop.massShare.a * loopEq;
     beltCarried[1] += loop.massShare.b * loopEq;
-    for (const e of loop.elements) {
-      if (e.kind === 'drive') {
-        const coord = t.layout.motorVars.find((v) => v.id === e.motor)!.coordinate;
-        drivesOn[coord] += 1;
-      }
-    }
+    for (const e of loop.elements) if (e.kind === 'drive') drivesOn[t.layout.motorVars.find((v) => v.id === e.motor)!.coordinate] += 1;
   });
-  const rotorSide: [number, number] = [0, 1].map((i) => (motorsOn[i] * d.motor.rotorInertiaKgM2 + drivesOn[i] * jDrive) / (rM * rM)) as [
-    number,
-    number,
-  ];
-  const motorEq: [number, number] = [rotorSide[0] + beltCarried[0], rotorSide[1] + beltCarried[1]];
+  const rotorSide = [0, 1].map((i) => (motorsOn[i] * d.motor.rotorInertiaKgM2 + drivesOn[i] * jDrive) / (rM * rM));
+  return {
+    xKg: mm.xKg,
+    yKg: mm.yKg,
+    motorsOn,
+    motorEq: [rotorSide[0] + beltCarried[0], rotorSide[1] + beltCarried[1]],
+    beltCarried,
+    reflectedPerMotorKg: (d.motor.rotorInertiaKgM2 + jDrive) / (rM * rM),
+    beltKg,
+    jDrive,
+    jIdler,
+    estimated: d.pulley.driveInertiaKgM2 === null || d.pulley.idlerInertiaKgM2 === null,
+  };
+}
 
-  // --- motor torque and envelope (engine.md §5, §6)
-  const tq = torqueSource(d);
+/** The envelope with its named directions and the worst cases the checks judge against. */
+interface EnvelopeSection {
+  envIn: EnvelopeInput;
+  env: EnvelopeResult;
+  axes: DesignResult['envelope']['axes'];
+  bestAccel: number;
+  /** Lowest acceleration the stage holds in any direction from rest up to the cruise speed, and where. */
+  holdAccel: { accelMPerS2: number; directionDeg: number };
+  worstSpeed: { speedMPerS: number; directionDeg: number };
+}
+
+function envelopeSection(d: DesignInput, k: Matrix2, m: MassModel, tq: TorqueSource, rM: number): EnvelopeSection {
   const beltPerRev = 2 * Math.PI * rM;
   // Both motor coordinates use the same motor, so one sampled curve serves both (scaled by motor count).
   const unit = samplePullCurve((w) => (d.torqueMargin * tq.at(w / beltPerRev)) / rM, tq.topRevPerS * beltPerRev);
-  const curves = [0, 1].map((i) => scalePullCurve(unit, motorsOn[i])) as EnvelopeInput['pull'];
   const envIn: EnvelopeInput = {
     k,
-    xKg: mm.xKg,
-    yKg: mm.yKg,
-    motorEquivalentKg: motorEq,
-    beltCarriedKg: beltCarried,
+    xKg: m.xKg,
+    yKg: m.yKg,
+    motorEquivalentKg: m.motorEq,
+    beltCarriedKg: m.beltCarried,
     frictionXN: d.frictionN.x,
     frictionYN: d.frictionN.y,
-    pull: curves,
+    pull: [scalePullCurve(unit, m.motorsOn[0]), scalePullCurve(unit, m.motorsOn[1])],
     cruiseMPerS: d.cruiseSpeedMmPerS / 1000,
     directions: ENVELOPE_DIRECTIONS,
   };
@@ -175,28 +184,70 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
     speedMaxMPerS: env.speedMaxMPerS[i],
   });
   let worstI = 0;
-  for (let i = 1; i < n; i++) if (env.accelMaxMPerS2[i] < env.accelMaxMPerS2[worstI] - 1e-12) worstI = i;
-  const axes = { x: axis(0), y: axis(n / 4), diagonal: axis(n / 8), worst: axis(worstI) };
-  const bestAccel = Math.max(...env.accelMaxMPerS2);
-  const worstSpeed = Math.min(...env.speedMaxMPerS);
-  const bestSpeed = Math.max(...env.speedMaxMPerS);
+  let slowI = 0;
+  let holdI = 0;
+  const reachesCruise = env.speedMaxMPerS.every((v) => v >= envIn.cruiseMPerS);
+  // Up to cruise the stage must hold the plan at every speed: the lower of the rest and cruise limits.
+  const hold = (i: number) => (reachesCruise ? Math.min(env.accelMaxMPerS2[i], env.accelAtCruiseMPerS2[i]) : env.accelMaxMPerS2[i]);
+  for (let i = 1; i < n; i++) {
+    if (env.accelMaxMPerS2[i] < env.accelMaxMPerS2[worstI] - 1e-12) worstI = i;
+    if (env.speedMaxMPerS[i] < env.speedMaxMPerS[slowI] - 1e-12) slowI = i;
+    if (hold(i) < hold(holdI) - 1e-12) holdI = i;
+  }
+  return {
+    envIn,
+    env,
+    axes: { x: axis(0), y: axis(n / 4), diagonal: axis(n / 8), worst: axis(worstI) },
+    bestAccel: Math.max(...env.accelMaxMPerS2),
+    holdAccel: { accelMPerS2: hold(holdI), directionDeg: env.directionsDeg[holdI] },
+    worstSpeed: { speedMPerS: env.speedMaxMPerS[slowI], directionDeg: env.directionsDeg[slowI] },
+  };
+}
 
-  // --- belts and tension (engine.md §3, §7)
-  const belts: BeltReport[] = t.layout.loops.map((loop, i) => {
+/** Stiffness map over the travel (docs/stiffness-and-ringing.md). */
+function stiffnessSection(d: DesignInput, t: TravelInfo, m: MassModel, rM: number): StiffnessResult {
+  const kMotor = motorHoldingStiffnessNmPerRad(d.motor, d.driver) / (rM * rM);
+  const motorStiffness: Record<MotorVar, number> = { A: kMotor, B: kMotor, B2: kMotor };
+  return stiffnessMap({
+    models: t.models,
+    motorStiffnessNPerM: motorStiffness,
+    axialStiffnessN: d.belt.axialStiffnessN,
+    xKg: m.xKg,
+    yKg: m.yKg,
+    originXMm: t.originXMm,
+    originYMm: t.originYMm,
+    travelXMm: t.xMm,
+    travelYMm: t.yMm,
+    points: d.map.points,
+  });
+}
+
+/** Teeth in mesh on the least-wrapped drive pulley of a loop, and its wrap. */
+function driveMesh(loop: TravelInfo['layout']['loops'][number], st: LoopState): { teeth: number; wrapDeg: number } {
+  let tim = Infinity;
+  let wrapDeg = 0;
+  loop.elements.forEach((e, j) => {
+    if (e.kind !== 'drive') return;
+    const w = st.path.wraps[j - 1].wrapRad;
+    const mesh = (e.teeth * w) / (2 * Math.PI);
+    if (mesh < tim) {
+      tim = mesh;
+      wrapDeg = w * DEG;
+    }
+  });
+  return { teeth: tim, wrapDeg };
+}
+
+/** One belt's report: lengths, spans and pluck targets at parking, and its tension over the travel. */
+function beltReports(d: DesignInput, t: TravelInfo, states: LoopState[], tensions: LoopTensionResult[]): BeltReport[] {
+  const p = d.belt.pitchMm;
+  const toothTypical = d.belt.toothAllowableN === null;
+  const toothAllowable = d.belt.toothAllowableN ?? typicalToothAllowableN({ pitchMm: p, widthMm: d.belt.widthMm });
+  return t.layout.loops.map((loop, i) => {
     const st = states[i];
     const lenMm = st.path.lengthMm;
     const loopTeeth = Math.ceil(lenMm / p - 1e-9);
-    let tim = Infinity;
-    let wrapDeg = 0;
-    loop.elements.forEach((e, j) => {
-      if (e.kind !== 'drive') return;
-      const w = st.path.wraps[j - 1].wrapRad;
-      const m = (e.teeth * w) / (2 * Math.PI);
-      if (m < tim) {
-        tim = m;
-        wrapDeg = w * DEG;
-      }
-    });
+    const mesh = driveMesh(loop, st);
     const label = (id: string) => loop.elements.find((e) => e.id === id)?.label ?? id;
     const body = (id: string) => loop.elements.find((e) => e.id === id)?.body;
     const spans = st.path.spans.map((s) => ({
@@ -212,163 +263,212 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
     }));
     const fixed = spans.filter((x) => x.fixedLength && x.lengthMm > 0);
     const reference = fixed.length > 0 ? fixed.reduce((a, b) => (b.lengthMm > a.lengthMm ? b : a)) : null;
-    const share = loop.massShare;
-    // A loop carries the pull of the motor coordinate(s) it belongs to; two Y loops share the Y pull.
-    const loopsOnB = t.layout.loops.filter((l) => l.massShare.b > 0).length;
-    const peak =
-      share.a > 0 && share.b > 0
-        ? Math.max(env.peakBeltPullN[0], env.peakBeltPullN[1])
-        : share.a > 0
-          ? env.peakBeltPullN[0]
-          : env.peakBeltPullN[1] / loopsOnB;
-    const allowable = d.belt.allowableTensionN * teethInMeshFactor(tim);
+    const tn = tensions[i];
+    // Teeth that carry the pull: at most 6 count, and fewer lose 20 % of the 6-tooth capacity each (common practice).
+    const counted = MIN_TEETH_IN_MESH * teethInMeshFactor(mesh.teeth);
     return {
       id: loop.id,
       label: loop.label,
       loopLengthMm: lenMm,
       loopTeeth,
       cutLengthMm: loopTeeth * p + 2 * CLAMP_ALLOWANCE_MM,
-      teethInMesh: tim,
-      driveWrapDeg: wrapDeg,
+      teethInMesh: mesh.teeth,
+      driveWrapDeg: mesh.wrapDeg,
       spans,
       referenceSpanId: reference ? reference.id : null,
       arms: st.pieces.map((pc) => ({ from: pc.from, to: pc.to, lengthMm: pc.lengthMm })),
       massKg: (lenMm / 1000) * d.belt.linearMassKgPerM,
-      peakPullN: peak,
-      tightSideN: d.pretensionN + peak / 2,
-      slackSideN: d.pretensionN - peak / 2,
-      allowableTensionN: allowable,
+      peakPullN: tn.peakPullN,
+      tension: {
+        pretensionN: d.pretensionN,
+        worstTightN: tn.worstTightN,
+        worstTightAt: tn.worstTightAt,
+        worstSlackN: tn.worstSlackN,
+        worstSlackAt: tn.worstSlackAt,
+        tensileAllowableN: d.belt.allowableTensionN,
+        peakPullN: tn.peakPullN,
+        toothLoadN: counted > 0 ? tn.peakPullN / counted : Infinity,
+        toothAllowableN: toothAllowable,
+        toothAllowableIsTypical: toothTypical,
+        countedTeeth: counted,
+        tightMapN: tn.tightMapN,
+        slackMapN: tn.slackMapN,
+      },
     };
   });
+}
 
-  // --- stiffness map and ringing (engine.md §7)
-  const kTheta = motorHoldingStiffnessNmPerRad(d.motor, d.driver);
-  const kMotor = kTheta / (rM * rM);
-  const motorStiffness: Record<MotorVar, number> = { A: kMotor, B: kMotor, B2: kMotor };
-  const map = stiffnessMap({
-    models: t.models,
-    motorStiffnessNPerM: motorStiffness,
-    axialStiffnessN: d.belt.axialStiffnessN,
-    xKg: mm.xKg,
-    yKg: mm.yKg,
-    originXMm: t.originXMm,
-    originYMm: t.originYMm,
-    travelXMm: t.xMm,
-    travelYMm: t.yMm,
-    points: d.map.points,
-  });
-  const fMin = map.min.frequencyHz;
-  const tol = d.ringingToleranceMm;
-  const plannedAccel = d.plannedAccelMmPerS2 !== null ? d.plannedAccelMmPerS2 / 1000 : axes.worst.accelMaxMPerS2;
-
-  // --- racking (engine.md §7)
+/** H-loop racking: moment per newton of X pull, the peak moment and the guides' reaction and rating (docs/racking.md). */
+function rackingSection(d: DesignInput, t: TravelInfo, env: EnvelopeResult): DesignResult['racking'] {
   const spacing = rackingTurnSpacingMm(t.layout);
-  const perN = rackingMomentPerNewtonM({ mechanism: mech, turnSpacingMm: spacing });
+  const perN = rackingMomentPerNewtonM({ mechanism: d.mechanism, turnSpacingMm: spacing });
   const peakMoment = perN * env.peakForceXN;
-  const guideSpan = d.frame.gantryYMm;
+  return {
+    yawMomentRatingNm: d.guide.yawMomentRatingNm ?? TYPICAL_YAW_MOMENT_RATING_NM,
+    yawMomentRatingIsTypical: d.guide.yawMomentRatingNm === null,
+    momentPerNewtonM: perN,
+    turnSpacingMm: spacing,
+    peakForceXN: env.peakForceXN,
+    peakMomentNm: peakMoment,
+    guideSpanMm: d.frame.gantryYMm,
+    guideReactionN: guideReactionN({ momentNm: peakMoment, guideSpanMm: d.frame.gantryYMm }),
+  };
+}
 
-  // --- torque–speed samples and operating points for the motor chart
-  const samples = 101;
-  const topShow = tq.topRevPerS;
-  const speeds: number[] = [];
-  const torques: number[] = [];
-  for (let i = 0; i < samples; i++) {
-    const s = (topShow * i) / (samples - 1);
-    speeds.push(s);
-    torques.push(tq.at(s));
-  }
+/** Torque–speed samples for the chart, with the operating points of the named directions (docs/envelope.md §4). */
+function torqueChart(d: DesignInput, k: Matrix2, tq: TorqueSource, es: EnvelopeSection, m: MassModel, rM: number): DesignResult['torqueSpeed'] {
+  const beltPerRev = 2 * Math.PI * rM;
   const ops: DesignResult['torqueSpeed']['operatingPoints'] = [];
   const named: [string, number, AxisLimits][] = [
-    ['X', 0, axes.x],
-    ['Y', Math.PI / 2, axes.y],
-    ['diagonal', Math.PI / 4, axes.diagonal],
+    ['X', 0, es.axes.x],
+    ['Y', Math.PI / 2, es.axes.y],
+    ['diagonal', Math.PI / 4, es.axes.diagonal],
   ];
   for (const [nm, th, ax] of named) {
     const sh = [k[0][0] * Math.cos(th) + k[0][1] * Math.sin(th), k[1][0] * Math.cos(th) + k[1][1] * Math.sin(th)];
     for (const [when, v, a] of [
       ['at rest', 0, ax.accelMaxMPerS2],
-      ['at cruise', envIn.cruiseMPerS, ax.accelAtCruiseMPerS2],
+      ['at cruise', es.envIn.cruiseMPerS, ax.accelAtCruiseMPerS2],
     ] as [string, number, number][]) {
-      const f = motorForcesN(envIn, th, a);
-      (['A', 'B'] as const).forEach((m, i) => {
+      const f = motorForcesN(es.envIn, th, a);
+      (['A', 'B'] as const).forEach((mo, i) => {
         ops.push({
-          label: `${nm} move ${when}, motor ${m}`,
-          motor: m,
+          label: `${nm} move ${when}, motor ${mo}`,
+          motor: mo,
           speedRevPerS: (Math.abs(sh[i]) * v) / beltPerRev,
-          torqueNm: (Math.abs(f[i]) * rM) / motorsOn[i],
+          torqueNm: (Math.abs(f[i]) * rM) / m.motorsOn[i],
         });
       });
     }
   }
+  // The model's tail is long (it ends where the torque falls to a few per cent); the chart shows the part a stage
+  // uses: three times V/k_e, or past the fastest operating point.
+  const fastest = Math.max(0, ...ops.map((o) => o.speedRevPerS));
+  const shown = tq.source === 'table' ? tq.topRevPerS : Math.min(tq.topRevPerS, Math.max(3 * tq.backEmfSpeedRevPerS, 1.2 * fastest));
+  const samples = 121;
+  const speeds: number[] = [];
+  const torques: number[] = [];
+  for (let i = 0; i < samples; i++) {
+    const s = (shown * i) / (samples - 1);
+    speeds.push(s);
+    torques.push(tq.at(s));
+  }
+  return {
+    source: tq.source,
+    topRevPerS: tq.topRevPerS,
+    backEmfSpeedRevPerS: tq.backEmfSpeedRevPerS,
+    speedRevPerS: speeds,
+    torqueNm: torques,
+    usableTorqueNm: torques.map((x) => x * d.torqueMargin),
+    operatingPoints: ops,
+  };
+}
 
-  // --- sign convention and motors
+/** Motors, what they drive, and the sign convention in words. */
+function motorsAndSigns(d: DesignInput, kinv: Matrix2, motorsOn: [number, number]): Pick<DesignResult, 'motors' | 'signConvention'> {
+  const mech = d.mechanism;
   const words = (j: number) => directionWords(kinv[0][j], kinv[1][j]);
   const motorLabels: [string, string] = mech === 'cartesian' ? ['X', 'Y'] : ['A', 'B'];
-  const motors: DesignResult['motors'] = [
-    { id: 'A', axisLabel: motorLabels[0], count: 1, drives: mech === 'hbot' ? 'belt H' : mech === 'corexy' ? 'belt A' : 'belt X' },
-    {
-      id: 'B',
-      axisLabel: motorLabels[1],
-      count: motorsOn[1],
-      drives:
-        mech === 'hbot'
-          ? 'belt H'
-          : mech === 'corexy'
-            ? 'belt B'
-            : d.yMotors === 2
-              ? 'belts Y (one motor per side)'
-              : 'belts Y (through the cross shaft)',
+  const yDrive = d.yMotors === 2 ? 'belts Y (one motor per side)' : 'belts Y (through the cross shaft)';
+  return {
+    motors: [
+      { id: 'A', axisLabel: motorLabels[0], count: 1, drives: mech === 'hbot' ? 'belt H' : mech === 'corexy' ? 'belt A' : 'belt X' },
+      { id: 'B', axisLabel: motorLabels[1], count: motorsOn[1], drives: mech === 'hbot' ? 'belt H' : mech === 'corexy' ? 'belt B' : yDrive },
+    ],
+    signConvention: {
+      motorDirection: d.motorDirection,
+      a: `A positive step of motor ${motorLabels[0]} alone moves the carriage toward ${words(0)}.`,
+      b: `A positive step of motor ${motorLabels[1]} alone moves the carriage toward ${words(1)}.`,
     },
-  ];
+  };
+}
 
-  // --- drawing
-  const drawing = layoutDrawing({
-    layout: t.layout,
-    states,
-    frame: d.frame,
-    beltWidthMm: d.belt.widthMm,
-    parkXMm: pcx,
-    parkYMm: pcy,
-    origin: { xMm: t.originXMm, yMm: t.originYMm },
-    travel: { xMm: t.xMm, yMm: t.yMm },
+/**
+ * Evaluates a design: validates it with the schema, then computes kinematics, drive numbers, travel, belt
+ * layout, masses, motor torque, the acceleration/speed envelope, belt tensions over the travel, the stiffness map,
+ * ringing, racking, parts and checks (docs/README.md).
+ * @param input - a design document, unvalidated
+ * @returns the full result plus drawing data
+ * @throws EngineInputError with field paths when the design is invalid
+ */
+export function evaluateDesign(input: unknown): DesignResult {
+  const d = parseDesign(input);
+  return evaluateValidDesign(d);
+}
+
+/**
+ * Same as {@link evaluateDesign} for an already validated design (skips the schema pass).
+ * @param d - validated design
+ * @returns the full result
+ */
+export function evaluateValidDesign(d: DesignInput): DesignResult {
+  const k: Matrix2 = kinematicsMatrix(d.mechanism, d.motorDirection);
+  const kinv = inverse2(k);
+  const { rM, section: drive } = driveNumbers(d, k);
+  const t = frameToTravel(d);
+  const parking = { xMm: t.xMm / 2, yMm: t.yMm / 2 };
+  const pcx = t.originXMm + parking.xMm;
+  const pcy = t.originYMm + parking.yMm;
+  const states = t.layout.loops.map((loop) => solveLoop(loop, pcx, pcy));
+  const m = massModel(d, t, states, rM);
+  const tq = torqueSource(d);
+  const es = envelopeSection(d, k, m, tq, rM);
+  const map = stiffnessSection(d, t, m, rM);
+  const tensions = beltTensionOverTravel({
+    models: t.models,
+    motorVars: t.layout.motorVars,
+    k,
+    pretensionN: d.pretensionN,
+    pairs: es.env.pullPairs,
+    originXMm: t.originXMm,
+    originYMm: t.originYMm,
+    xMm: map.xMm,
+    yMm: map.yMm,
   });
-
+  const belts = beltReports(d, t, states, tensions);
+  const racking = rackingSection(d, t, es.env);
+  const tol = d.ringingToleranceMm;
+  const fMin = map.min.frequencyHz;
+  const plannedAccel = d.plannedAccelMmPerS2 !== null ? d.plannedAccelMmPerS2 / 1000 : es.axes.worst.accelMaxMPerS2;
   const ringingFig = {
-    x: ringing(axes.x.accelMaxMPerS2, fMin, tol),
-    y: ringing(axes.y.accelMaxMPerS2, fMin, tol),
-    worst: ringing(axes.worst.accelMaxMPerS2, fMin, tol),
+    x: ringing(es.axes.x.accelMaxMPerS2, fMin, tol),
+    y: ringing(es.axes.y.accelMaxMPerS2, fMin, tol),
+    worst: ringing(es.axes.worst.accelMaxMPerS2, fMin, tol),
     planned: ringing(plannedAccel, fMin, tol),
   };
-
   const checks = designChecks({
     torqueMargin: d.torqueMargin,
     currentRmsA: d.driver.currentRmsA,
     ratedCurrentA: d.motor.ratedCurrentA,
     belts,
     pretensionN: d.pretensionN,
-    driveTeeth: zD,
-    idlerTeeth: zI,
+    driveTeeth: d.pulley.driveTeeth,
+    idlerTeeth: d.pulley.idlerTeeth,
     minPulleyTeeth: d.belt.minPulleyTeeth,
     ringingPlanned: ringingFig.planned,
     ringingToleranceMm: tol,
     plannedAccelMPerS2: d.plannedAccelMmPerS2 !== null ? plannedAccel : null,
-    worstAccelMPerS2: axes.worst.accelMaxMPerS2,
-    bestAccelMPerS2: bestAccel,
-    cruiseSpeedMPerS: envIn.cruiseMPerS,
-    worstSpeedMPerS: worstSpeed,
-    bestSpeedMPerS: bestSpeed,
+    worstAccelMPerS2: es.holdAccel.accelMPerS2,
+    worstAccelDirectionDeg: es.holdAccel.directionDeg,
+    cruiseSpeedMPerS: es.envIn.cruiseMPerS,
+    worstSpeedMPerS: es.worstSpeed.speedMPerS,
+    worstSpeedDirectionDeg: es.worstSpeed.directionDeg,
     travel: { xMm: t.xMm, yMm: t.yMm },
     outer: { xMm: d.frame.outerXMm, yMm: d.frame.outerYMm },
     wantedTravel: d.wantedTravel,
     toolKg: d.masses.toolKg,
     toolHoldN: d.toolMount ? d.toolMount.holdN : null,
     // With a planned acceleration the machine is meant to run at it; otherwise the best the motors give anywhere.
-    toolAccelMPerS2: d.plannedAccelMmPerS2 !== null ? plannedAccel : bestAccel,
+    toolAccelMPerS2: d.plannedAccelMmPerS2 !== null ? plannedAccel : es.bestAccel,
+    racking:
+      d.mechanism === 'hbot'
+        ? { momentNm: Math.abs(racking.peakMomentNm), ratingNm: racking.yawMomentRatingNm, ratingIsTypical: racking.yawMomentRatingIsTypical }
+        : null,
   });
-
+  const env = es.env;
   return {
     engineVersion: ENGINE_VERSION,
-    mechanism: mech,
+    mechanism: d.mechanism,
     name: d.name,
     kinematics: {
       matrix: k,
@@ -378,34 +478,20 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
         b: (Math.atan2(kinv[1][1], kinv[0][1]) * DEG + 360) % 360,
       },
     },
-    signConvention: {
-      motorDirection: d.motorDirection,
-      a: `A positive step of motor ${motorLabels[0]} alone moves the carriage toward ${words(0)}.`,
-      b: `A positive step of motor ${motorLabels[1]} alone moves the carriage toward ${words(1)}.`,
-    },
-    motors,
-    drive: {
-      pitchDiameterMm: pitchDiameter,
-      travelPerRevMm: travelPerRev,
-      stepsPerMm: (full * d.driver.microsteps) / travelPerRev,
-      fullStepMm: fullStep,
-      fullStepsPerRev: full,
-      microsteps: d.driver.microsteps,
-      microstepBeltMm: micro,
-      microstepMm,
-    },
+    ...motorsAndSigns(d, kinv, m.motorsOn),
+    drive,
     travel: { xMm: t.xMm, yMm: t.yMm, limitedBy: t.limitedBy },
     parking,
     mass: {
-      xKg: mm.xKg,
-      yKg: mm.yKg,
-      reflectedPerMotorKg: reflectedPerMotor,
-      motorEquivalentKg: { a: motorEq[0], b: motorEq[1] },
-      beltKg,
+      xKg: m.xKg,
+      yKg: m.yKg,
+      reflectedPerMotorKg: m.reflectedPerMotorKg,
+      motorEquivalentKg: { a: m.motorEq[0], b: m.motorEq[1] },
+      beltKg: m.beltKg,
       effectiveKg: env.directionsDeg.map((deg) =>
-        effectiveMassKg({ k, xKg: mm.xKg, yKg: mm.yKg, motorEquivalentKg: motorEq, directionRad: deg / DEG }),
+        effectiveMassKg({ k, xKg: m.xKg, yKg: m.yKg, motorEquivalentKg: m.motorEq, directionRad: deg / DEG }),
       ),
-      pulleyInertiaKgM2: { drive: jDrive, idler: jIdler, estimated },
+      pulleyInertiaKgM2: { drive: m.jDrive, idler: m.jIdler, estimated: m.estimated },
     },
     envelope: {
       directionsDeg: env.directionsDeg,
@@ -413,20 +499,14 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
       accelAtCruiseMPerS2: env.accelAtCruiseMPerS2,
       speedMaxMPerS: env.speedMaxMPerS,
       limitingMotor: env.limitingMotor,
-      axes,
-      cruiseSpeedMPerS: envIn.cruiseMPerS,
+      axes: es.axes,
+      cruiseSpeedMPerS: es.envIn.cruiseMPerS,
     },
     coupling: {
       speedShare: { a: env.speedShareA, b: env.speedShareB },
       forceShare: { a: env.forceShareA, b: env.forceShareB },
     },
-    torqueSpeed: {
-      source: tq.source,
-      speedRevPerS: speeds,
-      torqueNm: torques,
-      usableTorqueNm: torques.map((x) => x * d.torqueMargin),
-      operatingPoints: ops,
-    },
+    torqueSpeed: torqueChart(d, k, tq, es, m, rM),
     belts,
     stiffness: {
       xMm: map.xMm,
@@ -436,23 +516,25 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
       ringing: ringingFig,
       toleranceMm: tol,
     },
-    racking: {
-      momentPerNewtonM: perN,
-      turnSpacingMm: spacing,
-      peakForceXN: env.peakForceXN,
-      peakMomentNm: peakMoment,
-      guideSpanMm: guideSpan,
-      guideReactionN: guideReactionN({ momentNm: peakMoment, guideSpanMm: guideSpan }),
-    },
-    layout: drawing,
+    racking,
+    layout: layoutDrawing({
+      layout: t.layout,
+      states,
+      frame: d.frame,
+      beltWidthMm: d.belt.widthMm,
+      parkXMm: pcx,
+      parkYMm: pcy,
+      origin: { xMm: t.originXMm, yMm: t.originYMm },
+      travel: { xMm: t.xMm, yMm: t.yMm },
+    }),
     partsList: partsList({
       layout: t.layout,
       belts,
       yMotors: d.yMotors,
-      beltPitchMm: p,
+      beltPitchMm: d.belt.pitchMm,
       beltWidthMm: d.belt.widthMm,
-      driveTeeth: zD,
-      idlerTeeth: zI,
+      driveTeeth: d.pulley.driveTeeth,
+      idlerTeeth: d.pulley.idlerTeeth,
       stepAngleDeg: d.motor.stepAngleDeg,
       holdingTorqueNm: d.motor.holdingTorqueNm,
       ratedCurrentA: d.motor.ratedCurrentA,

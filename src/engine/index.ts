@@ -6,6 +6,7 @@ export { ENGINE_VERSION } from './version';
 export { EngineInputError, type InputIssue } from './errors';
 export {
   designInputSchema,
+  isTwoPhaseStepAngle,
   parseDesign,
   safeParseDesign,
   defaultDesign,
@@ -25,13 +26,22 @@ export {
   couplingShares,
 } from './kinematics';
 export { openBeltLengthMm, openBeltLengthExactMm, wrapAngleRad, teethInMesh } from './openBelt';
-export { spanFrequencyHz, tensionFromFrequencyN, workingTension } from './tension';
+export { spanFrequencyHz, tensionFromFrequencyN } from './tension';
+export { beltArmTensionsN, chainTensionChangesN } from './beltArmTensions';
+export { beltTensionOverTravel, convexHullIndices, type PullPairs, type BeltTensionInput, type LoopTensionResult } from './beltTensionMap';
+export { microstepFigures, type MicrostepFigures } from './microstep';
+export { TYPICAL_TOOTH_ALLOWABLE_2MM_6MM_N, TYPICAL_YAW_MOMENT_RATING_NM, typicalToothAllowableN } from './typicalValues';
+export { UNIT_OF_KIND, formatSignificant, renderQuantity } from './checkText';
 export { naturalFrequencyHz, spanStiffnessNPerM, ringingAmplitudeMm } from './vibration';
 export {
   motorTorqueNm,
+  pullOutTorqueNm,
   torqueSpeedFunction,
   torqueConstantNmPerA,
-  supplyLimitedCurrentA,
+  effectivePeakCurrentA,
+  modelTopSpeedRevPerS,
+  MODEL_TAIL_SHARE,
+  MODEL_TOP_FACTOR,
   interpolateTorqueCurve,
   motorHoldingStiffnessNmPerRad,
 } from './motorTorque';
@@ -58,7 +68,7 @@ export { movingMassKg, effectiveMassKg, pulleyInertiaEstimateKgM2 } from './mass
 export { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type EnvelopeInput, type EnvelopeResult } from './envelope';
 export { stiffnessMap, carriageStiffnessNPerM, type StiffnessInput, type StiffnessResult } from './stiffness';
 export { rackingMomentPerNewtonM, rackingTurnSpacingMm, guideReactionN } from './racking';
-export { designChecks, teethInMeshFactor } from './checks';
+export { designChecks, teethInMeshFactor, type CheckInput } from './checks';
 export { CAUTIONS } from './cautions';
 export { partsList, CLAMP_ALLOWANCE_MM } from './partsList';
 export { evaluateDesign, evaluateValidDesign, ENVELOPE_DIRECTIONS } from './evaluateDesign';
@@ -71,12 +81,16 @@ export type {
   TorquePoint,
   DesignResult,
   Check,
+  CheckQuantity,
+  QuantityKind,
   Severity,
   Caution,
   AxisLimits,
   RingingFigure,
   BeltReport,
   BeltSpan,
+  BeltTension,
+  TensionPlace,
   LayoutDrawing,
   LayoutPart,
   LayoutBelt,

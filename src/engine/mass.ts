@@ -5,26 +5,39 @@ import type { Mechanism } from './types';
 /** Density of aluminium used for pulley estimates [kg/m³] (common handbook value, from memory). */
 export const ALUMINIUM_DENSITY_KG_PER_M3 = 2700;
 
-/** Axial length added to the belt width for flanges and hub when estimating a pulley [mm] (our estimate). */
-export const PULLEY_EXTRA_WIDTH_MM = 4;
+/** Belt section of a pulley: belt width plus this much [mm] (our estimate of common 2–3 mm pitch pulleys). */
+export const PULLEY_BELT_SECTION_EXTRA_MM = 1;
+/** Each of the two flanges: this much above the pitch circle [mm] and this thick [mm] (our estimate). */
+export const PULLEY_FLANGE_RISE_MM = 2;
+export const PULLEY_FLANGE_THICKNESS_MM = 1;
+/** Hub of a drive pulley (the set-screw collar): at least this diameter [mm] and this long [mm] (our estimate). */
+export const PULLEY_HUB_MIN_DIAMETER_MM = 16;
+export const PULLEY_HUB_LENGTH_MM = 7;
 
 /**
- * Estimated inertia of a pulley as a solid aluminium cylinder of its pitch diameter and (belt width + 4 mm)
- * length: J = ½·m·r² = ½·ρ·π·r⁴·w. Used when the design leaves the pulley inertia out; bores and teeth make
- * real pulleys lighter, so the estimate errs on the heavy side.
+ * Estimated inertia of an aluminium pulley built of coaxial solid cylinders (docs/masses-and-inertia.md):
+ * a belt section of the pitch diameter d and (belt width + 1 mm) length, two flanges of diameter d + 4 mm and
+ * 1 mm thickness, and — for a drive pulley — a set-screw hub of diameter max(d + 4 mm, 16 mm) and 7 mm length.
+ * Each cylinder adds ½·ρ·π·r⁴·length. Bore and tooth gaps are left out (they remove little inertia, which sits
+ * at the rim); idlers carry bearings instead of a hub. For a 20-tooth 2 mm pulley on a 6 mm belt this is about
+ * 3.4 times the old solid-cylinder figure, close to weighed pulleys.
  * @param args.teeth - tooth count [-]
  * @param args.pitchMm - belt pitch [mm]
  * @param args.beltWidthMm - belt width [mm]
+ * @param args.hasHub - true for a drive pulley (default), false for an idler
  * @returns inertia about the axle [kg·m²]
- * @see solid-cylinder moment of inertia, any dynamics text (e.g. Meriam & Kraige, Dynamics, appendix; from memory)
+ * @see solid-cylinder moment of inertia ½·m·r², any dynamics text (e.g. Meriam & Kraige, Dynamics, appendix; from memory)
  */
-export function pulleyInertiaEstimateKgM2(args: { teeth: number; pitchMm: number; beltWidthMm: number }): number {
+export function pulleyInertiaEstimateKgM2(args: { teeth: number; pitchMm: number; beltWidthMm: number; hasHub?: boolean }): number {
   const z = requireNumber('pulleyInertiaEstimateKgM2', 'teeth', args?.teeth, 0, 10000, true);
   const p = requireNumber('pulleyInertiaEstimateKgM2', 'pitchMm', args?.pitchMm, 0, 1000, true);
   const w = requireNumber('pulleyInertiaEstimateKgM2', 'beltWidthMm', args?.beltWidthMm, 0, 10000, true);
-  const r = (z * p) / (2 * Math.PI) / 1000;
-  const len = (w + PULLEY_EXTRA_WIDTH_MM) / 1000;
-  return 0.5 * ALUMINIUM_DENSITY_KG_PER_M3 * Math.PI * r ** 4 * len;
+  const dMm = (z * p) / Math.PI;
+  const disc = (diameterMm: number, lengthMm: number) => 0.5 * ALUMINIUM_DENSITY_KG_PER_M3 * Math.PI * (diameterMm / 2000) ** 4 * (lengthMm / 1000);
+  const flangeMm = dMm + 2 * PULLEY_FLANGE_RISE_MM;
+  let j = disc(dMm, w + PULLEY_BELT_SECTION_EXTRA_MM) + 2 * disc(flangeMm, PULLEY_FLANGE_THICKNESS_MM);
+  if (args.hasHub !== false) j += disc(Math.max(flangeMm, PULLEY_HUB_MIN_DIAMETER_MM), PULLEY_HUB_LENGTH_MM);
+  return j;
 }
 
 /**

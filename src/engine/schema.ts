@@ -50,6 +50,14 @@ const beltSchema = z.strictObject({
   axialStiffnessN: pos(1e8, 'belt axial stiffness EA'),
   allowableTensionN: pos(1e6, 'allowable tension'),
   minPulleyTeeth: int(1, 500, 'minimum pulley teeth').default(12),
+  /** Allowable load per tooth in mesh; null → the typical value of {@link typicalToothAllowableN}. */
+  toothAllowableN: pos(100000, 'allowable load per tooth').nullable().default(null),
+});
+
+/** Y guides of the gantry (docs/racking.md). */
+const guideSchema = z.strictObject({
+  /** Rated moment of the Y guides about the vertical axis; null → {@link TYPICAL_YAW_MOMENT_RATING_NM}. */
+  yawMomentRatingNm: pos(100000, 'guide yaw moment rating').nullable().default(null),
 });
 
 const pulleySchema = z.strictObject({
@@ -61,9 +69,31 @@ const pulleySchema = z.strictObject({
   idlerInertiaKgM2: num(0, 1, 'idler inertia').nullable().default(null),
 });
 
+/** Step angles of three- and five-phase hybrids (60°/N_r, 36°/N_r with 50 or 100 rotor teeth): refused. */
+const MULTI_PHASE_STEP_ANGLES_DEG = [1.2, 0.6, 0.72, 0.36] as const;
+
+/**
+ * True for a step angle a two-phase hybrid or permanent-magnet stepper can have: 90°/N_r with a whole number of
+ * rotor teeth (or pole pairs) N_r, and not one of the usual three- or five-phase angles, which the torque model
+ * does not cover (docs/motor-torque.md §1).
+ * @param stepAngleDeg - full-step angle [°]
+ * @returns whether the motor is modelled
+ */
+export function isTwoPhaseStepAngle(stepAngleDeg: number): boolean {
+  const nr = 90 / stepAngleDeg;
+  if (Math.abs(nr - Math.round(nr)) > 1e-6 * nr) return false;
+  return !MULTI_PHASE_STEP_ANGLES_DEG.some((a) => Math.abs(stepAngleDeg - a) < 1e-9);
+}
+
+const stepAngleSchema = num(0.1, 15, 'step angle').refine(isTwoPhaseStepAngle, {
+  message:
+    'step angle must be that of a two-phase motor, 90° divided by a whole number of rotor teeth (1.8°, 0.9°, 3.6°, 7.5°, 15° …); ' +
+    'three- and five-phase angles such as 1.2° or 0.72° are not modelled',
+});
+
 const motorSchema = z
   .strictObject({
-    stepAngleDeg: num(0.1, 15, 'step angle'),
+    stepAngleDeg: stepAngleSchema,
     holdingTorqueNm: pos(100, 'holding torque'),
     ratedCurrentA: pos(50, 'rated current'),
     phaseResistanceOhm: num(0, 1000, 'phase resistance'),
@@ -115,11 +145,12 @@ const sign = z.union([z.literal(1), z.literal(-1)], { error: 'motor direction mu
 /**
  * zod schema of one design document (format.md). Strict: unknown fields are rejected with their path.
  * Optional fields and their defaults: description "", motorDirection {a:1,b:1}, yMotors 1,
- * frame.clearanceMm 5, belt.minPulleyTeeth 12, pulley.*InertiaKgM2 null (estimated), motor.torqueCurve null,
+ * frame.clearanceMm 5, belt.minPulleyTeeth 12, belt.toothAllowableN null (typical value), pulley.*InertiaKgM2 null
+ * (estimated), guide.yawMomentRatingNm null (typical value), motor.torqueCurve null,
  * motor.maxSpeedRevPerS null, frictionN {x:0,y:0}, torqueMargin 0.6, toolMount null, map {points:41},
  * ringingToleranceMm 0.02, plannedAccelMmPerS2 null (the envelope's worst direction), wantedTravel null.
  * Cross-field rule: yMotors 2 only for "cartesian". The frame must leave travel (checked by {@link parseDesign}).
- * @see /work/shared/design/format.md
+ * @see docs/README.md (the models) and src/engine/README.md (the design document)
  */
 export const designInputSchema = z
   .strictObject({
@@ -145,6 +176,7 @@ export const designInputSchema = z
     pretensionN: pos(100000, 'pretension'),
     torqueMargin: pos(1, 'torque margin').default(0.6),
     cruiseSpeedMmPerS: pos(100000, 'cruise speed'),
+    guide: guideSchema.default({ yawMomentRatingNm: null }),
     toolMount: z
       .strictObject({ holdN: pos(100000, 'tool mount hold force') })
       .nullable()
@@ -246,7 +278,15 @@ export function defaultDesign(mechanism: Mechanism): DesignInput {
     motorDirection: { a: 1, b: 1 },
     yMotors: 1,
     frame: { outerXMm: 460, outerYMm: 460, extrusionMm: 20, carriageXMm: 60, carriageYMm: 50, gantryYMm: 40, clearanceMm: 5 },
-    belt: { pitchMm: 2, widthMm: 6, linearMassKgPerM: 0.0075, axialStiffnessN: 40000, allowableTensionN: 250, minPulleyTeeth: 12 },
+    belt: {
+      pitchMm: 2,
+      widthMm: 6,
+      linearMassKgPerM: 0.0075,
+      axialStiffnessN: 40000,
+      allowableTensionN: 250,
+      minPulleyTeeth: 12,
+      toothAllowableN: null,
+    },
     pulley: { driveTeeth: 20, idlerTeeth: 20, driveInertiaKgM2: null, idlerInertiaKgM2: null },
     motor: {
       stepAngleDeg: 1.8,
@@ -262,6 +302,7 @@ export function defaultDesign(mechanism: Mechanism): DesignInput {
     driver: { microsteps: 16, supplyV: 24, currentRmsA: 1.2 },
     masses: { carriageKg: 0.3, toolKg: 0.1, gantryKg: mechanism === 'cartesian' ? 0.5 : 0.45 },
     frictionN: { x: 2, y: 3 },
+    guide: { yawMomentRatingNm: null },
     pretensionN: 40,
     torqueMargin: 0.6,
     cruiseSpeedMmPerS: 300,

@@ -31,17 +31,3 @@ export function tensionFromFrequencyN(args: { frequencyHz: number; linearMassKgP
   const l = requireNumber(s, 'spanMm', args?.spanMm, 0, Infinity, true) / 1000;
   return 4 * mu * l * l * f * f;
 }
-
-/**
- * Tight- and slack-side tension of a belt pre-tensioned to T0 carrying a pull F: the pull is shared by the
- * two arms, so tight = T0 + F/2 and slack = T0 − F/2.
- * @param args.pretensionN - static tension of each span T0 [N]
- * @param args.pullN - peak working pull the motor puts on the belt F [N]
- * @returns tight- and slack-side tension [N]
- * @see common practice (pretension ≥ half the peak pull keeps the slack side taut)
- */
-export function workingTension(args: { pretensionN: number; pullN: number }): { tightSideN: number; slackSideN: number } {
-  const t0 = requireNumber('workingTension', 'pretensionN', args?.pretensionN, 0);
-  const f = Math.abs(requireNumber('workingTension', 'pullN', args?.pullN));
-  return { tightSideN: t0 + f / 2, slackSideN: t0 - f / 2 };
-}

@@ -36,12 +36,36 @@ export interface DriverSpec {
 /** Severity of one check. */
 export type Severity = 'ok' | 'warn' | 'fail';
 
-/** One design check (engine.md §8). */
+/** What a number means, with the unit fixed by the name (values are always in that unit). */
+export type QuantityKind =
+  | 'lengthMm'
+  | 'forceN'
+  | 'speedMPerS'
+  | 'accelMPerS2'
+  | 'torqueNm'
+  | 'momentNm'
+  | 'massKg'
+  | 'currentA'
+  | 'voltageV'
+  | 'powerW'
+  | 'frequencyHz'
+  | 'timeS'
+  | 'ratio'
+  | 'count'
+  | 'angleDeg';
+
+/** A number inside a check's text, with its kind (so a client can show it in the user's unit system). */
+export interface CheckQuantity {
+  value: number;
+  kind: QuantityKind;
+}
+
+/** One design check (docs/checks.md). */
 export interface Check {
-  /** Stable id, e.g. "torque-margin", "belt-working-tension:A". */
+  /** Stable id for programs, e.g. "belt-slack" (the belt is in `subject`); never shown to users. */
   id: string;
   severity: Severity;
-  /** One sentence for the designer. */
+  /** One sentence for the designer: `parts` rendered in metric units. */
   message: string;
   /** The design's value, or null when the check has no single number. */
   value: number | null;
@@ -49,6 +73,12 @@ export interface Check {
   limit: number | null;
   /** Unit of value and limit ("" when dimensionless). */
   unit: string;
+  /** Kind of `value` and `limit` (so a client can show them in the user's unit system). */
+  kind: QuantityKind;
+  /** The message as text pieces and quantities; `message` is these rendered in metric. */
+  parts: (string | CheckQuantity)[];
+  /** Plain-words subject the check is about, e.g. "Belt A" (null when it is about the whole design). */
+  subject: string | null;
 }
 
 /** One safety caution shown on every sheet and on the Design desk (engine.md §9). */
@@ -111,11 +141,45 @@ export interface BeltReport {
   arms: { from: string; to: string; lengthMm: number }[];
   /** Belt mass [kg]. */
   massKg: number;
+  /** Largest pull any drive pulley of this belt transmits anywhere on the envelope [N]. */
   peakPullN: number;
-  tightSideN: number;
-  slackSideN: number;
-  /** Allowable tight side after the teeth-in-mesh derating [N]. */
-  allowableTensionN: number;
+  /** Working tension over the travel and every envelope direction (docs/belt-tension.md). */
+  tension: BeltTension;
+}
+
+/** Where on the travel (travel coordinates) and in which direction of travel a worst tension occurs. */
+export interface TensionPlace {
+  xMm: number;
+  yMm: number;
+  directionDeg: number;
+}
+
+/** A belt's working tension: worst tight and slack side, their places, the allowables and the maps. */
+export interface BeltTension {
+  /** Tension of every span with no pull [N]. */
+  pretensionN: number;
+  /** Highest tension of any piece of the belt over the travel grid and every envelope direction [N]. */
+  worstTightN: number;
+  worstTightAt: TensionPlace;
+  /** Lowest tension of any piece of the belt over the travel grid and every envelope direction [N]. */
+  worstSlackN: number;
+  worstSlackAt: TensionPlace;
+  /** The belt's allowable tension exactly as typed (cords; no teeth-in-mesh factor) [N]. */
+  tensileAllowableN: number;
+  /** Largest pull a drive pulley of this belt transmits [N]. */
+  peakPullN: number;
+  /** Load per tooth in mesh at the peak pull: peak pull ÷ counted teeth [N]. */
+  toothLoadN: number;
+  /** Allowable load per tooth in mesh, as typed or the typical value [N]. */
+  toothAllowableN: number;
+  /** True when toothAllowableN is the typical value (the design gave none). */
+  toothAllowableIsTypical: boolean;
+  /** Teeth counted for the tooth load: at most 6, fewer derated by 20 % per missing tooth (common practice). */
+  countedTeeth: number;
+  /** Highest tension over every direction at each point of the stiffness-map grid [N], indexed [iy][ix]. */
+  tightMapN: number[][];
+  /** Lowest tension over every direction at each point of the stiffness-map grid [N], indexed [iy][ix]. */
+  slackMapN: number[][];
 }
 
 /** A pulley, idler or clamp as drawn at the parking position. */
@@ -201,7 +265,8 @@ export interface DesignResult {
     fullStepsPerRev: number;
     microsteps: number;
     microstepBeltMm: number;
-    microstepMm: { x: number; y: number; diagonal: number };
+    /** Carriage figures of one microstep, each named for what it is (docs/resolution.md). */
+    microstep: { oneMotorMm: number; oneMotorDirectionDeg: number; axisMm: number; diagonalMm: number };
   };
   travel: {
     xMm: number;
@@ -235,6 +300,10 @@ export interface DesignResult {
   };
   torqueSpeed: {
     source: 'model' | 'table';
+    /** Speed where the usable curve ends: the model's tail cut, a table's last row or the speed limit [rev/s]. */
+    topRevPerS: number;
+    /** Back-EMF equal to the supply, V/k_e: no ceiling in this model, shown for orientation [rev/s]. */
+    backEmfSpeedRevPerS: number;
     speedRevPerS: number[];
     torqueNm: number[];
     /** Torque the design may use (margin applied) [N·m]. */
@@ -251,6 +320,9 @@ export interface DesignResult {
     toleranceMm: number;
   };
   racking: {
+    /** Rated moment of the Y guides about the vertical axis, as typed or the typical value [N·m]. */
+    yawMomentRatingNm: number;
+    yawMomentRatingIsTypical: boolean;
     momentPerNewtonM: number;
     turnSpacingMm: number;
     peakForceXN: number;

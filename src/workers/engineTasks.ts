@@ -24,7 +24,7 @@ export interface SweepSpec {
 /** One point of a sweep: the input value and the four figures plotted against it (null when invalid). */
 export interface SweepPoint {
   value: number;
-  /** Carriage travel per microstep along X [mm]. */
+  /** Smallest pure X or Y carriage move, one microstep of belt [mm]. */
   resolutionMm: number | null;
   /** Top speed in the worst direction [m/s]. */
   speedMaxMPerS: number | null;
@@ -114,7 +114,7 @@ export function sweepPoint(design: Record<string, unknown>, path: string, value:
   const r = outcome.result;
   return {
     value,
-    resolutionMm: r.drive.microstepMm.x,
+    resolutionMm: r.drive.microstep.axisMm,
     speedMaxMPerS: r.envelope.axes.worst.speedMaxMPerS,
     accelMaxMPerS2: r.envelope.axes.worst.accelMaxMPerS2,
     lowestFrequencyHz: r.stiffness.min.frequencyHz,

@@ -1,0 +1,295 @@
+import type { BeltLayout, LoopModel } from './beltLayout';
+import type { Matrix2 } from './linalg';
+import type { TensionPlace } from './types';
+
+// Model and derivation: docs/belt-tension.md §3–4.
+
+/** Belt pulls of the two motor coordinates at the points of the envelope (SI, signed as K's rows). */
+export interface PullPairs {
+  /** Pull of coordinate A and B at each point [N]. */
+  aN: Float64Array;
+  bN: Float64Array;
+  /** Direction of travel of each point [°]. */
+  directionDeg: Float64Array;
+}
+
+
+/** Tension of one belt over the travel and every envelope direction. */
+export interface LoopTensionResult {
+  loopId: string;
+  /** Largest pull any of the loop's drive pulleys transmits [N]. */
+  peakPullN: number;
+  worstTightN: number;
+  worstTightAt: TensionPlace;
+  worstSlackN: number;
+  worstSlackAt: TensionPlace;
+  /** Highest tension of any piece at each grid point, over every direction [N], indexed [iy][ix]. */
+  tightMapN: number[][];
+  /** Lowest tension of any piece at each grid point, over every direction [N], indexed [iy][ix]. */
+  slackMapN: number[][];
+}
+
+/** What the tension map needs. */
+export interface BeltTensionInput {
+  models: LoopModel[];
+  motorVars: BeltLayout['motorVars'];
+  /** Motor-to-carriage matrix K (motor directions applied). */
+  k: Matrix2;
+  pretensionN: number;
+  pairs: PullPairs;
+  /** Carriage centre at travel (0, 0) in frame coordinates [mm]. */
+  originXMm: number;
+  originYMm: number;
+  /** Grid in travel coordinates [mm] (the stiffness-map grid). */
+  xMm: readonly number[];
+  yMm: readonly number[];
+}
+
+/**
+ * Indices of the convex hull of a planar point set (Andrew's monotone chain), counter-clockwise. A linear
+ * function's extremes over the set are its extremes over these points.
+ * @param xs - first coordinates
+ * @param ys - second coordinates
+ * @returns indices of the hull's vertices
+ * @see A. M. Andrew, "Another efficient algorithm for convex hulls in two dimensions", Inf. Proc. Letters 9 (1979) (from memory)
+ */
+export function convexHullIndices(xs: ArrayLike<number>, ys: ArrayLike<number>): number[] {
+  const idx = Array.from({ length: xs.length }, (_, i) => i).sort((i, j) => xs[i] - xs[j] || ys[i] - ys[j]);
+  if (idx.length < 3) return idx;
+  const cross = (o: number, a: number, b: number) => (xs[a] - xs[o]) * (ys[b] - ys[o]) - (ys[a] - ys[o]) * (xs[b] - xs[o]);
+  const lower: number[] = [];
+  for (const i of idx) {
+    while (lower.length >= 2 && cross(lower[lower.length - 2], lower[lower.length - 1], i) <= 0) lower.pop();
+    lower.push(i);
+  }
+  const upper: number[] = [];
+  for (let n = idx.length - 1; n >= 0; n--) {
+    const i = idx[n];
+    while (upper.length >= 2 && cross(upper[upper.length - 2], upper[upper.length - 1], i) <= 0) upper.pop();
+    upper.push(i);
+  }
+  lower.pop();
+  upper.pop();
+  return lower.concat(upper);
+}
+
+/** One loop prepared for the grid: affine piece lengths and, per piece, S coefficients per coordinate. */
+interface PreparedLoop {
+  l0: Float64Array;
+  gx: Float64Array;
+  gy: Float64Array;
+  /** S_{i,c}: Σ over the drive pulleys before piece i of σ_k/n_c for coordinate c (0 = A, 1 = B). */
+  sA: Float64Array;
+  sB: Float64Array;
+  /** Coordinates that pull this loop. */
+  usesA: boolean;
+  usesB: boolean;
+  /** Largest |σ/n| per coordinate: share of a coordinate's pull one drive pulley of this loop transmits. */
+  shareA: number;
+  shareB: number;
+}
+
+function prepareLoop(model: LoopModel, inp: BeltTensionInput, nodesPerCoord: [number, number]): PreparedLoop {
+  const n = model.pieces.length;
+  const p: PreparedLoop = {
+    l0: new Float64Array(n),
+    gx: new Float64Array(n),
+    gy: new Float64Array(n),
+    sA: new Float64Array(n),
+    sB: new Float64Array(n),
+    usesA: false,
+    usesB: false,
+    shareA: 0,
+    shareB: 0,
+  };
+  let cx = 0;
+  let cy = 0;
+  model.pieces.forEach((pc, i) => {
+    p.l0[i] = pc.l0Mm;
+    p.gx[i] = pc.gx;
+    p.gy[i] = pc.gy;
+    if (i === 0) return;
+    // The drive pulley between piece i−1 and piece i.
+    const prev = model.pieces[i - 1];
+    // Belt it passes on per unit carriage move: −Σ_{j<i} ∂Lⱼ/∂q (an inextensible belt, clamped at its start).
+    cx -= prev.gx;
+    cy -= prev.gy;
+    const coord = inp.motorVars.find((v) => v.id === model.nodeMotors[i - 1])?.coordinate ?? 0;
+    const row = inp.k[coord];
+    // That flow is ±(K row) of its coordinate; σ says which way, so that F_pulley = σ·F_coordinate / n_coordinate.
+    const share = (cx * row[0] + cy * row[1] >= 0 ? 1 : -1) / nodesPerCoord[coord];
+    p.sA[i] = p.sA[i - 1] + (coord === 0 ? share : 0);
+    p.sB[i] = p.sB[i - 1] + (coord === 1 ? share : 0);
+    if (coord === 0) {
+      p.usesA = true;
+      p.shareA = Math.max(p.shareA, Math.abs(share));
+    } else {
+      p.usesB = true;
+      p.shareB = Math.max(p.shareB, Math.abs(share));
+    }
+  });
+  return p;
+}
+
+/**
+ * Worst tight and slack side of every belt over the travel grid and every envelope direction, at rest and at
+ * cruise. At each grid point the piece tensions are linear in the coordinates' pulls (F_A, F_B), so their extremes
+ * over all directions are their extremes over the convex hull of the envelope's pull pairs (computed once).
+ * @param inp - loop models, motor variables, K, pretension, pull pairs and the grid
+ * @returns one result per loop
+ * @see docs/belt-tension.md §4
+ */
+export function beltTensionOverTravel(inp: BeltTensionInput): LoopTensionResult[] {
+  const nodesPerCoord: [number, number] = [0, 0];
+  for (const m of inp.models)
+    for (const v of m.nodeMotors) nodesPerCoord[inp.motorVars.find((mv) => mv.id === v)?.coordinate ?? 0] += 1;
+  nodesPerCoord[0] = Math.max(1, nodesPerCoord[0]);
+  nodesPerCoord[1] = Math.max(1, nodesPerCoord[1]);
+  const { aN, bN, directionDeg } = inp.pairs;
+  const hull = convexHullIndices(aN, bN);
+  let maxAbsA = 0;
+  let maxAbsB = 0;
+  for (let i = 0; i < aN.length; i++) {
+    maxAbsA = Math.max(maxAbsA, Math.abs(aN[i]));
+    maxAbsB = Math.max(maxAbsB, Math.abs(bN[i]));
+  }
+  return inp.models.map((model) => loopOverTravel(model, prepareLoop(model, inp, nodesPerCoord), inp, hull, [maxAbsA, maxAbsB], directionDeg));
+}
+
+/** Index of the extreme vertex (sign 1: largest, −1: smallest) of ca·x + cb·y, walking from `j` round the polygon. */
+function climb(va: Float64Array, vb: Float64Array, ca: number, cb: number, j: number, sign: number): number {
+  const nv = va.length;
+  let best = sign * (ca * va[j] + cb * vb[j]);
+  for (;;) {
+    const next = j + 1 === nv ? 0 : j + 1;
+    const prev = j === 0 ? nv - 1 : j - 1;
+    const fn = sign * (ca * va[next] + cb * vb[next]);
+    const fp = sign * (ca * va[prev] + cb * vb[prev]);
+    if (fn > best && fn >= fp) {
+      j = next;
+      best = fn;
+    } else if (fp > best) {
+      j = prev;
+      best = fp;
+    } else return j;
+  }
+}
+
+function loopOverTravel(
+  model: LoopModel,
+  p: PreparedLoop,
+  inp: BeltTensionInput,
+  hull: number[],
+  maxAbs: [number, number],
+  directionDeg: Float64Array,
+): LoopTensionResult {
+  const { aN, bN } = inp.pairs;
+  // Only the hull's vertices matter; a loop pulled by one coordinate needs only that coordinate's extremes.
+  let verts = hull;
+  if (!p.usesB || !p.usesA) {
+    const vals = p.usesB ? bN : aN;
+    let lo = 0;
+    let hi = 0;
+    for (let i = 1; i < vals.length; i++) {
+      if (vals[i] < vals[lo]) lo = i;
+      if (vals[i] > vals[hi]) hi = i;
+    }
+    verts = lo === hi ? [lo] : [lo, hi];
+  }
+  const nv = verts.length;
+  const va = new Float64Array(nv);
+  const vb = new Float64Array(nv);
+  verts.forEach((v, j) => {
+    va[j] = aN[v];
+    vb[j] = bN[v];
+  });
+  const n = p.l0.length;
+  const start = new Int32Array(2 * n);
+  const t0 = inp.pretensionN;
+  let worstTight = -Infinity;
+  let worstSlack = Infinity;
+  let tightAt = { ix: 0, iy: 0, v: verts[0] };
+  let slackAt = { ix: 0, iy: 0, v: verts[0] };
+  const tightMap: number[][] = [];
+  const slackMap: number[][] = [];
+  for (let iy = 0; iy < inp.yMm.length; iy++) {
+    const cy = inp.originYMm + inp.yMm[iy];
+    const tRow = new Array<number>(inp.xMm.length);
+    const sRow = new Array<number>(inp.xMm.length);
+    for (let ix = 0; ix < inp.xMm.length; ix++) {
+      const cx = inp.originXMm + inp.xMm[ix];
+      let total = 0;
+      let uA = 0;
+      let uB = 0;
+      for (let i = 0; i < n; i++) {
+        const l = Math.max(1e-3, p.l0[i] + p.gx[i] * cx + p.gy[i] * cy);
+        total += l;
+        uA += l * p.sA[i];
+        uB += l * p.sB[i];
+      }
+      uA /= total;
+      uB /= total;
+      let hiHere = -Infinity;
+      let loHere = Infinity;
+      let hiV = 0;
+      let loV = 0;
+      for (let i = 0; i < n; i++) {
+        const ca = uA - p.sA[i];
+        const cb = uB - p.sB[i];
+        // A linear function along a convex polygon's boundary rises to one maximum and falls to one minimum, so a
+        // walk from the previous grid point's extreme vertex (the coefficients change little) finds the new one.
+        const o = i * 2;
+        let jh = start[o];
+        let jl = start[o + 1];
+        if (nv > 2) {
+          jh = climb(va, vb, ca, cb, jh, 1);
+          jl = climb(va, vb, ca, cb, jl, -1);
+        } else if (nv === 2) {
+          const f0 = ca * va[0] + cb * vb[0];
+          const f1 = ca * va[1] + cb * vb[1];
+          jh = f1 > f0 ? 1 : 0;
+          jl = f1 < f0 ? 1 : 0;
+        }
+        start[o] = jh;
+        start[o + 1] = jl;
+        const th = ca * va[jh] + cb * vb[jh];
+        const tl = ca * va[jl] + cb * vb[jl];
+        if (th > hiHere) {
+          hiHere = th;
+          hiV = jh;
+        }
+        if (tl < loHere) {
+          loHere = tl;
+          loV = jl;
+        }
+      }
+      tRow[ix] = Math.round((t0 + hiHere) * 1000) / 1000;
+      sRow[ix] = Math.round((t0 + loHere) * 1000) / 1000;
+      if (t0 + hiHere > worstTight + 1e-9) {
+        worstTight = t0 + hiHere;
+        tightAt = { ix, iy, v: verts[hiV] };
+      }
+      if (t0 + loHere < worstSlack - 1e-9) {
+        worstSlack = t0 + loHere;
+        slackAt = { ix, iy, v: verts[loV] };
+      }
+    }
+    tightMap.push(tRow);
+    slackMap.push(sRow);
+  }
+  const place = (w: { ix: number; iy: number; v: number }): TensionPlace => ({
+    xMm: inp.xMm[w.ix],
+    yMm: inp.yMm[w.iy],
+    directionDeg: directionDeg[w.v],
+  });
+  return {
+    loopId: model.loopId,
+    peakPullN: Math.max(p.shareA * maxAbs[0], p.shareB * maxAbs[1]),
+    worstTightN: worstTight,
+    worstTightAt: place(tightAt),
+    worstSlackN: worstSlack,
+    worstSlackAt: place(slackAt),
+    tightMapN: tightMap,
+    slackMapN: slackMap,
+  };
+}
