@@ -13,7 +13,6 @@ export interface PullPairs {
   directionDeg: Float64Array;
 }
 
-
 /** Tension of one belt over the travel and every envelope direction. */
 export interface LoopTensionResult {
   loopId: string;
@@ -141,8 +140,7 @@ function prepareLoop(model: LoopModel, inp: BeltTensionInput, nodesPerCoord: [nu
  */
 export function beltTensionOverTravel(inp: BeltTensionInput): LoopTensionResult[] {
   const nodesPerCoord: [number, number] = [0, 0];
-  for (const m of inp.models)
-    for (const v of m.nodeMotors) nodesPerCoord[inp.motorVars.find((mv) => mv.id === v)?.coordinate ?? 0] += 1;
+  for (const m of inp.models) for (const v of m.nodeMotors) nodesPerCoord[inp.motorVars.find((mv) => mv.id === v)?.coordinate ?? 0] += 1;
   nodesPerCoord[0] = Math.max(1, nodesPerCoord[0]);
   nodesPerCoord[1] = Math.max(1, nodesPerCoord[1]);
   const { aN, bN, directionDeg } = inp.pairs;
@@ -153,7 +151,9 @@ export function beltTensionOverTravel(inp: BeltTensionInput): LoopTensionResult[
     maxAbsA = Math.max(maxAbsA, Math.abs(aN[i]));
     maxAbsB = Math.max(maxAbsB, Math.abs(bN[i]));
   }
-  return inp.models.map((model) => loopOverTravel(model, prepareLoop(model, inp, nodesPerCoord), inp, hull, [maxAbsA, maxAbsB], directionDeg));
+  return inp.models.map((model) =>
+    loopOverTravel(model, prepareLoop(model, inp, nodesPerCoord), inp, hull, [maxAbsA, maxAbsB], directionDeg),
+  );
 }
 
 /** Index of the extreme vertex (sign 1: largest, −1: smallest) of ca·x + cb·y, walking from `j` round the polygon. */

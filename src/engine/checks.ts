@@ -87,7 +87,13 @@ function motorChecks(c: CheckInput): Check[] {
       limit: TORQUE_MARGIN_LIMIT,
       kind: 'ratio',
       parts: over
-        ? ['Torque margin ', qty(c.torqueMargin, 'ratio'), ' is above ', qty(TORQUE_MARGIN_LIMIT, 'ratio'), ': a stepper run that close to its pull-out torque risks lost steps (common practice: 50–70 %).']
+        ? [
+            'Torque margin ',
+            qty(c.torqueMargin, 'ratio'),
+            ' is above ',
+            qty(TORQUE_MARGIN_LIMIT, 'ratio'),
+            ': a stepper run that close to its pull-out torque risks lost steps (common practice: 50–70 %).',
+          ]
         : ['Torque margin ', qty(c.torqueMargin, 'ratio'), ' is within common practice (50–70 % of the pull-out torque).'],
     }),
     makeCheck({
@@ -97,7 +103,13 @@ function motorChecks(c: CheckInput): Check[] {
       limit: c.ratedCurrentA,
       kind: 'currentA',
       parts: above
-        ? ['Driver current (RMS) ', qty(c.currentRmsA, 'currentA'), ' is above the Rated current ', qty(c.ratedCurrentA, 'currentA'), ': the extra current buys no torque (the results use the rated current) and overheats the motor.']
+        ? [
+            'Driver current (RMS) ',
+            qty(c.currentRmsA, 'currentA'),
+            ' is above the Rated current ',
+            qty(c.ratedCurrentA, 'currentA'),
+            ': the extra current buys no torque (the results use the rated current) and overheats the motor.',
+          ]
         : ['Driver current (RMS) ', qty(c.currentRmsA, 'currentA'), ' is within the Rated current ', qty(c.ratedCurrentA, 'currentA'), '.'],
     }),
   ];
@@ -114,8 +126,20 @@ function pulleyCheck(c: CheckInput): Check {
     kind: 'count',
     unit: 'teeth',
     parts: small
-      ? ['A ', qty(minTeeth, 'count'), '-tooth pulley is smaller than the Smallest pulley for this belt, ', qty(c.minPulleyTeeth, 'count'), ' teeth.']
-      : ['The smallest pulley has ', qty(minTeeth, 'count'), ' teeth, at least the Smallest pulley for this belt (', qty(c.minPulleyTeeth, 'count'), ').'],
+      ? [
+          'A ',
+          qty(minTeeth, 'count'),
+          '-tooth pulley is smaller than the Smallest pulley for this belt, ',
+          qty(c.minPulleyTeeth, 'count'),
+          ' teeth.',
+        ]
+      : [
+          'The smallest pulley has ',
+          qty(minTeeth, 'count'),
+          ' teeth, at least the Smallest pulley for this belt (',
+          qty(c.minPulleyTeeth, 'count'),
+          ').',
+        ],
   });
 }
 
@@ -134,7 +158,7 @@ function beltChecks(c: CheckInput, b: BeltReport): Check[] {
   const tightOver = t.worstTightN > t.tensileAllowableN;
   const slackGone = t.worstSlackN <= 0;
   const ratchet = t.worstSlackN < RATCHET_WARN_SHARE * t.pretensionN;
-  const toothOver = t.toothLoadN > t.toothAllowableN;
+  const toothOver = t.toothLoadN > t.toothAllowableN || t.countedTeeth <= 0;
   const typical = t.toothAllowableIsTypical ? ' (typical value; enter the belt maker’s figure)' : '';
   return [
     makeCheck({
@@ -147,7 +171,13 @@ function beltChecks(c: CheckInput, b: BeltReport): Check[] {
       unit: 'teeth',
       parts:
         whole < MIN_TEETH_IN_MESH
-          ? [`${subject}: `, qty(whole, 'count'), ' teeth in mesh on the drive pulley (', qty(b.driveWrapDeg, 'angleDeg'), ' wrap); below 6 each missing tooth costs 20 % of the tooth capacity (common practice).']
+          ? [
+              `${subject}: `,
+              qty(whole, 'count'),
+              ' teeth in mesh on the drive pulley (',
+              qty(b.driveWrapDeg, 'angleDeg'),
+              ' wrap); below 6 each missing tooth costs 20 % of the tooth capacity (common practice).',
+            ]
           : [`${subject}: `, qty(whole, 'count'), ' teeth in mesh on the drive pulley, at least 6 (common practice).'],
     }),
     makeCheck({
@@ -174,8 +204,22 @@ function beltChecks(c: CheckInput, b: BeltReport): Check[] {
       limit: 0,
       kind: 'forceN',
       parts: slackGone
-        ? [`${subject}: the slack side goes slack (`, qty(t.worstSlackN, 'forceN'), ')', ...where(t.worstSlackAt), '; raise the Belt pretension above ', qty(t.pretensionN - t.worstSlackN, 'forceN'), ' or lower the pull.']
-        : [`${subject}: the slack side keeps at least `, qty(t.worstSlackN, 'forceN'), ' everywhere on the travel (lowest', ...where(t.worstSlackAt), ').'],
+        ? [
+            `${subject}: the slack side goes slack (`,
+            qty(t.worstSlackN, 'forceN'),
+            ')',
+            ...where(t.worstSlackAt),
+            '; raise the Belt pretension above ',
+            qty(t.pretensionN - t.worstSlackN, 'forceN'),
+            ' or lower the pull.',
+          ]
+        : [
+            `${subject}: the slack side keeps at least `,
+            qty(t.worstSlackN, 'forceN'),
+            ' everywhere on the travel (lowest',
+            ...where(t.worstSlackAt),
+            ').',
+          ],
     }),
     makeCheck({
       id: 'belt-ratcheting',
@@ -185,8 +229,18 @@ function beltChecks(c: CheckInput, b: BeltReport): Check[] {
       limit: RATCHET_WARN_SHARE * t.pretensionN,
       kind: 'forceN',
       parts: ratchet
-        ? [`${subject}: the slack side falls to `, qty(t.worstSlackN, 'forceN'), ', below ', qty(RATCHET_WARN_SHARE, 'ratio'), ' of the Belt pretension: under peak pull the belt may jump teeth on the drive pulley.']
-        : [`${subject}: the slack side keeps more than `, qty(RATCHET_WARN_SHARE, 'ratio'), ' of the Belt pretension, so the teeth stay seated.'],
+        ? [
+            `${subject}: the slack side falls to `,
+            qty(t.worstSlackN, 'forceN'),
+            ', below ',
+            qty(RATCHET_WARN_SHARE, 'ratio'),
+            ' of the Belt pretension: under peak pull the belt may jump teeth on the drive pulley.',
+          ]
+        : [
+            `${subject}: the slack side keeps more than `,
+            qty(RATCHET_WARN_SHARE, 'ratio'),
+            ' of the Belt pretension, so the teeth stay seated.',
+          ],
     }),
     makeCheck({
       id: 'belt-tooth-load',
@@ -218,8 +272,26 @@ function ringingCheck(c: CheckInput): Check {
     limit: c.ringingToleranceMm,
     kind: 'lengthMm',
     parts: over
-      ? ['At ', qty(c.ringingPlanned.accelMPerS2, 'accelMPerS2'), ' the carriage rings by about ', qty(amp, 'lengthMm'), ' at the weakest point, more than the Ringing tolerance ', qty(c.ringingToleranceMm, 'lengthMm'), '; keep the acceleration under ', qty(c.ringingPlanned.accelForToleranceMPerS2, 'accelMPerS2'), ' or stiffen the belts.']
-      : ['At ', qty(c.ringingPlanned.accelMPerS2, 'accelMPerS2'), ' the carriage rings by about ', qty(amp, 'lengthMm'), ' at the weakest point, within the Ringing tolerance ', qty(c.ringingToleranceMm, 'lengthMm'), '.'],
+      ? [
+          'At ',
+          qty(c.ringingPlanned.accelMPerS2, 'accelMPerS2'),
+          ' the carriage rings by about ',
+          qty(amp, 'lengthMm'),
+          ' at the weakest point, more than the Ringing tolerance ',
+          qty(c.ringingToleranceMm, 'lengthMm'),
+          '; keep the acceleration under ',
+          qty(c.ringingPlanned.accelForToleranceMPerS2, 'accelMPerS2'),
+          ' or stiffen the belts.',
+        ]
+      : [
+          'At ',
+          qty(c.ringingPlanned.accelMPerS2, 'accelMPerS2'),
+          ' the carriage rings by about ',
+          qty(amp, 'lengthMm'),
+          ' at the weakest point, within the Ringing tolerance ',
+          qty(c.ringingToleranceMm, 'lengthMm'),
+          '.',
+        ],
   });
 }
 
@@ -237,10 +309,34 @@ function planChecks(c: CheckInput): Check[] {
         kind: 'accelMPerS2',
         parts:
           a > lim
-            ? ['The Planned acceleration ', qty(a, 'accelMPerS2'), ' is more than the stage can hold moving at ', qty(c.worstAccelDirectionDeg, 'angleDeg'), ' (', qty(lim, 'accelMPerS2'), ', its worst direction up to the Cruise speed).']
+            ? [
+                'The Planned acceleration ',
+                qty(a, 'accelMPerS2'),
+                ' is more than the stage can hold moving at ',
+                qty(c.worstAccelDirectionDeg, 'angleDeg'),
+                ' (',
+                qty(lim, 'accelMPerS2'),
+                ', its worst direction up to the Cruise speed).',
+              ]
             : a > PLAN_WARN_SHARE * lim
-              ? ['The Planned acceleration ', qty(a, 'accelMPerS2'), ' is within 10 % of what the stage can hold moving at ', qty(c.worstAccelDirectionDeg, 'angleDeg'), ' (', qty(lim, 'accelMPerS2'), ').']
-              : ['The Planned acceleration ', qty(a, 'accelMPerS2'), ' is within what the stage can hold in every direction (worst ', qty(lim, 'accelMPerS2'), ' at ', qty(c.worstAccelDirectionDeg, 'angleDeg'), ').'],
+              ? [
+                  'The Planned acceleration ',
+                  qty(a, 'accelMPerS2'),
+                  ' is within 10 % of what the stage can hold moving at ',
+                  qty(c.worstAccelDirectionDeg, 'angleDeg'),
+                  ' (',
+                  qty(lim, 'accelMPerS2'),
+                  ').',
+                ]
+              : [
+                  'The Planned acceleration ',
+                  qty(a, 'accelMPerS2'),
+                  ' is within what the stage can hold in every direction (worst ',
+                  qty(lim, 'accelMPerS2'),
+                  ' at ',
+                  qty(c.worstAccelDirectionDeg, 'angleDeg'),
+                  ').',
+                ],
       }),
     );
   }
@@ -255,10 +351,34 @@ function planChecks(c: CheckInput): Check[] {
       kind: 'speedMPerS',
       parts:
         v > vl
-          ? ['The Cruise speed ', qty(v, 'speedMPerS'), ' is above the top speed moving at ', qty(c.worstSpeedDirectionDeg, 'angleDeg'), ' (', qty(vl, 'speedMPerS'), ', the worst direction).']
+          ? [
+              'The Cruise speed ',
+              qty(v, 'speedMPerS'),
+              ' is above the top speed moving at ',
+              qty(c.worstSpeedDirectionDeg, 'angleDeg'),
+              ' (',
+              qty(vl, 'speedMPerS'),
+              ', the worst direction).',
+            ]
           : v > PLAN_WARN_SHARE * vl
-            ? ['The Cruise speed ', qty(v, 'speedMPerS'), ' is within 10 % of the top speed moving at ', qty(c.worstSpeedDirectionDeg, 'angleDeg'), ' (', qty(vl, 'speedMPerS'), ').']
-            : ['The Cruise speed ', qty(v, 'speedMPerS'), ' is reachable in every direction (worst ', qty(vl, 'speedMPerS'), ' at ', qty(c.worstSpeedDirectionDeg, 'angleDeg'), ').'],
+            ? [
+                'The Cruise speed ',
+                qty(v, 'speedMPerS'),
+                ' is within 10 % of the top speed moving at ',
+                qty(c.worstSpeedDirectionDeg, 'angleDeg'),
+                ' (',
+                qty(vl, 'speedMPerS'),
+                ').',
+              ]
+            : [
+                'The Cruise speed ',
+                qty(v, 'speedMPerS'),
+                ' is reachable in every direction (worst ',
+                qty(vl, 'speedMPerS'),
+                ' at ',
+                qty(c.worstSpeedDirectionDeg, 'angleDeg'),
+                ').',
+              ],
     }),
   );
   return out;
@@ -297,7 +417,11 @@ function travelChecks(c: CheckInput): Check[] {
       kind: 'ratio',
       parts:
         share < TRAVEL_SHARE_WARN
-          ? ['Only ', qty(share, 'ratio'), ' of the frame size is usable travel along one axis; carriage, clearances or pulleys take most of it.']
+          ? [
+              'Only ',
+              qty(share, 'ratio'),
+              ' of the frame size is usable travel along one axis; carriage, clearances or pulleys take most of it.',
+            ]
           : ['At least ', qty(share, 'ratio'), ' of the frame size is usable travel along each axis.'],
     }),
   );
@@ -317,8 +441,24 @@ function toolChecks(c: CheckInput): Check[] {
       kind: 'forceN',
       parts:
         hold < TOOL_HOLD_MARGIN * need
-          ? ['The Tool mount hold force ', qty(hold, 'forceN'), ' is short of the ', qty(TOOL_HOLD_MARGIN * need, 'forceN'), ` the tool needs at `, qty(c.toolAccelMPerS2, 'accelMPerS2'), ` with a ${TOOL_HOLD_MARGIN}× margin.`]
-          : ['The Tool mount hold force ', qty(hold, 'forceN'), ` is at least ${TOOL_HOLD_MARGIN}× the `, qty(need, 'forceN'), ' the tool needs at ', qty(c.toolAccelMPerS2, 'accelMPerS2'), '.'],
+          ? [
+              'The Tool mount hold force ',
+              qty(hold, 'forceN'),
+              ' is short of the ',
+              qty(TOOL_HOLD_MARGIN * need, 'forceN'),
+              ` the tool needs at `,
+              qty(c.toolAccelMPerS2, 'accelMPerS2'),
+              ` with a ${TOOL_HOLD_MARGIN}× margin.`,
+            ]
+          : [
+              'The Tool mount hold force ',
+              qty(hold, 'forceN'),
+              ` is at least ${TOOL_HOLD_MARGIN}× the `,
+              qty(need, 'forceN'),
+              ' the tool needs at ',
+              qty(c.toolAccelMPerS2, 'accelMPerS2'),
+              '.',
+            ],
     }),
   ];
   if (need > 0) {
@@ -331,8 +471,19 @@ function toolChecks(c: CheckInput): Check[] {
         limit: TOOL_RELEASE_FACTOR * need,
         kind: 'forceN',
         parts: tight
-          ? ['The Tool mount hold force ', qty(hold, 'forceN'), ` is more than ${TOOL_RELEASE_FACTOR}× the working load `, qty(need, 'forceN'), ': it will hardly let go in a crash.']
-          : ['The Tool mount hold force is at most ', `${TOOL_RELEASE_FACTOR}× the working load `, qty(need, 'forceN'), ', so it can still let go in a crash.'],
+          ? [
+              'The Tool mount hold force ',
+              qty(hold, 'forceN'),
+              ` is more than ${TOOL_RELEASE_FACTOR}× the working load `,
+              qty(need, 'forceN'),
+              ': it will hardly let go in a crash.',
+            ]
+          : [
+              'The Tool mount hold force is at most ',
+              `${TOOL_RELEASE_FACTOR}× the working load `,
+              qty(need, 'forceN'),
+              ', so it can still let go in a crash.',
+            ],
       }),
     );
   }

@@ -118,8 +118,10 @@ function massModel(d: DesignInput, t: TravelInfo, states: LoopState[], rM: numbe
     motorKg: d.motor.massKg,
   });
   const w = d.belt.widthMm;
-  const jDrive = d.pulley.driveInertiaKgM2 ?? pulleyInertiaEstimateKgM2({ teeth: d.pulley.driveTeeth, pitchMm: p, beltWidthMm: w, hasHub: true });
-  const jIdler = d.pulley.idlerInertiaKgM2 ?? pulleyInertiaEstimateKgM2({ teeth: d.pulley.idlerTeeth, pitchMm: p, beltWidthMm: w, hasHub: false });
+  const jDrive =
+    d.pulley.driveInertiaKgM2 ?? pulleyInertiaEstimateKgM2({ teeth: d.pulley.driveTeeth, pitchMm: p, beltWidthMm: w, hasHub: true });
+  const jIdler =
+    d.pulley.idlerInertiaKgM2 ?? pulleyInertiaEstimateKgM2({ teeth: d.pulley.idlerTeeth, pitchMm: p, beltWidthMm: w, hasHub: false });
   const motorsOn: [number, number] = [1, d.mechanism === 'cartesian' ? d.yMotors : 1];
   const drivesOn: [number, number] = [0, 0];
   const beltCarried: [number, number] = [0, 0];
@@ -287,7 +289,8 @@ function beltReports(d: DesignInput, t: TravelInfo, states: LoopState[], tension
         worstSlackAt: tn.worstSlackAt,
         tensileAllowableN: d.belt.allowableTensionN,
         peakPullN: tn.peakPullN,
-        toothLoadN: counted > 0 ? tn.peakPullN / counted : Infinity,
+        // With under two teeth in mesh the rule leaves no capacity: the whole pull is reported, and the check fails.
+        toothLoadN: counted > 0 ? tn.peakPullN / counted : tn.peakPullN,
         toothAllowableN: toothAllowable,
         toothAllowableIsTypical: toothTypical,
         countedTeeth: counted,
@@ -316,7 +319,14 @@ function rackingSection(d: DesignInput, t: TravelInfo, env: EnvelopeResult): Des
 }
 
 /** Torque–speed samples for the chart, with the operating points of the named directions (docs/envelope.md §4). */
-function torqueChart(d: DesignInput, k: Matrix2, tq: TorqueSource, es: EnvelopeSection, m: MassModel, rM: number): DesignResult['torqueSpeed'] {
+function torqueChart(
+  d: DesignInput,
+  k: Matrix2,
+  tq: TorqueSource,
+  es: EnvelopeSection,
+  m: MassModel,
+  rM: number,
+): DesignResult['torqueSpeed'] {
   const beltPerRev = 2 * Math.PI * rM;
   const ops: DesignResult['torqueSpeed']['operatingPoints'] = [];
   const named: [string, number, AxisLimits][] = [
@@ -373,7 +383,12 @@ function motorsAndSigns(d: DesignInput, kinv: Matrix2, motorsOn: [number, number
   return {
     motors: [
       { id: 'A', axisLabel: motorLabels[0], count: 1, drives: mech === 'hbot' ? 'belt H' : mech === 'corexy' ? 'belt A' : 'belt X' },
-      { id: 'B', axisLabel: motorLabels[1], count: motorsOn[1], drives: mech === 'hbot' ? 'belt H' : mech === 'corexy' ? 'belt B' : yDrive },
+      {
+        id: 'B',
+        axisLabel: motorLabels[1],
+        count: motorsOn[1],
+        drives: mech === 'hbot' ? 'belt H' : mech === 'corexy' ? 'belt B' : yDrive,
+      },
     ],
     signConvention: {
       motorDirection: d.motorDirection,
@@ -462,7 +477,11 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
     toolAccelMPerS2: d.plannedAccelMmPerS2 !== null ? plannedAccel : es.bestAccel,
     racking:
       d.mechanism === 'hbot'
-        ? { momentNm: Math.abs(racking.peakMomentNm), ratingNm: racking.yawMomentRatingNm, ratingIsTypical: racking.yawMomentRatingIsTypical }
+        ? {
+            momentNm: Math.abs(racking.peakMomentNm),
+            ratingNm: racking.yawMomentRatingNm,
+            ratingIsTypical: racking.yawMomentRatingIsTypical,
+          }
         : null,
   });
   const env = es.env;

@@ -33,7 +33,8 @@ export function pulleyInertiaEstimateKgM2(args: { teeth: number; pitchMm: number
   const p = requireNumber('pulleyInertiaEstimateKgM2', 'pitchMm', args?.pitchMm, 0, 1000, true);
   const w = requireNumber('pulleyInertiaEstimateKgM2', 'beltWidthMm', args?.beltWidthMm, 0, 10000, true);
   const dMm = (z * p) / Math.PI;
-  const disc = (diameterMm: number, lengthMm: number) => 0.5 * ALUMINIUM_DENSITY_KG_PER_M3 * Math.PI * (diameterMm / 2000) ** 4 * (lengthMm / 1000);
+  const disc = (diameterMm: number, lengthMm: number) =>
+    0.5 * ALUMINIUM_DENSITY_KG_PER_M3 * Math.PI * (diameterMm / 2000) ** 4 * (lengthMm / 1000);
   const flangeMm = dMm + 2 * PULLEY_FLANGE_RISE_MM;
   let j = disc(dMm, w + PULLEY_BELT_SECTION_EXTRA_MM) + 2 * disc(flangeMm, PULLEY_FLANGE_THICKNESS_MM);
   if (args.hasHub !== false) j += disc(Math.max(flangeMm, PULLEY_HUB_MIN_DIAMETER_MM), PULLEY_HUB_LENGTH_MM);

@@ -38,7 +38,7 @@ function smallestMoveMm(k: Matrix2, ux: number, uy: number, beltMicrostepMm: num
 export function microstepFigures(k: Matrix2, beltMicrostepMm: number): MicrostepFigures {
   const kinv = inverse2(k);
   const oneMotor = Math.max(Math.hypot(kinv[0][0], kinv[1][0]), Math.hypot(kinv[0][1], kinv[1][1])) * beltMicrostepMm;
-  const dirDeg = (((Math.atan2(kinv[1][0], kinv[0][0]) * 180) / Math.PI) % 360 + 360) % 360;
+  const dirDeg = ((((Math.atan2(kinv[1][0], kinv[0][0]) * 180) / Math.PI) % 360) + 360) % 360;
   const h = Math.SQRT1_2;
   return {
     oneMotorMm: oneMotor,

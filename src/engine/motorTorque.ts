@@ -182,7 +182,7 @@ export const MODEL_TOP_FACTOR = 5;
  */
 export function modelTopSpeedRevPerS(motor: MotorSpec, driver: DriverSpec): number {
   const c = phaseCircuit('modelTopSpeedRevPerS', motor, driver);
-  const cap = c.v / c.kt / (2 * Math.PI) * MODEL_TOP_FACTOR;
+  const cap = (c.v / c.kt / (2 * Math.PI)) * MODEL_TOP_FACTOR;
   const floor = MODEL_TAIL_SHARE * pullOutAt(c, 0);
   const at = (n: number) => pullOutAt(c, 2 * Math.PI * n);
   if (at(cap) > floor) return cap;

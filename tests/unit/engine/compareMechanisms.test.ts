@@ -12,8 +12,9 @@ describe('compareMechanisms', () => {
     const [cxy, hbot, cart] = rows;
     if (!cxy.ok || !hbot.ok || !cart.ok) throw new Error('all three should evaluate');
     expect(cxy.stepsPerMm).toBeCloseTo(cart.stepsPerMm, 12);
-    // one crossed-belt microstep moves the carriage half as far along X as a cartesian one (K⁻¹ = ½·[[1, 1], [1, −1]])
-    expect(cxy.microstepMm.x).toBeCloseTo(cart.microstepMm.x / 2, 12);
+    // the smallest axis move is one belt microstep on both; the smallest diagonal move is 2× finer on crossed belts
+    expect(cxy.microstep.axisMm).toBeCloseTo(cart.microstep.axisMm, 12);
+    expect(cxy.microstep.diagonalMm).toBeCloseTo(cart.microstep.diagonalMm / 2, 12);
     expect(hbot.rackingMomentPerNewtonM).toBeGreaterThan(0);
     expect(cxy.rackingMomentPerNewtonM).toBe(0);
     expect(cart.movingMassKg.y).toBeGreaterThan(cxy.movingMassKg.y);

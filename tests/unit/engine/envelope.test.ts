@@ -5,6 +5,7 @@ import {
   defaultDesign,
   evaluateDesign,
   kinematicsMatrix,
+  modelTopSpeedRevPerS,
   motorForcesN,
   samplePullCurve,
   type DesignInput,
@@ -69,14 +70,31 @@ describe('computeEnvelope (closed forms)', () => {
     expect(res.envelope.axes.y.accelMaxMPerS2).toBeCloseTo((2 * pull) / (my + 2 * jr), 6);
   });
 
-  it('when friction is zero, then the X speed limit is where back-EMF meets the supply: V/(2π·k_e) turns per second', () => {
+  it('when friction is zero, then the X speed limit is where the model curve ends (no ceiling at V/k_e)', () => {
+    // Arrange
     const d = bare('corexy');
     const ke = d.motor.holdingTorqueNm / (Math.SQRT2 * d.motor.ratedCurrentA);
-    const revPerS = d.driver.supplyV / ke / (2 * Math.PI);
+    const backEmfRevPerS = d.driver.supplyV / ke / (2 * Math.PI);
+    // Act
     const res = evaluateDesign(d);
-    expect(res.envelope.axes.x.speedMaxMPerS).toBeCloseTo((revPerS * d.pulley.driveTeeth * d.belt.pitchMm) / 1000, 6);
+    // Assert: the curve ends at the model top (docs/motor-torque.md §4), well past V/k_e
+    const top = modelTopSpeedRevPerS(d.motor, d.driver);
+    expect(top).toBeGreaterThan(backEmfRevPerS);
+    expect(res.envelope.axes.x.speedMaxMPerS).toBeCloseTo((top * d.pulley.driveTeeth * d.belt.pitchMm) / 1000, 6);
     // Along 45° one motor runs √2 faster than the carriage (CoreXY 2012, CXY-INV-DIAG).
     expect(res.envelope.axes.diagonal.speedMaxMPerS).toBeCloseTo(res.envelope.axes.x.speedMaxMPerS / Math.SQRT2, 6);
+  });
+
+  it('when the driver current is above the motor rating, then the stage gains no acceleration and the check warns', () => {
+    // Arrange
+    const d = defaultDesign('corexy');
+    const rated = evaluateDesign({ ...d, driver: { ...d.driver, currentRmsA: d.motor.ratedCurrentA } });
+    // Act
+    const over = evaluateDesign({ ...d, driver: { ...d.driver, currentRmsA: 2 * d.motor.ratedCurrentA } });
+    // Assert
+    expect(over.envelope.accelMaxMPerS2).toEqual(rated.envelope.accelMaxMPerS2);
+    expect(over.envelope.speedMaxMPerS).toEqual(rated.envelope.speedMaxMPerS);
+    expect(over.checks.find((c) => c.id === 'driver-current')!.severity).toBe('warn');
   });
 
   it('when friction exceeds what the motors can pull, then the stage cannot move in that direction', () => {

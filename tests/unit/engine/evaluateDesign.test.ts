@@ -18,7 +18,7 @@ const demos = readdirSync(EXAMPLES)
   .filter((f) => f.endsWith('.json'))
   .map((f) => [f, JSON.parse(readFileSync(EXAMPLES + f, 'utf8'))] as const);
 
-/** Every result field format.md lists ("Result — the fields other parts rely on"). */
+/** Every result field the design document's readers rely on (src/engine/README.md "Result"). */
 const FORMAT_FIELDS = [
   'engineVersion',
   'kinematics.matrix',
@@ -26,9 +26,10 @@ const FORMAT_FIELDS = [
   'drive.travelPerRevMm',
   'drive.stepsPerMm',
   'drive.fullStepMm',
-  'drive.microstepMm.x',
-  'drive.microstepMm.y',
-  'drive.microstepMm.diagonal',
+  'drive.microstep.oneMotorMm',
+  'drive.microstep.oneMotorDirectionDeg',
+  'drive.microstep.axisMm',
+  'drive.microstep.diagonalMm',
   'travel.xMm',
   'travel.yMm',
   'mass.xKg',
@@ -85,8 +86,24 @@ describe('evaluateDesign', () => {
     expect(r.stiffness.lowestFrequencyHz.every((row) => row.length === n)).toBe(true);
     for (const b of r.belts) {
       expect(Object.keys(b)).toEqual(
-        expect.arrayContaining(['id', 'loopLengthMm', 'loopTeeth', 'teethInMesh', 'spans', 'peakPullN', 'tightSideN', 'slackSideN']),
+        expect.arrayContaining(['id', 'loopLengthMm', 'loopTeeth', 'teethInMesh', 'spans', 'peakPullN', 'tension']),
       );
+      expect(Object.keys(b.tension).sort()).toEqual(
+        expect.arrayContaining([
+          'pretensionN',
+          'worstTightN',
+          'worstTightAt',
+          'worstSlackN',
+          'worstSlackAt',
+          'tensileAllowableN',
+          'peakPullN',
+          'toothLoadN',
+          'toothAllowableN',
+        ]),
+      );
+      expect(b.tension.tightMapN).toHaveLength(n);
+      expect(b.tension.slackMapN.every((row) => row.length === n)).toBe(true);
+      expect(b.tension.tensileAllowableN).toBe(design.belt.allowableTensionN);
       for (const s of b.spans) expect(Object.keys(s)).toEqual(expect.arrayContaining(['id', 'lengthMm', 'targetFrequencyHz']));
     }
     for (const p of r.partsList) expect(Object.keys(p).sort()).toEqual(['item', 'quantity', 'spec']);
@@ -113,18 +130,33 @@ describe('evaluateDesign', () => {
             9,
           );
         }
-        expect(b.tightSideN - b.slackSideN).toBeCloseTo(b.peakPullN, 9);
       }
     },
   );
 
-  it('when a crossed-belt design is evaluated, then steps/mm and microstep lengths follow engine.md §2', () => {
-    // common practice: 200 × 16 / (20 × 2 mm) = 80 steps/mm; one microstep of one motor moves s/√2 along 45°
-    const r = evaluateDesign(defaultDesign('corexy'));
+  it.each([
+    // s = 1/80 mm (common practice: 200 × 16 / (20 × 2 mm) = 80 steps/mm). Hand values: crossed belts move s/√2
+    // along 45° per motor microstep, s along an axis (one step of each motor), s/√2 along the diagonal (one motor);
+    // cartesian s, s, and s·√2 on the diagonal (one step of each motor).
+    ['corexy', 0.0125 / Math.SQRT2, 45, 0.0125, 0.0125 / Math.SQRT2],
+    ['hbot', 0.0125 / Math.SQRT2, 45, 0.0125, 0.0125 / Math.SQRT2],
+    ['cartesian', 0.0125, 0, 0.0125, 0.0125 * Math.SQRT2],
+  ] as const)('when a %s design is evaluated, then its three microstep figures are the hand values', (mech, one, dir, axis, diag) => {
+    // Arrange
+    const d = defaultDesign(mech);
+    // Act
+    const r = evaluateDesign(d);
+    // Assert
     expect(r.drive.stepsPerMm).toBeCloseTo(80, 12);
     expect(r.drive.fullStepMm).toBeCloseTo(0.2, 12);
-    expect(r.drive.microstepMm.diagonal).toBeCloseTo(0.0125 / Math.SQRT2, 12);
-    expect(r.drive.microstepMm.x).toBeCloseTo(0.00625, 12);
+    expect(r.drive.microstep.oneMotorMm).toBeCloseTo(one, 12);
+    expect(r.drive.microstep.oneMotorDirectionDeg).toBeCloseTo(dir, 9);
+    expect(r.drive.microstep.axisMm).toBeCloseTo(axis, 12);
+    expect(r.drive.microstep.diagonalMm).toBeCloseTo(diag, 12);
+  });
+
+  it('when a crossed-belt design is evaluated, then K is the crossed-belt relation and motor A alone moves along 45°', () => {
+    const r = evaluateDesign(defaultDesign('corexy'));
     expect(r.kinematics.matrix).toEqual([
       [1, 1],
       [1, -1],

@@ -125,11 +125,13 @@ describe('parseDesign', () => {
       'plannedAccelMmPerS2',
       'wantedTravel',
       'schemaVersion',
+      'guide',
     ]) {
       delete doc[p];
     }
     delete (doc.frame as Record<string, unknown>).clearanceMm;
     delete (doc.belt as Record<string, unknown>).minPulleyTeeth;
+    delete (doc.belt as Record<string, unknown>).toothAllowableN;
     delete (doc.motor as Record<string, unknown>).torqueCurve;
     delete (doc.motor as Record<string, unknown>).maxSpeedRevPerS;
     delete (doc.pulley as Record<string, unknown>).driveInertiaKgM2;
@@ -154,6 +156,33 @@ describe('parseDesign', () => {
     expect(d.motor.torqueCurve).toBeNull();
     expect(d.motor.maxSpeedRevPerS).toBeNull();
     expect(d.pulley.driveInertiaKgM2).toBeNull();
+    expect(d.belt.toothAllowableN).toBeNull();
+    expect(d.guide).toEqual({ yawMomentRatingNm: null });
+  });
+
+  it.each([1.8, 0.9, 3.6, 7.5, 15, 0.45, 3.75])('when the step angle is %d° (two-phase), then it is accepted', (deg) => {
+    expect(issuePaths(withField('motor.stepAngleDeg', deg))).toEqual([]);
+  });
+
+  it.each([1.2, 0.72, 0.6, 0.36, 1.7, 2.2])(
+    'when the step angle is %d° (not a two-phase motor), then motor.stepAngleDeg is refused with a clear message',
+    (deg) => {
+      // Arrange / Act
+      const r = safeParseDesign(withField('motor.stepAngleDeg', deg));
+      // Assert
+      expect(r.ok).toBe(false);
+      if (!r.ok) {
+        expect(r.issues.map((i) => i.path)).toEqual(['motor.stepAngleDeg']);
+        expect(r.issues[0].message).toMatch(/two-phase/);
+      }
+    },
+  );
+
+  it.each([
+    ['belt.toothAllowableN', -1],
+    ['guide.yawMomentRatingNm', 0],
+  ])('when %s is %d, then that field is named', (path, value) => {
+    expect(issuePaths(withField(path, value))).toEqual([path]);
   });
 
   it('when two Y motors are asked for crossed belts, then yMotors is rejected', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { spanFrequencyHz, tensionFromFrequencyN, workingTension } from '@/engine';
+import { spanFrequencyHz, tensionFromFrequencyN } from '@/engine';
 
 describe('spanFrequencyHz', () => {
   it.each([
@@ -22,16 +22,5 @@ describe('tensionFromFrequencyN', () => {
   ])('when %d N is turned into a frequency and back, then it returns (inverse pair)', (t, mu, l) => {
     const f = spanFrequencyHz({ tensionN: t, linearMassKgPerM: mu, spanMm: l });
     expect(tensionFromFrequencyN({ frequencyHz: f, linearMassKgPerM: mu, spanMm: l })).toBeCloseTo(t, 9);
-  });
-});
-
-describe('workingTension', () => {
-  it.each([
-    [40, 26, 53, 27],
-    [10, 30, 25, -5],
-  ])('when pretension %d N carries a pull of %d N, then tight and slack sides are %d and %d N', (pretensionN, pullN, tight, slack) => {
-    const r = workingTension({ pretensionN, pullN });
-    expect(r.tightSideN).toBeCloseTo(tight, 12);
-    expect(r.slackSideN).toBeCloseTo(slack, 12);
   });
 });

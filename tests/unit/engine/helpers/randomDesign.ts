@@ -108,7 +108,7 @@ export function wideRandomDocument(seed: number): Record<string, unknown> {
     pulley: { ...base.pulley, driveTeeth: Math.round(b(6, 80)), idlerTeeth: Math.round(b(6, 80)) },
     motor: {
       ...base.motor,
-      stepAngleDeg: b(0.1, 15),
+      stepAngleDeg: pick([0.9, 1.8, 3.6, 7.5, 15, b(0.1, 15)]),
       holdingTorqueNm: b(0.001, 20),
       ratedCurrentA: b(0.1, 10),
       phaseResistanceOhm: pick([0, b(0, 50)]),
