@@ -10,9 +10,13 @@ import { expect } from 'vitest';
 /** Root folder of the reference tables. */
 export const REFERENCE_DIR: string = fileURLToPath(new URL('../../reference/', import.meta.url));
 
-/** Honest provenance markers, exactly as the project's reference collection uses them. */
-export const REFERENCE_STATUSES = ['confirmed', 'from memory', 'common practice', 'derived'] as const;
-export type ReferenceStatus = (typeof REFERENCE_STATUSES)[number];
+/**
+ * What a row's expected number is (reference/README.md): printed in the source (`published`), computed by the team
+ * from a formula the source gives (`derived`, with its `equation`), a second, differently built computation
+ * (`independent`), or a cross-check through a general-purpose library (`library`).
+ */
+export const REFERENCE_LABELS = ['published', 'derived', 'independent', 'library'] as const;
+export type ReferenceLabel = (typeof REFERENCE_LABELS)[number];
 
 /** Citation of one published source. */
 export interface ReferenceSource {
@@ -23,9 +27,10 @@ export interface ReferenceSource {
   edition: string;
   /** Section, table or equation the values come from. */
   section: string;
-  status: ReferenceStatus;
+  /** How much of the source was seen: "seen …", "from memory", "common practice …" or "written for this project". */
+  provenance: string;
   /** What was actually seen, and where (secondary reproductions are named). */
-  confirmedVia: string;
+  seenVia: string;
   /** How the numbers got into this file. */
   howTranscribed: string;
   url?: string;
@@ -43,8 +48,10 @@ export interface ReferenceRow<I, E> {
   expected: E;
   tolerance?: Tolerance;
   note?: string;
-  /** Overrides the source's status for this row (e.g. a derived row in a confirmed table). */
-  status?: ReferenceStatus;
+  /** What the expected number is. */
+  label: ReferenceLabel;
+  /** The equation a derived (or independent) row was computed with. */
+  equation?: string;
   /** Belt profile the row belongs to (pitch tables). */
   profile?: string;
   /** Mechanism a row applies to when it is not an engine input of the function under test. */
@@ -79,11 +86,9 @@ function assertTableIsValid(raw: unknown, file: string): asserts raw is Referenc
   const table = raw as Partial<ReferenceTable<unknown, unknown>>;
   const source = table.source as Partial<ReferenceSource> | undefined;
   if (!source) fail(file, 'missing "source"');
-  for (const key of ['shortName', 'title', 'edition', 'section', 'status', 'confirmedVia', 'howTranscribed'] as const) {
+  for (const key of ['shortName', 'title', 'edition', 'section', 'provenance', 'seenVia', 'howTranscribed'] as const) {
     if (typeof source[key] !== 'string' || source[key].trim() === '') fail(file, `source.${key} is missing`);
   }
-  if (!REFERENCE_STATUSES.includes(source.status as ReferenceStatus))
-    fail(file, `source.status "${source.status}" is not one of ${REFERENCE_STATUSES.join(', ')}`);
   if (!table.units || typeof table.units !== 'object') fail(file, 'missing "units"');
   if (!Array.isArray(table.rows) || table.rows.length === 0) fail(file, '"rows" must be a non-empty array');
   const ids = new Set<string>();
@@ -94,8 +99,10 @@ function assertTableIsValid(raw: unknown, file: string): asserts raw is Referenc
     if (row.inputs === null || typeof row.inputs !== 'object') fail(file, `${row.id}: "inputs" must be an object`);
     if (row.expected === null || typeof row.expected !== 'object' || Object.keys(row.expected).length === 0)
       fail(file, `${row.id}: "expected" must be a non-empty object`);
-    if (row.status !== undefined && !REFERENCE_STATUSES.includes(row.status))
-      fail(file, `${row.id}: status "${row.status}" is not allowed`);
+    if (!REFERENCE_LABELS.includes(row.label))
+      fail(file, `${row.id}: label "${String(row.label)}" is not one of ${REFERENCE_LABELS.join(', ')}`);
+    if (row.label === 'derived' && !(typeof row.equation === 'string' && row.equation.trim() !== ''))
+      fail(file, `${row.id}: a derived row must say which equation it comes from`);
     if (row.tolerance !== undefined) {
       const { rel, abs } = row.tolerance;
       if (rel === undefined && abs === undefined) fail(file, `${row.id}: tolerance needs rel or abs`);
@@ -137,11 +144,6 @@ export function listReferenceTables(exclude: readonly string[] = []): string[] {
   return tables;
 }
 
-/** The status that applies to a row: its own, else its source's. */
-export function rowStatus(table: ReferenceTable<unknown, unknown>, row: ReferenceRow<unknown, unknown>): ReferenceStatus {
-  return row.status ?? table.source.status;
-}
-
 /** Largest allowed |actual − expected| for a row's tolerance. */
 export function toleranceBound(expected: number, tolerance: Tolerance = DEFAULT_TOLERANCE): number {
   return Math.max(tolerance.abs ?? 0, (tolerance.rel ?? 0) * Math.abs(expected));
@@ -160,13 +162,14 @@ export function expectWithinTolerance(actual: number, expected: number, toleranc
   expect(Math.abs(actual - expected), `${label}: got ${actual}, published ${expected} (allowed ±${bound})`).toBeLessThanOrEqual(bound);
 }
 
-/** Title fragment naming the source and, when it is not plainly confirmed, its status. */
+/** Title fragment naming the source, the row's label and, for a remembered source, "from memory". */
 export function sourceLabel(table: ReferenceTable<unknown, unknown>, row?: ReferenceRow<unknown, unknown>): string {
-  const status = row ? rowStatus(table, row) : table.source.status;
-  return status === 'confirmed' ? table.source.shortName : `${table.source.shortName}, ${status}`;
+  const memory = table.source.provenance === 'from memory' ? ', from memory' : '';
+  const labels = row ? row.label : [...new Set(table.rows.map((r) => r.label))].join('/');
+  return `${table.source.shortName}, ${labels}${memory}`;
 }
 
-/** One table-driven case: the test title fragment "<row id> (<source short name>[, status])" and the row. */
+/** One table-driven case: the test title fragment "<row id> (<source short name>, <label>[, from memory])" and the row. */
 export type ReferenceCase<I, E> = [title: string, row: ReferenceRow<I, E>];
 
 /**

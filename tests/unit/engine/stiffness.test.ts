@@ -86,6 +86,91 @@ describe('carriageStiffnessNPerM', () => {
   });
 });
 
+/**
+ * Independent carriage stiffness: the potential energy of the belt pieces as springs EA/L, stretched by the change of
+ * their geometric length (solveLoop at the displaced carriage, not the affine model) and by the belt each motor
+ * pulley lets through, minimised over the motor pulleys held by springs k_m (a small Gaussian elimination); the
+ * stiffness matrix is the finite-difference Hessian of that energy.
+ */
+function finiteDifferenceStiffnessNPerM(d: DesignInput, kMotorNPerM: number, xMm: number, yMm: number): number[][] {
+  const t = frameToTravel(d);
+  const base = t.layout.loops.map((loop) => solveLoop(loop, xMm, yMm));
+  const vars = [...new Set(base.flatMap((b) => b.nodeMotors))];
+  const energy = (dx: number, dy: number): number => {
+    // stretch δ = a + Σ c·m for every piece: quadratic in m; minimise ½Σk·δ² + ½Σk_m·m² by solving H·m = −g.
+    const rows: { k: number; a: number; c: number[] }[] = [];
+    t.layout.loops.forEach((loop, li) => {
+      const now = solveLoop(loop, xMm + dx, yMm + dy);
+      now.pieces.forEach((p, i) => {
+        const c = new Array<number>(vars.length).fill(0);
+        if (i > 0) c[vars.indexOf(base[li].nodeMotors[i - 1])] -= 1;
+        if (i < base[li].nodeMotors.length) c[vars.indexOf(base[li].nodeMotors[i])] += 1;
+        rows.push({ k: d.belt.axialStiffnessN / base[li].pieces[i].lengthMm, a: p.lengthMm - base[li].pieces[i].lengthMm, c });
+      });
+    });
+    const n = vars.length;
+    const h = Array.from({ length: n }, (_, i) => Array.from({ length: n + 1 }, (_, j) => (i === j ? kMotorNPerM / 1000 : 0)));
+    for (const r of rows)
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < n; j++) h[i][j] += r.k * r.c[i] * r.c[j];
+        h[i][n] -= r.k * r.c[i] * r.a;
+      }
+    for (let c = 0; c < n; c++)
+      for (let r = c + 1; r < n; r++) {
+        const f = h[r][c] / h[c][c];
+        for (let j = c; j <= n; j++) h[r][j] -= f * h[c][j];
+      }
+    const m = new Array<number>(n).fill(0);
+    for (let r = n - 1; r >= 0; r--) {
+      let v = h[r][n];
+      for (let j = r + 1; j < n; j++) v -= h[r][j] * m[j];
+      m[r] = v / h[r][r];
+    }
+    let u = m.reduce((s, mi) => s + 0.5 * (kMotorNPerM / 1000) * mi * mi, 0);
+    for (const r of rows) u += 0.5 * r.k * (r.a + r.c.reduce((s, ci, i) => s + ci * m[i], 0)) ** 2;
+    return u; // N·mm
+  };
+  const e = 0.01; // mm
+  const u0 = energy(0, 0);
+  const kxx = (energy(e, 0) - 2 * u0 + energy(-e, 0)) / (e * e);
+  const kyy = (energy(0, e) - 2 * u0 + energy(0, -e)) / (e * e);
+  const kxy = (energy(e, e) - energy(e, -e) - energy(-e, e) + energy(-e, -e)) / (4 * e * e);
+  return [
+    [kxx * 1000, kxy * 1000],
+    [kxy * 1000, kyy * 1000],
+  ];
+}
+
+describe('carriageStiffnessNPerM against a finite-difference energy Hessian (independent)', () => {
+  it.each(
+    (['corexy', 'hbot', 'cartesian'] as const).flatMap((m) =>
+      [
+        [0.5, 0.5],
+        [0.1, 0.85],
+        [0.95, 0.2],
+      ].map(([fx, fy]) => [m, fx, fy] as const),
+    ),
+  )('when a %s carriage sits at (%d, %d) of its travel, then K_c matches the Hessian within 0.1 %', (mech, fx, fy) => {
+    // Arrange
+    const d = defaultDesign(mech);
+    const t = frameToTravel(d);
+    const kMotor = 2.5e5;
+    const x = t.originXMm + fx * t.xMm;
+    const y = t.originYMm + fy * t.yMm;
+    const expected = finiteDifferenceStiffnessNPerM(d, kMotor, x, y);
+    // Act
+    const kc = carriageStiffnessNPerM(inputFor(d, kMotor), x, y);
+    // Assert
+    const scale = Math.max(Math.abs(expected[0][0]), Math.abs(expected[1][1]));
+    for (const [i, j] of [
+      [0, 0],
+      [0, 1],
+      [1, 1],
+    ])
+      expect(Math.abs(kc[i][j] - expected[i][j])).toBeLessThan(1e-3 * scale);
+  });
+});
+
 describe('stiffnessMap', () => {
   it.each((['corexy', 'hbot'] as const).flatMap((m) => SEEDS.slice(0, 6).map((s) => [m, s] as const)))(
     'when a symmetric %s layout (seed %i) is mapped, then the map is mirror-symmetric about the travel centre line',

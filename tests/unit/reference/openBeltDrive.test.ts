@@ -1,10 +1,10 @@
 /**
  * Open two-pulley drive: approximate belt length (Shigley 17-16a, from memory), its inverse (17-16b),
- * the exact length of Encyclopaedia Britannica 1911 Eq. (32 B) (confirmed), small-pulley wrap angle
+ * the exact length of Encyclopaedia Britannica 1911 Eq. (32 B) (seen), small-pulley wrap angle
  * (Shigley 17-1, from memory) and teeth in mesh (belt makers' practice). Provenance: reference/README.md.
  */
 import { describe, expect, it } from 'vitest';
-import { openBeltLengthExactMm, openBeltLengthMm, teethInMesh as engineTeethInMesh, wrapAngleRad } from '@/engine';
+import { openBeltLengthExactMm, openBeltLengthMm, teethInMesh as engineTeethInMesh, teethInMeshFactor, wrapAngleRad } from '@/engine';
 import { expectWithinTolerance, loadReference, referenceCases } from '../../helpers/loadReference';
 
 type DriveInputs = Parameters<typeof openBeltLengthMm>[0];
@@ -29,9 +29,6 @@ function exactOpenBeltLengthMm({ centerMm, d1Mm, d2Mm }: DriveInputs): number {
 
 /** Teeth in full contact; the epsilon absorbs rounding when the wrap puts a tooth exactly at the edge. */
 const FULL_TOOTH_EPSILON = 1e-9;
-/** Belt makers' rule: at least 6 teeth in mesh, 20 % of rated load lost per missing tooth. */
-const MIN_TEETH_IN_MESH = 6;
-const LOSS_PER_MISSING_TOOTH = 0.2;
 
 describe('openBeltLengthMm', () => {
   const cases = referenceCases(approxLength);
@@ -93,13 +90,13 @@ describe('wrapAngleRad', () => {
 describe('teeth in mesh from wrapAngleRad', () => {
   const cases = referenceCases(teethInMesh);
 
-  it.each(cases)('when %s, then the engine z·θ/(2π), the full teeth and the capacity factor match the rule', (_title, row) => {
+  it.each(cases)('when %s, then the engine\'s teeth in mesh, full teeth and capacity factor match the rule', (_title, row) => {
     // Arrange
     const { teeth, ...drive } = row.inputs;
     // Act
     const tim = engineTeethInMesh({ teeth, wrapRad: wrapAngleRad(drive) });
     const fullTeeth = Math.floor(tim + FULL_TOOTH_EPSILON);
-    const capacityFactor = fullTeeth >= MIN_TEETH_IN_MESH ? 1 : 1 - LOSS_PER_MISSING_TOOTH * (MIN_TEETH_IN_MESH - fullTeeth);
+    const capacityFactor = teethInMeshFactor(tim);
     // Assert
     expectWithinTolerance(tim, row.expected.teethInMesh, row.tolerance, `${row.id} teethInMesh`);
     expect(fullTeeth, `${row.id} fullTeethInMesh`).toBe(row.expected.fullTeethInMesh);
