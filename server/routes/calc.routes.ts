@@ -7,7 +7,7 @@ import { calculate, compare, sweepInput } from '../services/calc.service';
 
 /**
  * /api/calc: the engine over HTTP for any signed-in user (the Design desk also runs it in the browser).
- *   POST /api/calc {design}                  → the result (format.md "Result")
+ *   POST /api/calc {design}                  → the result (src/engine/README.md "Result")
  *   POST /api/calc/compare {design}          → {rows: one per mechanism}
  *   POST /api/calc/sweep {design, path, values} → {path, points: one per value}
  * Invalid input → 400 with details naming `design.<field>`, `path` or `values`.

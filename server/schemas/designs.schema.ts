@@ -4,7 +4,7 @@ import { DESIGN_MECHANISMS, DESIGN_STATUSES } from '../models';
 import { idSchema, paginationSchema } from './common.schema';
 
 /**
- * A design document (format.md), validated by the engine's own schema so the API answers with exactly the
+ * A design document (src/engine/README.md), validated by the engine's own schema so the API answers with exactly the
  * messages the Design desk form shows. Issues keep the engine's dotted paths ("belt.pitchMm"); when the document
  * sits under a key of the body (`inputs`, `design`) zod prefixes that key ("inputs.belt.pitchMm").
  * The output is the normalised document with every default filled in.

@@ -326,7 +326,7 @@ export function exportFileName(name: string): string {
   return `${slug || 'design'}.json`;
 }
 
-/** The design document (format.md) of a design, for download; POST /api/designs imports it again. */
+/** The design document (src/engine/README.md) of a design, for download; POST /api/designs imports it again. */
 export async function exportDesign(id: number): Promise<{ fileName: string; document: DesignInput }> {
   const row = await Design.findByPk(id, { attributes: ['id', 'name', 'inputs'] });
   if (!row) throw notFound('Design');

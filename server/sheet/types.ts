@@ -13,7 +13,7 @@ export interface SheetInput {
   designer: { name: string; email: string };
   /** The approval that publishes this sheet. */
   approval: { reviewerName: string; approvedAt: Date | string; comment: string };
-  /** The revision's frozen design document (format.md); defaults are filled in again with the engine's schema. */
+  /** The revision's frozen design document (src/engine/README.md); defaults are filled in again with the engine's schema. */
   inputs: DesignInputRaw | DesignInput;
   /** The revision's frozen engine result (evaluateDesign output), never a recomputation. */
   result: DesignResult;

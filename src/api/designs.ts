@@ -35,7 +35,7 @@ export interface DesignSummary {
 
 /** A whole design, as GET /api/designs/:id answers. */
 export interface Design extends DesignSummary {
-  /** The design document (format.md). */
+  /** The design document (src/engine/README.md). */
   inputs: DesignInputRaw;
   createdAt?: string;
   /** Who saved last. */

@@ -42,7 +42,7 @@ export function pulleyInertiaEstimateKgM2(args: { teeth: number; pitchMm: number
 }
 
 /**
- * Moving mass along X and Y (format.md): X carries carriage + tool; Y also carries the gantry, and for a
+ * Moving mass along X and Y (src/engine/README.md): X carries carriage + tool; Y also carries the gantry, and for a
  * cartesian stage the X motor, which rides the gantry. Crossed-belt motors sit on the frame.
  * @param args.mechanism - mechanism key
  * @param args.carriageKg - carriage mass [kg]

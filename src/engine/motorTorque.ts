@@ -92,7 +92,7 @@ function phaseCircuit(scope: string, motor: MotorSpec, driver: DriverSpec): Phas
  * from the per-phase phasor model: the best current phasor under the driver's current limit (capped at the
  * motor's rating) and the supply-voltage limit. No torque table, no margin. Falls smoothly with speed; it has
  * no ceiling at V/k_e.
- * @param args.motor - motor data (format.md "motor"; a torque table is ignored here)
+ * @param args.motor - motor data (the design document's "motor"; a torque table is ignored here)
  * @param args.driver - driver data (supplyV [V], currentRmsA [A])
  * @param args.speedRevPerS - shaft speed [rev/s]
  * @returns pull-out torque [N·m]
@@ -132,8 +132,8 @@ export function interpolateTorqueCurve(curve: readonly TorquePoint[], speedRevPe
 /**
  * Builds the torque–speed function of a motor and driver once, validating the data a single time, so that
  * callers sampling it thousands of times (the envelope) pay only the arithmetic.
- * @param motor - motor data (format.md "motor")
- * @param driver - driver data (format.md "driver")
+ * @param motor - motor data (the design document's "motor")
+ * @param driver - driver data (the design document's "driver")
  * @returns available torque [N·m] as a function of shaft speed [rev/s], margin not applied
  * @see docs/motor-torque.md
  */
@@ -150,8 +150,8 @@ export function torqueSpeedFunction(motor: MotorSpec, driver: DriverSpec): (spee
 /**
  * Available motor torque at a shaft speed, torque margin NOT applied: an uploaded torque table when the motor has
  * one, otherwise the pull-out torque of {@link pullOutTorqueNm}.
- * @param args.motor - motor data (format.md "motor")
- * @param args.driver - driver data (format.md "driver": supplyV [V], currentRmsA [A])
+ * @param args.motor - motor data (the design document's "motor")
+ * @param args.driver - driver data (the design document's "driver": supplyV [V], currentRmsA [A])
  * @param args.speedRevPerS - shaft speed [rev/s]
  * @returns available torque [N·m]
  * @see docs/motor-torque.md

@@ -143,7 +143,7 @@ const massesSchema = z.strictObject({
 const sign = z.union([z.literal(1), z.literal(-1)], { error: 'motor direction must be 1 or -1' });
 
 /**
- * zod schema of one design document (format.md). Strict: unknown fields are rejected with their path.
+ * zod schema of one design document (src/engine/README.md). Strict: unknown fields are rejected with their path.
  * Optional fields and their defaults: description "", motorDirection {a:1,b:1}, yMotors 1,
  * frame.clearanceMm 5, belt.minPulleyTeeth 12, belt.toothAllowableN null (typical value), pulley.*InertiaKgM2 null
  * (estimated), guide.yawMomentRatingNm null (typical value), motor.torqueCurve null,
@@ -160,7 +160,7 @@ export const designInputSchema = z
     description: z.string().max(4000, 'description must be at most 4000 characters').default(''),
     mechanism: z.enum(['corexy', 'hbot', 'cartesian'], { error: 'mechanism must be one of corexy, hbot, cartesian' }),
     /**
-     * Which way is +A / +B: 1 keeps the relation of engine.md §1 (crossed belts: +A moves the carriage toward
+     * Which way is +A / +B: 1 keeps the relation of docs/envelope.md §1 (crossed belts: +A moves the carriage toward
      * +X+Y, +B toward +X−Y; cartesian: +A → +X, +B → +Y); −1 when that motor is wired the other way round.
      */
     motorDirection: z.strictObject({ a: sign, b: sign }).default({ a: 1, b: 1 }),

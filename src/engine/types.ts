@@ -1,7 +1,7 @@
 /** Mechanism key of a design. */
 export type Mechanism = 'corexy' | 'hbot' | 'cartesian';
 
-/** Sign of each motor's positive sense: +1 keeps the K row of engine.md §1, −1 flips it. */
+/** Sign of each motor's positive sense: +1 keeps the K row of docs/envelope.md §1, −1 flips it. */
 export interface MotorDirection {
   a: 1 | -1;
   b: 1 | -1;
@@ -13,7 +13,7 @@ export interface TorquePoint {
   torqueNm: number;
 }
 
-/** Motor data as in the design document (format.md "motor"). */
+/** Motor data as in the design document (the design document's "motor"). */
 export interface MotorSpec {
   stepAngleDeg: number;
   holdingTorqueNm: number;
@@ -26,7 +26,7 @@ export interface MotorSpec {
   maxSpeedRevPerS?: number | null;
 }
 
-/** Driver data as in the design document (format.md "driver"). */
+/** Driver data as in the design document (the design document's "driver"). */
 export interface DriverSpec {
   microsteps: number;
   supplyV: number;
@@ -81,7 +81,7 @@ export interface Check {
   subject: string | null;
 }
 
-/** One safety caution shown on every sheet and on the Design desk (engine.md §9). */
+/** One safety caution shown on every sheet and on the Design desk (docs/checks.md "Cautions"). */
 export interface Caution {
   id: 'pinch-points' | 'electrical-supply' | 'stored-energy' | 'codes-and-practice';
   title: string;
@@ -241,7 +241,7 @@ export interface LayoutDrawing {
   belts: LayoutBelt[];
 }
 
-/** The full result of evaluateDesign (format.md "Result" plus what the Design desk draws). */
+/** The full result of evaluateDesign (the result fields of src/engine/README.md plus what the Design desk draws). */
 export interface DesignResult {
   engineVersion: string;
   mechanism: Mechanism;

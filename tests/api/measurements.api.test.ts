@@ -92,7 +92,7 @@ describe('POST /api/sheets/:id/measurements (typed)', () => {
   });
 
   it('when checked against the published case STR-T-FROM-F (μ 0.0075 kg/m, L 0.35 m, f 95 Hz → 33.1669 N), then the string law used matches it', () => {
-    // Halliday, Resnick & Walker, Fundamentals of Physics, ch. 16 (string resonance); reference case from references.md §3.
+    // Halliday, Resnick & Walker, Fundamentals of Physics, ch. 16 (string resonance); reference case from reference/README.md (halliday-resnick-walker).
     expect(stringLawN(0.0075, 350, 95)).toBeCloseTo(33.1669, 3);
   });
 

@@ -69,7 +69,7 @@ describe('evaluateDesign', () => {
     expect(demos.map(([, d]) => d.mechanism).sort()).toEqual(['cartesian', 'corexy', 'hbot']);
   });
 
-  it.each(demos)('when the demo %s is evaluated, then every format.md result field is present', (_f, design) => {
+  it.each(demos)('when the demo %s is evaluated, then every documented result field is present', (_f, design) => {
     const r = evaluateDesign(design);
     for (const path of FORMAT_FIELDS) expect(get(r, path), path).toBeDefined();
     expect(r.engineVersion).toBe(ENGINE_VERSION);

@@ -26,7 +26,7 @@ describe('engine entry point (src/engine/index.ts)', () => {
     'safeParseDesign',
     'defaultDesign',
     'travelToFrame',
-  ])('when %s is looked up, then the entry point exports it as a function (format.md named functions)', (name) => {
+  ])('when %s is looked up, then the entry point exports it as a function (the named functions of src/engine/README.md)', (name) => {
     expect(typeof (engine as Record<string, unknown>)[name]).toBe('function');
   });
 

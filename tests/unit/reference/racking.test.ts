@@ -10,7 +10,7 @@ const momentTable = loadReference<Parameters<typeof rackingMomentPerNewtonM>[0],
 const reactionTable = loadReference<Parameters<typeof guideReactionN>[0], { guideReactionN: number }>('racking', 'guide-reaction');
 const SRC = sourceLabel(momentTable);
 
-/** The example design of format.md (invented demo numbers), with the mechanism and frame width varied below. */
+/** The example design of src/engine/README.md (invented demo numbers), with the mechanism and frame width varied below. */
 const EXAMPLE_DESIGN = {
   schemaVersion: 1,
   name: 'Bench dispensing stage',
