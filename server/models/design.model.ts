@@ -27,7 +27,10 @@ export type DesignMechanism = (typeof DESIGN_MECHANISMS)[number];
 export type DesignResultSummary = {
   engineVersion: string;
   stepsPerMm: number;
-  microstepMm: { x: number; y: number; diagonal: number };
+  /** Carriage figures of one microstep (engine 2 on; docs/resolution.md). */
+  microstep?: { oneMotorMm: number; oneMotorDirectionDeg: number; axisMm: number; diagonalMm: number };
+  /** Engine 1 summaries only: one motor's microstep projected on X and Y. */
+  microstepMm?: { x: number; y: number; diagonal: number };
   worst: { directionDeg: number; accelMaxMPerS2: number; accelAtCruiseMPerS2: number; speedMaxMPerS: number };
   lowestFrequencyHz: number;
   checks: { total: number; bySeverity: Record<string, number> };

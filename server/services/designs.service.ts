@@ -106,7 +106,7 @@ export function computeStoredResults(
     resultSummary: {
       engineVersion: result.engineVersion,
       stepsPerMm: result.drive.stepsPerMm,
-      microstepMm: { ...result.drive.microstepMm },
+      microstep: { ...result.drive.microstep },
       worst: {
         directionDeg: worst.directionDeg,
         accelMaxMPerS2: worst.accelMaxMPerS2,

@@ -286,7 +286,9 @@ export type ResultChange = { key: string; label: string; unit: string; old: numb
 export type RevisionDiff = {
   revisionId: number;
   number: number;
-  previous: { id: number; number: number; status: RevisionStatus } | null;
+  /** Engine that computed this revision's frozen result. */
+  engineVersion: string;
+  previous: { id: number; number: number; status: RevisionStatus; engineVersion: string } | null;
   /** Changed inputs only (all inputs, as `added`, for a first revision). */
   inputs: InputChange[];
   /** Every key result, with `isChanged` marking those that moved. */
@@ -323,8 +325,14 @@ type KeyResult = { key: string; label: string; unit: string; get: (r: DesignResu
 const KEY_RESULTS: KeyResult[] = [
   { key: 'drive.stepsPerMm', label: 'Steps per mm of belt', unit: 'steps/mm', get: (r) => r.drive.stepsPerMm },
   { key: 'drive.travelPerRevMm', label: 'Belt travel per motor revolution', unit: 'mm', get: (r) => r.drive.travelPerRevMm },
-  { key: 'drive.microstepMm.x', label: 'Smallest step along X', unit: 'mm', get: (r) => r.drive.microstepMm.x },
-  { key: 'drive.microstepMm.y', label: 'Smallest step along Y', unit: 'mm', get: (r) => r.drive.microstepMm.y },
+  {
+    key: 'drive.microstep.oneMotorMm',
+    label: 'Carriage move, one motor one microstep',
+    unit: 'mm',
+    get: (r) => r.drive.microstep.oneMotorMm,
+  },
+  { key: 'drive.microstep.axisMm', label: 'Smallest pure X or Y move', unit: 'mm', get: (r) => r.drive.microstep.axisMm },
+  { key: 'drive.microstep.diagonalMm', label: 'Smallest pure diagonal move', unit: 'mm', get: (r) => r.drive.microstep.diagonalMm },
   { key: 'travel.xMm', label: 'Usable travel X', unit: 'mm', get: (r) => r.travel.xMm },
   { key: 'travel.yMm', label: 'Usable travel Y', unit: 'mm', get: (r) => r.travel.yMm },
   { key: 'mass.xKg', label: 'Moving mass along X', unit: 'kg', get: (r) => r.mass.xKg },
@@ -362,6 +370,7 @@ const KEY_RESULTS: KeyResult[] = [
     unit: 'mm',
     get: (r) => r.stiffness.ringing.planned.amplitudeMm,
   },
+  { key: 'racking.peakMomentNm', label: 'Gantry racking moment (H loop)', unit: 'N·m', get: (r) => r.racking.peakMomentNm },
   { key: 'checks.fail', label: 'Failed checks', unit: '', get: (r) => r.checks.filter((c) => c.severity === 'fail').length },
   { key: 'checks.warn', label: 'Warnings', unit: '', get: (r) => r.checks.filter((c) => c.severity === 'warn').length },
 ];
@@ -389,12 +398,16 @@ export function diffKeyResults(before: DesignResult | null, after: DesignResult)
     const b0 = before?.belts.find((b) => b.id === id);
     const b1 = after.belts.find((b) => b.id === id);
     const label = b1?.label ?? b0?.label ?? id;
-    for (const [field, text, unit] of [
-      ['cutLengthMm', 'cut length', 'mm'],
-      ['loopTeeth', 'teeth', ''],
+    // Belt figures; the tension ones exist from engine 2 on, so an older side shows null (not a recomputation).
+    for (const [field, text, unit, pick] of [
+      ['cutLengthMm', 'cut length', 'mm', (b: DesignResult['belts'][number]) => b.cutLengthMm],
+      ['loopTeeth', 'teeth', '', (b: DesignResult['belts'][number]) => b.loopTeeth],
+      ['tension.worstTightN', 'worst tight side', 'N', (b: DesignResult['belts'][number]) => b.tension?.worstTightN],
+      ['tension.worstSlackN', 'worst slack side', 'N', (b: DesignResult['belts'][number]) => b.tension?.worstSlackN],
+      ['tension.toothLoadN', 'load per tooth', 'N', (b: DesignResult['belts'][number]) => b.tension?.toothLoadN],
     ] as const) {
-      const old = b0 ? num(b0[field]) : null;
-      const now = b1 ? num(b1[field]) : null;
+      const old = b0 ? num(pick(b0)) : null;
+      const now = b1 ? num(pick(b1)) : null;
       rows.push({
         key: `belts.${id}.${field}`,
         label: `${label}: ${text}`,
@@ -424,7 +437,10 @@ export async function getRevisionDiff(actor: PublicUser, id: number): Promise<Re
   return {
     revisionId: row.id,
     number: row.number,
-    previous: previous ? { id: previous.id, number: previous.number, status: previous.status } : null,
+    engineVersion: row.engineVersion,
+    previous: previous
+      ? { id: previous.id, number: previous.number, status: previous.status, engineVersion: previous.engineVersion }
+      : null,
     inputs: diffInputs(previous ? parseJson<unknown>(previous.inputs) : null, inputs),
     results: diffKeyResults(previous ? parseJson<DesignResult>(previous.result) : null, result),
   };

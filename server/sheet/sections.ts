@@ -1,6 +1,7 @@
 import { fixed, grouped, sig, userTextRuns, utcStamp } from './format';
 import { block, COLOR, type Content, type ContentObject, groupRow, heading, numCell, table, th } from './layout';
 import { cautionIcon, SEVERITY_WORD, severityIcon } from './plots/glyphs';
+import { legacyBelt, legacyMicrostep } from './legacy';
 import type { DesignResult, Mechanism, SheetData } from './types';
 
 export const MECHANISM_NAME: Record<Mechanism, string> = {
@@ -211,7 +212,7 @@ export function checksTable(result: DesignResult): Content[] {
         { text: SEVERITY_WORD[c.severity], bold: true, fontSize: 7, margin: [4, 0.5, 0, 0] },
       ],
     },
-    { stack: [safe(c.message), safe(c.id, { fontSize: 6, color: COLOR.muted })] },
+    c.subject ? { stack: [safe(c.message), safe(c.subject, { fontSize: 6, color: COLOR.muted })] } : safe(c.message),
     numCell(checkValue(c.value)),
     numCell(checkValue(c.limit)),
     c.unit ? safe(c.unit) : { text: '—', color: COLOR.muted },
@@ -270,7 +271,12 @@ export function inputsSection(data: SheetData): Content[] {
         ['Belt width', fixed(d.belt.widthMm, 1), 'mm'],
         ['Belt mass per metre', sig(d.belt.linearMassKgPerM, 3), 'kg/m'],
         ['Belt axial stiffness EA', grouped(d.belt.axialStiffnessN), 'N'],
-        ['Allowable tight-side tension', fixed(d.belt.allowableTensionN, 0), 'N'],
+        ['Allowable tension (cords)', fixed(d.belt.allowableTensionN, 0), 'N'],
+        [
+          'Allowable load per tooth',
+          d.belt.toothAllowableN === null ? 'typical value' : fixed(d.belt.toothAllowableN, 1),
+          d.belt.toothAllowableN === null ? '' : 'N',
+        ],
         ['Minimum pulley teeth (profile)', fixed(d.belt.minPulleyTeeth, 0), 'teeth'],
         ['Drive pulley', fixed(d.pulley.driveTeeth, 0), 'teeth'],
         ['Drive pulley inertia', ...inertia(d.pulley.driveInertiaKgM2)],
@@ -316,6 +322,15 @@ export function inputsSection(data: SheetData): Content[] {
         ['Moving mass in X / Y (result)', `${fixed(r.mass.xKg, 3)} / ${fixed(r.mass.yKg, 3)}`, 'kg'],
         ['Rotor + pulley as belt mass', fixed(r.mass.reflectedPerMotorKg, 3), 'kg'],
         ['Friction X / Y', `${fixed(d.frictionN.x, 1)} / ${fixed(d.frictionN.y, 1)}`, 'N'],
+        ...(d.mechanism === 'hbot'
+          ? [
+              [
+                'Guide yaw moment rating',
+                d.guide.yawMomentRatingNm === null ? 'typical value' : fixed(d.guide.yawMomentRatingNm, 1),
+                d.guide.yawMomentRatingNm === null ? '' : 'N·m',
+              ] as Row,
+            ]
+          : []),
         ['Cruise speed', fixed(d.cruiseSpeedMmPerS, 0), 'mm/s'],
         [
           'Planned acceleration',
@@ -349,18 +364,49 @@ export function driveSection(data: SheetData): Content[] {
     ],
     ['Full-step length (belt)', ...both(fixed(drive.fullStepMm, 4)), unit('mm')],
     ['Microstep length (belt)', ...both(fixed(drive.microstepBeltMm, 5)), unit('mm')],
-    ['Carriage move per microstep, along X', ...both(fixed(drive.microstepMm.x, 5)), unit('mm')],
-    ['Carriage move per microstep, along Y', ...both(fixed(drive.microstepMm.y, 5)), unit('mm')],
-    ['Carriage move per microstep, along the diagonal', ...both(fixed(drive.microstepMm.diagonal, 5)), unit('mm')],
   ];
+  const micro = drive.microstep;
+  const old = legacyMicrostep(data.result);
+  const carriage: Content[][] = micro
+    ? [
+        [
+          'One motor steps once, the other holds',
+          numCell(`${fixed(micro.oneMotorMm, 5)} toward ${fixed(micro.oneMotorDirectionDeg, 0)}°`),
+          unit('mm'),
+        ],
+        [{ text: 'Smallest pure X or pure Y move', bold: true }, numCell(fixed(micro.axisMm, 5), true), unit('mm')],
+        ['Smallest pure 45° diagonal move', numCell(fixed(micro.diagonalMm, 5)), unit('mm')],
+      ]
+    : old
+      ? [
+          [`Along X (engine ${data.result.engineVersion})`, numCell(fixed(old.x, 5)), unit('mm')],
+          [`Along Y (engine ${data.result.engineVersion})`, numCell(fixed(old.y, 5)), unit('mm')],
+          [`Along the diagonal (engine ${data.result.engineVersion})`, numCell(fixed(old.diagonal, 5)), unit('mm')],
+        ]
+      : [];
+  const shaft =
+    data.design.mechanism === 'cartesian' && data.design.yMotors === 1
+      ? ' One Y motor turns both Y belts through a cross shaft, taken as rigid: its inertia and twist are neglected and both belts share the pull equally.'
+      : '';
   return [
     block(
       heading('3', 'Drive numbers'),
       table(['*', 80, 80, 70], [th('Per motor'), th(nameA, 'right'), th(nameB, 'right'), th('Unit')], rows),
+      ...(carriage.length
+        ? [
+            { text: 'Carriage move per microstep', style: 'h2', margin: [0, 6, 0, 3] },
+            table(['*', 110, 40], [th('Figure'), th('Move', 'right'), th('Unit')], carriage),
+          ]
+        : []),
       {
         text:
           'Plain numbers for setting up the motion controller; this sheet gives no controller configuration text. ' +
-          'A carriage move is the largest for one microstep of one motor while the other holds.',
+          (micro
+            ? 'Each carriage figure answers its own question: on crossed belts one motor alone moves the carriage along a diagonal, and a pure X or Y move needs one microstep of each motor.'
+            : old
+              ? `The carriage figures are as approved with engine ${data.result.engineVersion}, which reported one motor's move projected on X and Y.`
+              : '') +
+          shaft,
         style: 'note',
         margin: [0, 3, 0, 0],
       },
@@ -415,16 +461,41 @@ export function signConvention(data: SheetData): Content[] {
 /** Belt loops to cut, and per span the pretension and target pluck frequency at the parking position. */
 export function beltsSection(data: SheetData): Content[] {
   const r = data.result;
-  const loops = r.belts.map((b) => [
-    safe(b.label, { bold: true }),
-    numCell(fixed(b.cutLengthMm, 0), true),
-    numCell(fixed(b.loopTeeth, 0), true),
-    numCell(fixed(b.loopLengthMm, 1)),
-    numCell(`${fixed(b.teethInMesh, 1)} (${fixed(b.driveWrapDeg, 0)}°)`),
-    numCell(fixed(b.peakPullN, 1)),
-    numCell(`${fixed(b.tightSideN, 1)} / ${fixed(b.allowableTensionN, 0)}`),
-    numCell(fixed(b.slackSideN, 1)),
-  ]);
+  const loops = r.belts.map((b) => {
+    const old = legacyBelt(b);
+    return [
+      safe(b.label, { bold: true }),
+      numCell(fixed(b.cutLengthMm, 0), true),
+      numCell(fixed(b.loopTeeth, 0), true),
+      numCell(fixed(b.loopLengthMm, 1)),
+      numCell(`${fixed(b.teethInMesh, 1)} (${fixed(b.driveWrapDeg, 0)}°)`),
+      numCell(fixed(b.peakPullN, 1)),
+      numCell(
+        old
+          ? `${fixed(old.tightSideN, 1)} / ${fixed(old.allowableTensionN, 0)}`
+          : `${fixed(b.tension.worstTightN, 1)} / ${fixed(b.tension.tensileAllowableN, 0)}`,
+      ),
+      numCell(fixed(old ? old.slackSideN : b.tension.worstSlackN, 1), !old && b.tension.worstSlackN <= 0),
+      numCell(
+        old
+          ? '—'
+          : `${fixed(b.tension.toothLoadN, 2)} / ${fixed(b.tension.toothAllowableN, 1)}${b.tension.toothAllowableIsTypical ? '*' : ''}`,
+      ),
+    ];
+  });
+  const where = (p: { xMm: number; yMm: number; directionDeg: number }) =>
+    `X ${fixed(p.xMm, 0)}, Y ${fixed(p.yMm, 0)} mm, moving toward ${fixed(p.directionDeg, 0)}°`;
+  const worstRows = r.belts
+    .filter((b) => !legacyBelt(b))
+    .map((b) => [
+      safe(b.label, { bold: true }),
+      numCell(fixed(b.tension.worstTightN, 1)),
+      { text: where(b.tension.worstTightAt) },
+      numCell(fixed(b.tension.worstSlackN, 1), b.tension.worstSlackN <= 0),
+      { text: where(b.tension.worstSlackAt) },
+    ]);
+  const typicalTooth = r.belts.some((b) => !legacyBelt(b) && b.tension.toothAllowableIsTypical);
+  const isLegacy = r.belts.some((b) => legacyBelt(b));
   const spans = r.belts.flatMap((b) =>
     b.spans.map((s) => [
       safe(b.label),
@@ -445,7 +516,7 @@ export function beltsSection(data: SheetData): Content[] {
       heading('4', 'Belts'),
       { text: 'Loops to cut', style: 'h2', margin: [0, 0, 0, 3] },
       table(
-        [62, 50, 38, '*', 60, 46, 70, 46],
+        [52, 44, 34, '*', 54, 40, 62, 40, 56],
         [
           th('Belt'),
           th('Cut length [mm]', 'right'),
@@ -453,16 +524,36 @@ export function beltsSection(data: SheetData): Content[] {
           th('Pitch-line loop [mm]', 'right'),
           th('Teeth in mesh (wrap)', 'right'),
           th('Peak pull [N]', 'right'),
-          th('Tight side / allowed [N]', 'right'),
-          th('Slack side [N]', 'right'),
+          th(isLegacy ? 'Tight side / allowed [N]' : 'Worst tight / allowed [N]', 'right'),
+          th(isLegacy ? 'Slack side [N]' : 'Worst slack [N]', 'right'),
+          th('Tooth load / allowed [N]', 'right'),
         ],
         loops,
       ),
       {
-        text: 'Cut length includes the clamp allowance at both ends; the teeth count is the pitch-line loop in whole teeth.',
+        text:
+          'Cut length includes the clamp allowance at both ends; the teeth count is the pitch-line loop in whole teeth. ' +
+          (isLegacy
+            ? `Tensions as approved with engine ${r.engineVersion}, which split each pull equally between the arms.`
+            : 'Worst tight and slack side: over the whole travel and every direction of the envelope, at rest and at cruise. ' +
+              'A pull splits between a belt’s arms in inverse proportion to their lengths, so the short arm takes almost all of it near the ends of travel. ' +
+              'Tooth load: peak pull over the teeth in mesh, at most 6 counted, fewer derated 20 % each (common practice); the tensile allowable is the belt’s, as typed.' +
+              (typicalTooth
+                ? ' * typical value of the allowable load per tooth, scaled from belt makers’ tables; use the maker’s figure.'
+                : '')),
         style: 'note',
         margin: [0, 3, 0, 0],
       },
+      ...(worstRows.length
+        ? [
+            { text: 'Where the worst tensions occur', style: 'h2', margin: [0, 6, 0, 3] },
+            table(
+              [52, 44, '*', 44, '*'],
+              [th('Belt'), th('Tight [N]', 'right'), th('Where'), th('Slack [N]', 'right'), th('Where')],
+              worstRows,
+            ),
+          ]
+        : []),
     ),
     {
       stack: [
@@ -532,8 +623,24 @@ export function limitsSection(data: SheetData): Content[] {
         style: 'note',
         margin: [0, 3, 0, 0],
       },
+      { text: motorModelNote(data), style: 'note', margin: [0, 3, 0, 0] },
     ),
   ];
+}
+
+/** Which torque data the limits rest on, and what the motor model leaves out. */
+function motorModelNote(data: SheetData): string {
+  const ts = data.result.torqueSpeed;
+  if (ts.source === 'table') return 'Motor torque: from the uploaded torque–speed table of this motor (no torque beyond its last row).';
+  if (typeof ts.topRevPerS !== 'number')
+    return `Motor torque: the motor model of engine ${data.result.engineVersion}. A measured torque–speed table replaces the model where one exists.`;
+  return (
+    'Motor torque: model of a two-phase hybrid stepper, pull-out torque with the rotor free to lag, under the driver current ' +
+    '(capped at the rated current) and the supply voltage; no ceiling where back-EMF reaches the supply ' +
+    `(${fixed(ts.backEmfSpeedRevPerS, 1)} rev/s); the curve ends at ${fixed(ts.topRevPerS, 1)} rev/s, where its torque falls to 5 % of standstill ` +
+    'or at five times that speed. The model leaves out mid-band resonance, iron loss and detent torque: a measured torque–speed table of ' +
+    'the motor on this driver and supply replaces it and should be used where one exists.'
+  );
 }
 
 /** Lowest resonance and where, ringing at the weakest point, and gantry racking. */
@@ -553,12 +660,18 @@ export function stiffnessSection(data: SheetData): Content[] {
     ];
   });
   const rk = r.racking;
+  const rating =
+    typeof rk.yawMomentRatingNm === 'number'
+      ? ` The guides are rated for ${fixed(rk.yawMomentRatingNm, 1)} N·m about the vertical axis${rk.yawMomentRatingIsTypical ? ' (typical value for two small profile-rail carriages; use the guide maker’s rating)' : ''}.`
+      : '';
   const racking =
     rk.momentPerNewtonM === 0
-      ? 'The belts pull the gantry symmetrically, so they cancel the gantry moment: 0 N·m per newton of X belt pull.'
+      ? r.mechanism === 'cartesian'
+        ? 'The X belt is closed on the gantry, so its pull puts no moment on the gantry.'
+        : 'Not computed for crossed belts: they would cancel the moment only if each belt shared its pull equally between its arms; with unequal arms a position-dependent moment remains, which this engine does not report yet.'
       : `The gantry feels ${sig(rk.momentPerNewtonM, 3)} N·m per newton of X belt pull (belt turns ${fixed(rk.turnSpacingMm, 0)} mm apart). ` +
         `At the peak X pull of ${fixed(rk.peakForceXN, 1)} N that is ${fixed(rk.peakMomentNm, 2)} N·m, taken by the Y guides as ` +
-        `${fixed(rk.guideReactionN, 1)} N over their ${fixed(rk.guideSpanMm, 0)} mm span.`;
+        `${fixed(rk.guideReactionN, 1)} N over their ${fixed(rk.guideSpanMm, 0)} mm span.${rating}`;
   return [
     block(
       heading('6', 'Stiffness, resonance and racking'),

@@ -80,7 +80,9 @@ export interface ResultChange {
 export interface RevisionDiff {
   revisionId: number;
   number: number;
-  previous: { id: number; number: number; status: RevisionStatus } | null;
+  /** Engine that computed this revision's frozen result. */
+  engineVersion: string;
+  previous: { id: number; number: number; status: RevisionStatus; engineVersion: string } | null;
   inputs: InputChange[];
   results: ResultChange[];
 }

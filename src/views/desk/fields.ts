@@ -198,7 +198,23 @@ export const FIELD_GROUPS: FieldGroup[] = [
         'Allowable tension',
         'force',
         'N',
-        'Largest tight-side tension the belt may carry, from the belt maker’s datasheet. The working-tension check compares the tight side against it, derated when few teeth are in mesh.',
+        'Largest tight-side tension the belt’s cords may carry, from the belt maker’s datasheet. The tensile check compares the worst tight side over the travel with it exactly as typed; few teeth in mesh derate the tooth load, not this.',
+      ),
+      num(
+        'belt.toothAllowableN',
+        'Allowable load per tooth',
+        'force',
+        'N',
+        'Load one tooth in mesh may carry, from the belt maker’s load tables for this pitch and width. The tooth-load check spreads the peak pull over at most 6 teeth in mesh (fewer lose 20 % each, common practice). Off: a typical value, 12 N for a 2 mm pitch, 6 mm wide belt, scaled with pitch × width (belt makers’ tables).',
+        {
+          optional: {
+            path: 'belt.toothAllowableN',
+            label: 'Enter the load per tooth',
+            offText: 'Typical value for this pitch and width',
+            defaultValue: 12,
+          },
+          isSweepable: false,
+        },
       ),
       num(
         'belt.minPulleyTeeth',
@@ -229,7 +245,7 @@ export const FIELD_GROUPS: FieldGroup[] = [
         'Drive pulley inertia',
         'inertia',
         'kg m^2',
-        'Moment of inertia of one drive pulley. Off: estimated as a solid aluminium cylinder of the pulley’s size.',
+        'Moment of inertia of one drive pulley. Off: estimated as an aluminium pulley with flanges and a set-screw hub of the pulley’s size (docs in the repository: masses and inertia).',
         {
           optional: {
             path: 'pulley.driveInertiaKgM2',
@@ -245,7 +261,7 @@ export const FIELD_GROUPS: FieldGroup[] = [
         'Idler inertia',
         'inertia',
         'kg m^2',
-        'Moment of inertia of one idler. Off: estimated as a solid aluminium cylinder of the idler’s size.',
+        'Moment of inertia of one idler. Off: estimated as an aluminium idler with flanges (no hub) of the idler’s size.',
         {
           optional: {
             path: 'pulley.idlerInertiaKgM2',
@@ -261,7 +277,7 @@ export const FIELD_GROUPS: FieldGroup[] = [
         'Belt pretension',
         'force',
         'N',
-        'Static tension each belt span is set to. Common practice: at least half the peak belt pull, so the slack side never goes loose. The Belt tension tab turns it into a pluck frequency per span.',
+        'Static tension each belt span is set to with the motors off. Under load the short arm of a belt takes almost all of a pull near the ends of travel, so keeping the slack side taut needs close to the full peak pull, not half of it. The Belt tension tab shows the worst slack side and turns the pretension into a pluck frequency per span.',
       ),
     ],
   },
@@ -275,7 +291,7 @@ export const FIELD_GROUPS: FieldGroup[] = [
         'Step angle',
         'angle',
         '',
-        'Full-step angle of the motor: 1.8° (200 steps per revolution) or 0.9° (400). From the motor datasheet.',
+        'Full-step angle of the motor: 1.8° (200 steps per revolution), 0.9° (400) or another two-phase angle, 90° ÷ a whole number of rotor teeth. From the motor datasheet. Three- and five-phase motors (1.2°, 0.72°) are not modelled.',
       ),
       num(
         'motor.holdingTorqueNm',
@@ -342,7 +358,7 @@ export const FIELD_GROUPS: FieldGroup[] = [
         'Driver current (RMS)',
         'current',
         'A',
-        'RMS phase current set on the driver. At low speed torque = holding torque × RMS current ÷ rated current.',
+        'RMS phase current set on the driver. At low speed torque = holding torque × RMS current ÷ rated current. Current above the rated current gives no more torque here (the iron saturates, the motor overheats); a check warns.',
       ),
       {
         path: 'motorDirection.a',
@@ -398,6 +414,23 @@ export const FIELD_GROUPS: FieldGroup[] = [
         'Force to push the carriage along X at constant speed (guides, seals, drag chain).',
       ),
       num('frictionN.y', 'Friction along Y', 'force', 'N', 'Force to push the gantry along Y at constant speed.'),
+      num(
+        'guide.yawMomentRatingNm',
+        'Guide yaw moment rating',
+        'torque',
+        'N m',
+        'Moment the Y guides together may take about the vertical axis: the guide maker’s yaw moment rating of one carriage, times the carriages holding the gantry. The H-shaped belt twists the gantry; the racking check compares its peak moment with this. Off: a typical value, 10 N·m, for two 12 mm miniature profile-rail carriages (guide makers’ catalogues).',
+        {
+          optional: {
+            path: 'guide.yawMomentRatingNm',
+            label: 'Enter the guides’ rating',
+            offText: 'Typical value for two small profile-rail carriages',
+            defaultValue: 10,
+          },
+          onlyFor: ['hbot'],
+          isSweepable: false,
+        },
+      ),
       num(
         'torqueMargin',
         'Torque margin',

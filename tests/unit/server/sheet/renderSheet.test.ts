@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { renderSheet } from '../../../../server/sheet/renderSheet';
-import { designFor, exampleSheetInput } from './fixtures/sheetInput';
+import { designFor, engineOneResult, exampleSheetInput } from './fixtures/sheetInput';
 
 // Rendering a sheet takes a second or two; on a busy shared machine several can queue up.
 vi.setConfig({ testTimeout: 60_000, hookTimeout: 60_000 });
@@ -92,7 +92,26 @@ describe('renderSheet', () => {
     expect(flat).toContain(`Along the diagonal 45 ${axes.diagonal.accelMaxMPerS2.toFixed(2)}`);
     expect(flat).toContain(`Worst direction ${axes.worst.directionDeg} ${axes.worst.accelMaxMPerS2.toFixed(2)}`);
     expect(flat).toContain(`${input.result.stiffness.min.frequencyHz.toFixed(1)} Hz`);
-    for (const check of input.result.checks) expect(flat).toContain(check.id);
+    for (const check of input.result.checks) if (check.subject) expect(flat).toContain(check.subject);
+    // check ids are for programs, never printed
+    for (const id of ['belt-slack', 'belt-tensile', 'teeth-in-mesh', 'torque-margin']) expect(flat).not.toContain(id);
+  });
+
+  it('when the text is extracted, then the worst tight and slack sides with where, the tooth load, the microstep figures and the motor-model caveats are printed', () => {
+    // Arrange
+    const flat = poppler('pdftotext', a4, '-layout').replace(/\s+/g, ' ');
+    const r = input.result;
+    // Act / Assert
+    for (const b of r.belts) {
+      expect(flat).toContain(`${b.tension.worstTightN.toFixed(1)} / ${b.tension.tensileAllowableN.toFixed(0)}`);
+      expect(flat).toContain(`X ${b.tension.worstSlackAt.xMm.toFixed(0)}, Y ${b.tension.worstSlackAt.yMm.toFixed(0)} mm, moving toward`);
+      expect(flat).toContain(`${b.tension.toothLoadN.toFixed(2)} / ${b.tension.toothAllowableN.toFixed(1)}`);
+    }
+    expect(flat).toContain(`Smallest pure X or pure Y move ${r.drive.microstep.axisMm.toFixed(5)}`);
+    expect(flat).toContain(`Smallest pure 45° diagonal move ${r.drive.microstep.diagonalMm.toFixed(5)}`);
+    expect(flat).toContain('One motor steps once, the other holds');
+    expect(flat).toContain('mid-band resonance, iron loss and detent torque');
+    expect(flat).toContain('measured torque–speed table');
   });
 
   it('when every page is read, then each carries "Page X of Y" and the fingerprint in its footer', () => {
@@ -170,3 +189,20 @@ describe('renderSheet', () => {
     await expect(renderSheet(exampleSheetInput(override))).rejects.toThrow(message);
   });
 });
+
+describe('renderSheet with a result frozen by engine 1', () => {
+  it('when a revision approved with engine 1 is rendered, then its figures print as approved and say which engine made them', async () => {
+    // Arrange
+    const old = exampleSheetInput({ result: engineOneResult() });
+    // Act
+    const pdf = await renderSheet(old);
+    // Assert
+    const flat = poppler('pdftotext', pdf, '-layout').replace(/\s+/g, ' ');
+    expect(flat).toContain('1.0.0');
+    expect(flat).toContain('Along X (engine 1.0.0) 0.00625');
+    expect(flat).toContain('Tensions as approved with engine 1.0.0');
+    const b = old.result.belts[0] as unknown as { tightSideN: number; allowableTensionN: number };
+    expect(flat).toContain(`${b.tightSideN.toFixed(1)} / ${b.allowableTensionN.toFixed(0)}`);
+  });
+});
+
