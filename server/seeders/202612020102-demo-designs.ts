@@ -25,6 +25,7 @@ export const DEMO_DESIGNS: readonly DemoDesign[] = [
       masses: { carriageKg: 0.35, toolKg: 0.25, gantryKg: 0.45 },
       cruiseSpeedMmPerS: 200,
       plannedAccelMmPerS2: 3000,
+      pretensionN: 45,
       wantedTravel: { xMm: 300, yMm: 260 },
     }),
   },
@@ -38,6 +39,8 @@ export const DEMO_DESIGNS: readonly DemoDesign[] = [
       cruiseSpeedMmPerS: 400,
       plannedAccelMmPerS2: 5000,
       ringingToleranceMm: 0.05,
+      // Two small rail carriages; the yaw rating the designer took from the rail maker's sheet (an invented demo figure).
+      guide: { yawMomentRatingNm: 6 },
     }),
   },
   {
@@ -57,7 +60,15 @@ export const DEMO_DESIGNS: readonly DemoDesign[] = [
     mechanism: 'corexy',
     edit: (d) => ({
       frame: { ...d.frame, outerXMm: 640, outerYMm: 480, extrusionMm: 30 },
-      belt: { pitchMm: 3, widthMm: 9, linearMassKgPerM: 0.022, axialStiffnessN: 80000, allowableTensionN: 450, minPulleyTeeth: 14 },
+      belt: {
+        pitchMm: 3,
+        widthMm: 9,
+        linearMassKgPerM: 0.022,
+        axialStiffnessN: 80000,
+        allowableTensionN: 450,
+        minPulleyTeeth: 14,
+        toothAllowableN: 22,
+      },
       motor: {
         ...d.motor,
         holdingTorqueNm: 1.26,

@@ -239,7 +239,7 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
       benchR2,
       users.reviewer,
       at(10, 1),
-      'Higher acceleration and tension: the checks still pass and the lowest resonance moved up. Approving.',
+      'Higher acceleration and pretension: the slack side still stays taut at the ends of travel and the checks pass. Approving.',
     );
     await decide(
       t,
@@ -289,7 +289,7 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
       question,
     );
     const reason =
-      'Check the racking force on the gantry guides and lower the planned acceleration until the ringing stays within 0.05 mm; then submit again.';
+      'The racking check fails: at full X pull the H belt twists the gantry harder than the two rail carriages are rated for. Choose carriages with a higher yaw moment rating or limit the X pull; then submit again.';
     await decide(t, plotter, plotterR1, 'returned', users.reviewer, at(5, 5), reason);
     await setDesign(t, plotter, 'returned', at(5, 5));
 

@@ -263,8 +263,8 @@ function loopOverTravel(
           loV = jl;
         }
       }
-      tRow[ix] = Math.round((t0 + hiHere) * 1000) / 1000;
-      sRow[ix] = Math.round((t0 + loHere) * 1000) / 1000;
+      tRow[ix] = Math.round((t0 + hiHere) * 100) / 100;
+      sRow[ix] = Math.round((t0 + loHere) * 100) / 100;
       if (t0 + hiHere > worstTight + 1e-9) {
         worstTight = t0 + hiHere;
         tightAt = { ix, iy, v: verts[hiV] };

@@ -205,4 +205,3 @@ describe('renderSheet with a result frozen by engine 1', () => {
     expect(flat).toContain(`${b.tightSideN.toFixed(1)} / ${b.allowableTensionN.toFixed(0)}`);
   });
 });
-
