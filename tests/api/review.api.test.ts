@@ -8,6 +8,8 @@ import { closeSequelize, getSequelize } from '../../server/db';
 import { Op } from 'sequelize';
 import { AuditLog, Design, Notification, Revision, type Role } from '../../server/models';
 import { deliverQueuedMail } from '../../server/services/notify.service';
+import { revisionFingerprint, summaryFigures } from '../../server/services/revisions.service';
+import { engineOneResult } from '../unit/server/sheet/fixtures/sheetInput';
 import type { PublicUser } from '../../server/services/users.service';
 import { createDesign, createUser, fetchOutbox, signedInAs, waitForMail, type Agent } from '../helpers/factories';
 
@@ -380,7 +382,8 @@ describe('POST /api/revisions/:id/return', () => {
     expect(second.status).toBe(201);
     expect(second.body).toMatchObject({ number: 2, status: 'in_review', previousRevisionId: revision.id });
     expect(diff.status).toBe(200);
-    expect(diff.body.previous).toEqual({ id: revision.id, number: 1, status: 'returned' });
+    expect(diff.body.previous).toEqual({ id: revision.id, number: 1, status: 'returned', engineVersion: ENGINE_VERSION });
+    expect(diff.body.engineVersion).toBe(ENGINE_VERSION);
     expect(diff.body.inputs).toEqual([{ path: 'driver.microsteps', change: 'changed', old: design.inputs.driver.microsteps, new: 32 }]);
     const steps = diff.body.results.find((r: { key: string }) => r.key === 'drive.stepsPerMm');
     const before = evaluateDesign(design.inputs).drive.stepsPerMm;
@@ -623,6 +626,52 @@ describe('comments', () => {
     expect(empty.body.error.details).toEqual([{ path: 'body', message: 'must not be empty' }]);
     expect(wrongParent.status).toBe(400);
     expect(wrongParent.body.error.details).toEqual([{ path: 'parentId', message: 'is not a comment on this revision' }]);
+  });
+});
+
+describe('revisions frozen by an older engine', () => {
+  it('when a revision frozen by engine 1 is read, diffed and approved, then its result stays as frozen and its sheet prints it', async () => {
+    // Arrange: an in-review revision whose result engine 1 froze (shaped as that engine stored it)
+    const design = await draft();
+    const inputs = parseDesign(design.inputs);
+    const result = engineOneResult(inputs);
+    const now = new Date();
+    const revision = await Revision.create({
+      designId: design.id,
+      number: 1,
+      status: 'in_review',
+      inputs: inputs as unknown as Record<string, unknown>,
+      result: result as unknown as Record<string, unknown>,
+      summary: summaryFigures(result),
+      engineVersion: '1.0.0',
+      fingerprint: revisionFingerprint(inputs, result),
+      authorId: users.owner.id,
+      submittedAt: now,
+      decidedById: null,
+      decidedAt: null,
+      decisionNote: null,
+    });
+    await Design.update({ status: 'in_review' }, { where: { id: design.id } });
+
+    // Act
+    const read = await agents.reviewer.get(`/api/revisions/${revision.id}`);
+    const diff = await agents.reviewer.get(`/api/revisions/${revision.id}/diff`);
+    const approve = await agents.reviewer.post(`/api/revisions/${revision.id}/approve`).send({ comment: 'Approved as computed then.' });
+
+    // Assert: nothing was recomputed with the current engine
+    expect(read.status).toBe(200);
+    expect(read.body.engineVersion).toBe('1.0.0');
+    expect(read.body.result.engineVersion).toBe('1.0.0');
+    expect(read.body.result.drive.microstep).toBeUndefined();
+    expect(read.body.result.drive.microstepMm).toEqual(result.drive.microstepMm);
+    expect(read.body.result.belts[0].tension).toBeUndefined();
+    expect(diff.status).toBe(200);
+    expect(diff.body.engineVersion).toBe('1.0.0');
+    expect(diff.body.results.find((r: { key: string }) => r.key === 'drive.microstep.axisMm').new).toBeNull();
+    expect(approve.status).toBe(200);
+    expect(approve.body.sheet).toMatchObject({ revisionId: revision.id, engineVersion: '1.0.0' });
+    const after = await Revision.findByPk(revision.id);
+    expect(after?.fingerprint).toBe(revisionFingerprint(inputs, result));
   });
 });
 
