@@ -152,7 +152,7 @@ function beltChecks(c: CheckInput, b: BeltReport): Check[] {
     qty(p.xMm, 'lengthMm'),
     ', Y ',
     qty(p.yMm, 'lengthMm'),
-    ' moving at ',
+    ', moving toward ',
     qty(p.directionDeg, 'angleDeg'),
   ];
   const tightOver = t.worstTightN > t.tensileAllowableN;

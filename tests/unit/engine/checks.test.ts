@@ -139,7 +139,7 @@ describe('designChecks', () => {
     const c = find(designChecks(input), 'belt-slack', 'Belt A');
     // Assert
     expect(c.message).toBe(
-      'Belt A: the slack side goes slack (−6 N) at X 0 mm, Y 300 mm moving at 270°; raise the Belt pretension above 46 N or lower the pull.',
+      'Belt A: the slack side goes slack (−6 N) at X 0 mm, Y 300 mm, moving toward 270°; raise the Belt pretension above 46 N or lower the pull.',
     );
     expect(c.parts).toContainEqual({ value: -6, kind: 'forceN' });
     expect(c.kind).toBe('forceN');
