@@ -57,6 +57,37 @@ describe('POST /api/calc', () => {
     expect(res.body.stiffness.xMm).toHaveLength(41);
   });
 
+  it('when a design is posted, then the answer carries the corrected figures: tension over the travel, microstep figures, checks with parts', async () => {
+    // Arrange
+    const doc = design((d) => ({ ...d, pretensionN: 12 }));
+    // Act
+    const res = await agents.designer.post('/api/calc').send({ design: doc });
+    // Assert
+    expect(res.status).toBe(200);
+    expect(Object.keys(res.body.drive.microstep).sort()).toEqual(['axisMm', 'diagonalMm', 'oneMotorDirectionDeg', 'oneMotorMm']);
+    for (const b of res.body.belts) {
+      expect(b.tension.worstSlackAt).toEqual({ xMm: expect.any(Number), yMm: expect.any(Number), directionDeg: expect.any(Number) });
+      expect(b.tension.tensileAllowableN).toBe(doc.belt.allowableTensionN);
+    }
+    const slack = res.body.checks.filter((c: { id: string }) => c.id === 'belt-slack');
+    expect(slack.map((c: { subject: string; severity: string }) => [c.subject, c.severity])).toEqual([
+      ['Belt A', 'fail'],
+      ['Belt B', 'fail'],
+    ]);
+    expect(slack[0].parts.length).toBeGreaterThan(1);
+  });
+
+  it('when the step angle is not a two-phase one, then 400 naming design.motor.stepAngleDeg', async () => {
+    // Arrange / Act
+    const res = await agents.designer
+      .post('/api/calc')
+      .send({ design: design((d) => ({ ...d, motor: { ...d.motor, stepAngleDeg: 1.2 } })) });
+    // Assert
+    expect(res.status).toBe(400);
+    expect(res.body.error.details.map((x: { path: string }) => x.path)).toEqual(['design.motor.stepAngleDeg']);
+    expect(res.body.error.details[0].message).toMatch(/two-phase/);
+  });
+
   it('when not signed in, then 401', async () => {
     const res = await request(app).post('/api/calc').send({ design: design() });
     expect(res.status).toBe(401);
