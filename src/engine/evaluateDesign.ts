@@ -398,6 +398,54 @@ function motorsAndSigns(d: DesignInput, kinv: Matrix2, motorsOn: [number, number
   };
 }
 
+/** The inputs of the checks, gathered from every section of the evaluation (docs/checks.md). */
+function checksOf(
+  d: DesignInput,
+  x: {
+    t: TravelInfo;
+    es: EnvelopeSection;
+    belts: BeltReport[];
+    racking: DesignResult['racking'];
+    ringingPlanned: RingingFigure;
+    plannedAccel: number;
+  },
+): DesignResult['checks'] {
+  const { t, es, belts, racking, plannedAccel } = x;
+  return designChecks({
+    torqueMargin: d.torqueMargin,
+    currentRmsA: d.driver.currentRmsA,
+    ratedCurrentA: d.motor.ratedCurrentA,
+    belts,
+    pretensionN: d.pretensionN,
+    driveTeeth: d.pulley.driveTeeth,
+    idlerTeeth: d.pulley.idlerTeeth,
+    minPulleyTeeth: d.belt.minPulleyTeeth,
+    ringingPlanned: x.ringingPlanned,
+    ringingToleranceMm: d.ringingToleranceMm,
+    plannedAccelMPerS2: d.plannedAccelMmPerS2 !== null ? plannedAccel : null,
+    worstAccelMPerS2: es.holdAccel.accelMPerS2,
+    worstAccelDirectionDeg: es.holdAccel.directionDeg,
+    cruiseSpeedMPerS: es.envIn.cruiseMPerS,
+    worstSpeedMPerS: es.worstSpeed.speedMPerS,
+    worstSpeedDirectionDeg: es.worstSpeed.directionDeg,
+    travel: { xMm: t.xMm, yMm: t.yMm },
+    outer: { xMm: d.frame.outerXMm, yMm: d.frame.outerYMm },
+    wantedTravel: d.wantedTravel,
+    toolKg: d.masses.toolKg,
+    toolHoldN: d.toolMount ? d.toolMount.holdN : null,
+    // With a planned acceleration the machine is meant to run at it; otherwise the best the motors give anywhere.
+    toolAccelMPerS2: d.plannedAccelMmPerS2 !== null ? plannedAccel : es.bestAccel,
+    racking:
+      d.mechanism === 'hbot'
+        ? {
+            momentNm: Math.abs(racking.peakMomentNm),
+            ratingNm: racking.yawMomentRatingNm,
+            ratingIsTypical: racking.yawMomentRatingIsTypical,
+          }
+        : null,
+  });
+}
+
 /**
  * Evaluates a design: validates it with the schema, then computes kinematics, drive numbers, travel, belt
  * layout, masses, motor torque, the acceleration/speed envelope, belt tensions over the travel, the stiffness map,
@@ -451,39 +499,7 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
     worst: ringing(es.axes.worst.accelMaxMPerS2, fMin, tol),
     planned: ringing(plannedAccel, fMin, tol),
   };
-  const checks = designChecks({
-    torqueMargin: d.torqueMargin,
-    currentRmsA: d.driver.currentRmsA,
-    ratedCurrentA: d.motor.ratedCurrentA,
-    belts,
-    pretensionN: d.pretensionN,
-    driveTeeth: d.pulley.driveTeeth,
-    idlerTeeth: d.pulley.idlerTeeth,
-    minPulleyTeeth: d.belt.minPulleyTeeth,
-    ringingPlanned: ringingFig.planned,
-    ringingToleranceMm: tol,
-    plannedAccelMPerS2: d.plannedAccelMmPerS2 !== null ? plannedAccel : null,
-    worstAccelMPerS2: es.holdAccel.accelMPerS2,
-    worstAccelDirectionDeg: es.holdAccel.directionDeg,
-    cruiseSpeedMPerS: es.envIn.cruiseMPerS,
-    worstSpeedMPerS: es.worstSpeed.speedMPerS,
-    worstSpeedDirectionDeg: es.worstSpeed.directionDeg,
-    travel: { xMm: t.xMm, yMm: t.yMm },
-    outer: { xMm: d.frame.outerXMm, yMm: d.frame.outerYMm },
-    wantedTravel: d.wantedTravel,
-    toolKg: d.masses.toolKg,
-    toolHoldN: d.toolMount ? d.toolMount.holdN : null,
-    // With a planned acceleration the machine is meant to run at it; otherwise the best the motors give anywhere.
-    toolAccelMPerS2: d.plannedAccelMmPerS2 !== null ? plannedAccel : es.bestAccel,
-    racking:
-      d.mechanism === 'hbot'
-        ? {
-            momentNm: Math.abs(racking.peakMomentNm),
-            ratingNm: racking.yawMomentRatingNm,
-            ratingIsTypical: racking.yawMomentRatingIsTypical,
-          }
-        : null,
-  });
+  const checks = checksOf(d, { t, es, belts, racking, ringingPlanned: ringingFig.planned, plannedAccel });
   const env = es.env;
   return {
     engineVersion: ENGINE_VERSION,
