@@ -49,28 +49,31 @@ describe('buildBeltLayout', () => {
     }
   });
 
-  it.each(CASES)('when a random %s design (seed %i) is moved, then the motor belt follows the K matrix of docs/envelope.md §1', (mech, seed) => {
-    const d = randomDesign(seed, mech);
-    const t = frameToTravel(d);
-    const k = kinematicsMatrix(mech);
-    const motorVars = t.layout.motorVars;
-    for (const model of t.models) {
-      for (const [qx, qy] of [
-        [1, 0],
-        [0, 1],
-        [0.3, -0.7],
-      ]) {
-        const { motors, closure } = transfers(model.pieces, qx, qy);
-        expect(closure).toBeCloseTo(0, 9);
-        motors.forEach((m, i) => {
-          const coord = motorVars.find((v) => v.id === model.nodeMotors[i])!.coordinate;
-          const expected = k[coord][0] * qx + k[coord][1] * qy;
-          // The layout fixes each motor's sense only up to sign; the sign convention lives in K.
-          expect(Math.abs(m)).toBeCloseTo(Math.abs(expected), 9);
-        });
+  it.each(CASES)(
+    'when a random %s design (seed %i) is moved, then the motor belt follows the K matrix of docs/envelope.md §1',
+    (mech, seed) => {
+      const d = randomDesign(seed, mech);
+      const t = frameToTravel(d);
+      const k = kinematicsMatrix(mech);
+      const motorVars = t.layout.motorVars;
+      for (const model of t.models) {
+        for (const [qx, qy] of [
+          [1, 0],
+          [0, 1],
+          [0.3, -0.7],
+        ]) {
+          const { motors, closure } = transfers(model.pieces, qx, qy);
+          expect(closure).toBeCloseTo(0, 9);
+          motors.forEach((m, i) => {
+            const coord = motorVars.find((v) => v.id === model.nodeMotors[i])!.coordinate;
+            const expected = k[coord][0] * qx + k[coord][1] * qy;
+            // The layout fixes each motor's sense only up to sign; the sign convention lives in K.
+            expect(Math.abs(m)).toBeCloseTo(Math.abs(expected), 9);
+          });
+        }
       }
-    }
-  });
+    },
+  );
 
   it.each(MECHS)('when the %s layout is solved at mid-frame, then every wrap is the quarter or half turn it is drawn for', (mech) => {
     const d = randomDesign(99, mech);

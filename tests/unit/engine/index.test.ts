@@ -18,6 +18,8 @@ describe('engine entry point (src/engine/index.ts)', () => {
     'reflectedMassKg',
     'naturalFrequencyHz',
     'motorTorqueNm',
+    'pullOutTorqueNm',
+    'beltArmTensionsN',
     'moveTimeS',
     'evaluateDesign',
     'compareMechanisms',
