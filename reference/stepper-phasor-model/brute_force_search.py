@@ -3,7 +3,7 @@
 Brute-force search over the driver's phase-voltage phasor V_s = m·exp(j·delta) (0 <= m <= V, delta the angle to
 the back-EMF): current from the circuit I = (V_s - E)/Z with complex numbers, feasible when |I| <= I_p, torque
 k_t·Re(I). A 400 x 1440 grid, then five zooms of 80 x 80 around the best point. Built from the circuit equation
-only, not from the closed form of docs/motor-torque.md. Run with python3 (no packages needed).
+only, not from the closed form of docs/models/motor-torque.md. Run with python3 (no packages needed).
 """
 import cmath
 import json

@@ -27,7 +27,7 @@ export type DesignMechanism = (typeof DESIGN_MECHANISMS)[number];
 export type DesignResultSummary = {
   engineVersion: string;
   stepsPerMm: number;
-  /** Carriage figures of one microstep (engine 2 on; docs/resolution.md). */
+  /** Carriage figures of one microstep (engine 2 on; docs/models/resolution.md). */
   microstep?: { oneMotorMm: number; oneMotorDirectionDeg: number; axisMm: number; diagonalMm: number };
   /** Engine 1 summaries only: one motor's microstep projected on X and Y. */
   microstepMm?: { x: number; y: number; diagonal: number };

@@ -21,7 +21,7 @@ export const DEMO_DESIGNS: readonly DemoDesign[] = [
     name: 'Bench dispensing stage',
     mechanism: 'corexy',
     edit: (d) => ({
-      frame: { ...d.frame, outerXMm: 460, outerYMm: 420 },
+      frame: { ...d.frame, outerXMm: 470, outerYMm: 420 },
       masses: { carriageKg: 0.35, toolKg: 0.25, gantryKg: 0.45 },
       cruiseSpeedMmPerS: 200,
       plannedAccelMmPerS2: 3000,

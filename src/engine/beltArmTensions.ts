@@ -1,6 +1,6 @@
 import { requireNumber } from './errors';
 
-// Derivation: docs/belt-tension.md §2–3.
+// Derivation: docs/models/belt-tension.md §2–3.
 
 /**
  * Tight and slack arm of a belt loop with one drive pulley, clamped at both ends to the carriage. Belt-length
@@ -12,7 +12,7 @@ import { requireNumber } from './errors';
  * @param args.pullArmMm - length of the arm the motor pulls, L₁ [mm]
  * @param args.otherArmMm - length of the other arm, L₂ [mm]
  * @returns tight-side and slack-side tension [N]
- * @see docs/belt-tension.md §2
+ * @see docs/models/belt-tension.md §2
  */
 export function beltArmTensionsN(args: { pretensionN: number; pullN: number; pullArmMm: number; otherArmMm: number }): {
   tightN: number;
@@ -35,7 +35,7 @@ export function beltArmTensionsN(args: { pretensionN: number; pullN: number; pul
  * @param lengthsMm - piece lengths in belt order [mm] (n pieces)
  * @param nodePullsN - pull of each drive pulley between consecutive pieces [N] (n − 1 values)
  * @returns tension change of each piece [N]
- * @see docs/belt-tension.md §3
+ * @see docs/models/belt-tension.md §3
  */
 export function chainTensionChangesN(lengthsMm: readonly number[], nodePullsN: readonly number[]): number[] {
   const n = lengthsMm.length;

@@ -2,7 +2,7 @@ import type { BeltLayout, LoopModel } from './beltLayout';
 import type { Matrix2 } from './linalg';
 import type { TensionPlace } from './types';
 
-// Model and derivation: docs/belt-tension.md §3–4.
+// Model and derivation: docs/models/belt-tension.md §3–4.
 
 /** Belt pulls of the two motor coordinates at the points of the envelope (SI, signed as K's rows). */
 export interface PullPairs {
@@ -136,7 +136,7 @@ function prepareLoop(model: LoopModel, inp: BeltTensionInput, nodesPerCoord: [nu
  * over all directions are their extremes over the convex hull of the envelope's pull pairs (computed once).
  * @param inp - loop models, motor variables, K, pretension, pull pairs and the grid
  * @returns one result per loop
- * @see docs/belt-tension.md §4
+ * @see docs/models/belt-tension.md §4
  */
 export function beltTensionOverTravel(inp: BeltTensionInput): LoopTensionResult[] {
   const nodesPerCoord: [number, number] = [0, 0];

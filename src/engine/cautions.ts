@@ -1,7 +1,7 @@
 import type { Caution } from './types';
 
 /**
- * Safety cautions printed on every design sheet and shown on the Design desk (docs/checks.md "Cautions"). They are data so
+ * Safety cautions printed on every design sheet and shown on the Design desk (docs/models/checks.md "Cautions"). They are data so
  * that the sheet and the UI print the same words; they defer to the rules that apply where the machine is used.
  */
 export const CAUTIONS: readonly Caution[] = [

@@ -1,7 +1,7 @@
 import { formatSignificant, makeCheck, qty, severityOf } from './checkText';
 import type { BeltReport, Check, RingingFigure } from './types';
 
-// What each check compares and why its limits are where they are: docs/checks.md.
+// What each check compares and why its limits are where they are: docs/models/checks.md.
 
 /** Highest share of available torque common practice lets a stepper design use (50–70 % of pull-out). */
 export const TORQUE_MARGIN_LIMIT = 0.7;
@@ -518,7 +518,7 @@ function rackingCheck(c: CheckInput): Check[] {
  * Messages use the labels the Design desk shows and metric units; `parts` carries the numbers for other units.
  * @param c - the numbers the checks compare
  * @returns checks
- * @see docs/checks.md
+ * @see docs/models/checks.md
  */
 export function designChecks(c: CheckInput): Check[] {
   return [

@@ -9,7 +9,7 @@ export interface KeyFigures {
   travelXMm: number;
   travelYMm: number;
   stepsPerMm: number;
-  /** Carriage figures of one microstep (docs/resolution.md). */
+  /** Carriage figures of one microstep (docs/models/resolution.md). */
   microstep: { oneMotorMm: number; oneMotorDirectionDeg: number; axisMm: number; diagonalMm: number };
   accelMaxMPerS2: { x: number; y: number; diagonal: number; worst: number };
   speedMaxMPerS: { x: number; y: number; diagonal: number; worst: number };

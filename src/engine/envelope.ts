@@ -132,7 +132,7 @@ export interface EnvelopeResult {
   peakForceXN: number;
   /**
    * Signed belt pulls of both coordinates at every envelope point: per direction, accelerating and braking at the
-   * limit at rest and at cruise (4 per direction), belt and idler inertia included (docs/belt-tension.md §4).
+   * limit at rest and at cruise (4 per direction), belt and idler inertia included (docs/models/belt-tension.md §4).
    */
   pullPairs: { aN: Float64Array; bN: Float64Array; directionDeg: Float64Array };
 }
@@ -150,7 +150,7 @@ function accelBound(alpha: number, beta: number, p: number): number {
  * which every motor still covers its friction share βᵢ.
  * @param inp - matrix, masses [kg], friction [N], pull curves, cruise speed [m/s], number of directions
  * @returns per-direction limits [m/s², m/s], shares and the limiting motor
- * @see docs/envelope.md; virtual work for K⁻ᵀ (docs/envelope.md §1)
+ * @see docs/models/envelope.md; virtual work for K⁻ᵀ (docs/models/envelope.md §1)
  */
 export function computeEnvelope(inp: EnvelopeInput): EnvelopeResult {
   const n = inp.directions;

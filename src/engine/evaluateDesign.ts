@@ -71,7 +71,7 @@ function ringing(accel: number, fHz: number, tolMm: number): RingingFigure {
   };
 }
 
-/** Drive pulley radius and the drive numbers of the result (docs/resolution.md). */
+/** Drive pulley radius and the drive numbers of the result (docs/models/resolution.md). */
 function driveNumbers(d: DesignInput, k: Matrix2): { rM: number; section: DesignResult['drive'] } {
   const p = d.belt.pitchMm;
   const travelPerRev = d.pulley.driveTeeth * p;
@@ -93,7 +93,7 @@ function driveNumbers(d: DesignInput, k: Matrix2): { rM: number; section: Design
   };
 }
 
-/** Moving masses and each motor coordinate's belt-line equivalent mass (docs/envelope.md §2). */
+/** Moving masses and each motor coordinate's belt-line equivalent mass (docs/models/envelope.md §2). */
 interface MassModel {
   xKg: number;
   yKg: number;
@@ -206,7 +206,7 @@ function envelopeSection(d: DesignInput, k: Matrix2, m: MassModel, tq: TorqueSou
   };
 }
 
-/** Stiffness map over the travel (docs/stiffness-and-ringing.md). */
+/** Stiffness map over the travel (docs/models/stiffness-and-ringing.md). */
 function stiffnessSection(d: DesignInput, t: TravelInfo, m: MassModel, rM: number): StiffnessResult {
   const kMotor = motorHoldingStiffnessNmPerRad(d.motor, d.driver) / (rM * rM);
   const motorStiffness: Record<MotorVar, number> = { A: kMotor, B: kMotor, B2: kMotor };
@@ -301,7 +301,7 @@ function beltReports(d: DesignInput, t: TravelInfo, states: LoopState[], tension
   });
 }
 
-/** H-loop racking: moment per newton of X pull, the peak moment and the guides' reaction and rating (docs/racking.md). */
+/** H-loop racking: moment per newton of X pull, the peak moment and the guides' reaction and rating (docs/models/racking.md). */
 function rackingSection(d: DesignInput, t: TravelInfo, env: EnvelopeResult): DesignResult['racking'] {
   const spacing = rackingTurnSpacingMm(t.layout);
   const perN = rackingMomentPerNewtonM({ mechanism: d.mechanism, turnSpacingMm: spacing });
@@ -318,7 +318,7 @@ function rackingSection(d: DesignInput, t: TravelInfo, env: EnvelopeResult): Des
   };
 }
 
-/** Torque–speed samples for the chart, with the operating points of the named directions (docs/envelope.md §4). */
+/** Torque–speed samples for the chart, with the operating points of the named directions (docs/models/envelope.md §4). */
 function torqueChart(
   d: DesignInput,
   k: Matrix2,
@@ -398,7 +398,7 @@ function motorsAndSigns(d: DesignInput, kinv: Matrix2, motorsOn: [number, number
   };
 }
 
-/** The inputs of the checks, gathered from every section of the evaluation (docs/checks.md). */
+/** The inputs of the checks, gathered from every section of the evaluation (docs/models/checks.md). */
 function checksOf(
   d: DesignInput,
   x: {

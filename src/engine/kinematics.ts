@@ -94,7 +94,7 @@ export function motorToCarriage(args: { mechanism: Mechanism; daMm: number; dbMm
  * @param args.forceBN - belt pull of motor B [N]
  * @param args.motorDirection - optional sign convention
  * @returns force on the carriage along X and Y [N]
- * @see docs/envelope.md §1 (virtual work: FA·δA + FB·δB = Fx·δX + Fy·δY for every δ)
+ * @see docs/models/envelope.md §1 (virtual work: FA·δA + FB·δB = Fx·δX + Fy·δY for every δ)
  */
 export function beltPullsToForce(args: { mechanism: Mechanism; forceAN: number; forceBN: number; motorDirection?: MotorDirection }): {
   forceXN: number;

@@ -15,7 +15,7 @@ export const PULLEY_HUB_MIN_DIAMETER_MM = 16;
 export const PULLEY_HUB_LENGTH_MM = 7;
 
 /**
- * Estimated inertia of an aluminium pulley built of coaxial solid cylinders (docs/masses-and-inertia.md):
+ * Estimated inertia of an aluminium pulley built of coaxial solid cylinders (docs/models/masses-and-inertia.md):
  * a belt section of the pitch diameter d and (belt width + 1 mm) length, two flanges of diameter d + 4 mm and
  * 1 mm thickness, and — for a drive pulley — a set-screw hub of diameter max(d + 4 mm, 16 mm) and 7 mm length.
  * Each cylinder adds ½·ρ·π·r⁴·length. Bore and tooth gaps are left out (they remove little inertia, which sits

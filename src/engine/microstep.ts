@@ -1,6 +1,6 @@
 import { inverse2, type Matrix2 } from './linalg';
 
-// Derivation: docs/resolution.md.
+// Derivation: docs/models/resolution.md.
 
 /** The three carriage figures of one microstep, each named for what it is. */
 export interface MicrostepFigures {
@@ -33,7 +33,7 @@ function smallestMoveMm(k: Matrix2, ux: number, uy: number, beltMicrostepMm: num
  * @param k - motor-to-carriage matrix K (motor directions applied)
  * @param beltMicrostepMm - belt travel of one microstep at a motor pulley s [mm]
  * @returns the three figures [mm] and the one-motor direction [°]
- * @see docs/resolution.md
+ * @see docs/models/resolution.md
  */
 export function microstepFigures(k: Matrix2, beltMicrostepMm: number): MicrostepFigures {
   const kinv = inverse2(k);

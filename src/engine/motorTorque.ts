@@ -2,14 +2,14 @@ import { requireNumber, throwInputError } from './errors';
 import { rotorTeeth } from './drive';
 import type { DriverSpec, MotorSpec, TorquePoint } from './types';
 
-// The model and its derivation: docs/motor-torque.md.
+// The model and its derivation: docs/models/motor-torque.md.
 
 /**
  * Torque constant of a two-phase hybrid stepper per ampere of peak phase current. Holding torque is quoted with
  * both phases at rated DC current, which equals a sine of peak √2·I_rated, hence k_t = T_hold/(√2·I_rated).
  * @param motor - motor data (holdingTorqueNm [N·m], ratedCurrentA [A])
  * @returns k_t = k_e [N·m/A = V·s/rad]
- * @see docs/motor-torque.md §1
+ * @see docs/models/motor-torque.md §1
  */
 export function torqueConstantNmPerA(motor: Pick<MotorSpec, 'holdingTorqueNm' | 'ratedCurrentA'>): number {
   const t = requireNumber('torqueConstantNmPerA', 'motor.holdingTorqueNm', motor?.holdingTorqueNm, 0, Infinity, true);
@@ -24,7 +24,7 @@ export function torqueConstantNmPerA(motor: Pick<MotorSpec, 'holdingTorqueNm' | 
  * @param motor - motor data (ratedCurrentA [A])
  * @param driver - driver data (currentRmsA [A])
  * @returns I_p [A, peak]
- * @see docs/motor-torque.md §2
+ * @see docs/models/motor-torque.md §2
  */
 export function effectivePeakCurrentA(motor: Pick<MotorSpec, 'ratedCurrentA'>, driver: Pick<DriverSpec, 'currentRmsA'>): number {
   return Math.SQRT2 * Math.min(driver.currentRmsA, motor.ratedCurrentA);
@@ -96,7 +96,7 @@ function phaseCircuit(scope: string, motor: MotorSpec, driver: DriverSpec): Phas
  * @param args.driver - driver data (supplyV [V], currentRmsA [A])
  * @param args.speedRevPerS - shaft speed [rev/s]
  * @returns pull-out torque [N·m]
- * @see docs/motor-torque.md §3 (closed form) and §5 (what the model leaves out)
+ * @see docs/models/motor-torque.md §3 (closed form) and §5 (what the model leaves out)
  */
 export function pullOutTorqueNm(args: { motor: MotorSpec; driver: DriverSpec; speedRevPerS: number }): number {
   const s = 'pullOutTorqueNm';
@@ -135,7 +135,7 @@ export function interpolateTorqueCurve(curve: readonly TorquePoint[], speedRevPe
  * @param motor - motor data (the design document's "motor")
  * @param driver - driver data (the design document's "driver")
  * @returns available torque [N·m] as a function of shaft speed [rev/s], margin not applied
- * @see docs/motor-torque.md
+ * @see docs/models/motor-torque.md
  */
 export function torqueSpeedFunction(motor: MotorSpec, driver: DriverSpec): (speedRevPerS: number) => number {
   const s = 'torqueSpeedFunction';
@@ -154,7 +154,7 @@ export function torqueSpeedFunction(motor: MotorSpec, driver: DriverSpec): (spee
  * @param args.driver - driver data (the design document's "driver": supplyV [V], currentRmsA [A])
  * @param args.speedRevPerS - shaft speed [rev/s]
  * @returns available torque [N·m]
- * @see docs/motor-torque.md
+ * @see docs/models/motor-torque.md
  */
 export function motorTorqueNm(args: { motor: MotorSpec; driver: DriverSpec; speedRevPerS: number }): number {
   const s = 'motorTorqueNm';
@@ -178,7 +178,7 @@ export const MODEL_TOP_FACTOR = 5;
  * @param motor - motor data (no torque table)
  * @param driver - driver data
  * @returns top speed of the model curve [rev/s]
- * @see docs/motor-torque.md §4
+ * @see docs/models/motor-torque.md §4
  */
 export function modelTopSpeedRevPerS(motor: MotorSpec, driver: DriverSpec): number {
   const c = phaseCircuit('modelTopSpeedRevPerS', motor, driver);
@@ -204,7 +204,7 @@ export function modelTopSpeedRevPerS(motor: MotorSpec, driver: DriverSpec): numb
  * @param motor - motor data
  * @param driver - driver data
  * @returns angular stiffness [N·m/rad]
- * @see docs/stiffness-and-ringing.md §2
+ * @see docs/models/stiffness-and-ringing.md §2
  */
 export function motorHoldingStiffnessNmPerRad(motor: MotorSpec, driver: DriverSpec): number {
   const low =

@@ -28,7 +28,7 @@ export function rackingTurnSpacingMm(layout: BeltLayout): number {
  * @param args.mechanism - mechanism key
  * @param args.turnSpacingMm - spacing S of the belt turns at the gantry ends [mm]
  * @returns moment per newton of X pull [N·m/N = m]
- * @see docs/racking.md; Hackaday, "Design Analysis: Core XY vs H-Bot" (29 Feb 2016): the H-bot puts a moment on the frame
+ * @see docs/models/racking.md; Hackaday, "Design Analysis: Core XY vs H-Bot" (29 Feb 2016): the H-bot puts a moment on the frame
  */
 export function rackingMomentPerNewtonM(args: { mechanism: string; turnSpacingMm: number }): number {
   const s = requireNumber('rackingMomentPerNewtonM', 'turnSpacingMm', args?.turnSpacingMm, 0);

@@ -54,7 +54,7 @@ const beltSchema = z.strictObject({
   toothAllowableN: pos(100000, 'allowable load per tooth').nullable().default(null),
 });
 
-/** Y guides of the gantry (docs/racking.md). */
+/** Y guides of the gantry (docs/models/racking.md). */
 const guideSchema = z.strictObject({
   /** Rated moment of the Y guides about the vertical axis; null → {@link TYPICAL_YAW_MOMENT_RATING_NM}. */
   yawMomentRatingNm: pos(100000, 'guide yaw moment rating').nullable().default(null),
@@ -75,7 +75,7 @@ const MULTI_PHASE_STEP_ANGLES_DEG = [1.2, 0.6, 0.72, 0.36] as const;
 /**
  * True for a step angle a two-phase hybrid or permanent-magnet stepper can have: 90°/N_r with a whole number of
  * rotor teeth (or pole pairs) N_r, and not one of the usual three- or five-phase angles, which the torque model
- * does not cover (docs/motor-torque.md §1).
+ * does not cover (docs/models/motor-torque.md §1).
  * @param stepAngleDeg - full-step angle [°]
  * @returns whether the motor is modelled
  */
@@ -160,7 +160,7 @@ export const designInputSchema = z
     description: z.string().max(4000, 'description must be at most 4000 characters').default(''),
     mechanism: z.enum(['corexy', 'hbot', 'cartesian'], { error: 'mechanism must be one of corexy, hbot, cartesian' }),
     /**
-     * Which way is +A / +B: 1 keeps the relation of docs/envelope.md §1 (crossed belts: +A moves the carriage toward
+     * Which way is +A / +B: 1 keeps the relation of docs/models/envelope.md §1 (crossed belts: +A moves the carriage toward
      * +X+Y, +B toward +X−Y; cartesian: +A → +X, +B → +Y); −1 when that motor is wired the other way round.
      */
     motorDirection: z.strictObject({ a: sign, b: sign }).default({ a: 1, b: 1 }),

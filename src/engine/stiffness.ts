@@ -45,7 +45,7 @@ function linspace(a: number, b: number, n: number): number[] {
  * nodes (clamp or drive pulley) is a spring EA/L whose stretch is G·q + Σ T·m, with q the carriage displacement
  * and m the belt each motor pulley passes on; the motors are springs k_θ/r² to ground. Minimising the energy
  * over the (massless) motor variables gives K_c = H_qq − H_qm·H_mm⁻¹·H_mq. For one motor per loop this is the
- * loop's two arms in parallel, EA·(1/L₁ + 1/L₂), in series with the motor (docs/stiffness-and-ringing.md); it also covers the
+ * loop's two arms in parallel, EA·(1/L₁ + 1/L₂), in series with the motor (docs/models/stiffness-and-ringing.md); it also covers the
  * single H loop with two motors and the cross-shaft cartesian Y drive.
  * @param inp - stiffness input (see StiffnessInput)
  * @param cxcMm - carriage centre X in frame coordinates [mm]
@@ -173,7 +173,7 @@ function condense(prep: Prepared, eaN: number, cxcMm: number, cycMm: number): vo
 
 /**
  * Stiffness map: the lowest natural frequency of the carriage (2×2 problem K·v = ω²·M·v, M = diag(m_x, m_y))
- * at every point of a grid over the travel, its minimum and where it occurs (docs/stiffness-and-ringing.md).
+ * at every point of a grid over the travel, its minimum and where it occurs (docs/models/stiffness-and-ringing.md).
  * @param inp - stiffness input (see StiffnessInput)
  * @returns grid [mm], frequencies [Hz] indexed [iy][ix], minimum
  * @see S. S. Rao, Mechanical Vibrations, 5th ed., ch. 5, two-degree-of-freedom systems (from memory)

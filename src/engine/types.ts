@@ -1,7 +1,7 @@
 /** Mechanism key of a design. */
 export type Mechanism = 'corexy' | 'hbot' | 'cartesian';
 
-/** Sign of each motor's positive sense: +1 keeps the K row of docs/envelope.md §1, −1 flips it. */
+/** Sign of each motor's positive sense: +1 keeps the K row of docs/models/envelope.md §1, −1 flips it. */
 export interface MotorDirection {
   a: 1 | -1;
   b: 1 | -1;
@@ -60,7 +60,7 @@ export interface CheckQuantity {
   kind: QuantityKind;
 }
 
-/** One design check (docs/checks.md). */
+/** One design check (docs/models/checks.md). */
 export interface Check {
   /** Stable id for programs, e.g. "belt-slack" (the belt is in `subject`); never shown to users. */
   id: string;
@@ -81,7 +81,7 @@ export interface Check {
   subject: string | null;
 }
 
-/** One safety caution shown on every sheet and on the Design desk (docs/checks.md "Cautions"). */
+/** One safety caution shown on every sheet and on the Design desk (docs/models/checks.md "Cautions"). */
 export interface Caution {
   id: 'pinch-points' | 'electrical-supply' | 'stored-energy' | 'codes-and-practice';
   title: string;
@@ -143,7 +143,7 @@ export interface BeltReport {
   massKg: number;
   /** Largest pull any drive pulley of this belt transmits anywhere on the envelope [N]. */
   peakPullN: number;
-  /** Working tension over the travel and every envelope direction (docs/belt-tension.md). */
+  /** Working tension over the travel and every envelope direction (docs/models/belt-tension.md). */
   tension: BeltTension;
 }
 
@@ -265,7 +265,7 @@ export interface DesignResult {
     fullStepsPerRev: number;
     microsteps: number;
     microstepBeltMm: number;
-    /** Carriage figures of one microstep, each named for what it is (docs/resolution.md). */
+    /** Carriage figures of one microstep, each named for what it is (docs/models/resolution.md). */
     microstep: { oneMotorMm: number; oneMotorDirectionDeg: number; axisMm: number; diagonalMm: number };
   };
   travel: {

@@ -1,5 +1,5 @@
 // Typical values the engine uses when the designer leaves an optional input out. Each is labelled "typical value"
-// wherever a user sees it; where each comes from is in docs/belt-tension.md and docs/racking.md.
+// wherever a user sees it; where each comes from is in docs/models/belt-tension.md and docs/models/racking.md.
 
 /**
  * Allowable load per tooth in mesh of a 2 mm pitch, 6 mm wide round-tooth belt [N]: the typical value the
@@ -13,7 +13,7 @@ export const TYPICAL_TOOTH_ALLOWABLE_2MM_6MM_N = 12;
  * @param args.pitchMm - belt pitch [mm]
  * @param args.widthMm - belt width [mm]
  * @returns allowable load per tooth [N]
- * @see docs/belt-tension.md §5
+ * @see docs/models/belt-tension.md §5
  */
 export function typicalToothAllowableN(args: { pitchMm: number; widthMm: number }): number {
   return (TYPICAL_TOOTH_ALLOWABLE_2MM_6MM_N * (args.pitchMm * args.widthMm)) / (2 * 6);
@@ -22,6 +22,6 @@ export function typicalToothAllowableN(args: { pitchMm: number; widthMm: number 
 /**
  * Typical rated moment about the vertical axis of a gantry's Y guides [N·m]: two 12 mm miniature profile-rail
  * carriages, one per side (guide makers' catalogues, from memory).
- * @see docs/racking.md §3
+ * @see docs/models/racking.md §3
  */
 export const TYPICAL_YAW_MOMENT_RATING_NM = 10;

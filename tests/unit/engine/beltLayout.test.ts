@@ -50,7 +50,7 @@ describe('buildBeltLayout', () => {
   });
 
   it.each(CASES)(
-    'when a random %s design (seed %i) is moved, then the motor belt follows the K matrix of docs/envelope.md §1',
+    'when a random %s design (seed %i) is moved, then the motor belt follows the K matrix of docs/models/envelope.md §1',
     (mech, seed) => {
       const d = randomDesign(seed, mech);
       const t = frameToTravel(d);

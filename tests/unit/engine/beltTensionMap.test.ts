@@ -162,9 +162,12 @@ describe('evaluateDesign belt tension', () => {
     // Arrange
     const d = defaultDesign('corexy');
     // Act
-    const r = evaluateDesign({ ...d, belt: { ...d.belt, allowableTensionN: 123 } });
-    // Assert: the corexy drive pulley has only 5 teeth in mesh, which derates tooth load, never the cords
+    const r = evaluateDesign({ ...d, belt: { ...d.belt, allowableTensionN: 123 }, pulley: { ...d.pulley, driveTeeth: 10 } });
+    // Assert: a 10-tooth drive pulley has under 6 teeth in mesh, which derates the tooth load, never the cords
     expect(r.belts[0].teethInMesh).toBeLessThan(6);
-    for (const b of r.belts) expect(b.tension.tensileAllowableN).toBe(123);
+    for (const b of r.belts) {
+      expect(b.tension.tensileAllowableN).toBe(123);
+      expect(b.tension.countedTeeth).toBeLessThan(6);
+    }
   });
 });

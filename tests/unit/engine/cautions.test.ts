@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { CAUTIONS, defaultDesign, evaluateDesign } from '@/engine';
 
 describe('CAUTIONS', () => {
-  it('when the cautions are listed, then pinch points, electrical supply, stored energy and deference to codes are all there (docs/checks.md "Cautions")', () => {
+  it('when the cautions are listed, then pinch points, electrical supply, stored energy and deference to codes are all there (docs/models/checks.md "Cautions")', () => {
     expect(CAUTIONS.map((c) => c.id)).toEqual(['pinch-points', 'electrical-supply', 'stored-energy', 'codes-and-practice']);
     expect(CAUTIONS.find((c) => c.id === 'electrical-supply')!.text).toMatch(/mains/);
     expect(CAUTIONS.find((c) => c.id === 'codes-and-practice')!.text).toMatch(/local codes/);

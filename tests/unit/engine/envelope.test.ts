@@ -77,7 +77,7 @@ describe('computeEnvelope (closed forms)', () => {
     const backEmfRevPerS = d.driver.supplyV / ke / (2 * Math.PI);
     // Act
     const res = evaluateDesign(d);
-    // Assert: the curve ends at the model top (docs/motor-torque.md §4), well past V/k_e
+    // Assert: the curve ends at the model top (docs/models/motor-torque.md §4), well past V/k_e
     const top = modelTopSpeedRevPerS(d.motor, d.driver);
     expect(top).toBeGreaterThan(backEmfRevPerS);
     expect(res.envelope.axes.x.speedMaxMPerS).toBeCloseTo((top * d.pulley.driveTeeth * d.belt.pitchMm) / 1000, 6);

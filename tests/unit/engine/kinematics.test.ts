@@ -132,7 +132,7 @@ describe('beltPullsToForce', () => {
     expect(f.forceYN).toBeCloseTo(0, 12);
   });
 
-  // Property: power balance FA·vA + FB·vB = Fx·vx + Fy·vy (virtual work, docs/envelope.md §1).
+  // Property: power balance FA·vA + FB·vB = Fx·vx + Fy·vy (virtual work, docs/models/envelope.md §1).
   it.each(MECHS.flatMap((m) => DIRS.map((d) => [m, d] as const)))(
     'when %s %j carries random pulls and speeds, then motor power equals carriage power',
     (mechanism, motorDirection) => {

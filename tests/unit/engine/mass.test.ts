@@ -69,7 +69,7 @@ describe('movingMassKg', () => {
   it.each([
     ['corexy', 0.4, 0.85],
     ['hbot', 0.4, 0.85],
-    // cartesian: the X motor rides the gantry (docs/masses-and-inertia.md)
+    // cartesian: the X motor rides the gantry (docs/models/masses-and-inertia.md)
     ['cartesian', 0.4, 1.13],
   ] as const)('when a %s stage carries 0.3 + 0.1 kg on a 0.45 kg gantry, then X moves %d kg and Y %d kg', (mechanism, x, y) => {
     const m = movingMassKg({ mechanism, carriageKg: 0.3, toolKg: 0.1, gantryKg: 0.45, motorKg: 0.28 });

@@ -55,7 +55,7 @@ describe('rackingMomentPerNewtonM', () => {
     ['corexy', 0],
     ['cartesian', 0],
   ] as const)(
-    'when the mechanism is %s, then the moment per newton is %d × S (docs/racking.md: M = Fx·S/2 for the H layout)',
+    'when the mechanism is %s, then the moment per newton is %d × S (docs/models/racking.md: M = Fx·S/2 for the H layout)',
     (mechanism, factor) => {
       expect(rackingMomentPerNewtonM({ mechanism, turnSpacingMm: 400 })).toBeCloseTo((factor * 400) / 1000, 12);
     },

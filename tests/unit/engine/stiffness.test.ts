@@ -40,7 +40,7 @@ describe('carriageStiffnessNPerM', () => {
   ])(
     'when a crossed-belt carriage sits at (%d, %d) of its travel, then K_c = Kᵀ·diag(k_A, k_B)·K with k = EA(1/L₁ + 1/L₂) in series with the motor',
     (fx, fy) => {
-      // Arrange: docs/stiffness-and-ringing.md, each loop's two arms in parallel (Rao ch. 1, springs in parallel, from memory), in series with k_θ/r²
+      // Arrange: docs/models/stiffness-and-ringing.md, each loop's two arms in parallel (Rao ch. 1, springs in parallel, from memory), in series with k_θ/r²
       const d = defaultDesign('corexy');
       const t = frameToTravel(d);
       const kMotor = 2.5e5;

@@ -39,7 +39,7 @@ describe('span stiffness EA/L into naturalFrequencyHz', () => {
     const spans = [spanMm, span1Mm, span2Mm].filter((l): l is number => l !== undefined);
     // Act
     const stiffnessNPerM = spansStiffnessNPerM(axialStiffnessN, spans);
-    // Assert: EA/L per span, added in parallel (docs/stiffness-and-ringing.md), reproduces the collected stiffness …
+    // Assert: EA/L per span, added in parallel (docs/models/stiffness-and-ringing.md), reproduces the collected stiffness …
     expectWithinTolerance(stiffnessNPerM, row.expected.stiffnessNPerM, row.tolerance, `${row.id} stiffnessNPerM`);
     // … and, where the case holds a mass, the engine turns that stiffness into the collected frequency.
     if (row.expected.frequencyHz !== undefined && massKg !== undefined) {

@@ -28,7 +28,7 @@ describe('limitingRanges', () => {
 
 describe('pullsAtLimit', () => {
   it('when a crossed-belt stage accelerates along X, then both motors pull equally', () => {
-    // Arrange: kinematics ΔA = ΔX + ΔY, ΔB = ΔX − ΔY (the crossed-belt relation published in 2012, docs/envelope.md §1)
+    // Arrange: kinematics ΔA = ΔX + ΔY, ΔB = ΔX − ΔY (the crossed-belt relation published in 2012, docs/models/envelope.md §1)
     const result = evaluateDesign(defaultDesign('corexy'));
     // Act
     const pulls = pullsAtLimit(result, { x: 0, y: 0 });
