@@ -175,6 +175,19 @@ function climb(va: Float64Array, vb: Float64Array, ca: number, cb: number, j: nu
   }
 }
 
+/** The pull pairs a loop must be checked against: the hull's vertices, or one coordinate's two extremes. */
+function loopVertices(p: PreparedLoop, pairs: PullPairs, hull: number[]): number[] {
+  if (p.usesA && p.usesB) return hull;
+  const vals = p.usesB ? pairs.bN : pairs.aN;
+  let lo = 0;
+  let hi = 0;
+  for (let i = 1; i < vals.length; i++) {
+    if (vals[i] < vals[lo]) lo = i;
+    if (vals[i] > vals[hi]) hi = i;
+  }
+  return [lo, hi];
+}
+
 function loopOverTravel(
   model: LoopModel,
   p: PreparedLoop,
@@ -183,27 +196,31 @@ function loopOverTravel(
   maxAbs: [number, number],
   directionDeg: Float64Array,
 ): LoopTensionResult {
-  const { aN, bN } = inp.pairs;
-  // Only the hull's vertices matter; a loop pulled by one coordinate needs only that coordinate's extremes.
-  let verts = hull;
-  if (!p.usesB || !p.usesA) {
-    const vals = p.usesB ? bN : aN;
-    let lo = 0;
-    let hi = 0;
-    for (let i = 1; i < vals.length; i++) {
-      if (vals[i] < vals[lo]) lo = i;
-      if (vals[i] > vals[hi]) hi = i;
-    }
-    verts = lo === hi ? [lo] : [lo, hi];
-  }
+  const verts = loopVertices(p, inp.pairs, hull);
   const nv = verts.length;
-  const va = new Float64Array(nv);
-  const vb = new Float64Array(nv);
-  verts.forEach((v, j) => {
-    va[j] = aN[v];
-    vb[j] = bN[v];
-  });
+  const va = Float64Array.from(verts, (v) => inp.pairs.aN[v]);
+  const vb = Float64Array.from(verts, (v) => inp.pairs.bN[v]);
+  const single = !(p.usesA && p.usesB);
+  // In a loop pulled by one coordinate only that coordinate's pull matters (the other's coefficients are 0).
+  const fv = p.usesB ? vb : va;
   const n = p.l0.length;
+  // Piece lengths are affine in the carriage position, so u = Σ Lᵢ·Sᵢ / Σ Lᵢ is a ratio of two affine functions.
+  let l0 = 0;
+  let lx = 0;
+  let ly = 0;
+  const nA = [0, 0, 0];
+  const nB = [0, 0, 0];
+  for (let i = 0; i < n; i++) {
+    l0 += p.l0[i];
+    lx += p.gx[i];
+    ly += p.gy[i];
+    nA[0] += p.l0[i] * p.sA[i];
+    nA[1] += p.gx[i] * p.sA[i];
+    nA[2] += p.gy[i] * p.sA[i];
+    nB[0] += p.l0[i] * p.sB[i];
+    nB[1] += p.gx[i] * p.sB[i];
+    nB[2] += p.gy[i] * p.sB[i];
+  }
   const start = new Int32Array(2 * n);
   const t0 = inp.pretensionN;
   let worstTight = -Infinity;
@@ -218,17 +235,9 @@ function loopOverTravel(
     const sRow = new Array<number>(inp.xMm.length);
     for (let ix = 0; ix < inp.xMm.length; ix++) {
       const cx = inp.originXMm + inp.xMm[ix];
-      let total = 0;
-      let uA = 0;
-      let uB = 0;
-      for (let i = 0; i < n; i++) {
-        const l = Math.max(1e-3, p.l0[i] + p.gx[i] * cx + p.gy[i] * cy);
-        total += l;
-        uA += l * p.sA[i];
-        uB += l * p.sB[i];
-      }
-      uA /= total;
-      uB /= total;
+      const total = l0 + lx * cx + ly * cy;
+      const uA = (nA[0] + nA[1] * cx + nA[2] * cy) / total;
+      const uB = (nB[0] + nB[1] * cx + nB[2] * cy) / total;
       let hiHere = -Infinity;
       let loHere = Infinity;
       let hiV = 0;
@@ -236,24 +245,30 @@ function loopOverTravel(
       for (let i = 0; i < n; i++) {
         const ca = uA - p.sA[i];
         const cb = uB - p.sB[i];
-        // A linear function along a convex polygon's boundary rises to one maximum and falls to one minimum, so a
-        // walk from the previous grid point's extreme vertex (the coefficients change little) finds the new one.
-        const o = i * 2;
-        let jh = start[o];
-        let jl = start[o + 1];
-        if (nv > 2) {
-          jh = climb(va, vb, ca, cb, jh, 1);
-          jl = climb(va, vb, ca, cb, jl, -1);
-        } else if (nv === 2) {
-          const f0 = ca * va[0] + cb * vb[0];
-          const f1 = ca * va[1] + cb * vb[1];
-          jh = f1 > f0 ? 1 : 0;
-          jl = f1 < f0 ? 1 : 0;
+        let jh: number;
+        let jl: number;
+        if (single) {
+          // c·F is largest at the larger pull when c ≥ 0, at the smaller one otherwise.
+          const c = p.usesB ? cb : ca;
+          jh = c >= 0 ? 1 : 0;
+          jl = 1 - jh;
+        } else {
+          // A linear function along a convex polygon's boundary rises to one maximum and falls to one minimum, so a
+          // walk from the previous grid point's extreme vertex (the coefficients change little) finds the new one.
+          if (nv > 2) {
+            jh = climb(va, vb, ca, cb, start[2 * i], 1);
+            jl = climb(va, vb, ca, cb, start[2 * i + 1], -1);
+          } else {
+            // A degenerate hull (every pull pair on one line): compare its ends.
+            const up = nv === 2 && ca * va[1] + cb * vb[1] > ca * va[0] + cb * vb[0];
+            jh = up ? 1 : 0;
+            jl = nv === 2 && !up ? 1 : 0;
+          }
+          start[2 * i] = jh;
+          start[2 * i + 1] = jl;
         }
-        start[o] = jh;
-        start[o + 1] = jl;
-        const th = ca * va[jh] + cb * vb[jh];
-        const tl = ca * va[jl] + cb * vb[jl];
+        const th = single ? (p.usesB ? cb : ca) * fv[jh] : ca * va[jh] + cb * vb[jh];
+        const tl = single ? (p.usesB ? cb : ca) * fv[jl] : ca * va[jl] + cb * vb[jl];
         if (th > hiHere) {
           hiHere = th;
           hiV = jh;
