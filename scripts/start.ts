@@ -9,8 +9,11 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
+import { parseEnv } from 'node:util';
+import { pathToFileURL } from 'node:url';
 import { ROOT_DIR } from '../server/paths';
 import { ConfigError, getConfig, loadDotEnv, type AppConfig } from '../server/config';
+import { isPlaceholderSecret } from '../server/security/secretStrength';
 import { ensureDatabases, ensureDebianPackages, MARIADB_PACKAGE, MissingPackagesError, startMariaDb, type MariaDbHandle } from './db';
 import { startMailCatcher, type MailCatcher } from './mailcatcher';
 import { buildClientIfStale } from './buildClient';
@@ -19,33 +22,58 @@ import { acquireRunLock } from './runLock';
 const say = (line = '') => process.stdout.write(`${line}\n`);
 const ENV_FILE = path.join(ROOT_DIR, '.env');
 const ENV_EXAMPLE = path.join(ROOT_DIR, '.env.example');
+const isLocalHost = (host: string) => ['127.0.0.1', 'localhost', '::1'].includes(host);
 
-/** Creates .env from .env.example on first run, with a random JWT secret and database password. */
-export function ensureEnvFile(): void {
-  const secret = () => randomBytes(32).toString('base64url');
-  if (!fs.existsSync(ENV_FILE)) {
-    const template = fs.readFileSync(ENV_EXAMPLE, 'utf8');
-    const filled = template.replace(/^JWT_SECRET=.*$/m, `JWT_SECRET=${secret()}`).replace(/^DB_PASSWORD=.*$/m, `DB_PASSWORD=${secret()}`);
-    fs.writeFileSync(ENV_FILE, filled, { mode: 0o600 });
-    say('Created .env with a random JWT secret and database password.');
-    return;
+/** Variables `npm start` fills with random values: the session signing secret and the two database passwords. */
+export const GENERATED_SECRETS = ['JWT_SECRET', 'DB_PASSWORD', 'DB_OWNER_PASSWORD'] as const;
+/** Of those, the ones that must match what a database server already has (left alone when DB_HOST is not local). */
+const DATABASE_SECRETS = new Set<string>(['DB_PASSWORD', 'DB_OWNER_PASSWORD']);
+
+/** 32 random bytes, base64url: 43 characters. */
+const randomSecret = () => randomBytes(32).toString('base64url');
+
+/**
+ * Creates .env from .env.example on first run, with random secrets. On later runs, fills in any of
+ * {@link GENERATED_SECRETS} that is missing, empty or still a published placeholder (the value .env.example ships,
+ * or any "change-me…"): such a value is public, and a session signed with it could be forged. The database passwords
+ * are only generated for the project's own local MariaDB, whose accounts npm start then sets to match.
+ * @returns what was done, one line each (printed by npm start)
+ */
+export function ensureEnvFile(files: { env: string; example: string } = { env: ENV_FILE, example: ENV_EXAMPLE }): string[] {
+  if (!fs.existsSync(files.env)) {
+    let text = fs.readFileSync(files.example, 'utf8');
+    for (const key of GENERATED_SECRETS) text = setEnvLine(text, key, randomSecret());
+    fs.writeFileSync(files.env, text, { mode: 0o600 });
+    return [`Created .env with a random ${GENERATED_SECRETS.join(', ')}.`];
   }
-  // An existing .env without the two secrets gets them added (never overwritten).
-  let text = fs.readFileSync(ENV_FILE, 'utf8');
-  let changed = false;
-  for (const key of ['JWT_SECRET', 'DB_PASSWORD']) {
-    const line = new RegExp(`^${key}=(.*)$`, 'm').exec(text);
-    if (line && line[1].trim() !== '') continue;
-    text = line ? text.replace(line[0], `${key}=${secret()}`) : `${text.replace(/\n?$/, '\n')}${key}=${secret()}\n`;
-    changed = true;
+  let text = fs.readFileSync(files.env, 'utf8');
+  const values = parseEnv(text) as Record<string, string>;
+  const dbIsLocal = isLocalHost(values.DB_HOST || '127.0.0.1');
+  const messages: string[] = [];
+  for (const key of GENERATED_SECRETS) {
+    const value = values[key]?.trim() ?? '';
+    const isPlaceholder = value !== '' && isPlaceholderSecret(value);
+    if (value !== '' && !isPlaceholder) continue;
+    if (DATABASE_SECRETS.has(key) && !dbIsLocal) {
+      if (isPlaceholder) messages.push(`${key} in .env is still a placeholder; set it to the password of ${values.DB_HOST}.`);
+      continue;
+    }
+    text = setEnvLine(text, key, randomSecret());
+    messages.push(
+      isPlaceholder
+        ? `Replaced the placeholder ${key} in .env with a random value (the placeholder is public${key === 'JWT_SECRET' ? '; everyone signs in again' : ''}).`
+        : `Added a random ${key} to .env.`,
+    );
   }
-  if (changed) {
-    fs.writeFileSync(ENV_FILE, text);
-    say('Added missing JWT_SECRET / DB_PASSWORD to .env.');
-  }
+  if (messages.some((m) => m.startsWith('Replaced') || m.startsWith('Added'))) fs.writeFileSync(files.env, text, { mode: 0o600 });
+  return messages;
 }
 
-const isLocalHost = (host: string) => ['127.0.0.1', 'localhost', '::1'].includes(host);
+/** Sets `KEY=value` in .env text: replaces the line when present, appends it otherwise. */
+function setEnvLine(text: string, key: string, value: string): string {
+  const line = new RegExp(`^${key}=.*$`, 'm');
+  return line.test(text) ? text.replace(line, `${key}=${value}`) : `${text.replace(/\n?$/, '\n')}${key}=${value}\n`;
+}
 
 type Running = {
   db?: MariaDbHandle;
@@ -100,7 +128,7 @@ function printBanner(config: AppConfig, dev: boolean, formatDemoSignIns: () => s
 
 async function main(): Promise<void> {
   const dev = process.argv.includes('--dev');
-  ensureEnvFile();
+  for (const line of ensureEnvFile()) say(line);
   loadDotEnv(ENV_FILE);
   let config: AppConfig;
   try {
@@ -213,4 +241,4 @@ async function main(): Promise<void> {
   }
 }
 
-void main();
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) void main();

@@ -8,6 +8,7 @@ import { recordAudit } from './audit.service';
 import { sendMail } from './mail.service';
 import { resetPasswordMail } from './mailTemplates';
 import { consumePasswordToken, createPasswordToken } from './passwordToken.service';
+import { createSession, revokeAllSessions, type SessionOrigin } from './session.service';
 import { toPublicUser, type PublicUser } from './users.service';
 
 /** The one message for every failed sign-in, so the answer never reveals whether an e-mail exists. */
@@ -28,6 +29,18 @@ let dummyHash: string | undefined;
 async function getDummyHash(): Promise<string> {
   dummyHash ??= await bcrypt.hash('no-such-account-placeholder', bcryptRounds());
   return dummyHash;
+}
+
+/** A user just signed in, and the token for their session cookie. */
+export type SignedIn = { user: PublicUser; sessionToken: string };
+
+/**
+ * Checks e-mail and password and starts a session. Unknown e-mail, wrong password, no password set yet and disabled
+ * account all fail with the same 401 `invalid_credentials`.
+ */
+export async function signIn(email: string, password: string, origin: SessionOrigin = {}): Promise<SignedIn> {
+  const user = await login(email, password);
+  return { user, sessionToken: await createSession(user.id, origin) };
 }
 
 /**
@@ -60,16 +73,28 @@ export async function requestPasswordReset(email: string): Promise<void> {
 }
 
 /**
- * Sets a new password with a reset or invitation token (one use; expired or used tokens fail with 400).
- * @returns the user, whom the route then signs in.
+ * Sets a new password with a reset or invitation token (one use; expired or used tokens fail with 400), ends every
+ * other session of the account (whoever knew the old password is out) and signs this browser in.
+ * @returns the user and the token of their new session
  */
-export async function resetPassword(rawToken: string, password: string): Promise<PublicUser> {
+export async function resetPassword(rawToken: string, password: string, origin: SessionOrigin = {}): Promise<SignedIn> {
   const passwordHash = await hashPassword(password);
   return getSequelize().transaction(async (transaction) => {
     const user = await consumePasswordToken(rawToken, transaction);
     user.passwordHash = passwordHash;
     await user.save({ transaction });
-    await recordAudit({ actorId: user.id, action: 'user.password_set', entity: 'user', entityId: user.id }, transaction);
-    return toPublicUser(user);
+    const ended = await revokeAllSessions(user.id, 'password_changed', transaction);
+    await recordAudit(
+      {
+        actorId: user.id,
+        action: 'user.password_set',
+        entity: 'user',
+        entityId: user.id,
+        reason: ended ? `Ended ${ended} open session(s)` : null,
+      },
+      transaction,
+    );
+    const sessionToken = await createSession(user.id, origin, transaction);
+    return { user: toPublicUser(user), sessionToken };
   });
 }

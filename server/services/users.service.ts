@@ -7,6 +7,7 @@ import { createPasswordToken } from './passwordToken.service';
 import { sendMail } from './mail.service';
 import { inviteMail } from './mailTemplates';
 import { getConfig } from '../config';
+import { revokeAllSessions } from './session.service';
 
 /** A user as the API shows it: never the password hash. */
 export type PublicUser = {
@@ -125,6 +126,9 @@ export async function updateUser(
     const after = toPublicUser(user);
 
     if (before.disabled !== after.disabled) {
+      // A disabled account is signed out everywhere at once (requests read the session row anyway; this also
+      // keeps a later re-enable from reviving the old cookies).
+      if (after.disabled) await revokeAllSessions(user.id, 'disabled', transaction);
       await recordAudit(
         {
           actorId: actor.id,

@@ -23,7 +23,7 @@ function sessionCookie(res: request.Response): string {
 }
 
 describe('POST /api/auth/login', () => {
-  it('when e-mail and password match, then 200 with the user and an httpOnly SameSite=Lax session cookie with Max-Age', async () => {
+  it('when e-mail and password match, then 200 with the user and an httpOnly SameSite=Strict session cookie with Max-Age', async () => {
     const { user, email, password } = await createUser({ roles: ['designer', 'reviewer'] });
 
     const res = await request(app).post('/api/auth/login').send({ email, password });
@@ -35,7 +35,7 @@ describe('POST /api/auth/login', () => {
     expect(res.body.user).not.toHaveProperty('passwordHash');
     const cookie = sessionCookie(res);
     expect(cookie).toMatch(/HttpOnly/);
-    expect(cookie).toMatch(/SameSite=Lax/);
+    expect(cookie).toMatch(/SameSite=Strict/);
     expect(cookie).toMatch(/Path=\//);
     expect(cookie).toMatch(new RegExp(`Max-Age=${getConfig().sessionHours * 3600}`));
   });
