@@ -356,20 +356,45 @@ function assertIdentifier(name: string, what: string): void {
   if (!/^[A-Za-z0-9_]{1,64}$/.test(name)) throw new Error(`${what} "${name}" may contain only letters, digits and _.`);
 }
 
+/** A MariaDB account for TCP connections from 127.0.0.1. */
+export type DbAccount = { user: string; password: string };
+
+/** The only statements the application's account may run on its tables (issue 12, item 7). */
+export const APP_PRIVILEGES = ['SELECT', 'INSERT', 'UPDATE', 'DELETE'] as const;
+
 /**
- * Creates the databases (utf8mb4) and the application user `user`@`127.0.0.1` with `password`, granting it
- * everything on those databases. Idempotent; the password is reset to the given one each time so it always
- * matches .env.
+ * Creates the databases (utf8mb4) and two accounts @'127.0.0.1':
+ * - the schema owner (`owner`): every privilege on those databases; migrations and the demo seed run as it;
+ * - the application (`user`): only SELECT, INSERT, UPDATE and DELETE on their tables, so a server bug or injected
+ *   SQL cannot drop a table, remove the trigger that freezes published sheets, or grant itself more.
+ * Without `owner` the application account gets every privilege itself (the layout before issue 12; migrations
+ * then run as it). Idempotent: privileges are revoked and granted afresh each time (an older install's GRANT ALL
+ * goes), and passwords are reset to the given ones so they always match .env.
  */
-export async function ensureDatabases(handle: MariaDbHandle, spec: { databases: string[]; user: string; password: string }): Promise<void> {
+export async function ensureDatabases(
+  handle: MariaDbHandle,
+  spec: { databases: string[]; user: string; password: string; owner?: DbAccount },
+): Promise<void> {
   assertIdentifier(spec.user, 'DB_USER');
+  if (spec.owner) {
+    assertIdentifier(spec.owner.user, 'DB_OWNER_USER');
+    if (spec.owner.user === spec.user) throw new Error('DB_OWNER_USER must differ from DB_USER: the server must not own the schema.');
+  }
   spec.databases.forEach((db) => assertIdentifier(db, 'Database name'));
-  const account = `${quoteString(spec.user)}@'127.0.0.1'`;
+  const accountOf = (name: string) => `${quoteString(name)}@'127.0.0.1'`;
+  const app = accountOf(spec.user);
+  const ensureAccount = (account: string, password: string) => [
+    `CREATE USER IF NOT EXISTS ${account} IDENTIFIED BY ${quoteString(password)};`,
+    `ALTER USER ${account} IDENTIFIED BY ${quoteString(password)};`,
+    `REVOKE ALL PRIVILEGES, GRANT OPTION FROM ${account};`,
+  ];
+  const appGrant = spec.owner ? APP_PRIVILEGES.join(', ') : 'ALL PRIVILEGES';
   const statements = [
     ...spec.databases.map((db) => `CREATE DATABASE IF NOT EXISTS \`${db}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`),
-    `CREATE USER IF NOT EXISTS ${account} IDENTIFIED BY ${quoteString(spec.password)};`,
-    `ALTER USER ${account} IDENTIFIED BY ${quoteString(spec.password)};`,
-    ...spec.databases.map((db) => `GRANT ALL PRIVILEGES ON \`${db}\`.* TO ${account};`),
+    ...(spec.owner ? ensureAccount(accountOf(spec.owner.user), spec.owner.password) : []),
+    ...(spec.owner ? spec.databases.map((db) => `GRANT ALL PRIVILEGES ON \`${db}\`.* TO ${accountOf(spec.owner!.user)};`) : []),
+    ...ensureAccount(app, spec.password),
+    ...spec.databases.map((db) => `GRANT ${appGrant} ON \`${db}\`.* TO ${app};`),
     'FLUSH PRIVILEGES;',
   ];
   await runSql(handle.paths, statements.join('\n'));
@@ -408,6 +433,9 @@ async function cli(): Promise<void> {
         databases: [process.env.DB_NAME || 'gantrywright'],
         user: process.env.DB_USER || 'gantry',
         password: process.env.DB_PASSWORD,
+        owner: process.env.DB_OWNER_PASSWORD
+          ? { user: process.env.DB_OWNER_USER || 'gantry_owner', password: process.env.DB_OWNER_PASSWORD }
+          : undefined,
       });
     }
     defaultLog('Left running; stop it with: npm run db:stop');

@@ -182,24 +182,32 @@ async function main(): Promise<void> {
 
   try {
     // Server modules read configuration at import time of first use, so import them after .env is loaded.
-    const { getSequelize, closeSequelize } = await import('../server/db');
-    const { runMigrations, runSeeders } = await import('../server/migrator');
+    const { closeSequelize } = await import('../server/db');
+    const { runMigrations, runSeeders, withSchemaOwner } = await import('../server/migrator');
     const { formatDemoSignIns } = await import('../server/seeders/demoAccounts');
     const { startServer } = await import('../server/index');
 
     if (isLocalHost(config.db.host)) {
       ensureDebianPackages([MARIADB_PACKAGE], say);
       running.db = await startMariaDb({ dir: path.join(config.dataDir, 'mariadb'), port: config.db.port, log: say });
-      await ensureDatabases(running.db, { databases: [config.db.name], user: config.db.user, password: config.db.password });
+      await ensureDatabases(running.db, {
+        databases: [config.db.name],
+        user: config.db.user,
+        password: config.db.password,
+        owner: config.dbOwner ?? undefined,
+      });
     } else {
       say(`Using the MariaDB server at ${config.db.host}:${config.db.port} (DB_HOST is not local).`);
     }
 
-    const sequelize = getSequelize();
     running.closeDb = closeSequelize;
-    const migrated = await runMigrations(sequelize);
+    // Migrations and the demo seed run as the schema owner; the server connects as DB_USER, which may only read and
+    // write rows.
+    const { migrated, seeded } = await withSchemaOwner(config, async (owner) => ({
+      migrated: await runMigrations(owner),
+      seeded: await runSeeders(owner),
+    }));
     say(migrated.length ? `Applied ${migrated.length} migration(s): ${migrated.join(', ')}` : 'Database schema is up to date.');
-    const seeded = await runSeeders(sequelize);
     if (seeded.length) {
       say(`Seeded demo data: ${seeded.join(', ')}`);
       say(formatDemoSignIns());

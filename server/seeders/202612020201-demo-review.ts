@@ -7,6 +7,7 @@ import { computeStoredResults } from '../services/designs.service';
 import { freezeDesign } from '../services/revisions.service';
 import { renderSheetFiles } from '../services/sheets.service';
 import { DEMO_DESIGNS, demoDesignDocument } from './202612020102-demo-designs';
+import { createSheetFreezeTriggers, dropSheetFreezeTriggers } from '../migrations/sheetFreeze';
 
 // The review history of the demo workshop, so a fresh start shows every state:
 //   Bench dispensing stage  revision 1 approved (its sheet now superseded), reopened, revision 2 approved (current sheet)
@@ -331,6 +332,20 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
   if (!designIds.length) return;
   const revisionIds = (await Revision.findAll({ where: { designId: { [Op.in]: designIds } }, attributes: ['id'] })).map((r) => r.id);
   const sheetIds = (await Sheet.findAll({ where: { designId: { [Op.in]: designIds } }, attributes: ['id'] })).map((s) => s.id);
+  // Published sheets refuse DELETE; seeders run as the schema owner, who lifts the triggers for the unseed only
+  // (DROP/CREATE TRIGGER commit implicitly, so they stay outside the transaction).
+  await dropSheetFreezeTriggers(context.sequelize);
+  try {
+    await unseedReview(context, { designIds, revisionIds, sheetIds });
+  } finally {
+    await createSheetFreezeTriggers(context.sequelize);
+  }
+};
+
+async function unseedReview(
+  context: SeedContext,
+  { designIds, revisionIds, sheetIds }: { designIds: number[]; revisionIds: number[]; sheetIds: number[] },
+): Promise<void> {
   await context.sequelize.transaction(async (transaction) => {
     await AuditLog.destroy({
       where: {
@@ -350,4 +365,4 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
     await Revision.destroy({ where: { designId: { [Op.in]: designIds } }, transaction }); // their comments go with them
     await Design.update({ status: 'draft' }, { where: { id: { [Op.in]: designIds } }, transaction });
   });
-};
+}

@@ -5,6 +5,7 @@ import { getConfig } from '../config';
 import { AppError, notFound } from '../errors';
 import { Revision, Sheet, User, type SheetPaper } from '../models';
 import { renderSheet } from '../sheet/renderSheet';
+import { recordAudit } from './audit.service';
 import { parseJson, type PersonRef } from './revisions.service';
 import type { Page, PublicUser } from './users.service';
 
@@ -250,8 +251,16 @@ export async function getSheet(_actor: PublicUser, id: number): Promise<SheetDet
   };
 }
 
-/** The stored PDF bytes of a sheet in one paper size, with their stored SHA-256 and download name. */
-export async function getSheetPdf(id: number, paper: SheetPaper): Promise<{ bytes: Buffer; sha256: string; fileName: string }> {
+/**
+ * The stored PDF bytes of a sheet in one paper size, with their stored SHA-256 and download name. The bytes are
+ * hashed again on every read: bytes that no longer match the SHA-256 recorded at approval are never served — the
+ * answer is a 500 and the audit log records the mismatch (issue 12, item 7).
+ */
+export async function getSheetPdf(
+  actor: PublicUser,
+  id: number,
+  paper: SheetPaper,
+): Promise<{ bytes: Buffer; sha256: string; fileName: string }> {
   const column = paper === 'A4' ? 'a4Pdf' : 'letterPdf';
   const hash = paper === 'A4' ? 'a4Sha256' : 'letterSha256';
   const row = (await Sheet.findByPk(id, {
@@ -261,6 +270,22 @@ export async function getSheetPdf(id: number, paper: SheetPaper): Promise<{ byte
   if (!row || !row.revision) throw notFound('Sheet');
   const bytes = row[column];
   if (!Buffer.isBuffer(bytes)) throw new AppError('sheet_missing', 'The stored sheet could not be read.', 500, { isOperational: false });
+  const actual = sha256Hex(bytes);
+  if (actual !== row[hash]) {
+    await recordAudit({
+      actorId: actor.id,
+      action: 'sheet.integrity_failed',
+      entity: 'sheet',
+      entityId: id,
+      reason: `${paper} PDF: recorded SHA-256 ${row[hash]}, stored bytes hash to ${actual}; not served`,
+    });
+    throw new AppError(
+      'sheet_integrity_failed',
+      'The stored design sheet does not match the SHA-256 recorded when it was approved, so it is not served. An admin has been told through the audit log.',
+      500,
+      { isOperational: false },
+    );
+  }
   const { name } = parseJson<{ name: string }>(row.revision.inputs);
   return { bytes, sha256: row[hash], fileName: sheetFileName(name, row.revision.number, paper) };
 }

@@ -172,6 +172,8 @@ export async function createApprovedSheet(options: {
   approver: PublicUser;
   mechanism?: Mechanism;
   edit?: (doc: DesignInput) => DesignInput;
+  /** The SHA-256 recorded for the A4 file instead of the real one (a sheet whose bytes were swapped later). */
+  recordedA4Sha256?: string;
 }): Promise<{ sheetId: number; designId: number; revisionId: number; inputs: DesignInput; result: DesignResult }> {
   getSequelize();
   const design = await createDesign({ owner: options.owner, mechanism: options.mechanism, status: 'approved', edit: options.edit });
@@ -201,7 +203,7 @@ export async function createApprovedSheet(options: {
     approvedAt: now,
     comment: 'Approved in a test.',
     a4Pdf: placeholder,
-    a4Sha256: hash,
+    a4Sha256: options.recordedA4Sha256 ?? hash,
     a4Size: placeholder.length,
     letterPdf: placeholder,
     letterSha256: hash,
