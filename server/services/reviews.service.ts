@@ -1,3 +1,4 @@
+import type { Transaction } from 'sequelize';
 import type { DesignInput, DesignResult } from '@/engine';
 import { getSequelize } from '../db';
 import { conflict, forbidden, notFound, validationError } from '../errors';
@@ -117,11 +118,12 @@ async function lockForDecision(
   return { design, revision };
 }
 
-/** The designer(s) to tell about a decision: the design's owner and the revision's author. */
-async function designersOf(revision: { authorId: number }, ownerId: number): Promise<Recipient[]> {
+/** The designer(s) to tell about a decision: the design's owner and the revision's author (read in `transaction`). */
+async function designersOf(revision: { authorId: number }, ownerId: number, transaction: Transaction): Promise<Recipient[]> {
   const users = await User.findAll({
     where: { id: [...new Set([ownerId, revision.authorId])], disabled: false },
     attributes: ['email', 'name'],
+    transaction,
   });
   return users.map((u) => ({ email: u.email, name: u.name }));
 }
@@ -130,9 +132,10 @@ async function designersOf(revision: { authorId: number }, ownerId: number): Pro
  * Approves a revision in review: renders the design sheet (A4 and US Letter) from the frozen revision, then in one
  * transaction marks the revision and design approved and stores the sheet; logs it and mails the designer and
  * every maker. Reviewers and admins, never on their own work.
- * Rendering happens before the transaction (it takes seconds); if someone decided meanwhile, the render is dropped
- * and the answer is 409.
- * @throws 403 (role, own work), 409 (not in review)
+ * The design row is locked first, without waiting, and held while the sheet renders: of concurrent approvals one
+ * renders and wins, the others get 409 `busy` at once (before, each rendered a sheet of its own and queued for the
+ * lock while holding a pooled connection). Every query runs in that transaction (issue 12, item 2).
+ * @throws 403 (role, own work), 409 (not in review, or being decided right now)
  */
 export async function approveRevision(
   actor: PublicUser,
@@ -146,19 +149,20 @@ export async function approveRevision(
   const approvedAt = new Date();
   const inputs = parseJson<DesignInput>(revision.inputs);
   const author = await User.findByPk(revision.authorId, { attributes: ['name', 'email'] });
-  const rendered = await renderSheetFiles({
-    designName: inputs.name,
-    revisionNumber: revision.number,
-    mechanism: inputs.mechanism,
-    designer: { name: author?.name ?? '', email: author?.email ?? '' },
-    approval: { reviewerName: actor.name, approvedAt, comment: input.comment },
-    inputs,
-    result: parseJson<DesignResult>(revision.result),
-    fingerprint: revision.fingerprint,
-  });
 
   const { sheetId, mailIds } = await getSequelize().transaction(async (transaction) => {
     const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'approved', transaction);
+    // The revision is frozen: the inputs and result read above are the ones it holds now.
+    const rendered = await renderSheetFiles({
+      designName: inputs.name,
+      revisionNumber: revision.number,
+      mechanism: inputs.mechanism,
+      designer: { name: author?.name ?? '', email: author?.email ?? '' },
+      approval: { reviewerName: actor.name, approvedAt, comment: input.comment },
+      inputs,
+      result: parseJson<DesignResult>(revision.result),
+      fingerprint: revision.fingerprint,
+    });
     await locked.update({ status: 'approved', decidedById: actor.id, decidedAt: approvedAt, decisionNote: input.comment }, { transaction });
     await design.update({ status: 'approved' }, { transaction });
     const id = await storeSheet(
@@ -204,8 +208,8 @@ export async function approveRevision(
     );
 
     const ref = { revisionId, number: locked.number, designId: design.id, designName: inputs.name };
-    const designers = await designersOf(locked, design.ownerId);
-    const makers = (await findActiveUsersByRole('maker')).filter((u) => u.id !== actor.id);
+    const designers = await designersOf(locked, design.ownerId, transaction);
+    const makers = (await findActiveUsersByRole('maker', transaction)).filter((u) => u.id !== actor.id);
     const ids = [
       ...(await queueMail(
         'revision.approved',
@@ -265,7 +269,7 @@ export async function returnRevision(actor: PublicUser, revisionId: number, inpu
       transaction,
     );
     const designName = parseJson<{ name: string }>(locked.inputs).name;
-    const designers = await designersOf(locked, design.ownerId);
+    const designers = await designersOf(locked, design.ownerId, transaction);
     return queueMail(
       'revision.returned',
       designers,

@@ -67,12 +67,14 @@ export async function getUserById(id: number): Promise<PublicUser> {
 /**
  * Active (not disabled) users who hold `role`, for notifications. Admins are not included
  * unless they hold the role themselves.
+ * @param transaction - the transaction of the change being announced (never query beside it: issue 12)
  */
-export async function findActiveUsersByRole(role: Role): Promise<PublicUser[]> {
+export async function findActiveUsersByRole(role: Role, transaction?: Transaction): Promise<PublicUser[]> {
   const sequelize = getSequelize();
   const users = await User.findAll({
     where: { disabled: false, [Op.and]: [sequelize.literal(`JSON_CONTAINS(roles, ${sequelize.escape(JSON.stringify(role))})`)] },
     order: [['id', 'ASC']],
+    transaction,
   });
   return users.map(toPublicUser);
 }
