@@ -8,6 +8,7 @@ import { DIST_DIR } from './paths';
 import { requestIdMiddleware } from './middleware/requestId';
 import { securityHeadersMiddleware } from './middleware/security';
 import { requireJsonBodyMiddleware } from './middleware/contentType';
+import { originCheckMiddleware } from './middleware/originCheck';
 import { errorHandlerMiddleware } from './middleware/errorHandler';
 import { notFoundMiddleware } from './middleware/notFound';
 import { createApiRouter } from './routes';
@@ -33,6 +34,8 @@ export function createApp(): Express {
 
   app.use(
     '/api',
+    // Before anything reads the body: a request another site started is refused unread (CSRF).
+    originCheckMiddleware(),
     requireJsonBodyMiddleware(),
     express.json({ limit: JSON_BODY_LIMIT, strict: true, type: ['application/json', 'application/*+json'] }),
     cookieParser(),

@@ -1,12 +1,12 @@
 import { Router } from 'express';
 import type { DesignInput } from '@/engine';
+import { requireMember } from '../middleware/requireRole';
 import { validate } from '../middleware/validate';
-import { requireAuth } from '../middleware/requireAuth';
 import { calcSchema, sweepSchema } from '../schemas/calc.schema';
 import { calculate, compare, sweepInput } from '../services/calc.service';
 
 /**
- * /api/calc: the engine over HTTP for any signed-in user (the Design desk also runs it in the browser).
+ * /api/calc: the engine over HTTP for every team member, any role (the Design desk also runs it in the browser).
  *   POST /api/calc {design}                  → the result (src/engine/README.md "Result")
  *   POST /api/calc/compare {design}          → {rows: one per mechanism}
  *   POST /api/calc/sweep {design, path, values} → {path, points: one per value}
@@ -14,7 +14,7 @@ import { calculate, compare, sweepInput } from '../services/calc.service';
  */
 export function createCalcRouter(): Router {
   const router = Router();
-  router.use(requireAuth);
+  router.use(requireMember);
 
   router.post('/', validate({ body: calcSchema }), async function evaluate(req, res) {
     res.status(200).json(calculate((req.body as { design: DesignInput }).design));

@@ -286,7 +286,7 @@ export async function uploadDesignAttachment(actor: PublicUser, designId: number
   return toPublicAttachment(full, actor, design);
 }
 
-/** A design's attachments, newest first; everyone signed in may read them (as they may read the design). */
+/** A design's attachments, newest first; every team member may read them (as they may read the design). */
 export async function listDesignAttachments(
   actor: PublicUser,
   designId: number,
@@ -315,7 +315,7 @@ export async function listDesignAttachments(
 /** What a download needs: the bytes (checked against their hash), their type and a safe name. */
 export type AttachmentDownload = { bytes: Buffer; mime: string; fileName: string; sha256: string };
 
-/** An attachment's bytes for download (everyone signed in). @throws 404 when the row or its bytes are missing. */
+/** An attachment's bytes for download (every team member). @throws 404 when the row or its bytes are missing. */
 export async function getAttachmentDownload(id: number): Promise<AttachmentDownload> {
   const row = await Attachment.findByPk(id);
   if (!row) throw notFound('Attachment');

@@ -142,17 +142,18 @@ export async function approveRevision(
   revisionId: number,
   input: { comment: string },
 ): Promise<{ revision: RevisionDetail; sheet: SheetDetail }> {
-  const revision = await findRevision(revisionId, { withResult: true });
+  const revision = await findRevision(revisionId);
   assertMayDecide(actor, revision, 'approve');
   if (revision.status !== 'in_review') throw wrongState(revision.number, revision.status, 'approved');
 
   const approvedAt = new Date();
   const inputs = parseJson<DesignInput>(revision.inputs);
-  const author = await User.findByPk(revision.authorId, { attributes: ['name', 'email'] });
 
   const { sheetId, mailIds } = await getSequelize().transaction(async (transaction) => {
     const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'approved', transaction);
-    // The revision is frozen: the inputs and result read above are the ones it holds now.
+    // Only the request holding the lock reads the frozen result (~100 kB) and renders: the others are already gone.
+    const frozen = await Revision.findByPk(revisionId, { attributes: ['result'], transaction });
+    const author = await User.findByPk(revision.authorId, { attributes: ['name', 'email'], transaction });
     const rendered = await renderSheetFiles({
       designName: inputs.name,
       revisionNumber: revision.number,
@@ -160,7 +161,7 @@ export async function approveRevision(
       designer: { name: author?.name ?? '', email: author?.email ?? '' },
       approval: { reviewerName: actor.name, approvedAt, comment: input.comment },
       inputs,
-      result: parseJson<DesignResult>(revision.result),
+      result: parseJson<DesignResult>(frozen!.result),
       fingerprint: revision.fingerprint,
     });
     await locked.update({ status: 'approved', decidedById: actor.id, decidedAt: approvedAt, decisionNote: input.comment }, { transaction });

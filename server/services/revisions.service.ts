@@ -260,7 +260,7 @@ export async function listRevisions(
 
 /**
  * The revision history of one design, newest first: each revision's status, return reason or approval comment
- * and sheet. Everyone signed in may ask; revisions they may not read yet are left out.
+ * and sheet. Every team member may ask; revisions they may not read yet are left out.
  */
 export async function listDesignRevisions(actor: PublicUser, designId: number): Promise<Page<RevisionListItem>> {
   const design = await Design.findByPk(designId, { attributes: ['id', 'ownerId'] });

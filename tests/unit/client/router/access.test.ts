@@ -23,7 +23,7 @@ describe('homePathFor', () => {
     [['designer'], '/designs'],
     [['reviewer'], '/designs'],
     [['maker'], '/sheets'],
-    [[], '/parts'],
+    [[], '/account'],
   ])('when the user holds %o, then starts at %s', (roles, expected) => {
     expect(homePathFor(roles)).toBe(expected);
   });
