@@ -7,6 +7,7 @@ import { closeSequelize, getSequelize } from './db';
 import { getLogger } from './logger';
 import { closeMail } from './services/mail.service';
 import { startMailQueueWorker } from './services/notify.service';
+import { closePasswordPool } from './workers/passwordPool';
 
 /** A listening server and how to stop it. */
 export type RunningServer = { server: Server; url: string; port: number; close: () => Promise<void> };
@@ -43,6 +44,7 @@ export async function startServer(options: { port?: number; host?: string } = {}
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
       closeMail();
+      await closePasswordPool();
       await closeSequelize();
       log.info('server stopped');
     })();

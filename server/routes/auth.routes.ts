@@ -1,7 +1,7 @@
 import { Router, type Request } from 'express';
 import { validate } from '../middleware/validate';
 import { requireAuth, sessionToken } from '../middleware/requireAuth';
-import { loginRateLimitMiddleware } from '../middleware/rateLimit';
+import { loginIpRateLimitMiddleware, loginRateLimitMiddleware, resetRateLimitMiddleware } from '../middleware/rateLimit';
 import { idParamsSchema } from '../schemas/common.schema';
 import { forgotSchema, loginSchema, resetSchema, type LoginInput, type ResetInput } from '../schemas/auth.schema';
 import { requestPasswordReset, resetPassword, signIn } from '../services/auth.service';
@@ -24,12 +24,18 @@ const context = (req: Request) => ({ user: req.user!, sessionId: req.sessionId! 
 export function createAuthRouter(): Router {
   const router = Router();
 
-  router.post('/login', validate({ body: loginSchema }), loginRateLimitMiddleware(), async function signInHandler(req, res) {
-    const { email, password } = req.body as LoginInput;
-    const { user, sessionToken: token } = await signIn(email, password, originOf(req));
-    res.cookie(SESSION_COOKIE, token, sessionCookieOptions());
-    res.status(200).json({ user });
-  });
+  router.post(
+    '/login',
+    validate({ body: loginSchema }),
+    loginIpRateLimitMiddleware(),
+    loginRateLimitMiddleware(),
+    async function signInHandler(req, res) {
+      const { email, password } = req.body as LoginInput;
+      const { user, sessionToken: token } = await signIn(email, password, originOf(req));
+      res.cookie(SESSION_COOKIE, token, sessionCookieOptions());
+      res.status(200).json({ user });
+    },
+  );
 
   router.post('/logout', async function signOutHandler(req, res) {
     await signOut(sessionToken(req));
@@ -57,7 +63,7 @@ export function createAuthRouter(): Router {
     res.status(204).end();
   });
 
-  router.post('/forgot', validate({ body: forgotSchema }), async function forgot(req, res) {
+  router.post('/forgot', validate({ body: forgotSchema }), ...resetRateLimitMiddleware(), async function forgot(req, res) {
     await requestPasswordReset((req.body as { email: string }).email);
     res.status(202).json({ message: 'If the address belongs to an account, a reset link is on its way.' });
   });

@@ -4,6 +4,7 @@ import { logger } from '../logger';
 import { Notification } from '../models';
 import { sendMail } from './mail.service';
 import { escapeHtml, type MailContent } from './mailTemplates';
+import { buildResetMail, RESET_MAIL_KIND } from './resetMail';
 
 /**
  * E-mail notices of the review flow, through a mail queue in MariaDB (table `mail_queue`).
@@ -84,11 +85,25 @@ async function claim(id: number, now: Date): Promise<boolean> {
   return affected === 1;
 }
 
-/** Sends one claimed row and records the outcome: sent, or the error and when to try again. */
-async function sendOne(row: Notification): Promise<boolean> {
+/**
+ * The content of a row: as stored, or — for kinds whose content holds a one-time secret — built now.
+ * @returns null when a built mail has nobody to go to
+ */
+async function contentOf(row: Notification): Promise<MailContent | null> {
+  if (row.kind === RESET_MAIL_KIND) return buildResetMail(row.toAddress);
+  return { subject: row.subject, text: row.textBody, html: row.htmlBody };
+}
+
+/** Sends one claimed row and records the outcome: sent, discarded (nobody to send it to), or the error and when to try again. */
+async function sendOne(row: Notification): Promise<'sent' | 'failed' | 'discarded'> {
   let error: string | null = null;
   try {
-    const ok = await sendMail({ to: row.toAddress, subject: row.subject, text: row.textBody, html: row.htmlBody });
+    const content = await contentOf(row);
+    if (!content) {
+      await Notification.update({ status: 'discarded', lockedUntil: null, lastError: null }, { where: { id: row.id } });
+      return 'discarded';
+    }
+    const ok = await sendMail({ to: row.toAddress, subject: content.subject, text: content.text, html: content.html });
     if (!ok) error = 'The SMTP server did not accept the message (details in the server log).';
   } catch (err) {
     error = err instanceof Error ? err.message : String(err);
@@ -99,7 +114,7 @@ async function sendOne(row: Notification): Promise<boolean> {
       { status: 'sent', attempts, sentAt: new Date(), lockedUntil: null, lastError: null },
       { where: { id: row.id } },
     );
-    return true;
+    return 'sent';
   }
   const isLast = attempts >= MAX_ATTEMPTS;
   const delay = RETRY_BACKOFF_MS[Math.min(attempts - 1, RETRY_BACKOFF_MS.length - 1)];
@@ -117,25 +132,24 @@ async function sendOne(row: Notification): Promise<boolean> {
     { mailId: row.id, kind: row.kind, to: row.toAddress, attempts, error },
     isLast ? 'mail given up' : 'mail will be retried',
   );
-  return false;
+  return 'failed';
 }
 
 /**
  * Sends queued mail that is due: the given ids, or up to one batch of any due rows.
  * @returns how many were sent and how many failed this time
  */
-export async function deliverQueuedMail(options: { ids?: number[] } = {}): Promise<{ sent: number; failed: number }> {
+export async function deliverQueuedMail(options: { ids?: number[] } = {}): Promise<{ sent: number; failed: number; discarded: number }> {
   const now = new Date();
   const where = options.ids
     ? { id: { [Op.in]: options.ids }, status: 'pending' }
     : { status: 'pending', nextAttemptAt: { [Op.lte]: now }, [Op.or]: [{ lockedUntil: null }, { lockedUntil: { [Op.lt]: now } }] };
-  if (options.ids && !options.ids.length) return { sent: 0, failed: 0 };
+  if (options.ids && !options.ids.length) return { sent: 0, failed: 0, discarded: 0 };
   const due = await Notification.findAll({ where, order: [['id', 'ASC']], limit: options.ids ? undefined : BATCH_SIZE });
-  const outcome = { sent: 0, failed: 0 };
+  const outcome = { sent: 0, failed: 0, discarded: 0 };
   for (const row of due) {
     if (!(await claim(row.id, now))) continue;
-    if (await sendOne(row)) outcome.sent += 1;
-    else outcome.failed += 1;
+    outcome[await sendOne(row)] += 1;
   }
   return outcome;
 }
