@@ -1,6 +1,7 @@
 import { getConfig } from '../config';
 import { getSequelize } from '../db';
-import { AppError } from '../errors';
+import { AppError, validationError } from '../errors';
+import { personalPasswordProblems } from '../security/passwordPolicy';
 import { User } from '../models';
 import { recordAudit } from './audit.service';
 import { deliverSoon, queueMail } from './notify.service';
@@ -81,6 +82,13 @@ export async function resetPassword(rawToken: string, password: string, origin: 
   const passwordHash = await hashPassword(password);
   return getSequelize().transaction(async (transaction) => {
     const user = await consumePasswordToken(rawToken, transaction);
+    // Throwing here rolls the transaction back: the link stays unused and can be tried again.
+    const personal = personalPasswordProblems(password, user);
+    if (personal.length)
+      throw validationError(
+        personal.map((message) => ({ path: 'password', message })),
+        'Choose another password.',
+      );
     user.passwordHash = passwordHash;
     await user.save({ transaction });
     const ended = await revokeAllSessions(user.id, 'password_changed', transaction);
