@@ -133,6 +133,24 @@ function isAlive(pid: number): boolean {
   }
 }
 
+/**
+ * The pid of a mariadbd serving `dataDir`, found from the process table (for when its pid file is gone or names
+ * another process), or null.
+ */
+export function findMariaDbServing(dataDir: string): number | null {
+  let entries: string[];
+  try {
+    entries = fs.readdirSync('/proc');
+  } catch {
+    return null;
+  }
+  for (const entry of entries) {
+    const pid = Number(entry);
+    if (Number.isInteger(pid) && pid > 0 && pid !== process.pid && isOurMariaDb(pid, dataDir)) return pid;
+  }
+  return null;
+}
+
 /** True when `pid` is a mariadbd serving `dataDir` (not some unrelated process that reused the pid). */
 function isOurMariaDb(pid: number, dataDir: string): boolean {
   try {
@@ -246,10 +264,16 @@ export async function stopMariaDbInDir(dir: string, log: Log = defaultLog): Prom
 export type MariaDbHandle = {
   paths: MariaDbPaths;
   port: number;
+  /** The pid it had when started or adopted (MariaDB may have been restarted since: `stop()` finds the current one). */
   pid: number;
   /** True when an instance left running by an earlier run was reused. */
   adopted: boolean;
-  stop: () => Promise<void>;
+  /**
+   * Stops the instance that serves this data folder now — the one started here, or one that replaced it after a
+   * restart (issue 12, item 10: Ctrl-C said "Stopped MariaDB" while the restarted server kept running and held the
+   * port). @returns the pid stopped, or null when none was running
+   */
+  stop: () => Promise<number | null>;
 };
 
 /**
@@ -265,14 +289,26 @@ export async function startMariaDb(options: { dir: string; port: number; log?: L
   fs.mkdirSync(paths.dir, { recursive: true });
 
   const makeHandle = (pid: number, adopted: boolean): MariaDbHandle => {
-    let stopping: Promise<void> | undefined;
+    let stopping: Promise<number | null> | undefined;
+    const currentPid = (): number | null => {
+      const fromFile = readPid(paths.pidFile);
+      if (fromFile && isAlive(fromFile) && isOurMariaDb(fromFile, paths.dataDir)) return fromFile;
+      if (isAlive(pid) && isOurMariaDb(pid, paths.dataDir)) return pid;
+      return findMariaDbServing(paths.dataDir);
+    };
     return {
       paths,
       port: options.port,
       pid,
       adopted,
       stop: () => {
-        stopping ??= stopPid(paths, pid, log).then(() => removeStaleFiles(paths));
+        stopping ??= (async () => {
+          const target = currentPid();
+          if (target) await stopPid(paths, target, log);
+          // Only once nothing serves the folder: the pid file and socket of a live server are never removed.
+          if (!currentPid()) removeStaleFiles(paths);
+          return target;
+        })();
         return stopping;
       },
     };

@@ -85,18 +85,23 @@ type Running = {
 
 /** Stops everything that was started, newest first. Each step is attempted even if an earlier one fails. */
 async function stopAll(running: Running): Promise<void> {
-  const steps: Array<[string, (() => Promise<void>) | undefined]> = [
+  const stopMariaDb = async (): Promise<string> => {
+    const pid = await running.db!.stop();
+    return pid ? `Stopped MariaDB (pid ${pid}).` : 'MariaDB was no longer running.';
+  };
+  const steps: Array<[string, (() => Promise<string | void>) | undefined]> = [
     ['Vite dev server', running.vite ? () => stopChild(running.vite!) : undefined],
     ['API server', running.server?.close],
     ['database connections', running.closeDb],
     ['mail catcher', running.catcher?.close],
-    ['MariaDB', running.db ? () => running.db!.stop() : undefined],
+    // Whatever instance serves the data folder now, also one restarted since npm start began.
+    ['MariaDB', running.db ? stopMariaDb : undefined],
   ];
   for (const [name, step] of steps) {
     if (!step) continue;
     try {
-      await step();
-      say(`Stopped ${name}.`);
+      const said = await step();
+      say(said || `Stopped ${name}.`);
     } catch (err) {
       say(`Could not stop ${name} cleanly: ${(err as Error).message}`);
     }

@@ -143,7 +143,7 @@ const includes = (withResult: boolean) => [
 ];
 
 /** The newest approved revision (number, sheet id) of each design among `designIds`. */
-async function latestSheets(designIds: number[]): Promise<Map<number, { sheetId: number; revisionNumber: number }>> {
+export async function latestSheets(designIds: number[]): Promise<Map<number, { sheetId: number; revisionNumber: number }>> {
   const latest = new Map<number, { sheetId: number; revisionNumber: number }>();
   if (!designIds.length) return latest;
   const rows = (await Sheet.findAll({
