@@ -2,7 +2,7 @@ import type { Transaction } from 'sequelize';
 import type { DesignInput, DesignResult } from '@/engine';
 import { getSequelize } from '../db';
 import { conflict, forbidden, notFound, validationError } from '../errors';
-import { Revision, RevisionComment, User } from '../models';
+import { Design, Revision, RevisionComment, User } from '../models';
 import { recordAudit } from './audit.service';
 import { approvedMail, deliverSoon, queueMail, returnedMail, sheetPublishedMail, type Recipient } from './notify.service';
 import {
@@ -92,7 +92,11 @@ export async function addComment(
   return toComment(created);
 }
 
-function assertMayDecide(actor: PublicUser, revision: Awaited<ReturnType<typeof findRevision>>, verb: 'approve' | 'return'): void {
+function assertMayDecide(
+  actor: PublicUser,
+  revision: Pick<Revision, 'authorId'> & { design: Pick<Design, 'ownerId'> },
+  verb: 'approve' | 'return',
+): void {
   if (!isReviewer(actor)) throw forbidden(`Only reviewers and admins can ${verb} a revision.`);
   if (isOwnWork(actor, revision, revision.design)) {
     throw forbidden(verb === 'approve' ? 'You cannot approve your own work.' : 'You cannot return your own work; withdraw it instead.');
@@ -142,27 +146,32 @@ export async function approveRevision(
   revisionId: number,
   input: { comment: string },
 ): Promise<{ revision: RevisionDetail; sheet: SheetDetail }> {
-  const revision = await findRevision(revisionId);
-  assertMayDecide(actor, revision, 'approve');
+  // Who and what state only (no inputs or result): most concurrent approvals end at the lock below, cheaply.
+  const revision = await Revision.findByPk(revisionId, {
+    attributes: ['id', 'designId', 'number', 'status', 'authorId'],
+    include: [{ model: Design, as: 'design', attributes: ['id', 'ownerId'] }],
+  });
+  if (!revision) throw notFound('Revision');
+  assertMayDecide(actor, revision as Revision & { design: Design }, 'approve');
   if (revision.status !== 'in_review') throw wrongState(revision.number, revision.status, 'approved');
 
   const approvedAt = new Date();
-  const inputs = parseJson<DesignInput>(revision.inputs);
 
   const { sheetId, mailIds } = await getSequelize().transaction(async (transaction) => {
     const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'approved', transaction);
-    // Only the request holding the lock reads the frozen result (~100 kB) and renders: the others are already gone.
+    // Only the request holding the lock reads the frozen inputs and result (~100 kB) and renders: the others are gone.
+    const inputs = parseJson<DesignInput>(locked.inputs);
     const frozen = await Revision.findByPk(revisionId, { attributes: ['result'], transaction });
-    const author = await User.findByPk(revision.authorId, { attributes: ['name', 'email'], transaction });
+    const author = await User.findByPk(locked.authorId, { attributes: ['name', 'email'], transaction });
     const rendered = await renderSheetFiles({
       designName: inputs.name,
-      revisionNumber: revision.number,
+      revisionNumber: locked.number,
       mechanism: inputs.mechanism,
       designer: { name: author?.name ?? '', email: author?.email ?? '' },
       approval: { reviewerName: actor.name, approvedAt, comment: input.comment },
       inputs,
       result: parseJson<DesignResult>(frozen!.result),
-      fingerprint: revision.fingerprint,
+      fingerprint: locked.fingerprint,
     });
     await locked.update({ status: 'approved', decidedById: actor.id, decidedAt: approvedAt, decisionNote: input.comment }, { transaction });
     await design.update({ status: 'approved' }, { transaction });
