@@ -6,6 +6,23 @@ import { ROOT_DIR, resolveFromRoot } from './paths';
 
 const port = (fallback: number) => z.coerce.number().int().min(1).max(65535).default(fallback);
 const positiveInt = (fallback: number) => z.coerce.number().int().positive().default(fallback);
+/** `host:port[,host:port…]` (host names, IPv4, or [IPv6]). */
+const NODE_LIST = /^\s*(?:[A-Za-z0-9.-]+|\[[0-9A-Fa-f:]+\]):\d{1,5}\s*(?:,\s*(?:[A-Za-z0-9.-]+|\[[0-9A-Fa-f:]+\]):\d{1,5}\s*)*$/;
+
+/** One database server address. */
+export type DbNode = { host: string; port: number };
+
+/** Parses `host:port,host:port` (already checked against NODE_LIST). */
+export function parseNodeList(raw: string): DbNode[] {
+  return raw
+    .split(',')
+    .map((item) => item.trim())
+    .filter(Boolean)
+    .map((item) => {
+      const colon = item.lastIndexOf(':');
+      return { host: item.slice(0, colon).replace(/^\[|\]$/g, ''), port: Number(item.slice(colon + 1)) };
+    });
+}
 
 /**
  * Every environment variable the server reads. `.env.example` documents each one;
@@ -29,6 +46,10 @@ const envSchema = z.object({
     .default('gantry'),
   DB_PASSWORD: z.string({ message: 'is required (npm start writes one into .env)' }).min(8, 'must be at least 8 characters'),
   DB_POOL_MAX: positiveInt(10),
+  DB_NODES: z.string().regex(NODE_LIST, 'a comma-separated list of host:port, e.g. 10.0.0.1:3306,10.0.0.2:3306').optional(),
+  DB_READ_REPLICAS: z.string().regex(NODE_LIST, 'a comma-separated list of host:port, e.g. 10.0.0.2:3306,10.0.0.3:3306').optional(),
+  DB_SYNC_WAIT: z.coerce.number().int().min(0).max(15).default(1),
+  DB_RETRY_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(6),
   JWT_SECRET: z.string({ message: 'is required (npm start writes a random one into .env)' }).min(32, 'must be at least 32 characters'),
   SESSION_HOURS: z.coerce
     .number()
@@ -50,6 +71,20 @@ const envSchema = z.object({
   LOGIN_RATE_LIMIT: positiveInt(10),
   LOGIN_RATE_WINDOW_MINUTES: positiveInt(15),
   TRUST_PROXY: z.string().optional(),
+  STORAGE: z.enum(['local', 's3']).default('local'),
+  S3_ENDPOINT: z.url({ protocol: /^https?$/, message: 'must be an http(s) URL such as http://127.0.0.1:4650' }).optional(),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_BUCKET: z
+    .string()
+    .regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, '3 to 63 lower-case letters, digits, dots and hyphens')
+    .optional(),
+  S3_PREFIX: z
+    .string()
+    .regex(/^[A-Za-z0-9!_.*'()\/-]{0,200}$/, "letters, digits and !_.*'()/- only")
+    .optional(),
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  S3_FORCE_PATH_STYLE: z.enum(['true', 'false']).optional(),
 });
 
 /** The validated, typed configuration. Paths are absolute. */
@@ -61,7 +96,25 @@ export type AppConfig = {
   host: string;
   port: number;
   appUrl: string;
-  db: { host: string; port: number; name: string; user: string; password: string; poolMax: number };
+  db: {
+    host: string;
+    port: number;
+    name: string;
+    user: string;
+    password: string;
+    poolMax: number;
+    /**
+     * Servers that all accept writes (a Galera cluster), in the order this process tries them; one entry
+     * (DB_HOST:DB_PORT) when DB_NODES is not set.
+     */
+    nodes?: DbNode[];
+    /** Read replicas of a primary (DB_HOST:DB_PORT): reads outside transactions go there. Empty: none. */
+    readReplicas?: DbNode[];
+    /** `wsrep_sync_wait` for every connection to a Galera node (1 = reads see every write committed before them). */
+    syncWait?: number;
+    /** Attempts of a transaction (or statement) that hit a write conflict or lost its server. */
+    retryAttempts?: number;
+  };
   jwtSecret: string;
   sessionHours: number;
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
@@ -73,8 +126,23 @@ export type AppConfig = {
   loginRateWindowMinutes: number;
   /** Express `trust proxy` setting: false, a hop count or a list of addresses. */
   trustProxy: boolean | number | string;
+  /** Where uploads and design sheets are stored: a local folder (`uploadDir`) or an S3-compatible bucket. */
+  storage: StorageConfig;
   version: string;
 };
+
+/** The content store's back end (see server/storage). */
+export type StorageConfig =
+  | { kind: 'local' }
+  | {
+      kind: 's3';
+      endpoint?: string;
+      region: string;
+      bucket: string;
+      prefix: string;
+      forcePathStyle: boolean;
+      credentials?: { accessKeyId: string; secretAccessKey: string };
+    };
 
 /** Thrown when the environment is invalid; the message names every bad variable. */
 export class ConfigError extends Error {
@@ -122,6 +190,28 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     }
   }
   const dataDir = resolveFromRoot(e.DATA_DIR);
+  const storageProblems: string[] = [];
+  if (e.STORAGE === 's3' && !e.S3_BUCKET) storageProblems.push('  S3_BUCKET: is required when STORAGE=s3');
+  if (!!e.S3_ACCESS_KEY_ID !== !!e.S3_SECRET_ACCESS_KEY)
+    storageProblems.push('  S3_ACCESS_KEY_ID / S3_SECRET_ACCESS_KEY: set both or neither');
+  if (storageProblems.length) throw new ConfigError(`Invalid configuration (environment or .env):\n${storageProblems.join('\n')}`);
+  const storage: StorageConfig =
+    e.STORAGE === 's3'
+      ? {
+          kind: 's3',
+          endpoint: e.S3_ENDPOINT,
+          region: e.S3_REGION,
+          bucket: e.S3_BUCKET!,
+          prefix: (e.S3_PREFIX ?? '').replace(/^\/+|\/+$/g, ''),
+          // A custom endpoint (MinIO, a fake S3, most S3-compatible stores) usually wants path-style addresses.
+          forcePathStyle: e.S3_FORCE_PATH_STYLE ? e.S3_FORCE_PATH_STYLE === 'true' : !!e.S3_ENDPOINT,
+          credentials:
+            e.S3_ACCESS_KEY_ID && e.S3_SECRET_ACCESS_KEY
+              ? { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY }
+              : undefined,
+        }
+      : { kind: 'local' };
+  const nodes = e.DB_NODES ? parseNodeList(e.DB_NODES) : [{ host: e.DB_HOST, port: e.DB_PORT }];
   return {
     nodeEnv: e.NODE_ENV,
     isProduction: e.NODE_ENV === 'production',
@@ -130,7 +220,18 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     host: e.HOST,
     port: e.PORT,
     appUrl: (e.APP_URL ?? `http://127.0.0.1:${e.PORT}`).replace(/\/+$/, ''),
-    db: { host: e.DB_HOST, port: e.DB_PORT, name: e.DB_NAME, user: e.DB_USER, password: e.DB_PASSWORD, poolMax: e.DB_POOL_MAX },
+    db: {
+      host: nodes[0].host,
+      port: nodes[0].port,
+      name: e.DB_NAME,
+      user: e.DB_USER,
+      password: e.DB_PASSWORD,
+      poolMax: e.DB_POOL_MAX,
+      nodes,
+      readReplicas: e.DB_READ_REPLICAS ? parseNodeList(e.DB_READ_REPLICAS) : [],
+      syncWait: e.DB_SYNC_WAIT,
+      retryAttempts: e.DB_RETRY_ATTEMPTS,
+    },
     jwtSecret: e.JWT_SECRET,
     sessionHours: e.SESSION_HOURS,
     smtp: { host: e.SMTP_HOST, port: e.SMTP_PORT, secure: e.SMTP_SECURE, user: e.SMTP_USER, password: e.SMTP_PASSWORD },
@@ -141,6 +242,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     loginRateLimit: e.LOGIN_RATE_LIMIT,
     loginRateWindowMinutes: e.LOGIN_RATE_WINDOW_MINUTES,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
+    storage,
     version: readVersion(),
   };
 }
