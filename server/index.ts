@@ -7,6 +7,7 @@ import { closeSequelize, getSequelize } from './db';
 import { getLogger } from './logger';
 import { closeMail } from './services/mail.service';
 import { startMailQueueWorker } from './services/notify.service';
+import { getContentStore, startContentSweeper } from './storage';
 
 /** A listening server and how to stop it. */
 export type RunningServer = { server: Server; url: string; port: number; close: () => Promise<void> };
@@ -31,11 +32,14 @@ export async function startServer(options: { port?: number; host?: string } = {}
   // Queued notices that could not be sent right after their transition are retried from here (every process may
   // run this: rows are claimed in the database).
   const stopMailWorker = startMailQueueWorker();
+  // Stored bytes that a stopped process left orphaned are removed from here (claimed in the database as well).
+  const stopContentSweeper = startContentSweeper(getContentStore);
 
   let closing: Promise<void> | undefined;
   const close = () => {
     closing ??= (async () => {
       stopMailWorker();
+      stopContentSweeper();
       await new Promise<void>((resolve) => {
         server.close(() => resolve());
         server.closeIdleConnections();

@@ -6,6 +6,8 @@ import { AuditLog, Design, Revision, RevisionComment, Sheet, User, type DesignSt
 import { computeStoredResults } from '../services/designs.service';
 import { freezeDesign } from '../services/revisions.service';
 import { renderSheetFiles } from '../services/sheets.service';
+import { getContentStore, markUnreferenced, referenceContent, removeUnreferencedContent } from '../storage';
+import { sha256Of } from '../uploads';
 import { DEMO_DESIGNS, demoDesignDocument } from './202612020102-demo-designs';
 
 // The review history of the demo workshop, so a fresh start shows every state:
@@ -157,6 +159,12 @@ async function publish(
     result: revision.result as never,
     fingerprint: revision.fingerprint,
   });
+  // As at a real approval: the PDFs go to the content store, registered in use in the same transaction.
+  const store = getContentStore();
+  for (const bytes of [rendered.a4, rendered.letter]) {
+    await referenceContent(sha256Of(bytes), bytes.length, t);
+    await store.put(bytes);
+  }
   const sheet = await Sheet.create(
     {
       revisionId: revision.id,
@@ -164,10 +172,10 @@ async function publish(
       approvedById: reviewer.id,
       approvedAt: at,
       comment,
-      a4Pdf: rendered.a4,
+      a4Pdf: null,
       a4Sha256: rendered.a4Sha256,
       a4Size: rendered.a4.length,
-      letterPdf: rendered.letter,
+      letterPdf: null,
       letterSha256: rendered.letterSha256,
       letterSize: rendered.letter.length,
       createdAt: at,
@@ -330,7 +338,8 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
   const designIds = designs.map((d) => d.id);
   if (!designIds.length) return;
   const revisionIds = (await Revision.findAll({ where: { designId: { [Op.in]: designIds } }, attributes: ['id'] })).map((r) => r.id);
-  const sheetIds = (await Sheet.findAll({ where: { designId: { [Op.in]: designIds } }, attributes: ['id'] })).map((s) => s.id);
+  const sheets = await Sheet.findAll({ where: { designId: { [Op.in]: designIds } }, attributes: ['id', 'a4Sha256', 'letterSha256'] });
+  const sheetIds = sheets.map((s) => s.id);
   await context.sequelize.transaction(async (transaction) => {
     await AuditLog.destroy({
       where: {
@@ -350,4 +359,10 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
     await Revision.destroy({ where: { designId: { [Op.in]: designIds } }, transaction }); // their comments go with them
     await Design.update({ status: 'draft' }, { where: { id: { [Op.in]: designIds } }, transaction });
   });
+  // The sheets' PDFs leave the content store unless something else refers to the same bytes.
+  const orphaned: string[] = [];
+  for (const sha256 of new Set(sheets.flatMap((s) => [s.a4Sha256, s.letterSha256]))) {
+    if (await context.sequelize.transaction((transaction) => markUnreferenced(sha256, transaction))) orphaned.push(sha256);
+  }
+  await removeUnreferencedContent(orphaned, getContentStore(), context.sequelize);
 };

@@ -2,6 +2,7 @@ import type { DesignInput, DesignResult } from '@/engine';
 import { getSequelize } from '../db';
 import { conflict, forbidden, notFound, validationError } from '../errors';
 import { Revision, RevisionComment, User } from '../models';
+import { storeWithRows } from './attachments.service';
 import { recordAudit } from './audit.service';
 import { approvedMail, deliverSoon, queueMail, returnedMail, sheetPublishedMail, type Recipient } from './notify.service';
 import {
@@ -157,7 +158,8 @@ export async function approveRevision(
     fingerprint: revision.fingerprint,
   });
 
-  const { sheetId, mailIds } = await getSequelize().transaction(async (transaction) => {
+  // The sheet's rows and its PDF bytes (content store) are saved together: if the transaction fails, the bytes go again.
+  const { sheetId, mailIds } = await storeWithRows([rendered.a4, rendered.letter], async (transaction) => {
     const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'approved', transaction);
     await locked.update({ status: 'approved', decidedById: actor.id, decidedAt: approvedAt, decisionNote: input.comment }, { transaction });
     await design.update({ status: 'approved' }, { transaction });

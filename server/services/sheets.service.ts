@@ -5,6 +5,8 @@ import { getConfig } from '../config';
 import { AppError, notFound } from '../errors';
 import { Revision, Sheet, User, type SheetPaper } from '../models';
 import { renderSheet } from '../sheet/renderSheet';
+import { getContentStore } from '../storage';
+import { ContentStoreError } from '../uploads';
 import { parseJson, type PersonRef } from './revisions.service';
 import type { Page, PublicUser } from './users.service';
 
@@ -104,7 +106,11 @@ export async function renderSheetFiles(source: SheetSource): Promise<RenderedShe
   return { a4, a4Sha256: sha256Hex(a4), letter, letterSha256: sha256Hex(letter) };
 }
 
-/** Stores a rendered sheet for an approved revision (inside the approval's transaction). @returns the sheet id */
+/**
+ * Writes the row of a rendered sheet for an approved revision (inside the approval's transaction). The PDF bytes go
+ * to the content store under their SHA-256 in the same transaction: run it through `storeWithRows([a4, letter], …)`
+ * (attachments.service), which registers and puts them. @returns the sheet id
+ */
 export async function storeSheet(
   input: { revisionId: number; designId: number; approvedById: number; approvedAt: Date; comment: string; rendered: RenderedSheet },
   transaction: Transaction,
@@ -116,10 +122,10 @@ export async function storeSheet(
       approvedById: input.approvedById,
       approvedAt: input.approvedAt,
       comment: input.comment,
-      a4Pdf: input.rendered.a4,
+      a4Pdf: null,
       a4Sha256: input.rendered.a4Sha256,
       a4Size: input.rendered.a4.length,
-      letterPdf: input.rendered.letter,
+      letterPdf: null,
       letterSha256: input.rendered.letterSha256,
       letterSize: input.rendered.letter.length,
     },
@@ -250,7 +256,11 @@ export async function getSheet(_actor: PublicUser, id: number): Promise<SheetDet
   };
 }
 
-/** The stored PDF bytes of a sheet in one paper size, with their stored SHA-256 and download name. */
+/**
+ * The stored PDF bytes of a sheet in one paper size, with their stored SHA-256 and download name. Bytes come from the
+ * content store (re-hashed on the way out) or, for sheets published before sheets moved there, from the row.
+ * @throws 404 for an unknown sheet; 500 `sheet_missing` when the bytes are gone or no longer match their hash
+ */
 export async function getSheetPdf(id: number, paper: SheetPaper): Promise<{ bytes: Buffer; sha256: string; fileName: string }> {
   const column = paper === 'A4' ? 'a4Pdf' : 'letterPdf';
   const hash = paper === 'A4' ? 'a4Sha256' : 'letterSha256';
@@ -259,8 +269,18 @@ export async function getSheetPdf(id: number, paper: SheetPaper): Promise<{ byte
     include: [{ model: Revision, as: 'revision', attributes: ['number', 'inputs'] }],
   })) as SheetRow | null;
   if (!row || !row.revision) throw notFound('Sheet');
-  const bytes = row[column];
-  if (!Buffer.isBuffer(bytes)) throw new AppError('sheet_missing', 'The stored sheet could not be read.', 500, { isOperational: false });
+  const sha256 = row[hash];
+  let bytes = row[column];
+  if (!Buffer.isBuffer(bytes)) {
+    try {
+      bytes = await getContentStore().get(sha256, { verify: true });
+    } catch (err) {
+      if (err instanceof ContentStoreError) {
+        throw new AppError('sheet_missing', 'The stored sheet could not be read.', 500, { isOperational: false, cause: err });
+      }
+      throw err;
+    }
+  }
   const { name } = parseJson<{ name: string }>(row.revision.inputs);
-  return { bytes, sha256: row[hash], fileName: sheetFileName(name, row.revision.number, paper) };
+  return { bytes, sha256, fileName: sheetFileName(name, row.revision.number, paper) };
 }
