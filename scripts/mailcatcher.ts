@@ -23,6 +23,8 @@ export type CaughtMessage = {
   subject: string;
   date: string;
   messageId: string | null;
+  /** The app process that sent it (X-Gantrywright-Sender: pid@host), when given. */
+  sentBy: string | null;
   text: string;
   html: string;
   attachments: Array<{ filename: string | null; contentType: string; size: number }>;
@@ -172,6 +174,7 @@ export function parseMessage(raw: Buffer | string, envelope?: { from?: string; t
     subject: decodeEncodedWords(part.headers.get('subject') ?? ''),
     date: received.toISOString(),
     messageId: part.headers.get('message-id') ?? null,
+    sentBy: part.headers.get('x-gantrywright-sender') ?? null,
     ...out,
   };
 }

@@ -66,6 +66,8 @@ const envSchema = z.object({
   SMTP_PASSWORD: z.string().optional(),
   MAILCATCHER_HTTP_PORT: port(2527),
   MAIL_FROM: z.string().min(3).default('Gantrywright <noreply@example.test>'),
+  MAIL_WORKER_INTERVAL_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
+  MAIL_CLAIM_SECONDS: z.coerce.number().int().min(70, 'must be at least 70 (longer than the longest SMTP send)').max(3600).default(120),
   DATA_DIR: z.string().min(1).default('.data'),
   UPLOAD_DIR: z.string().min(1).optional(),
   LOGIN_RATE_LIMIT: positiveInt(10),
@@ -120,6 +122,10 @@ export type AppConfig = {
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
   mailcatcherHttpPort: number;
   mailFrom: string;
+  /** How often each process looks for queued mail that is due [ms]. */
+  mailWorkerIntervalMs: number;
+  /** How long a sender holds claimed mail before another may take it over [ms]. */
+  mailClaimMs: number;
   dataDir: string;
   uploadDir: string;
   loginRateLimit: number;
@@ -237,6 +243,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     smtp: { host: e.SMTP_HOST, port: e.SMTP_PORT, secure: e.SMTP_SECURE, user: e.SMTP_USER, password: e.SMTP_PASSWORD },
     mailcatcherHttpPort: e.MAILCATCHER_HTTP_PORT,
     mailFrom: e.MAIL_FROM,
+    mailWorkerIntervalMs: e.MAIL_WORKER_INTERVAL_SECONDS * 1000,
+    mailClaimMs: e.MAIL_CLAIM_SECONDS * 1000,
     dataDir,
     uploadDir: e.UPLOAD_DIR ? resolveFromRoot(e.UPLOAD_DIR) : path.join(dataDir, 'uploads'),
     loginRateLimit: e.LOGIN_RATE_LIMIT,

@@ -26,6 +26,11 @@ export async function startServer(options: { port?: number; host?: string } = {}
     const s = app.listen(options.port ?? config.port, host, () => resolve(s));
     s.once('error', reject);
   });
+  // Behind a load balancer that keeps connections to the app open, the app must not be the side that closes an idle
+  // one first: a request the balancer sends just as the app closes the socket would fail (502). Balancers drop idle
+  // connections within seconds to a minute; this outlasts that.
+  server.keepAliveTimeout = 65_000;
+  server.headersTimeout = 66_000;
   const port = (server.address() as AddressInfo).port;
   const url = `http://${host.includes(':') ? `[${host}]` : host}:${port}`;
   log.info({ url }, 'server listening');

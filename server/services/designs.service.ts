@@ -1,4 +1,4 @@
-import { Op, type Order, type WhereOptions } from 'sequelize';
+import { Op, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import { defaultDesign, EngineInputError, evaluateValidDesign, safeParseDesign, type DesignInput, type DesignResult } from '@/engine';
 import { AppError, conflict, forbidden, notFound, validationError, type ErrorDetail } from '../errors';
 import { getSequelize } from '../db';
@@ -168,8 +168,8 @@ export async function listDesigns(actor: PublicUser, query: ListDesignsQuery): P
   return { items: rows.map((row) => toListItem(row, actor)), total: count, page: query.page, pageSize: query.pageSize };
 }
 
-async function findDesign(id: number): Promise<DesignRow> {
-  const row = await Design.findByPk(id, { include: [OWNER_INCLUDE, UPDATED_BY_INCLUDE] });
+async function findDesign(id: number, transaction?: Transaction): Promise<DesignRow> {
+  const row = await Design.findByPk(id, { include: [OWNER_INCLUDE, UPDATED_BY_INCLUDE], transaction });
   if (!row) throw notFound('Design');
   return row;
 }
@@ -269,25 +269,31 @@ export async function updateDesign(actor: PublicUser, id: number, patch: UpdateD
   const document = withName(patch.inputs ?? normalise(parseJson(row.inputs), 'inputs'), patch.name);
   const stored = patch.inputs ? computeStoredResults(document, 'inputs') : {};
 
-  const [affected] = await Design.update(
-    {
-      name: document.name,
-      mechanism: document.mechanism,
-      inputs: document as unknown as Record<string, unknown>,
-      ...stored,
-      updatedById: actor.id,
-      version: patch.version + 1,
-    },
-    {
-      where: { id, version: patch.version, status: { [Op.in]: [...EDITABLE_DESIGN_STATUSES] } },
-    },
-  );
-  if (affected === 0) {
+  // The answer is read in the same transaction as the save, so it shows exactly the version this save wrote (a save
+  // by someone else a moment later must not be reported as this one's: the client would then overwrite it unseen).
+  const saved = await getSequelize().transaction(async (transaction) => {
+    const [affected] = await Design.update(
+      {
+        name: document.name,
+        mechanism: document.mechanism,
+        inputs: document as unknown as Record<string, unknown>,
+        ...stored,
+        updatedById: actor.id,
+        version: patch.version + 1,
+      },
+      {
+        where: { id, version: patch.version, status: { [Op.in]: [...EDITABLE_DESIGN_STATUSES] } },
+        transaction,
+      },
+    );
+    return affected === 0 ? null : findDesign(id, transaction);
+  });
+  if (!saved) {
     const now = await findDesign(id);
     if (!EDITABLE_DESIGN_STATUSES.includes(now.status as DesignStatus)) throw notEditable(now);
     throw versionConflict(now);
   }
-  return getDesign(actor, id);
+  return toDetail(saved, actor);
 }
 
 /** Deletes a draft (or returned) design: designers their own, admins any. 409 once it is in review or approved. */

@@ -1,3 +1,4 @@
+import os from 'node:os';
 import nodemailer, { type Transporter } from 'nodemailer';
 import { getConfig } from '../config';
 import { logger } from '../logger';
@@ -13,6 +14,9 @@ export type MailInput = {
 };
 
 let transporter: Transporter | undefined;
+
+/** This process, as `pid@host`. */
+const SENDER = `${process.pid}@${os.hostname()}`;
 
 function getTransporter(): Transporter {
   if (!transporter) {
@@ -55,6 +59,9 @@ export async function sendMail(input: MailInput): Promise<boolean> {
         text: input.text,
         html: input.html,
         ...(input.messageId ? { messageId: input.messageId } : {}),
+        // Which process sent it: when a mail leaves twice (its sender died after the SMTP server took it but before the
+        // queue recorded that), this says which process to look at.
+        headers: { 'X-Gantrywright-Sender': SENDER },
       });
       logger.info({ to: input.to, subject: input.subject, messageId: info.messageId }, 'mail sent');
       return true;

@@ -25,8 +25,6 @@ export type Recipient = { email: string; name: string };
 export const RETRY_BACKOFF_MS = [30_000, 2 * 60_000, 10 * 60_000, 30 * 60_000, 60 * 60_000, 2 * 60 * 60_000, 6 * 60 * 60_000];
 /** Attempts before giving up (each attempt is itself sendMail's three quick tries). */
 export const MAX_ATTEMPTS = RETRY_BACKOFF_MS.length + 1;
-/** How long one sender holds claimed rows before another may take them (a crashed sender releases them this way). */
-export const CLAIM_MS = 2 * 60_000;
 /**
  * Longest one sendMail call can take (three tries, each with 5 s connect + 5 s greeting + 10 s socket timeouts, and
  * the pauses between): a sender starts a mail only while at least this much of its lease is left, so a lease never
@@ -102,7 +100,8 @@ export type Claim = { token: string; until: Date; rows: Notification[] };
 export async function claimDueMail(options: { ids?: number[]; limit?: number } = {}): Promise<Claim> {
   const token = randomBytes(16).toString('hex');
   const now = new Date();
-  const until = new Date(now.getTime() + CLAIM_MS);
+  // How long this sender holds the rows (MAIL_CLAIM_SECONDS): a crashed sender releases them this way.
+  const until = new Date(now.getTime() + getConfig().mailClaimMs);
   if (options.ids && !options.ids.length) return { token, until, rows: [] };
   const sequelize = Notification.sequelize!;
   // Named rows (fresh mail right after its commit) are taken whenever they are pending; otherwise only due ones.
@@ -221,7 +220,7 @@ export function deliverSoon(ids: number[]): void {
  * Starts the periodic retry of queued mail in this process (server/index.ts). Every process may run one: rows are
  * claimed in the database. @returns a function that stops it.
  */
-export function startMailQueueWorker(intervalMs = 30_000): () => void {
+export function startMailQueueWorker(intervalMs = getConfig().mailWorkerIntervalMs): () => void {
   let isRunning = false;
   const tick = async () => {
     if (isRunning) return;
