@@ -47,7 +47,7 @@ import { startMailCatcher, type MailCatcher } from './mailcatcher';
 import { acquireRunLock } from './runLock';
 import { ScaleClient, type RequestRecord } from './scale/client';
 import { abandonedStep, emptyLedger, runEditor, runJourney, type ContentionLedger, type Crew } from './scale/journey';
-import { isError, phaseStats, table, type Phase, type PhaseStats } from './scale/stats';
+import { isError, phaseStats, routeStats, table, type Phase, type PhaseStats } from './scale/stats';
 import { verifyRun, type Check } from './scale/verify';
 
 const say = (line = '') => process.stdout.write(`${line}\n`);
@@ -297,6 +297,7 @@ type Report = {
   setupSeconds: Record<string, number>;
   probes: Probe[];
   phases: PhaseStats[];
+  routes: ReturnType<typeof routeStats>;
   faults: Record<string, number | string>;
   editors: { requests: number; errors: number; acknowledged: number; conflicts: number };
   checks: Check[];
@@ -569,10 +570,12 @@ async function main(): Promise<number> {
         .catch(() => undefined);
     }, 250);
 
+    const D = options.durationS * 1000;
     const loadStart = Date.now();
     say(`Load: ${options.users} users and 3 editors for ${options.durationS} s...`);
     const users = crews.map(async (crew, i) => {
-      await sleep((i * 1500) / options.users); // stagger the start
+      // Users arrive over the first seconds instead of all at once (which would start with every sheet rendering together).
+      await sleep((i * Math.min(10_000, D / 10)) / options.users);
       while (!stopping && !interrupted) {
         try {
           await runJourney(crew, ledger, { tag: `Scale ${runTag} u${i}`, thinkMs: options.thinkMs });
@@ -595,7 +598,6 @@ async function main(): Promise<number> {
     // Faults, one after the other, each situation lasting a share of the duration (at least a few seconds; the run
     // is extended if restarts take longer than planned): steady, app2 killed, app2 restarting, all up again,
     // database node1 killed, node1 rejoining, all back.
-    const D = options.durationS * 1000;
     const hold = (share: number, minS: number) => sleep(Math.max(share * D, minS * 1000));
     const marks: Array<{ at: number; name: string }> = [{ at: loadStart, name: 'steady (all up)' }];
     const faults: Record<string, number | string> = {};
@@ -722,6 +724,7 @@ async function main(): Promise<number> {
       setupSeconds,
       probes,
       phases: stats,
+      routes: routeStats(requests),
       faults,
       editors: {
         requests: editorRequests.length,
@@ -735,7 +738,18 @@ async function main(): Promise<number> {
     };
     fs.writeFileSync(
       path.join(DATA_DIR, 'report.json'),
-      JSON.stringify({ ...report, abandoned: ledger.abandoned, balancerEvents: events }, null, 2),
+      JSON.stringify(
+        {
+          ...report,
+          abandoned: ledger.abandoned,
+          balancerEvents: events,
+          errors: [...requests, ...editorRequests]
+            .filter(isError)
+            .map((r) => ({ ...r, at: new Date(r.at).toISOString(), sinceStart: (r.at - loadStart) / 1000 })),
+        },
+        null,
+        2,
+      ),
     );
 
     say('');
@@ -755,6 +769,14 @@ async function main(): Promise<number> {
             .map(([k, n]) => `${k}×${n}`)
             .join(', ') || '-',
         ]),
+      ),
+    );
+    say('');
+    const routes = routeStats(requests);
+    say(
+      table(
+        ['request (whole run)', 'count', 'p50 ms', 'p99 ms', 'errors'],
+        routes.map((r) => [r.route, r.requests, r.p50Ms, r.p99Ms, r.errors]),
       ),
     );
     const total = requests.length;

@@ -159,12 +159,15 @@ async function main(): Promise<void> {
     const { formatDemoSignIns } = await import('../server/seeders/demoAccounts');
     const { startServer } = await import('../server/index');
 
-    if (isLocalHost(config.db.host)) {
+    // A list of cluster nodes (DB_NODES) is someone else's servers (e.g. tsx scripts/cluster.ts start), never the private one.
+    if (isLocalHost(config.db.host) && (config.db.nodes?.length ?? 1) === 1) {
       ensureDebianPackages([MARIADB_PACKAGE], say);
       running.db = await startMariaDb({ dir: path.join(config.dataDir, 'mariadb'), port: config.db.port, log: say });
       await ensureDatabases(running.db, { databases: [config.db.name], user: config.db.user, password: config.db.password });
     } else {
-      say(`Using the MariaDB server at ${config.db.host}:${config.db.port} (DB_HOST is not local).`);
+      say(
+        `Using the MariaDB server(s) at ${(config.db.nodes ?? [config.db]).map((n) => `${n.host}:${n.port}`).join(', ')} (not the private one).`,
+      );
     }
 
     const sequelize = getSequelize();

@@ -35,10 +35,15 @@ export function isError(r: RequestRecord): boolean {
   return r.status === 0 || r.status >= 500 || (r.status === 409 && r.code === 'write_conflict');
 }
 
-/** Splits the requests (by start time) and completed journeys into phases and measures each. */
+/**
+ * Splits the requests and completed journeys into phases by when they ENDED (a request cut off by a kill belongs to
+ * the phase of the kill, not to the calm before it) and measures each.
+ */
 export function phaseStats(phases: Phase[], requests: RequestRecord[], journeyEnds: number[]): PhaseStats[] {
-  return phases.map((phase) => {
-    const inPhase = requests.filter((r) => r.at >= phase.start && r.at < phase.end);
+  return phases.map((phase, index) => {
+    // The last phase also takes what finished after the load was stopped (the journeys that were still running).
+    const isLast = index === phases.length - 1;
+    const inPhase = requests.filter((r) => r.at + r.ms >= phase.start && (r.at + r.ms < phase.end || isLast));
     const ok = inPhase
       .filter((r) => !isError(r))
       .map((r) => r.ms)
@@ -58,7 +63,7 @@ export function phaseStats(phases: Phase[], requests: RequestRecord[], journeyEn
       seconds: Math.round(seconds * 10) / 10,
       requests: inPhase.length,
       perSecond: Math.round((inPhase.length / seconds) * 10) / 10,
-      journeys: journeyEnds.filter((t) => t >= phase.start && t < phase.end).length,
+      journeys: journeyEnds.filter((t) => t >= phase.start && (t < phase.end || isLast)).length,
       p50Ms: percentile(ok, 0.5),
       p99Ms: percentile(ok, 0.99),
       maxMs: ok.length ? ok[ok.length - 1] : 0,
@@ -75,4 +80,21 @@ export function table(header: string[], rows: Array<Array<string | number>>): st
   const widths = header.map((_, i) => Math.max(...cells.map((r) => (r[i] ?? '').length)));
   const line = (r: string[]) => r.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('  ');
   return [line(cells[0]), widths.map((w) => '-'.repeat(w)).join('  '), ...cells.slice(1).map(line)].join('\n');
+}
+
+/** Latency of each kind of request over the whole run (answered ones), slowest p99 first. */
+export function routeStats(
+  requests: RequestRecord[],
+): Array<{ route: string; requests: number; p50Ms: number; p99Ms: number; errors: number }> {
+  const byRoute = new Map<string, RequestRecord[]>();
+  for (const r of requests) byRoute.set(`${r.method} ${r.route}`, [...(byRoute.get(`${r.method} ${r.route}`) ?? []), r]);
+  return [...byRoute.entries()]
+    .map(([route, list]) => {
+      const ok = list
+        .filter((r) => !isError(r))
+        .map((r) => r.ms)
+        .sort((a, b) => a - b);
+      return { route, requests: list.length, p50Ms: percentile(ok, 0.5), p99Ms: percentile(ok, 0.99), errors: list.filter(isError).length };
+    })
+    .sort((a, b) => b.p99Ms - a.p99Ms);
 }
