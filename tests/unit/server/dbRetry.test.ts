@@ -2,6 +2,7 @@ import type { Sequelize, Transaction } from 'sequelize';
 import { describe, expect, it } from 'vitest';
 import {
   classifyDbError,
+  createSequelize,
   DbOutcomeUnknownError,
   DbUnavailableError,
   installRetries,
@@ -59,15 +60,15 @@ function fakeSequelize(script: { begin?: unknown[]; commit?: unknown[]; query?: 
 
 describe('classifyDbError', () => {
   it.each([
-    ['a deadlock / certification failure (1213)', DEADLOCK(), 'conflict'],
-    ['SQLSTATE 40001 alone', dbError({ sqlState: '40001' }), 'conflict'],
-    ['a node not ready (1047)', NOT_READY(), 'not_ready'],
-    ['a refused connection', dbError({ code: 'ECONNREFUSED' }, 'SequelizeConnectionRefusedError'), 'not_sent'],
-    ['a command on a connection already closed (45013)', dbError({ errno: 45013, fatal: true }), 'not_sent'],
-    ['a socket closed during a statement (45009)', SOCKET_CLOSED(), 'lost'],
-    ['an error during COMMIT (1180)', dbError({ errno: 1180 }), 'lost'],
-    ['a reset connection', dbError({ code: 'ECONNRESET' }), 'lost'],
-  ])('when the error is %s, then it is %s', (_what, err, kind) => {
+    ['a deadlock / certification failure (1213)', 'conflict', DEADLOCK()],
+    ['SQLSTATE 40001 alone', 'conflict', dbError({ sqlState: '40001' })],
+    ['a node not ready (1047)', 'not_ready', NOT_READY()],
+    ['a refused connection', 'not_sent', dbError({ code: 'ECONNREFUSED' }, 'SequelizeConnectionRefusedError')],
+    ['a command on a connection already closed (45013)', 'not_sent', dbError({ errno: 45013, fatal: true })],
+    ['a socket closed during a statement (45009)', 'lost', SOCKET_CLOSED()],
+    ['an error during COMMIT (1180)', 'lost', dbError({ errno: 1180 })],
+    ['a reset connection', 'lost', dbError({ code: 'ECONNRESET' })],
+  ])('when the error is %s, then it is %s', (_what, kind, err) => {
     expect(classifyDbError(err)).toBe(kind);
   });
 
@@ -202,5 +203,45 @@ describe('installRetries (statements outside transactions)', () => {
     const outcome = await db.query('UPDATE x SET y = 1', { transaction: {} as Transaction }).catch((err: unknown) => err);
     expect(classifyDbError(outcome)).toBe('conflict');
     expect(log).toHaveLength(1);
+  });
+});
+
+describe('createSequelize', () => {
+  const base = { host: '127.0.0.1', port: 3407, name: 'gw', user: 'gw', password: 'secret-password', poolMax: 2 };
+
+  it('when read replicas are configured, then reads go to a read pool of the replicas and writes to the primary', async () => {
+    const db = createSequelize({
+      ...base,
+      readReplicas: [
+        { host: 'replica-1.example.test', port: 3307 },
+        { host: 'replica-2.example.test', port: 3308 },
+      ],
+    });
+    const replication = db.options.replication as { read: Array<{ host: string; port: number }>; write: { host: string; port: number } };
+    expect(replication.write).toEqual({ host: '127.0.0.1', port: 3407 });
+    expect(replication.read).toEqual([
+      { host: 'replica-1.example.test', port: 3307 },
+      { host: 'replica-2.example.test', port: 3308 },
+    ]);
+    await db.close();
+  });
+
+  it('when several cluster nodes are configured, then connections go through the failover driver', async () => {
+    const db = createSequelize({
+      ...base,
+      nodes: [
+        { host: '127.0.0.1', port: 4621 },
+        { host: '127.0.0.1', port: 4622 },
+      ],
+    });
+    expect(typeof (db.options as { dialectModule?: { createConnection?: unknown } }).dialectModule?.createConnection).toBe('function');
+    expect(db.options.replication).toBeFalsy();
+    await db.close();
+  });
+
+  it('when one server is configured, then the stock driver is used', async () => {
+    const db = createSequelize(base);
+    expect((db.options as { dialectModule?: unknown }).dialectModule ?? null).toBeNull();
+    await db.close();
   });
 });
