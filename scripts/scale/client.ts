@@ -49,10 +49,12 @@ export class ScaleClient {
     path: string,
     options: { route?: string; json?: unknown; form?: FormData; binary?: boolean; origin?: string } = {},
   ): Promise<Reply<T>> {
+    // What a browser sends: the page's origin, and whether that page belongs to the app's own site.
+    const origin = options.origin ?? this.origin;
     const headers: Record<string, string> = {
       Accept: 'application/json',
-      Origin: options.origin ?? this.origin,
-      'Sec-Fetch-Site': 'same-origin',
+      Origin: origin,
+      'Sec-Fetch-Site': origin === this.origin ? 'same-origin' : 'cross-site',
     };
     if (this.cookie) headers.Cookie = this.cookie;
     let body: string | FormData | undefined;
