@@ -138,6 +138,27 @@ export function queuedMessageId(id: number): string {
   return `<mail-queue-${id}@${host}>`;
 }
 
+const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
+
+/**
+ * Records the outcome of a send. The UPDATE only matches while the row carries this sender's claim token, so applying
+ * it twice changes nothing; unlike other writes it is therefore repeated when the database went away in the middle of
+ * it (on a cluster: the sender's node died) — otherwise a mail already handed to SMTP would stay claimed and go out a
+ * second time once the lease ran out. @returns the affected rows
+ */
+async function recordOutcome(update: () => Promise<[affectedCount: number]>): Promise<number> {
+  for (let attempt = 1; ; attempt += 1) {
+    try {
+      const [affected] = await update();
+      return affected;
+    } catch (err) {
+      const code = (err as { code?: string }).code;
+      if (attempt >= 8 || (code !== 'db_outcome_unknown' && code !== 'db_unavailable')) throw err;
+      await sleep(Math.min(4000, 250 * 2 ** (attempt - 1)));
+    }
+  }
+}
+
 /**
  * Sends one claimed row and records the outcome (sent, or the error and when to try again) only while the claim is
  * still this sender's. @returns whether it was sent
@@ -159,25 +180,27 @@ async function sendOne(row: Notification, token: string): Promise<boolean> {
   const attempts = row.attempts + 1;
   const mine = { id: row.id, claimToken: token };
   if (!error) {
-    const [affected] = await Notification.update(
-      { status: 'sent', attempts, sentAt: new Date(), lockedUntil: null, lastError: null },
-      { where: mine },
+    const sentAt = new Date();
+    const affected = await recordOutcome(() =>
+      Notification.update({ status: 'sent', attempts, sentAt, lockedUntil: null, lastError: null }, { where: mine }),
     );
     if (affected !== 1) logger.error({ mailId: row.id }, 'mail sent after its claim was lost');
     return true;
   }
   const isLast = attempts >= MAX_ATTEMPTS;
   const delay = RETRY_BACKOFF_MS[Math.min(attempts - 1, RETRY_BACKOFF_MS.length - 1)];
-  await Notification.update(
-    {
-      status: isLast ? 'failed' : 'pending',
-      attempts,
-      lastError: error.slice(0, 2000),
-      lockedUntil: null,
-      claimToken: null,
-      nextAttemptAt: new Date(Date.now() + delay),
-    },
-    { where: mine },
+  await recordOutcome(() =>
+    Notification.update(
+      {
+        status: isLast ? 'failed' : 'pending',
+        attempts,
+        lastError: error.slice(0, 2000),
+        lockedUntil: null,
+        claimToken: null,
+        nextAttemptAt: new Date(Date.now() + delay),
+      },
+      { where: mine },
+    ),
   );
   logger[isLast ? 'error' : 'warn'](
     { mailId: row.id, kind: row.kind, to: row.toAddress, attempts, error },
