@@ -288,6 +288,11 @@ export async function startMailCatcher(options: {
     }
   });
 
+  // A sender that dies with a connection open (a pooled SMTP connection of a killed app process) resets it: that is
+  // the sender's problem, not a reason for the catcher to stop.
+  smtp.on('error', (err: NodeJS.ErrnoException) => {
+    if (err.code !== 'ECONNRESET' && err.code !== 'EPIPE') log(`Mail catcher: ${err.message}`);
+  });
   await listen(smtp as unknown as Parameters<typeof listen>[0], options.smtpPort, host, 'SMTP');
   try {
     await listen(web, options.httpPort, host, 'Mail catcher HTTP');

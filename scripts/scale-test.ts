@@ -346,6 +346,12 @@ async function main(): Promise<number> {
   };
   process.on('SIGINT', onSignal);
   process.on('SIGTERM', onSignal);
+  // Should this process die unexpectedly, nothing it started may outlive it (a clean run has stopped them already).
+  const killEverything = () => {
+    for (const child of children) if (child.proc.exitCode === null && child.proc.signalCode === null) child.proc.kill('SIGKILL');
+    for (const node of clusterLayout(clusterOptions)) killNode(node);
+  };
+  process.once('exit', killEverything);
 
   try {
     await stopLeftovers(clusterOptions);
@@ -382,7 +388,7 @@ async function main(): Promise<number> {
       [
         '--import',
         'tsx',
-        path.join('scripts', 'fakeS3.ts'),
+        path.join(ROOT_DIR, 'scripts', 'fakeS3.ts'),
         '--port',
         String(ports.s3),
         '--dir',
@@ -476,7 +482,7 @@ async function main(): Promise<number> {
       DB_PASSWORD: app.password,
     });
     const startApp = (i: number) =>
-      spawnLogged(`app${i + 1}`, process.execPath, ['--import', 'tsx', path.join('server', 'index.ts')], appEnv(i), children);
+      spawnLogged(`app${i + 1}`, process.execPath, ['--import', 'tsx', path.join(ROOT_DIR, 'server', 'index.ts')], appEnv(i), children);
     const apps: Child[] = [startApp(0), startApp(1), startApp(2)];
     await Promise.all(apps.map((a, i) => waitFor(`app${i + 1} healthy`, healthy(`http://127.0.0.1:${ports.apps[i]}`), 90_000, a)));
     lap('3 app processes healthy', since);
