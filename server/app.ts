@@ -25,6 +25,9 @@ export function createApp(): Express {
 
   const app = express();
   app.disable('x-powered-by');
+  // No ETag hashing: API answers are never cached (Cache-Control: no-store below), so hashing every body (100 kB
+  // for a full engine result) is wasted work. The built client's files get their ETags from express.static.
+  app.set('etag', false);
   app.set('trust proxy', config.trustProxy);
   app.set('query parser', 'simple');
 

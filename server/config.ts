@@ -1,4 +1,5 @@
 import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import { parseEnv } from 'node:util';
 import { z } from 'zod';
@@ -87,6 +88,10 @@ const envSchema = z.object({
   S3_ACCESS_KEY_ID: z.string().optional(),
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   S3_FORCE_PATH_STYLE: z.enum(['true', 'false']).optional(),
+  /** Worker threads for the engine (POST /api/calc, saves, revision freezing); default: cores − 1, at least 1. */
+  ENGINE_THREADS: z.coerce.number().int().min(1).max(64).optional(),
+  /** Worker threads that render design sheets (PDF). */
+  PDF_THREADS: positiveInt(1),
 });
 
 /** The validated, typed configuration. Paths are absolute. */
@@ -134,6 +139,8 @@ export type AppConfig = {
   trustProxy: boolean | number | string;
   /** Where uploads and design sheets are stored: a local folder (`uploadDir`) or an S3-compatible bucket. */
   storage: StorageConfig;
+  /** Sizes of the worker-thread pools (server/workers/pool.ts). */
+  workers: { engineThreads: number; pdfThreads: number };
   version: string;
 };
 
@@ -251,6 +258,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     loginRateWindowMinutes: e.LOGIN_RATE_WINDOW_MINUTES,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
     storage,
+    workers: { engineThreads: e.ENGINE_THREADS ?? Math.max(1, os.availableParallelism() - 1), pdfThreads: Math.min(e.PDF_THREADS, 8) },
     version: readVersion(),
   };
 }

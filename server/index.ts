@@ -8,6 +8,7 @@ import { getLogger } from './logger';
 import { closeMail } from './services/mail.service';
 import { startMailQueueWorker } from './services/notify.service';
 import { getContentStore, startContentSweeper } from './storage';
+import { closePools, warmPools } from './workers/pool';
 
 /** A listening server and how to stop it. */
 export type RunningServer = { server: Server; url: string; port: number; close: () => Promise<void> };
@@ -21,6 +22,8 @@ export async function startServer(options: { port?: number; host?: string } = {}
   const log = getLogger();
   await getSequelize().authenticate();
   const app = createApp();
+  // Start the engine thread now, so the first calculation does not wait for it to load.
+  void warmPools().catch((err: unknown) => log.error({ err }, 'engine worker pool failed to start'));
   const host = options.host ?? config.host;
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(options.port ?? config.port, host, () => resolve(s));
@@ -52,6 +55,7 @@ export async function startServer(options: { port?: number; host?: string } = {}
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
       closeMail();
+      await closePools();
       await closeSequelize();
       log.info('server stopped');
     })();

@@ -13,6 +13,7 @@ import {
 } from '../models';
 import type { CreateDesignInput, ListDesignsQuery, UpdateDesignInput } from '../schemas/designs.schema';
 import { removeUnreferencedBytes } from './attachments.service';
+import { storedResultsInPool } from '../workers/pool';
 import { recordAudit } from './audit.service';
 import type { Page, PublicUser } from './users.service';
 
@@ -202,7 +203,7 @@ export async function createDesign(actor: PublicUser, input: CreateDesignInput):
     document = input.document;
     origin = 'document';
   }
-  const stored = computeStoredResults(document);
+  const stored = await storedResultsInPool(document);
 
   const row = await getSequelize().transaction(async (transaction) => {
     const created = await Design.create(
@@ -267,7 +268,7 @@ export async function updateDesign(actor: PublicUser, id: number, patch: UpdateD
   if (row.version !== patch.version) throw versionConflict(row);
 
   const document = withName(patch.inputs ?? normalise(parseJson(row.inputs), 'inputs'), patch.name);
-  const stored = patch.inputs ? computeStoredResults(document, 'inputs') : {};
+  const stored = patch.inputs ? await storedResultsInPool(document, 'inputs') : {};
 
   // The answer is read in the same transaction as the save, so it shows exactly the version this save wrote (a save
   // by someone else a moment later must not be reported as this one's: the client would then overwrite it unseen).

@@ -18,7 +18,7 @@ import {
   type PersonRef,
   type RevisionDetail,
 } from './revisions.service';
-import { getSheet, renderSheetFiles, storeSheet, type SheetDetail } from './sheets.service';
+import { getSheet, renderSheetFilesOffThread, storeSheet, type SheetDetail } from './sheets.service';
 import { findActiveUsersByRole, type Page, type PublicUser } from './users.service';
 
 /**
@@ -147,7 +147,7 @@ export async function approveRevision(
   const approvedAt = new Date();
   const inputs = parseJson<DesignInput>(revision.inputs);
   const author = await User.findByPk(revision.authorId, { attributes: ['name', 'email'] });
-  const rendered = await renderSheetFiles({
+  const rendered = await renderSheetFilesOffThread({
     designName: inputs.name,
     revisionNumber: revision.number,
     mechanism: inputs.mechanism,

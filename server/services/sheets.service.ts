@@ -7,6 +7,7 @@ import { Revision, Sheet, User, type SheetPaper } from '../models';
 import { renderSheet } from '../sheet/renderSheet';
 import { getContentStore } from '../storage';
 import { ContentStoreError } from '../uploads';
+import { renderSheetsInPool } from '../workers/pool';
 import { parseJson, type PersonRef } from './revisions.service';
 import type { Page, PublicUser } from './users.service';
 
@@ -104,6 +105,14 @@ export async function renderSheetFiles(source: SheetSource): Promise<RenderedShe
   const a4 = await renderSheet({ ...base, paper: 'A4' });
   const letter = await renderSheet({ ...base, paper: 'LETTER' });
   return { a4, a4Sha256: sha256Hex(a4), letter, letterSha256: sha256Hex(letter) };
+}
+
+/**
+ * {@link renderSheetFiles} in the PDF worker pool: an approval renders two sheets (about a second of CPU), which on
+ * the event loop would stall every other request meanwhile.
+ */
+export async function renderSheetFilesOffThread(source: SheetSource): Promise<RenderedSheet> {
+  return renderSheetsInPool({ ...source, appUrl: getConfig().appUrl });
 }
 
 /**

@@ -1,0 +1,110 @@
+import { createHash } from 'node:crypto';
+import { Piscina } from 'piscina';
+import { ENGINE_VERSION, EngineInputError, type DesignInput } from '@/engine';
+import { AppError } from '../errors';
+import type { SheetInput } from '../sheet/types';
+import { pickSections, type ResultSection } from './sections';
+
+/**
+ * The work the server hands to its worker threads (see pool.ts). Each task returns plain data; an AppError
+ * thrown here cannot cross the thread boundary with its code and details, so it travels as a `failure` and the
+ * pool turns it back into an AppError on the main thread.
+ */
+
+/** An AppError in a form that survives structured cloning. */
+export interface TaskFailure {
+  failure: { code: string; message: string; status: number; details?: unknown };
+}
+
+/** What a task answers: its value, or an operational failure. */
+export type TaskAnswer<T> = { value: T } | TaskFailure;
+
+function answer<T>(fn: () => T): TaskAnswer<T> {
+  try {
+    return { value: fn() };
+  } catch (err) {
+    if (err instanceof AppError && err.isOperational) {
+      return { failure: { code: err.code, message: err.message, status: err.status, details: err.details } };
+    }
+    if (err instanceof EngineInputError) {
+      return { failure: { code: 'engine_input', message: err.message, status: 400, details: err.issues } };
+    }
+    throw err;
+  }
+}
+
+/** Arguments of {@link calc}. */
+export interface CalcTask {
+  /** Which engine entry: one result, the three mechanisms side by side, or a sweep of one input. */
+  kind: 'result' | 'compare' | 'sweep';
+  design: DesignInput;
+  /** Top-level result sections to include (all when absent; `result` only). */
+  sections?: ResultSection[];
+  /** Sweep only: dotted input path and its values. */
+  path?: string;
+  values?: number[];
+}
+
+/** JSON as UTF-8 bytes that own their ArrayBuffer, so they can be moved (not copied) to the main thread. */
+function jsonBytes(value: unknown): Uint8Array {
+  const bytes = Buffer.from(JSON.stringify(value), 'utf8');
+  // A small Buffer may share its ArrayBuffer with others (Node's pool) and cannot be moved: give it its own.
+  return bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength ? bytes : new Uint8Array(bytes);
+}
+
+/**
+ * POST /api/calc, /compare and /sweep: runs the engine on a validated design and serialises the answer here, so
+ * that the main thread only writes bytes (turning a full result into JSON costs more than computing it).
+ * @returns the UTF-8 JSON answer, moved to the main thread without a copy, or a failure (400 naming the field)
+ */
+export async function calc(task: CalcTask): Promise<Uint8Array | TaskFailure> {
+  const service = await import('../services/calc.service');
+  let out: TaskAnswer<unknown>;
+  if (task.kind === 'compare') out = answer(() => service.compare(task.design));
+  else if (task.kind === 'sweep') {
+    try {
+      out = { value: await service.sweepInput(task.design, task.path ?? '', task.values ?? [], { yieldBetween: false }) };
+    } catch (err) {
+      out = answer(() => {
+        throw err;
+      });
+    }
+  } else out = answer(() => pickSections(service.calculate(task.design), task.sections));
+  if ('failure' in out) return out;
+  return Piscina.move(jsonBytes(out.value)) as unknown as Uint8Array;
+}
+
+/** Freezes a revision's content (validation, engine, fingerprint) off the main thread. */
+export async function freeze(
+  storedInputs: unknown,
+): Promise<TaskAnswer<ReturnType<typeof import('../services/revisions.service').freezeDesign>>> {
+  // Loaded on first use only: the calc-only threads never load the models.
+  const { freezeDesign } = await import('../services/revisions.service');
+  return answer(() => freezeDesign(storedInputs));
+}
+
+/** Travel and the list summary of a design, computed on every save. */
+export async function storedResults(task: {
+  document: DesignInput;
+  pathPrefix?: string;
+}): Promise<TaskAnswer<ReturnType<typeof import('../services/designs.service').computeStoredResults>>> {
+  const { computeStoredResults } = await import('../services/designs.service');
+  return answer(() => computeStoredResults(task.document, task.pathPrefix));
+}
+
+/** A design sheet in A4 and US Letter with their SHA-256 (pdfmake is slow: 0.4–0.5 s per paper size). */
+export async function renderSheets(
+  source: Omit<SheetInput, 'paper'>,
+): Promise<{ a4: Uint8Array; a4Sha256: string; letter: Uint8Array; letterSha256: string }> {
+  const { renderSheet } = await import('../sheet/renderSheet');
+  // One after the other: pdfmake is a singleton within this thread.
+  const a4 = await renderSheet({ ...source, paper: 'A4' });
+  const letter = await renderSheet({ ...source, paper: 'LETTER' });
+  const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+  return { a4: new Uint8Array(a4), a4Sha256: sha(a4), letter: new Uint8Array(letter), letterSha256: sha(letter) };
+}
+
+/** Loads the engine and answers: used to start threads before the first request needs them. */
+export function ping(): string {
+  return ENGINE_VERSION;
+}
