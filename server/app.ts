@@ -1,4 +1,3 @@
-import fs from 'node:fs';
 import path from 'node:path';
 import express, { type Express } from 'express';
 import cookieParser from 'cookie-parser';
@@ -10,6 +9,7 @@ import { securityHeadersMiddleware } from './middleware/security';
 import { requireJsonBodyMiddleware } from './middleware/contentType';
 import { errorHandlerMiddleware } from './middleware/errorHandler';
 import { notFoundMiddleware } from './middleware/notFound';
+import { precompressedAssetsMiddleware, sendBuilt } from './middleware/precompressed';
 import { createApiRouter } from './routes';
 
 /** Largest JSON body the API accepts; bigger ones get 413 `payload_too_large`. */
@@ -52,8 +52,12 @@ export function createApp(): Express {
   return app;
 }
 
-/** Serves dist/: hashed assets cached for a year, index.html never cached, SPA fallback for page routes. */
+/**
+ * Serves dist/: hashed assets precompressed (brotli or gzip, written at build) and cached for a year, other
+ * files as they are, index.html (also precompressed) revalidated on every visit, SPA fallback for page routes.
+ */
 function mountClient(app: Express): void {
+  app.use(precompressedAssetsMiddleware(DIST_DIR));
   app.use(
     express.static(DIST_DIR, {
       index: false,
@@ -69,11 +73,8 @@ function mountClient(app: Express): void {
       return;
     }
     const indexFile = path.join(DIST_DIR, 'index.html');
-    if (!fs.existsSync(indexFile)) {
-      res.status(503).type('text/plain').send('The client is not built yet. Run `npm run build` (npm start builds it for you).');
-      return;
-    }
-    res.setHeader('Cache-Control', 'no-cache');
-    res.sendFile(indexFile);
+    sendBuilt(req, res, indexFile, 'no-cache').then((sent) => {
+      if (!sent) res.status(503).type('text/plain').send('The client is not built yet. Run `npm run build` (npm start builds it for you).');
+    }, next);
   });
 }

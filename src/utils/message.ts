@@ -1,4 +1,4 @@
-import { ElMessage, ElMessageBox } from 'element-plus';
+import { ElMessage } from 'element-plus';
 import { isApiError } from '@/api/http';
 
 /**
@@ -51,6 +51,8 @@ export interface ConfirmOptions {
  * @returns true when confirmed, false when cancelled or closed
  */
 export async function confirmAction(options: ConfirmOptions): Promise<boolean> {
+  // Loaded on first use: the confirm box is ~20 kB that no page needs before someone asks to delete something.
+  const { ElMessageBox } = await import('element-plus/es/components/message-box/index.mjs');
   try {
     await ElMessageBox.confirm(options.message, options.title, {
       confirmButtonText: options.confirmText,
