@@ -1,7 +1,7 @@
 import { fileURLToPath, URL } from 'node:url';
 import { defineConfig } from 'vite';
 import vue from '@vitejs/plugin-vue';
-import { chunkModulesPlugin, precompressPlugin } from './scripts/vitePrecompress';
+import { chunkModulesPlugin, precompressPlugin } from './scripts/vitePrecompress.ts';
 
 // The API server (server/index.ts) listens on PORT; in `npm run dev` Vite proxies /api to it.
 const apiPort = Number(process.env.PORT ?? 5180);

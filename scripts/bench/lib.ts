@@ -31,7 +31,8 @@ export interface Figure {
 
 /** A figure with a "≤ limit" target. */
 export function atMost(id: string, label: string, value: number, unit: string, limit: number, note?: string): Figure {
-  return { id, label, target: `≤ ${limit} ${unit}`.trim(), value, unit, ratio: value / limit, ok: value <= limit, better: 'lower', note };
+  const ratio = limit > 0 ? value / limit : null; // a count that must be 0 has no meaningful ratio
+  return { id, label, target: `≤ ${limit} ${unit}`.trim(), value, unit, ratio, ok: value <= limit, better: 'lower', note };
 }
 
 /** A figure with a "≥ limit" target. */
