@@ -8,7 +8,13 @@ const apiPort = Number(process.env.PORT ?? 5180);
 
 export default defineConfig({
   plugins: [vue(), chunkModulesPlugin(), precompressPlugin()],
-  resolve: { alias: { '@': fileURLToPath(new URL('./src', import.meta.url)) } },
+  resolve: {
+    alias: {
+      '@': fileURLToPath(new URL('./src', import.meta.url)),
+      // plotly.js' trace registry names the map style sheet for map traces, which the app's bundle leaves out.
+      'maplibre-gl/dist/maplibre-gl.css': fileURLToPath(new URL('./src/styles/empty.css', import.meta.url)),
+    },
+  },
   server: {
     host: '127.0.0.1',
     port: Number(process.env.VITE_PORT ?? 5173),
