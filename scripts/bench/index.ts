@@ -55,6 +55,8 @@ async function main(): Promise<number> {
       say(`${part}: FAILED — ${(err as Error).message}`);
     }
   }
+  const { closeBenchEnv } = await import('./env');
+  await closeBenchEnv();
   const machine = machineLine();
   process.stdout.write(`\nGantrywright benchmarks — ${machine}\n\n${formatTable(figures)}\n\n`);
   for (const f of figures) if (f.note) process.stdout.write(`  ${f.label}: ${f.note}\n`);

@@ -1,15 +1,24 @@
 // Entry file of the server's worker threads (piscina loads it once per thread).
 //
-// The server runs TypeScript through tsx without a build step. A thread started from `tsx server/index.ts`
-// inherits tsx's loader through process.execArgv, but one started from a test runner (vitest) or plain node does
-// not, so this entry is plain JavaScript: it registers tsx for its own thread when needed, then loads the
-// TypeScript task modules. tsx also reads tsconfig `paths`, so the tasks import the engine as `@/engine`.
+// The server runs TypeScript through tsx without a build step, but a worker thread does not get the parent's tsx
+// loader: on Node 20, hooks registered with --import (how `tsx` and `node --import tsx` work) apply to the thread
+// that registered them, and a thread started by a test runner never had them. So this entry is plain JavaScript:
+// it loads the TypeScript tasks, and when this thread cannot load TypeScript yet, it registers tsx for itself
+// first (tsx/esm/api) and tries again. tsx also reads tsconfig `paths`, so the tasks import the engine as `@/engine`.
 import { register } from 'tsx/esm/api';
 
-const hasTsx = process.execArgv.some((arg) => arg.includes('tsx'));
-if (!hasTsx) register();
+async function loadTasks() {
+  try {
+    return await import('./tasks.ts');
+  } catch (err) {
+    if (err?.code !== 'ERR_UNKNOWN_FILE_EXTENSION') throw err;
+    register();
+    // A new URL: the failed attempt stays cached under the plain one.
+    return await import('./tasks.ts?with-tsx');
+  }
+}
 
-const tasks = await import('./tasks.ts');
+const tasks = await loadTasks();
 
 /** Named tasks: `pool.run(arg, { name })`. */
 export const calc = tasks.calc;

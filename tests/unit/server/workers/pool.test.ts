@@ -74,7 +74,7 @@ describe('engine worker pool', () => {
     const { createHash } = await import('node:crypto');
     expect(sheet.a4Sha256).toBe(createHash('sha256').update(sheet.a4).digest('hex'));
     expect(sheet.letterSha256).not.toBe(sheet.a4Sha256);
-  });
+  }, 60_000); // a cold thread loads pdfmake and the fonts first; the machine may be busy
 });
 
 describe('pickSections', () => {
