@@ -1,19 +1,21 @@
 import path from 'node:path';
-import express, { type Express } from 'express';
+import express, { type Express, type Request } from 'express';
 import cookieParser from 'cookie-parser';
 import { getConfig } from './config';
 import { getSequelize } from './db';
 import { DIST_DIR } from './paths';
 import { requestIdMiddleware } from './middleware/requestId';
 import { securityHeadersMiddleware } from './middleware/security';
-import { requireJsonBodyMiddleware } from './middleware/contentType';
+import { JSON_BODY_LIMIT, JSON_TYPES, requireJsonBodyMiddleware } from './middleware/contentType';
 import { errorHandlerMiddleware } from './middleware/errorHandler';
 import { notFoundMiddleware } from './middleware/notFound';
 import { precompressedAssetsMiddleware, sendBuilt } from './middleware/precompressed';
 import { createApiRouter } from './routes';
 
-/** Largest JSON body the API accepts; bigger ones get 413 `payload_too_large`. */
-export const JSON_BODY_LIMIT = '1mb';
+export { JSON_BODY_LIMIT };
+
+/** /api/calc and its sub-paths (relative to /api), whose bodies the engine workers parse. */
+const isCalcPath = (url: string): boolean => /^\/calc(\/|\?|$)/.test(url);
 
 /**
  * Builds the Express app: security headers, request ids, the JSON API under /api and the built
@@ -37,7 +39,12 @@ export function createApp(): Express {
   app.use(
     '/api',
     requireJsonBodyMiddleware(),
-    express.json({ limit: JSON_BODY_LIMIT, strict: true, type: ['application/json', 'application/*+json'] }),
+    // /api/calc bodies are parsed in the engine worker pool instead (routes/calc.routes.ts), off the event loop.
+    express.json({
+      limit: JSON_BODY_LIMIT,
+      strict: true,
+      type: (req) => !isCalcPath(req.url ?? '') && Boolean((req as Request).is(JSON_TYPES)),
+    }),
     cookieParser(),
     function noStore(_req, res, next) {
       res.setHeader('Cache-Control', 'no-store');

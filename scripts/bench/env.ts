@@ -117,7 +117,9 @@ export async function startApp(options: {
 }): Promise<AppProcess> {
   const env = await benchEnv();
   const url = `http://127.0.0.1:${options.port}`;
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  // BENCH_APP_NODE_ARGS (e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof") profiles the servers under load.
+  const extraArgs = (process.env.BENCH_APP_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const child = spawn(process.execPath, [...extraArgs, '--import', 'tsx', 'server/index.ts'], {
     cwd: options.cwd,
     env: {
       ...process.env,
@@ -133,7 +135,11 @@ export async function startApp(options: {
     // The server logs (pino, warnings and up) go to this process's stderr with the progress lines.
     stdio: ['ignore', process.stderr, 'inherit'],
   });
-  const deadline = Date.now() + 60_000;
+  child.once('exit', (code, signal) => {
+    if (!stopping) say(`${options.label} server on ${url} exited unexpectedly (code ${code}, signal ${signal})`);
+  });
+  let stopping = false;
+  const deadline = Date.now() + 120_000;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`${options.label} server exited with code ${child.exitCode}`);
     try {
@@ -154,6 +160,7 @@ export async function startApp(options: {
     child,
     stop: () =>
       new Promise<void>((resolve) => {
+        stopping = true;
         if (child.exitCode !== null) return resolve();
         const timer = setTimeout(() => child.kill('SIGKILL'), 10_000);
         child.once('exit', () => {

@@ -25,7 +25,19 @@ const design = JSON.parse(fs.readFileSync(path.join(ROOT_DIR, 'reference/example
   unknown
 >;
 
+/** CPU time a process has used so far, all its threads, user + system [ms] (Linux /proc). */
+function cpuMs(pid: number | undefined): number {
+  try {
+    const fields = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+    return ((Number(fields[11]) + Number(fields[12])) * 1000) / 100; // utime, stime in clock ticks (USER_HZ = 100)
+  } catch {
+    return Number.NaN;
+  }
+}
+
 interface Sample {
+  /** Server CPU per completed /api/calc under load [ms]. */
+  cpuPerCalc: number[];
   idle: number[];
   underCalc: number[];
   underSheets: number[];
@@ -49,8 +61,8 @@ async function probeWhile<T>(client: Client, until: Promise<T>): Promise<{ laten
   const latencies: number[] = [];
   const finished = until.finally(() => (done = true));
   while (!done) {
-    const r = await client.request('GET', '/api/health');
-    if (r.status === 200) latencies.push(r.ms);
+    const r = await client.request('GET', '/api/health').catch(() => null);
+    if (r?.status === 200) latencies.push(r.ms);
     await sleep(5);
   }
   return { latencies, value: await finished };
@@ -70,7 +82,7 @@ async function calcLoad(
   await Promise.all(
     Array.from({ length: clients }, async () => {
       while (performance.now() < end) {
-        const r = await client.request('POST', '/api/calc', body);
+        const r = await client.request('POST', '/api/calc', body).catch((err: Error) => ({ status: 0, body: err.message }));
         if (r.status === 200) {
           done++;
           bytes = r.body.length;
@@ -101,7 +113,9 @@ async function measure(app: AppProcess, sample: Sample, withSheets: boolean): Pr
   const load = new Client(app.url);
   await load.signIn('designer@example.test');
   sample.idle.push(...(await healthProbes(probe, IDLE_PROBES)));
+  const cpuBefore = cpuMs(app.child.pid);
   const { latencies, value } = await probeWhile(probe, calcLoad(load, { design }, CLIENTS, LOAD_SECONDS));
+  sample.cpuPerCalc.push((cpuMs(app.child.pid) - cpuBefore) / Math.max(1, value.done));
   sample.underCalc.push(...latencies);
   sample.calcPerS.push(value.done / LOAD_SECONDS);
   sample.calcErrors += value.errors;
@@ -129,7 +143,7 @@ export async function benchServer(): Promise<Figure[]> {
     const before = await startApp({ cwd: baseline.dir, port: BENCH_PORTS.app + 1, database: BENCH_DB, label: 'baseline' });
     apps.push(before);
     const samples = new Map<AppProcess, Sample>(
-      apps.map((a) => [a, { idle: [], underCalc: [], underSheets: [], calcPerS: [], calcErrors: 0, bytes: 0 }]),
+      apps.map((a) => [a, { cpuPerCalc: [], idle: [], underCalc: [], underSheets: [], calcPerS: [], calcErrors: 0, bytes: 0 }]),
     );
     for (let round = 0; round < ROUNDS; round++) {
       const order = round % 2 === 0 ? [current, before] : [before, current];
@@ -185,6 +199,14 @@ export async function benchServer(): Promise<Figure[]> {
         `${tputNow.toFixed(0)} vs ${tputThen.toFixed(0)} req/s, full answers (${(now.bytes / 1000).toFixed(0)} kB vs ${(then.bytes / 1000).toFixed(0)} kB), ${CLIENTS} clients; errors ${now.calcErrors}/${then.calcErrors}`,
       ),
       info('server.calc.throughput', '/api/calc throughput, full answer', tputNow, 'req/s', 'higher'),
+      info(
+        'server.calc.cpu.ratio',
+        'server CPU per /api/calc, baseline ÷ this (all threads)',
+        median(then.cpuPerCalc) / median(now.cpuPerCalc),
+        '×',
+        'higher',
+        `${median(now.cpuPerCalc).toFixed(2)} ms vs ${median(then.cpuPerCalc).toFixed(2)} ms of CPU per request (user + system, /proc)`,
+      ),
       info(
         'server.calc.sections.throughput',
         '/api/calc throughput, sections drive+envelope+checks',

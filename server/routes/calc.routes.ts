@@ -1,10 +1,9 @@
-import { Router } from 'express';
-import type { DesignInput } from '@/engine';
-import { validate } from '../middleware/validate';
+import { Router, type Request } from 'express';
+import { JSON_BODY_LIMIT, JSON_TYPES } from '../middleware/contentType';
+import { rawJsonBodyMiddleware } from '../middleware/rawJsonBody';
 import { requireAuth } from '../middleware/requireAuth';
-import { calcSchema, compareSchema, sweepSchema } from '../schemas/calc.schema';
 import { calculateJson } from '../services/calc.service';
-import type { ResultSection } from '../workers/sections';
+import type { CalcTask } from '../workers/tasks';
 
 /**
  * /api/calc: the engine over HTTP for any signed-in user (the Design desk also runs it in the browser).
@@ -12,33 +11,34 @@ import type { ResultSection } from '../workers/sections';
  *   POST /api/calc/compare {design}          → {rows: one per mechanism}
  *   POST /api/calc/sweep {design, path, values} → {path, points: one per value}
  * Invalid input → 400 with details naming `design.<field>`, `sections`, `path` or `values`.
- * The engine and the JSON encoding run in the engine worker pool; the handlers only send the bytes.
+ * After sign-in, everything runs in the engine worker pool: parsing and validating the body (schemas/calc.schema.ts,
+ * the same messages as the validate middleware), the engine, and the JSON encoding; the handlers move bytes.
  */
 export function createCalcRouter(): Router {
   const router = Router();
   router.use(requireAuth);
+  const rawBody = rawJsonBodyMiddleware(JSON_BODY_LIMIT, JSON_TYPES);
+  const body = (req: Request): CalcTask['body'] => (Buffer.isBuffer(req.body) ? req.body : null);
 
-  router.post('/', validate({ body: calcSchema }), async function evaluate(req, res) {
-    const body = req.body as { design: DesignInput; sections?: ResultSection[] };
+  router.post('/', ...rawBody, async function evaluate(req, res) {
     res
       .status(200)
       .type('application/json')
-      .send(await calculateJson({ kind: 'result', design: body.design, sections: body.sections }));
+      .send(await calculateJson({ kind: 'result', body: body(req) }));
   });
 
-  router.post('/compare', validate({ body: compareSchema }), async function compareMechanisms(req, res) {
+  router.post('/compare', ...rawBody, async function compareMechanisms(req, res) {
     res
       .status(200)
       .type('application/json')
-      .send(await calculateJson({ kind: 'compare', design: (req.body as { design: DesignInput }).design }));
+      .send(await calculateJson({ kind: 'compare', body: body(req) }));
   });
 
-  router.post('/sweep', validate({ body: sweepSchema }), async function sweep(req, res) {
-    const body = req.body as { design: DesignInput; path: string; values: number[] };
+  router.post('/sweep', ...rawBody, async function sweep(req, res) {
     res
       .status(200)
       .type('application/json')
-      .send(await calculateJson({ kind: 'sweep', design: body.design, path: body.path, values: body.values }));
+      .send(await calculateJson({ kind: 'sweep', body: body(req) }));
   });
 
   return router;

@@ -76,7 +76,15 @@ function unwrap<T>(answer: { value: T } | TaskFailure): T {
  * @throws AppError 400 when the engine rejects the design (layout problems the schema cannot see)
  */
 export async function calcJson(task: CalcTask): Promise<Buffer> {
-  const out = (await getEnginePool().run(task, { name: 'calc' })) as Uint8Array | TaskFailure;
+  // The body moves to the worker; a small Buffer may share its memory with others and is copied first.
+  const body =
+    task.body && task.body.byteOffset === 0 && task.body.byteLength === task.body.buffer.byteLength
+      ? task.body
+      : task.body && new Uint8Array(task.body);
+  const out = (await getEnginePool().run(
+    { kind: task.kind, body },
+    { name: 'calc', transferList: body ? [body.buffer as ArrayBuffer] : undefined },
+  )) as Uint8Array | TaskFailure;
   if (isFailure(out)) unwrap(out);
   const bytes = out as Uint8Array;
   return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);

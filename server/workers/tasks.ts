@@ -37,12 +37,23 @@ function answer<T>(fn: () => T): TaskAnswer<T> {
 export interface CalcTask {
   /** Which engine entry: one result, the three mechanisms side by side, or a sweep of one input. */
   kind: 'result' | 'compare' | 'sweep';
-  design: DesignInput;
-  /** Top-level result sections to include (all when absent; `result` only). */
-  sections?: ResultSection[];
-  /** Sweep only: dotted input path and its values. */
-  path?: string;
-  values?: number[];
+  /** The request body as it arrived (UTF-8 JSON), or null when there was none. */
+  body: Uint8Array | null;
+}
+
+const INVALID_JSON: TaskFailure = { failure: { code: 'invalid_json', message: 'The request body is not valid JSON.', status: 400 } };
+
+/** Parses a body the way the API's JSON parser does (strict: an object or an array at the top). */
+function parseBody(body: Uint8Array | null): { ok: true; value: unknown } | { ok: false } {
+  if (!body || body.byteLength === 0) return { ok: true, value: undefined };
+  const text = Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8');
+  const first = /^[\x20\x09\x0a\x0d]*(.)/.exec(text)?.[1];
+  if (first !== '{' && first !== '[') return { ok: false };
+  try {
+    return { ok: true, value: JSON.parse(text) };
+  } catch {
+    return { ok: false };
+  }
 }
 
 /** JSON as UTF-8 bytes that own their ArrayBuffer, so they can be moved (not copied) to the main thread. */
@@ -53,23 +64,38 @@ function jsonBytes(value: unknown): Uint8Array {
 }
 
 /**
- * POST /api/calc, /compare and /sweep: runs the engine on a validated design and serialises the answer here, so
- * that the main thread only writes bytes (turning a full result into JSON costs more than computing it).
+ * POST /api/calc, /compare and /sweep, everything after sign-in: parses and validates the body (same messages as
+ * the validate middleware), runs the engine and serialises the answer, so that the main thread only reads and
+ * writes bytes (turning a full result into JSON costs as much as computing it).
  * @returns the UTF-8 JSON answer, moved to the main thread without a copy, or a failure (400 naming the field)
  */
 export async function calc(task: CalcTask): Promise<Uint8Array | TaskFailure> {
-  const service = await import('../services/calc.service');
+  const [service, schemas, { zodDetails }] = await Promise.all([
+    import('../services/calc.service'),
+    import('../schemas/calc.schema'),
+    import('../middleware/validate'),
+  ]);
+  const json = parseBody(task.body);
+  if (!json.ok) return INVALID_JSON;
+  const schema = task.kind === 'compare' ? schemas.compareSchema : task.kind === 'sweep' ? schemas.sweepSchema : schemas.calcSchema;
+  const parsed = schema.safeParse(json.value);
+  if (!parsed.success) {
+    return {
+      failure: { code: 'validation_failed', message: 'The request is not valid.', status: 400, details: zodDetails(parsed.error, 'body') },
+    };
+  }
+  const body = parsed.data as { design: DesignInput; sections?: ResultSection[]; path?: string; values?: number[] };
   let out: TaskAnswer<unknown>;
-  if (task.kind === 'compare') out = answer(() => service.compare(task.design));
+  if (task.kind === 'compare') out = answer(() => service.compare(body.design));
   else if (task.kind === 'sweep') {
     try {
-      out = { value: await service.sweepInput(task.design, task.path ?? '', task.values ?? [], { yieldBetween: false }) };
+      out = { value: await service.sweepInput(body.design, body.path ?? '', body.values ?? [], { yieldBetween: false }) };
     } catch (err) {
       out = answer(() => {
         throw err;
       });
     }
-  } else out = answer(() => pickSections(service.calculate(task.design), task.sections));
+  } else out = answer(() => pickSections(service.calculate(body.design), body.sections));
   if ('failure' in out) return out;
   return Piscina.move(jsonBytes(out.value)) as unknown as Uint8Array;
 }

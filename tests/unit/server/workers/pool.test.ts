@@ -12,6 +12,7 @@ afterAll(() => closePools());
 
 const overJson = <T>(value: T): unknown => JSON.parse(JSON.stringify(value));
 const demo = (): DesignInput => parseDesign({ ...defaultDesign('corexy'), name: 'Pool test stage' });
+const bytes = (body: unknown): Uint8Array => new Uint8Array(Buffer.from(JSON.stringify(body)));
 
 describe('engine worker pool', () => {
   it('when a design is calculated in the pool (a thread that loads TypeScript through entry.mjs), then the bytes are the JSON of the in-thread result', async () => {
@@ -19,17 +20,19 @@ describe('engine worker pool', () => {
     const design = demo();
 
     // Act
-    const bytes = await calcJson({ kind: 'result', design });
+    const answer = await calcJson({ kind: 'result', body: bytes({ design }) });
 
     // Assert
-    expect(JSON.parse(bytes.toString('utf8'))).toEqual(overJson(evaluateValidDesign(design)));
+    expect(JSON.parse(answer.toString('utf8'))).toEqual(overJson(evaluateValidDesign(design)));
     expect(getEnginePool().threads.length).toBeGreaterThanOrEqual(1);
   });
 
   it('when sections are named, then only those sections and the identification come back', async () => {
     const design = demo();
 
-    const answer = JSON.parse((await calcJson({ kind: 'result', design, sections: ['drive', 'checks'] })).toString('utf8'));
+    const answer = JSON.parse(
+      (await calcJson({ kind: 'result', body: bytes({ design, sections: ['drive', 'checks'] }) })).toString('utf8'),
+    );
 
     expect(Object.keys(answer).sort()).toEqual(['checks', 'drive', 'engineVersion', 'mechanism', 'name']);
     expect(answer.drive).toEqual(overJson(evaluateValidDesign(design).drive));
@@ -39,11 +42,25 @@ describe('engine worker pool', () => {
     // A sweep over a path that is not an input is refused by the service inside the worker.
     const design = demo();
 
-    const failure = await calcJson({ kind: 'sweep', design, path: 'frame.nothingHere', values: [1] }).catch((err: unknown) => err);
+    const failure = await calcJson({ kind: 'sweep', body: bytes({ design, path: 'frame.nothingHere', values: [1] }) }).catch(
+      (err: unknown) => err,
+    );
 
     expect(failure).toBeInstanceOf(AppError);
     expect((failure as AppError).status).toBe(400);
     expect((failure as AppError).details).toEqual([{ path: 'path', message: '"frame.nothingHere" is not an input of the design' }]);
+  });
+
+  it.each([
+    ['not JSON', Buffer.from('{"design": '), 'invalid_json', undefined],
+    ['a JSON string', Buffer.from('"design"'), 'invalid_json', undefined],
+    ['no body', null, 'validation_failed', [{ path: 'body', message: 'must be a JSON object' }]],
+  ])('when the body is %s, then the worker answers 400 %s like the API parser would', async (_what, body, code, details) => {
+    const failure = (await calcJson({ kind: 'result', body: body && new Uint8Array(body) }).catch((err: unknown) => err)) as AppError;
+
+    expect(failure).toBeInstanceOf(AppError);
+    expect(failure.code).toBe(code);
+    if (details) expect(failure.details).toEqual(details);
   });
 
   it('when a revision is frozen in the pool, then it equals freezing on the main thread', async () => {
