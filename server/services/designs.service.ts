@@ -147,26 +147,24 @@ const FULLTEXT_MIN_WORD = 3;
 
 /**
  * The name search of the Designs list, built so that no keystroke scans every row: each typed word of three or
- * more letters must begin a word of the name (FULLTEXT index, boolean mode with prefixes); shorter words and stop
- * words must appear in the name as well (checked only on the rows the index found). Typing only short words
- * ("xy") matches names that begin with them (a range of the name index).
+ * more letters must begin a word of the name (FULLTEXT index, boolean mode with prefixes), and among the rows
+ * the index finds, the name must contain what was typed as it is (LIKE, wildcards literal). Typing only short
+ * words or stop words ("xy") matches names that begin with the text (a range of the name index).
  * @param q - what was typed
  * @returns the conditions, ANDed with the other filters
  */
 export function nameSearch(q: string): WhereOptions[] {
-  const words = q
+  const text = q.trim();
+  const indexed = text
     .toLowerCase()
     .split(/[^\p{L}\p{N}_]+/u)
-    .filter(Boolean)
+    .filter((w) => w.length >= FULLTEXT_MIN_WORD && !FULLTEXT_STOPWORDS.has(w))
     .slice(0, 10);
-  const indexed = words.filter((w) => w.length >= FULLTEXT_MIN_WORD && !FULLTEXT_STOPWORDS.has(w));
-  const others = words.filter((w) => !indexed.includes(w));
-  if (!indexed.length) return [{ name: { [Op.like]: `${escapeLike(q.trim())}%` } }];
-  const sequelize = getSequelize();
+  if (!indexed.length) return [{ name: { [Op.like]: `${escapeLike(text)}%` } }];
   const against = indexed.map((w) => `+${w}*`).join(' ');
   return [
-    literal(`MATCH (\`Design\`.\`name\`) AGAINST (${sequelize.escape(against)} IN BOOLEAN MODE)`) as unknown as WhereOptions,
-    ...others.map((w) => ({ name: { [Op.like]: `%${escapeLike(w)}%` } })),
+    literal(`MATCH (\`Design\`.\`name\`) AGAINST (${getSequelize().escape(against)} IN BOOLEAN MODE)`) as unknown as WhereOptions,
+    { name: { [Op.like]: `%${escapeLike(text)}%` } },
   ];
 }
 

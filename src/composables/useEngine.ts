@@ -1,4 +1,4 @@
-import { computed, nextTick, onScopeDispose, ref, shallowRef, watch, type Ref, type ShallowRef } from 'vue';
+import { computed, nextTick, onScopeDispose, ref, shallowRef, toRaw, watch, type Ref, type ShallowRef } from 'vue';
 import { designInputSchema, safeParseDesign, type DesignResult, type InputIssue } from '@/engine';
 import { getEngineRunner, type EngineRunner } from '@/workers/engineClient';
 import type { ResultPart } from '@/workers/resultParts';
@@ -58,9 +58,9 @@ export function formIssues(value: unknown, issues: InputIssue[]): InputIssue[] {
 
 /**
  * Names of the performance marks the Design desk leaves for `npm run bench` (scripts/bench/editor.ts reads them):
- * an input changed, an evaluation was sent, its numbers are on screen (after the next paint).
+ * an input changed, an evaluation was sent, its result arrived, its numbers are on screen (after the next paint).
  */
-export const PERF_MARKS = { input: 'gw:input', evaluate: 'gw:evaluate', numbers: 'gw:numbers' } as const;
+export const PERF_MARKS = { input: 'gw:input', evaluate: 'gw:evaluate', result: 'gw:result', numbers: 'gw:numbers' } as const;
 
 /** Marks `name` once the next frame has been painted (a task queued from rAF runs after the paint). */
 export function markAfterPaint(name: string, detail?: unknown): void {
@@ -114,8 +114,11 @@ export function useEngine(source: () => unknown, options: UseEngineOptions = {})
     const started = performance.now();
     try {
       performance.mark?.(PERF_MARKS.evaluate);
-      const outcome = await runner.evaluate(design, { validated: true, parts: wantedParts?.() });
+      // A plain copy: the page's list is reactive (a proxy), which postMessage cannot clone.
+      const parts = wantedParts ? [...toRaw(wantedParts())] : undefined;
+      const outcome = await runner.evaluate(design, { validated: true, parts });
       if (isDisposed) return;
+      performance.mark?.(PERF_MARKS.result);
       lastDurationMs.value = Math.round(performance.now() - started);
       if (outcome.ok) {
         result.value = outcome.result;

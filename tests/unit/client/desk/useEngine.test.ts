@@ -131,4 +131,28 @@ describe('useEngine', () => {
     expect(evaluations).toBe(1);
     scope.stop();
   });
+
+  it('when the page asks for parts from a reactive list, then what goes to the worker can be cloned', async () => {
+    // fix: the visible tab's parts were a reactive array, which postMessage refused ("could not be cloned")
+    const doc = reactive(structuredClone(defaultDesign('corexy')));
+    const sent: unknown[] = [];
+    const runner = {
+      usesWorker: true,
+      async evaluate(design: Record<string, unknown>, options: unknown) {
+        sent.push(structuredClone({ design, options })); // what postMessage does
+        return evaluateOutcome(design);
+      },
+      compare: vi.fn(),
+      sweep: vi.fn(),
+    } as unknown as EngineRunner;
+    const shown = reactive({ parts: ['map'] as ResultPart[] });
+    const scope = effectScope();
+    const engine = scope.run(() => useEngine(() => doc, { runner, parts: () => shown.parts }))!;
+
+    await vi.waitFor(() => expect(engine.result.value).not.toBeNull());
+
+    expect(engine.error.value).toBeNull();
+    expect(sent[0]).toMatchObject({ options: { validated: true, parts: ['map'] } });
+    scope.stop();
+  });
 });
