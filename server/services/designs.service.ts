@@ -155,17 +155,19 @@ const FULLTEXT_MIN_WORD = 3;
  */
 export function nameSearch(q: string): WhereOptions[] {
   const text = q.trim();
-  const indexed = text
+  const words = text
     .toLowerCase()
     .split(/[^\p{L}\p{N}_]+/u)
-    .filter((w) => w.length >= FULLTEXT_MIN_WORD && !FULLTEXT_STOPWORDS.has(w))
-    .slice(0, 10);
+    .filter(Boolean);
+  const indexed = words.filter((w) => w.length >= FULLTEXT_MIN_WORD && !FULLTEXT_STOPWORDS.has(w)).slice(0, 10);
   if (!indexed.length) return [{ name: { [Op.like]: `${escapeLike(text)}%` } }];
   const against = indexed.map((w) => `+${w}*`).join(' ');
-  return [
-    literal(`MATCH (\`Design\`.\`name\`) AGAINST (${getSequelize().escape(against)} IN BOOLEAN MODE)`) as unknown as WhereOptions,
-    { name: { [Op.like]: `%${escapeLike(text)}%` } },
-  ];
+  const match = literal(
+    `MATCH (\`Design\`.\`name\`) AGAINST (${getSequelize().escape(against)} IN BOOLEAN MODE)`,
+  ) as unknown as WhereOptions;
+  // One indexed word typed as it is ("dispens"): the index match already means the name contains it.
+  if (words.length === 1 && indexed.length === 1 && text.toLowerCase() === indexed[0]) return [match];
+  return [match, { name: { [Op.like]: `%${escapeLike(text)}%` } }];
 }
 
 const OWNER_INCLUDE = { model: User, as: 'owner', attributes: ['id', 'name'] };
@@ -191,19 +193,29 @@ export async function listDesigns(actor: PublicUser, query: ListDesignsQuery): P
   if (query.status?.length) where.status = { [Op.in]: query.status };
   if (query.mechanism?.length) where.mechanism = { [Op.in]: query.mechanism };
   if (query.owner !== undefined) where.ownerId = query.owner === 'me' ? actor.id : query.owner;
-  // Two queries: the page (an index range in the sort order, joined to its 25 owners) and a count over the
-  // designs table alone (no join, the smallest index), instead of findAndCountAll's count over the join.
-  const [rows, count] = await Promise.all([
+  // The page's ids first: a walk along the sort key's index that reads nothing but the index, however deep the
+  // page; then those rows with their owners. The count runs on the designs table alone (no join, smallest index)
+  // instead of findAndCountAll's count over the join.
+  const order = sortOrder(query.sort);
+  const [ids, count] = await Promise.all([
     Design.findAll({
       where: where as WhereOptions,
-      attributes: { exclude: ['inputs', 'resultSummary'] },
-      include: [OWNER_INCLUDE],
-      order: sortOrder(query.sort),
+      attributes: ['id'],
+      order,
       limit: query.pageSize,
       offset: (query.page - 1) * query.pageSize,
+      raw: true,
     }),
     Design.count({ where: where as WhereOptions }),
   ]);
+  const rows = ids.length
+    ? await Design.findAll({
+        where: { id: { [Op.in]: ids.map((r) => r.id) } },
+        attributes: { exclude: ['inputs', 'resultSummary'] },
+        include: [OWNER_INCLUDE],
+        order,
+      })
+    : [];
   return { items: rows.map((row) => toListItem(row, actor)), total: count, page: query.page, pageSize: query.pageSize };
 }
 
