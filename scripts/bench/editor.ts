@@ -135,7 +135,11 @@ export async function benchEditor(): Promise<Figure[]> {
       const timings: EditTiming[] = [];
       // BENCH_EDITOR_TRACE=<folder> writes a Chromium performance trace of each tab's keystrokes there.
       const traceDir = process.env.BENCH_EDITOR_TRACE;
-      if (traceDir) await browser.startTracing(page, { path: path.join(traceDir, `editor-${tab}.json`), categories: ['devtools.timeline', 'blink.user_timing'] });
+      if (traceDir)
+        await browser.startTracing(page, {
+          path: path.join(traceDir, `editor-${tab}.json`),
+          categories: ['devtools.timeline', 'blink.user_timing'],
+        });
       for (let i = 0; i < EDITS; i++) {
         timings.push(await timedKeystroke(page, i % 2 === 0 ? '5' : 'Backspace'));
         await page.waitForTimeout(250);

@@ -76,6 +76,8 @@ export const RESULTS_FILE = path.join(import.meta.dirname, 'results.json');
 export interface RecordedRun {
   recordedAt: string;
   machine: string;
+  /** The commit the server part compared with (full hash). */
+  baseline?: string;
   figures: Record<string, { value: number; unit: string }>;
 }
 
@@ -120,11 +122,19 @@ export function formatTable(figures: Figure[]): string {
   return [line(head), `|${widths.map((w) => '-'.repeat(w + 2)).join('|')}|`, ...rows.map(line)].join('\n');
 }
 
+let baselineOfRun: string | undefined;
+
+/** Notes the baseline commit of this run, recorded with it. */
+export function setRecordedBaseline(commit: string): void {
+  baselineOfRun = commit;
+}
+
 /** Writes the run as the new recorded one. */
 export function record(figures: Figure[], machine: string, file = RESULTS_FILE): void {
   const run: RecordedRun = {
     recordedAt: new Date().toISOString(),
     machine,
+    baseline: baselineOfRun ?? readRecorded(file)?.baseline,
     figures: Object.fromEntries(figures.map((f) => [f.id, { value: Number(f.value.toPrecision(4)), unit: f.unit }])),
   };
   fs.writeFileSync(file, `${JSON.stringify(run, null, 2)}\n`);

@@ -1,19 +1,32 @@
+import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { ROOT_DIR } from '../../server/paths';
 import { baselineCheckout, BENCH_DB, BENCH_PORTS, benchEnv, Client, startApp, type AppProcess } from './env';
-import { atLeast, atMost, info, median, percentile, say, sleep, type Figure } from './lib';
+import { atLeast, atMost, info, median, percentile, readRecorded, say, setRecordedBaseline, sleep, type Figure } from './lib';
 
 /**
- * Server part of `npm run bench`: this checkout and a baseline commit (BENCH_BASELINE, default: the main branch
- * before this work) run side by side on the same bench database, and each is measured in turn, in alternating
+ * Server part of `npm run bench`: this checkout and a baseline commit (see baselineRef) run side by side on the same bench database, and each is measured in turn, in alternating
  * rounds, so both see the same machine:
  * - /api/health latency idle, while 50 clients post /api/calc as fast as they can, and while design sheets render;
  * - /api/calc throughput (full answers, the same request for both) and, for this checkout, with `sections`.
  */
 
-/** The main branch as it was before the speed work (issue 11). */
-export const DEFAULT_BASELINE = 'ea70f74';
+/**
+ * The baseline commit: BENCH_BASELINE when set; else where this branch leaves main (so both run the same engine
+ * and only the server differs); once the branch is merged (that point is HEAD itself), the baseline recorded in
+ * results.json.
+ */
+export function baselineRef(): string {
+  if (process.env.BENCH_BASELINE) return process.env.BENCH_BASELINE;
+  const git = (...args: string[]) => spawnSync('git', args, { cwd: ROOT_DIR, encoding: 'utf8' }).stdout.trim();
+  const head = git('rev-parse', 'HEAD');
+  const base = git('merge-base', 'HEAD', 'main');
+  if (base && base !== head) return base;
+  const recorded = readRecorded()?.baseline;
+  if (recorded) return recorded;
+  throw new Error('no baseline: set BENCH_BASELINE to the commit to compare with');
+}
 const CLIENTS = Number(process.env.BENCH_CALC_CLIENTS ?? 50);
 const LOAD_SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 5);
 const ROUNDS = Number(process.env.BENCH_SERVER_ROUNDS ?? 3);
@@ -133,8 +146,9 @@ async function measure(app: AppProcess, sample: Sample, withSheets: boolean): Pr
 
 export async function benchServer(): Promise<Figure[]> {
   await benchEnv();
-  const ref = process.env.BENCH_BASELINE ?? DEFAULT_BASELINE;
+  const ref = baselineRef();
   const baseline = baselineCheckout(ref);
+  setRecordedBaseline(baseline.commit);
   say(`server: baseline ${ref} (${baseline.commit.slice(0, 10)}) checked out in ${baseline.dir}`);
   const apps: AppProcess[] = [];
   try {

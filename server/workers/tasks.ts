@@ -2,6 +2,9 @@ import { createHash } from 'node:crypto';
 import { Piscina } from 'piscina';
 import { ENGINE_VERSION, EngineInputError, type DesignInput } from '@/engine';
 import { AppError } from '../errors';
+import { zodDetails } from '../middleware/validate';
+import * as schemas from '../schemas/calc.schema';
+import * as service from '../services/calc.service';
 import type { SheetInput } from '../sheet/types';
 import { pickSections, type ResultSection } from './sections';
 
@@ -10,6 +13,12 @@ import { pickSections, type ResultSection } from './sections';
  * thrown here cannot cross the thread boundary with its code and details, so it travels as a `failure` and the
  * pool turns it back into an AppError on the main thread.
  */
+
+// Modules only some threads need (the models, pdfmake) load on first use, once: every import() goes through the
+// tsx loader's hooks, which costs more than a small task, so it must not happen per task.
+let revisionsModule: Promise<typeof import('../services/revisions.service')> | undefined;
+let designsModule: Promise<typeof import('../services/designs.service')> | undefined;
+let sheetModule: Promise<typeof import('../sheet/renderSheet')> | undefined;
 
 /** An AppError in a form that survives structured cloning. */
 export interface TaskFailure {
@@ -70,11 +79,6 @@ function jsonBytes(value: unknown): Uint8Array {
  * @returns the UTF-8 JSON answer, moved to the main thread without a copy, or a failure (400 naming the field)
  */
 export async function calc(task: CalcTask): Promise<Uint8Array | TaskFailure> {
-  const [service, schemas, { zodDetails }] = await Promise.all([
-    import('../services/calc.service'),
-    import('../schemas/calc.schema'),
-    import('../middleware/validate'),
-  ]);
   const json = parseBody(task.body);
   if (!json.ok) return INVALID_JSON;
   const schema = task.kind === 'compare' ? schemas.compareSchema : task.kind === 'sweep' ? schemas.sweepSchema : schemas.calcSchema;
@@ -105,7 +109,7 @@ export async function freeze(
   storedInputs: unknown,
 ): Promise<TaskAnswer<ReturnType<typeof import('../services/revisions.service').freezeDesign>>> {
   // Loaded on first use only: the calc-only threads never load the models.
-  const { freezeDesign } = await import('../services/revisions.service');
+  const { freezeDesign } = await (revisionsModule ??= import('../services/revisions.service'));
   return answer(() => freezeDesign(storedInputs));
 }
 
@@ -114,7 +118,7 @@ export async function storedResults(task: {
   document: DesignInput;
   pathPrefix?: string;
 }): Promise<TaskAnswer<ReturnType<typeof import('../services/designs.service').computeStoredResults>>> {
-  const { computeStoredResults } = await import('../services/designs.service');
+  const { computeStoredResults } = await (designsModule ??= import('../services/designs.service'));
   return answer(() => computeStoredResults(task.document, task.pathPrefix));
 }
 
@@ -122,7 +126,7 @@ export async function storedResults(task: {
 export async function renderSheets(
   source: Omit<SheetInput, 'paper'>,
 ): Promise<{ a4: Uint8Array; a4Sha256: string; letter: Uint8Array; letterSha256: string }> {
-  const { renderSheet } = await import('../sheet/renderSheet');
+  const { renderSheet } = await (sheetModule ??= import('../sheet/renderSheet'));
   // One after the other: pdfmake is a singleton within this thread.
   const a4 = await renderSheet({ ...source, paper: 'A4' });
   const letter = await renderSheet({ ...source, paper: 'LETTER' });
