@@ -48,8 +48,10 @@ export function findBinary(name: string): string | null {
   return null;
 }
 
-/** A Debian package and an executable that proves it is installed. */
-export type DebianRequirement = { pkg: string; binary: string };
+/** A Debian package and an executable (or, for a package without one, a file) that proves it is installed. */
+export type DebianRequirement = { pkg: string; binary: string; file?: string };
+
+const isPresent = (r: DebianRequirement) => (r.file ? fs.existsSync(r.file) : !!findBinary(r.binary));
 
 export const MARIADB_PACKAGE: DebianRequirement = { pkg: 'mariadb-server', binary: 'mariadbd' };
 export const CHROMIUM_PACKAGE: DebianRequirement = { pkg: 'chromium', binary: 'chromium' };
@@ -60,7 +62,7 @@ export const POPPLER_PACKAGE: DebianRequirement = { pkg: 'poppler-utils', binary
  * as root; otherwise throws MissingPackagesError carrying the exact command to run.
  */
 export function ensureDebianPackages(requirements: DebianRequirement[], log: Log = defaultLog): void {
-  const missing = requirements.filter((r) => !findBinary(r.binary));
+  const missing = requirements.filter((r) => !isPresent(r));
   if (missing.length === 0) return;
   const packages = [...new Set(missing.map((r) => r.pkg))];
   const command = `sudo sh -c 'apt-get update && DEBIAN_FRONTEND=noninteractive apt-get install -y ${packages.join(' ')}'`;
@@ -75,7 +77,7 @@ export function ensureDebianPackages(requirements: DebianRequirement[], log: Log
   };
   run(['-q', '-o', 'DPkg::Lock::Timeout=300', 'update']);
   run(['-q', '-o', 'DPkg::Lock::Timeout=300', 'install', '-y', ...packages]);
-  const still = missing.filter((r) => !findBinary(r.binary));
+  const still = missing.filter((r) => !isPresent(r));
   if (still.length) throw new Error(`apt-get finished but ${still.map((r) => r.binary).join(', ')} is still missing.`);
 }
 
@@ -181,6 +183,8 @@ export function runSql(paths: MariaDbPaths, sql: string): Promise<string> {
     });
     child.on('error', reject);
     child.on('close', (code) => (code === 0 ? resolve(out) : reject(new Error(`mariadb client failed (exit ${code}): ${err.trim()}`))));
+    // A client that cannot connect exits before reading its input: that is reported by 'close', not as EPIPE.
+    child.stdin.on('error', () => undefined);
     child.stdin.end(sql);
   });
 }
@@ -405,10 +409,12 @@ export const APP_PRIVILEGES = ['SELECT', 'INSERT', 'UPDATE', 'DELETE'] as const;
  *   SQL cannot drop a table, remove the trigger that freezes published sheets, or grant itself more.
  * Without `owner` the application account gets every privilege itself (the layout before issue 12; migrations
  * then run as it). Idempotent: privileges are revoked and granted afresh each time (an older install's GRANT ALL
- * goes), and passwords are reset to the given ones so they always match .env.
+ * goes), and passwords are reset to the given ones so they always match .env. Name every database the accounts
+ * use: grants on databases left out are revoked. `handle` may be any server reachable through its socket (a node of
+ * the scale test's Galera cluster, where the statements replicate to every node).
  */
 export async function ensureDatabases(
-  handle: MariaDbHandle,
+  handle: Pick<MariaDbHandle, 'paths'>,
   spec: { databases: string[]; user: string; password: string; owner?: DbAccount },
 ): Promise<void> {
   assertIdentifier(spec.user, 'DB_USER');

@@ -23,6 +23,8 @@ export type CaughtMessage = {
   subject: string;
   date: string;
   messageId: string | null;
+  /** The app process that sent it (X-Gantrywright-Sender: pid@host), when given. */
+  sentBy: string | null;
   text: string;
   html: string;
   attachments: Array<{ filename: string | null; contentType: string; size: number }>;
@@ -172,6 +174,7 @@ export function parseMessage(raw: Buffer | string, envelope?: { from?: string; t
     subject: decodeEncodedWords(part.headers.get('subject') ?? ''),
     date: received.toISOString(),
     messageId: part.headers.get('message-id') ?? null,
+    sentBy: part.headers.get('x-gantrywright-sender') ?? null,
     ...out,
   };
 }
@@ -305,6 +308,11 @@ export async function startMailCatcher(options: {
     }
   });
 
+  // A sender that dies with a connection open (a pooled SMTP connection of a killed app process) resets it: that is
+  // the sender's problem, not a reason for the catcher to stop.
+  smtp.on('error', (err: NodeJS.ErrnoException) => {
+    if (err.code !== 'ECONNRESET' && err.code !== 'EPIPE') log(`Mail catcher: ${err.message}`);
+  });
   await listen(smtp as unknown as Parameters<typeof listen>[0], options.smtpPort, host, 'SMTP');
   try {
     await listen(web, options.httpPort, host, 'Mail catcher HTTP');

@@ -21,7 +21,7 @@ async function main(): Promise<void> {
   const { initModels } = await import('../server/models');
 
   let db: MariaDbHandle | undefined;
-  if (['127.0.0.1', 'localhost'].includes(config.db.host)) {
+  if (['127.0.0.1', 'localhost'].includes(config.db.host) && (config.db.nodes?.length ?? 1) === 1) {
     db = await startMariaDb({ dir: path.join(config.dataDir, 'mariadb'), port: config.db.port, log: say });
     await ensureDatabases(db, {
       databases: [config.db.name],

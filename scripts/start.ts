@@ -48,14 +48,16 @@ export function ensureEnvFile(files: { env: string; example: string } = { env: E
   }
   let text = fs.readFileSync(files.env, 'utf8');
   const values = parseEnv(text) as Record<string, string>;
-  const dbIsLocal = isLocalHost(values.DB_HOST || '127.0.0.1');
+  // A cluster (DB_NODES) is someone else's servers, like a DB_HOST elsewhere: its passwords are not ours to invent.
+  const dbIsLocal = isLocalHost(values.DB_HOST || '127.0.0.1') && !values.DB_NODES?.trim();
   const messages: string[] = [];
   for (const key of GENERATED_SECRETS) {
     const value = values[key]?.trim() ?? '';
     const isPlaceholder = value !== '' && isPlaceholderSecret(value);
     if (value !== '' && !isPlaceholder) continue;
     if (DATABASE_SECRETS.has(key) && !dbIsLocal) {
-      if (isPlaceholder) messages.push(`${key} in .env is still a placeholder; set it to the password of ${values.DB_HOST}.`);
+      if (isPlaceholder)
+        messages.push(`${key} in .env is still a placeholder; set it to the password of ${values.DB_NODES?.trim() || values.DB_HOST}.`);
       continue;
     }
     text = setEnvLine(text, key, randomSecret());
@@ -192,7 +194,8 @@ async function main(): Promise<void> {
     const { formatDemoSignIns } = await import('../server/seeders/demoAccounts');
     const { startServer } = await import('../server/index');
 
-    if (isLocalHost(config.db.host)) {
+    // A list of cluster nodes (DB_NODES) is someone else's servers (e.g. tsx scripts/cluster.ts start), never the private one.
+    if (isLocalHost(config.db.host) && (config.db.nodes?.length ?? 1) === 1) {
       ensureDebianPackages([MARIADB_PACKAGE], say);
       running.db = await startMariaDb({ dir: path.join(config.dataDir, 'mariadb'), port: config.db.port, log: say });
       await ensureDatabases(running.db, {
@@ -202,7 +205,9 @@ async function main(): Promise<void> {
         owner: config.dbOwner ?? undefined,
       });
     } else {
-      say(`Using the MariaDB server at ${config.db.host}:${config.db.port} (DB_HOST is not local).`);
+      say(
+        `Using the MariaDB server(s) at ${(config.db.nodes ?? [config.db]).map((n) => `${n.host}:${n.port}`).join(', ')} (not the private one).`,
+      );
     }
 
     running.closeDb = closeSequelize;

@@ -1,20 +1,22 @@
-import fs from 'node:fs';
 import path from 'node:path';
-import express, { type Express } from 'express';
+import express, { type Express, type Request } from 'express';
 import cookieParser from 'cookie-parser';
 import { getConfig } from './config';
 import { getSequelize } from './db';
 import { DIST_DIR } from './paths';
 import { requestIdMiddleware } from './middleware/requestId';
 import { securityHeadersMiddleware } from './middleware/security';
-import { requireJsonBodyMiddleware } from './middleware/contentType';
+import { JSON_BODY_LIMIT, JSON_TYPES, requireJsonBodyMiddleware } from './middleware/contentType';
 import { originCheckMiddleware } from './middleware/originCheck';
 import { errorHandlerMiddleware } from './middleware/errorHandler';
 import { notFoundMiddleware } from './middleware/notFound';
+import { precompressedAssetsMiddleware, sendBuilt } from './middleware/precompressed';
 import { createApiRouter } from './routes';
 
-/** Largest JSON body the API accepts; bigger ones get 413 `payload_too_large`. */
-export const JSON_BODY_LIMIT = '1mb';
+export { JSON_BODY_LIMIT };
+
+/** /api/calc and its sub-paths (relative to /api), whose bodies the engine workers parse. */
+const isCalcPath = (url: string): boolean => /^\/calc(\/|\?|$)/.test(url);
 
 /**
  * Builds the Express app: security headers, request ids, the JSON API under /api and the built
@@ -26,6 +28,9 @@ export function createApp(): Express {
 
   const app = express();
   app.disable('x-powered-by');
+  // No ETag hashing: API answers are never cached (Cache-Control: no-store below), so hashing every body (100 kB
+  // for a full engine result) is wasted work. The built client's files get their ETags from express.static.
+  app.set('etag', false);
   app.set('trust proxy', config.trustProxy);
   app.set('query parser', 'simple');
 
@@ -37,7 +42,12 @@ export function createApp(): Express {
     // Before anything reads the body: a request another site started is refused unread (CSRF).
     originCheckMiddleware(),
     requireJsonBodyMiddleware(),
-    express.json({ limit: JSON_BODY_LIMIT, strict: true, type: ['application/json', 'application/*+json'] }),
+    // /api/calc bodies are parsed in the engine worker pool instead (routes/calc.routes.ts), off the event loop.
+    express.json({
+      limit: JSON_BODY_LIMIT,
+      strict: true,
+      type: (req) => !isCalcPath(req.url ?? '') && Boolean((req as Request).is(JSON_TYPES)),
+    }),
     cookieParser(),
     function noStore(_req, res, next) {
       res.setHeader('Cache-Control', 'no-store');
@@ -52,8 +62,12 @@ export function createApp(): Express {
   return app;
 }
 
-/** Serves dist/: hashed assets cached for a year, index.html never cached, SPA fallback for page routes. */
+/**
+ * Serves dist/: hashed assets precompressed (brotli or gzip, written at build) and cached for a year, other
+ * files as they are, index.html (also precompressed) revalidated on every visit, SPA fallback for page routes.
+ */
 function mountClient(app: Express): void {
+  app.use(precompressedAssetsMiddleware(DIST_DIR));
   app.use(
     express.static(DIST_DIR, {
       index: false,
@@ -69,11 +83,8 @@ function mountClient(app: Express): void {
       return;
     }
     const indexFile = path.join(DIST_DIR, 'index.html');
-    if (!fs.existsSync(indexFile)) {
-      res.status(503).type('text/plain').send('The client is not built yet. Run `npm run build` (npm start builds it for you).');
-      return;
-    }
-    res.setHeader('Cache-Control', 'no-cache');
-    res.sendFile(indexFile);
+    sendBuilt(req, res, indexFile, 'no-cache').then((sent) => {
+      if (!sent) res.status(503).type('text/plain').send('The client is not built yet. Run `npm run build` (npm start builds it for you).');
+    }, next);
   });
 }

@@ -1,4 +1,5 @@
 import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import { parseEnv } from 'node:util';
 import { z } from 'zod';
@@ -7,6 +8,23 @@ import { isPlaceholderSecret, signingSecretProblem } from './security/secretStre
 
 const port = (fallback: number) => z.coerce.number().int().min(1).max(65535).default(fallback);
 const positiveInt = (fallback: number) => z.coerce.number().int().positive().default(fallback);
+/** `host:port[,host:port…]` (host names, IPv4, or [IPv6]). */
+const NODE_LIST = /^\s*(?:[A-Za-z0-9.-]+|\[[0-9A-Fa-f:]+\]):\d{1,5}\s*(?:,\s*(?:[A-Za-z0-9.-]+|\[[0-9A-Fa-f:]+\]):\d{1,5}\s*)*$/;
+
+/** One database server address. */
+export type DbNode = { host: string; port: number };
+
+/** Parses `host:port,host:port` (already checked against NODE_LIST). */
+export function parseNodeList(raw: string): DbNode[] {
+  return raw
+    .split(',')
+    .map((item) => item.trim())
+    .filter(Boolean)
+    .map((item) => {
+      const colon = item.lastIndexOf(':');
+      return { host: item.slice(0, colon).replace(/^\[|\]$/g, ''), port: Number(item.slice(colon + 1)) };
+    });
+}
 
 /**
  * Every environment variable the server reads. `.env.example` documents each one;
@@ -43,6 +61,10 @@ const envSchema = z.object({
     .refine((v) => !isPlaceholderSecret(v), 'is a placeholder from .env.example, which anyone can read; set a random value')
     .optional(),
   DB_POOL_MAX: positiveInt(10),
+  DB_NODES: z.string().regex(NODE_LIST, 'a comma-separated list of host:port, e.g. 10.0.0.1:3306,10.0.0.2:3306').optional(),
+  DB_READ_REPLICAS: z.string().regex(NODE_LIST, 'a comma-separated list of host:port, e.g. 10.0.0.2:3306,10.0.0.3:3306').optional(),
+  DB_SYNC_WAIT: z.coerce.number().int().min(0).max(15).default(1),
+  DB_RETRY_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(6),
   JWT_SECRET: z.string({ message: 'is required (npm start writes a random one into .env)' }).superRefine((value, ctx) => {
     const problem = signingSecretProblem(value);
     if (problem) ctx.addIssue({ code: 'custom', message: problem });
@@ -62,6 +84,8 @@ const envSchema = z.object({
   SMTP_PASSWORD: z.string().optional(),
   MAILCATCHER_HTTP_PORT: port(2527),
   MAIL_FROM: z.string().min(3).default('Gantrywright <noreply@example.test>'),
+  MAIL_WORKER_INTERVAL_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
+  MAIL_CLAIM_SECONDS: z.coerce.number().int().min(70, 'must be at least 70 (longer than the longest SMTP send)').max(3600).default(120),
   DATA_DIR: z.string().min(1).default('.data'),
   UPLOAD_DIR: z.string().min(1).optional(),
   LOGIN_RATE_LIMIT: positiveInt(10),
@@ -71,6 +95,24 @@ const envSchema = z.object({
   RESET_IP_RATE_LIMIT: positiveInt(20),
   RESET_RATE_WINDOW_MINUTES: positiveInt(60),
   TRUST_PROXY: z.string().optional(),
+  STORAGE: z.enum(['local', 's3']).default('local'),
+  S3_ENDPOINT: z.url({ protocol: /^https?$/, message: 'must be an http(s) URL such as http://127.0.0.1:4650' }).optional(),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_BUCKET: z
+    .string()
+    .regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, '3 to 63 lower-case letters, digits, dots and hyphens')
+    .optional(),
+  S3_PREFIX: z
+    .string()
+    .regex(/^[A-Za-z0-9!_.*'()\/-]{0,200}$/, "letters, digits and !_.*'()/- only")
+    .optional(),
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  S3_FORCE_PATH_STYLE: z.enum(['true', 'false']).optional(),
+  /** Worker threads for the engine (POST /api/calc, saves, revision freezing); default: cores − 1, at least 1. */
+  ENGINE_THREADS: z.coerce.number().int().min(1).max(64).optional(),
+  /** Worker threads that render design sheets (PDF). */
+  PDF_THREADS: positiveInt(1),
 });
 
 /** The validated, typed configuration. Paths are absolute. */
@@ -82,7 +124,25 @@ export type AppConfig = {
   host: string;
   port: number;
   appUrl: string;
-  db: { host: string; port: number; name: string; user: string; password: string; poolMax: number };
+  db: {
+    host: string;
+    port: number;
+    name: string;
+    user: string;
+    password: string;
+    poolMax: number;
+    /**
+     * Servers that all accept writes (a Galera cluster), in the order this process tries them; one entry
+     * (DB_HOST:DB_PORT) when DB_NODES is not set.
+     */
+    nodes?: DbNode[];
+    /** Read replicas of a primary (DB_HOST:DB_PORT): reads outside transactions go there. Empty: none. */
+    readReplicas?: DbNode[];
+    /** `wsrep_sync_wait` for every connection to a Galera node (1 = reads see every write committed before them). */
+    syncWait?: number;
+    /** Attempts of a transaction (or statement) that hit a write conflict or lost its server. */
+    retryAttempts?: number;
+  };
   /**
    * The schema owner's account (migrations, seeders), or null when DB_OWNER_PASSWORD is not set: then migrations run
    * as DB_USER, which must then hold the DDL rights itself.
@@ -93,6 +153,10 @@ export type AppConfig = {
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
   mailcatcherHttpPort: number;
   mailFrom: string;
+  /** How often each process looks for queued mail that is due [ms]. */
+  mailWorkerIntervalMs: number;
+  /** How long a sender holds claimed mail before another may take it over [ms]. */
+  mailClaimMs: number;
   dataDir: string;
   uploadDir: string;
   loginRateLimit: number;
@@ -105,8 +169,25 @@ export type AppConfig = {
   resetRateWindowMinutes: number;
   /** Express `trust proxy` setting: false, a hop count or a list of addresses. */
   trustProxy: boolean | number | string;
+  /** Where uploads and design sheets are stored: a local folder (`uploadDir`) or an S3-compatible bucket. */
+  storage: StorageConfig;
+  /** Sizes of the worker-thread pools (server/workers/pool.ts). */
+  workers: { engineThreads: number; pdfThreads: number };
   version: string;
 };
+
+/** The content store's back end (see server/storage). */
+export type StorageConfig =
+  | { kind: 'local' }
+  | {
+      kind: 's3';
+      endpoint?: string;
+      region: string;
+      bucket: string;
+      prefix: string;
+      forcePathStyle: boolean;
+      credentials?: { accessKeyId: string; secretAccessKey: string };
+    };
 
 /** Thrown when the environment is invalid; the message names every bad variable. */
 export class ConfigError extends Error {
@@ -146,6 +227,28 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   }
   const e = parsed.data;
   const dataDir = resolveFromRoot(e.DATA_DIR);
+  const storageProblems: string[] = [];
+  if (e.STORAGE === 's3' && !e.S3_BUCKET) storageProblems.push('  S3_BUCKET: is required when STORAGE=s3');
+  if (!!e.S3_ACCESS_KEY_ID !== !!e.S3_SECRET_ACCESS_KEY)
+    storageProblems.push('  S3_ACCESS_KEY_ID / S3_SECRET_ACCESS_KEY: set both or neither');
+  if (storageProblems.length) throw new ConfigError(`Invalid configuration (environment or .env):\n${storageProblems.join('\n')}`);
+  const storage: StorageConfig =
+    e.STORAGE === 's3'
+      ? {
+          kind: 's3',
+          endpoint: e.S3_ENDPOINT,
+          region: e.S3_REGION,
+          bucket: e.S3_BUCKET!,
+          prefix: (e.S3_PREFIX ?? '').replace(/^\/+|\/+$/g, ''),
+          // A custom endpoint (MinIO, a fake S3, most S3-compatible stores) usually wants path-style addresses.
+          forcePathStyle: e.S3_FORCE_PATH_STYLE ? e.S3_FORCE_PATH_STYLE === 'true' : !!e.S3_ENDPOINT,
+          credentials:
+            e.S3_ACCESS_KEY_ID && e.S3_SECRET_ACCESS_KEY
+              ? { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY }
+              : undefined,
+        }
+      : { kind: 'local' };
+  const nodes = e.DB_NODES ? parseNodeList(e.DB_NODES) : [{ host: e.DB_HOST, port: e.DB_PORT }];
   return {
     nodeEnv: e.NODE_ENV,
     isProduction: e.NODE_ENV === 'production',
@@ -154,13 +257,26 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     host: e.HOST,
     port: e.PORT,
     appUrl: (e.APP_URL ?? `http://127.0.0.1:${e.PORT}`).replace(/\/+$/, ''),
-    db: { host: e.DB_HOST, port: e.DB_PORT, name: e.DB_NAME, user: e.DB_USER, password: e.DB_PASSWORD, poolMax: e.DB_POOL_MAX },
+    db: {
+      host: nodes[0].host,
+      port: nodes[0].port,
+      name: e.DB_NAME,
+      user: e.DB_USER,
+      password: e.DB_PASSWORD,
+      poolMax: e.DB_POOL_MAX,
+      nodes,
+      readReplicas: e.DB_READ_REPLICAS ? parseNodeList(e.DB_READ_REPLICAS) : [],
+      syncWait: e.DB_SYNC_WAIT,
+      retryAttempts: e.DB_RETRY_ATTEMPTS,
+    },
     dbOwner: e.DB_OWNER_PASSWORD ? { user: e.DB_OWNER_USER, password: e.DB_OWNER_PASSWORD } : null,
     jwtSecret: e.JWT_SECRET,
     sessionHours: e.SESSION_HOURS,
     smtp: { host: e.SMTP_HOST, port: e.SMTP_PORT, secure: e.SMTP_SECURE, user: e.SMTP_USER, password: e.SMTP_PASSWORD },
     mailcatcherHttpPort: e.MAILCATCHER_HTTP_PORT,
     mailFrom: e.MAIL_FROM,
+    mailWorkerIntervalMs: e.MAIL_WORKER_INTERVAL_SECONDS * 1000,
+    mailClaimMs: e.MAIL_CLAIM_SECONDS * 1000,
     dataDir,
     uploadDir: e.UPLOAD_DIR ? resolveFromRoot(e.UPLOAD_DIR) : path.join(dataDir, 'uploads'),
     loginRateLimit: e.LOGIN_RATE_LIMIT,
@@ -170,6 +286,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     resetIpRateLimit: e.RESET_IP_RATE_LIMIT,
     resetRateWindowMinutes: e.RESET_RATE_WINDOW_MINUTES,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
+    storage,
+    workers: { engineThreads: e.ENGINE_THREADS ?? Math.max(1, os.availableParallelism() - 1), pdfThreads: Math.min(e.PDF_THREADS, 8) },
     version: readVersion(),
   };
 }

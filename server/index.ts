@@ -7,7 +7,9 @@ import { closeSequelize, getSequelize } from './db';
 import { getLogger } from './logger';
 import { closeMail } from './services/mail.service';
 import { startMailQueueWorker } from './services/notify.service';
+import { getContentStore, startContentSweeper } from './storage';
 import { closePasswordPool } from './workers/passwordPool';
+import { closePools, warmPools } from './workers/pool';
 
 /** A listening server and how to stop it. */
 export type RunningServer = { server: Server; url: string; port: number; close: () => Promise<void> };
@@ -21,22 +23,32 @@ export async function startServer(options: { port?: number; host?: string } = {}
   const log = getLogger();
   await getSequelize().authenticate();
   const app = createApp();
+  // Start the engine thread now, so the first calculation does not wait for it to load.
+  void warmPools().catch((err: unknown) => log.error({ err }, 'engine worker pool failed to start'));
   const host = options.host ?? config.host;
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(options.port ?? config.port, host, () => resolve(s));
     s.once('error', reject);
   });
+  // Behind a load balancer that keeps connections to the app open, the app must not be the side that closes an idle
+  // one first: a request the balancer sends just as the app closes the socket would fail (502). Balancers drop idle
+  // connections within seconds to a minute; this outlasts that.
+  server.keepAliveTimeout = 65_000;
+  server.headersTimeout = 66_000;
   const port = (server.address() as AddressInfo).port;
   const url = `http://${host.includes(':') ? `[${host}]` : host}:${port}`;
   log.info({ url }, 'server listening');
   // Queued notices that could not be sent right after their transition are retried from here (every process may
   // run this: rows are claimed in the database).
   const stopMailWorker = startMailQueueWorker();
+  // Stored bytes that a stopped process left orphaned are removed from here (claimed in the database as well).
+  const stopContentSweeper = startContentSweeper(getContentStore);
 
   let closing: Promise<void> | undefined;
   const close = () => {
     closing ??= (async () => {
       stopMailWorker();
+      stopContentSweeper();
       await new Promise<void>((resolve) => {
         server.close(() => resolve());
         server.closeIdleConnections();
@@ -44,7 +56,7 @@ export async function startServer(options: { port?: number; host?: string } = {}
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
       closeMail();
-      await closePasswordPool();
+      await Promise.all([closePools(), closePasswordPool()]);
       await closeSequelize();
       log.info('server stopped');
     })();

@@ -3,6 +3,12 @@ import { AppError } from '../errors';
 
 const BODY_METHODS = new Set(['POST', 'PUT', 'PATCH']);
 
+/** Largest JSON body the API accepts; bigger ones get 413 `payload_too_large`. */
+export const JSON_BODY_LIMIT = '1mb';
+
+/** Media types the API reads as JSON. */
+export const JSON_TYPES = ['application/json', 'application/*+json'];
+
 /**
  * Rejects a request body that is neither JSON nor multipart/form-data with 415, instead of letting it
  * arrive as an empty body and fail validation with a confusing message.

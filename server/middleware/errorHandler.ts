@@ -137,6 +137,8 @@ export function errorHandlerMiddleware(): ErrorRequestHandler {
     const { status, body, isBug } = toErrorResponse(err, req.id);
     if (isBug) logger.error({ err, reqId: req.id, method: req.method, url: req.originalUrl }, 'unhandled error');
     else if (status >= 500) logger.warn({ err, reqId: req.id }, body.error.message);
+    // A database that is away (failover in progress) usually answers again within seconds.
+    if (status === 503) res.setHeader('Retry-After', '2');
     res.status(status).json(body);
   };
 }

@@ -53,6 +53,23 @@ export function malformedTextPaths(value: unknown, rootName: string): string[] {
 }
 
 /**
+ * Checks one request part the way every route does: text that is not valid Unicode is refused first (naming each
+ * such field), then the schema parses it. Shared by {@link validate} and the engine workers, which parse /api/calc
+ * bodies themselves (server/workers/tasks.ts).
+ * @param part - the name reported for the part itself ("body", "query", "params")
+ */
+export function parsePart(
+  schema: z.ZodType,
+  input: unknown,
+  part: string,
+): { ok: true; data: unknown } | { ok: false; details: ErrorDetail[] } {
+  const malformed = malformedTextPaths(input, part);
+  if (malformed.length) return { ok: false, details: malformed.map((path) => ({ path, message: MALFORMED_TEXT_MESSAGE })) };
+  const result = schema.safeParse(input);
+  return result.success ? { ok: true, data: result.data } : { ok: false, details: zodDetails(result.error, part) };
+}
+
+/**
  * Validates (and coerces) body, query and route params with zod schemas. On failure answers 400
  * `validation_failed` with every field path; on success replaces the request parts with the parsed values,
  * so handlers read typed, trimmed, defaulted data. Text that is not valid Unicode is refused first, naming the field.
@@ -67,14 +84,9 @@ export function validate(schemas: Schemas): RequestHandler & { schemas: Schemas 
       const schema = schemas[part];
       if (!schema) continue;
       const input = part === 'body' ? (req.body ?? undefined) : req[part];
-      const malformed = malformedTextPaths(input, part);
-      if (malformed.length) {
-        details.push(...malformed.map((path) => ({ path, message: MALFORMED_TEXT_MESSAGE })));
-        continue;
-      }
-      const result = schema.safeParse(input);
-      if (result.success) parsed[part] = result.data;
-      else details.push(...zodDetails(result.error, part));
+      const result = parsePart(schema, input, part);
+      if (result.ok) parsed[part] = result.data;
+      else details.push(...result.details);
     }
     if (details.length) {
       next(validationError(details));

@@ -47,6 +47,8 @@ export class Design extends Model<InferAttributes<Design>, InferCreationAttribut
   declare mechanism: DesignMechanism;
   declare status: CreationOptional<DesignStatus>;
   declare ownerId: ForeignKey<User['id']>;
+  /** The owner's name, kept here so the Designs list sorts by owner with an index (filled by the model). */
+  declare ownerName: CreationOptional<string>;
   declare updatedById: ForeignKey<User['id']> | null;
   declare inputs: Record<string, unknown>;
   declare travelXMm: number;
@@ -65,6 +67,7 @@ export function initDesignModel(sequelize: Sequelize): typeof Design {
       name: { type: DataTypes.STRING(200), allowNull: false },
       mechanism: { type: DataTypes.STRING(16), allowNull: false },
       status: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'draft' },
+      ownerName: { type: DataTypes.STRING(200), allowNull: false, defaultValue: '' },
       inputs: { type: DataTypes.JSON, allowNull: false },
       travelXMm: { type: DataTypes.DOUBLE, allowNull: false },
       travelYMm: { type: DataTypes.DOUBLE, allowNull: false },
@@ -73,7 +76,36 @@ export function initDesignModel(sequelize: Sequelize): typeof Design {
       createdAt: DataTypes.DATE(3),
       updatedAt: DataTypes.DATE(3),
     },
-    { sequelize, tableName: 'designs', modelName: 'Design' },
+    {
+      sequelize,
+      tableName: 'designs',
+      modelName: 'Design',
+      hooks: {
+        // owner_name follows owner_id wherever a design is created or changes hands (users.service renames).
+        async beforeCreate(design, options) {
+          await fillOwnerNames([design], options.transaction);
+        },
+        async beforeBulkCreate(designs, options) {
+          await fillOwnerNames(designs, options.transaction);
+        },
+        async beforeUpdate(design, options) {
+          if (design.changed('ownerId')) await fillOwnerNames([design], options.transaction, true);
+        },
+      },
+    },
   );
   return Design;
+}
+
+/** Sets ownerName from the users table on designs that lack it (or all of them, when the owner changed). */
+async function fillOwnerNames(designs: Design[], transaction: unknown, always = false): Promise<void> {
+  const need = designs.filter((d) => d.ownerId !== undefined && d.ownerId !== null && (always || !d.ownerName));
+  if (!need.length) return;
+  const ids = [...new Set(need.map((d) => d.ownerId))];
+  const [rows] = (await Design.sequelize!.query('SELECT id, name FROM users WHERE id IN (:ids)', {
+    replacements: { ids },
+    transaction: transaction as never,
+  })) as [{ id: number; name: string }[], unknown];
+  const names = new Map(rows.map((r) => [r.id, r.name]));
+  for (const d of need) d.ownerName = names.get(d.ownerId) ?? '';
 }

@@ -24,6 +24,8 @@ export class Notification extends Model<InferAttributes<Notification>, InferCrea
   declare lastError: string | null;
   declare nextAttemptAt: Date;
   declare lockedUntil: Date | null;
+  /** The random token of the sender holding the row (with `lockedUntil` as its lease), or null. */
+  declare claimToken: CreationOptional<string | null>;
   declare sentAt: Date | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -44,6 +46,7 @@ export function initNotificationModel(sequelize: Sequelize): typeof Notification
       lastError: { type: DataTypes.TEXT, allowNull: true },
       nextAttemptAt: { type: DataTypes.DATE(3), allowNull: false },
       lockedUntil: { type: DataTypes.DATE(3), allowNull: true },
+      claimToken: { type: DataTypes.CHAR(32), allowNull: true },
       sentAt: { type: DataTypes.DATE(3), allowNull: true },
       createdAt: DataTypes.DATE(3),
       updatedAt: DataTypes.DATE(3),

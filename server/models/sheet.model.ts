@@ -16,7 +16,8 @@ export const SHEET_PAPERS = ['A4', 'LETTER'] as const;
 export type SheetPaper = (typeof SHEET_PAPERS)[number];
 
 /**
- * The design sheet of an approved revision: the PDF bytes in both paper sizes with their SHA-256, and the
+ * The design sheet of an approved revision: the PDF in both paper sizes (bytes in the content store, named by their
+ * SHA-256; older rows keep them in the row), and the
  * approval printed on it. Written once at approval and never changed (a database trigger refuses updates).
  */
 export class Sheet extends Model<InferAttributes<Sheet>, InferCreationAttributes<Sheet>> {
@@ -26,10 +27,12 @@ export class Sheet extends Model<InferAttributes<Sheet>, InferCreationAttributes
   declare approvedById: ForeignKey<User['id']>;
   declare approvedAt: Date;
   declare comment: string;
-  declare a4Pdf: Buffer;
+  /** The A4 PDF of a sheet published before sheets moved to the content store; null: the bytes are in the store under a4Sha256. */
+  declare a4Pdf: Buffer | null;
   declare a4Sha256: string;
   declare a4Size: number;
-  declare letterPdf: Buffer;
+  /** As a4Pdf, for US Letter. */
+  declare letterPdf: Buffer | null;
   declare letterSha256: string;
   declare letterSize: number;
   declare createdAt: CreationOptional<Date>;
@@ -42,10 +45,10 @@ export function initSheetModel(sequelize: Sequelize): typeof Sheet {
       id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
       approvedAt: { type: DataTypes.DATE(3), allowNull: false },
       comment: { type: DataTypes.TEXT, allowNull: false },
-      a4Pdf: { type: DataTypes.BLOB('long'), allowNull: false, field: 'a4_pdf' },
+      a4Pdf: { type: DataTypes.BLOB('long'), allowNull: true, field: 'a4_pdf' },
       a4Sha256: { type: DataTypes.CHAR(64), allowNull: false, field: 'a4_sha256' },
       a4Size: { type: DataTypes.INTEGER, allowNull: false, field: 'a4_size' },
-      letterPdf: { type: DataTypes.BLOB('long'), allowNull: false },
+      letterPdf: { type: DataTypes.BLOB('long'), allowNull: true },
       letterSha256: { type: DataTypes.CHAR(64), allowNull: false, field: 'letter_sha256' },
       letterSize: { type: DataTypes.INTEGER, allowNull: false },
       createdAt: DataTypes.DATE(3),

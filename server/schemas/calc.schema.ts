@@ -1,8 +1,24 @@
 import { z } from 'zod';
 import { designDocumentSchema } from './designs.schema';
+import { RESULT_SECTIONS } from '../workers/sections';
 
-/** POST /api/calc {design} and POST /api/calc/compare {design}: issues are named "design.<field>". */
-export const calcSchema = z.strictObject({ design: designDocumentSchema });
+/**
+ * POST /api/calc {design, sections?}: issues are named "design.<field>". `sections` names the top-level parts of
+ * the result wanted (e.g. ["drive", "checks"]); without it the whole result comes back.
+ */
+export const calcSchema = z.strictObject({
+  design: designDocumentSchema,
+  sections: z
+    .array(z.enum(RESULT_SECTIONS, { message: `must be one of ${RESULT_SECTIONS.join(', ')}` }), {
+      message: 'must be a list of result section names',
+    })
+    .min(1, 'must name at least 1 section (leave it out for the whole result)')
+    .max(RESULT_SECTIONS.length, `must have at most ${RESULT_SECTIONS.length} entries`)
+    .optional(),
+});
+
+/** POST /api/calc/compare {design}. */
+export const compareSchema = z.strictObject({ design: designDocumentSchema });
 
 /** Most values a sweep may take in one request (each value is one full engine run). */
 export const MAX_SWEEP_VALUES = 50;

@@ -6,6 +6,8 @@ import { AuditLog, Design, Revision, RevisionComment, Sheet, User, type DesignSt
 import { computeStoredResults } from '../services/designs.service';
 import { freezeDesign } from '../services/revisions.service';
 import { renderSheetFiles } from '../services/sheets.service';
+import { getContentStore, markUnreferenced, referenceContent, removeUnreferencedContent } from '../storage';
+import { sha256Of } from '../uploads';
 import { DEMO_DESIGNS, demoDesignDocument } from './202612020102-demo-designs';
 import { createSheetFreezeTriggers, dropSheetFreezeTriggers } from '../migrations/sheetFreeze';
 
@@ -158,6 +160,12 @@ async function publish(
     result: revision.result as never,
     fingerprint: revision.fingerprint,
   });
+  // As at a real approval: the PDFs go to the content store, registered in use in the same transaction.
+  const store = getContentStore();
+  for (const bytes of [rendered.a4, rendered.letter]) {
+    await referenceContent(sha256Of(bytes), bytes.length, t);
+    await store.put(bytes);
+  }
   const sheet = await Sheet.create(
     {
       revisionId: revision.id,
@@ -165,10 +173,10 @@ async function publish(
       approvedById: reviewer.id,
       approvedAt: at,
       comment,
-      a4Pdf: rendered.a4,
+      a4Pdf: null,
       a4Sha256: rendered.a4Sha256,
       a4Size: rendered.a4.length,
-      letterPdf: rendered.letter,
+      letterPdf: null,
       letterSha256: rendered.letterSha256,
       letterSize: rendered.letter.length,
       createdAt: at,
@@ -331,7 +339,8 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
   const designIds = designs.map((d) => d.id);
   if (!designIds.length) return;
   const revisionIds = (await Revision.findAll({ where: { designId: { [Op.in]: designIds } }, attributes: ['id'] })).map((r) => r.id);
-  const sheetIds = (await Sheet.findAll({ where: { designId: { [Op.in]: designIds } }, attributes: ['id'] })).map((s) => s.id);
+  const sheets = await Sheet.findAll({ where: { designId: { [Op.in]: designIds } }, attributes: ['id', 'a4Sha256', 'letterSha256'] });
+  const sheetIds = sheets.map((s) => s.id);
   // Published sheets refuse DELETE; seeders run as the schema owner, who lifts the triggers for the unseed only
   // (DROP/CREATE TRIGGER commit implicitly, so they stay outside the transaction).
   await dropSheetFreezeTriggers(context.sequelize);
@@ -340,6 +349,12 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
   } finally {
     await createSheetFreezeTriggers(context.sequelize);
   }
+  // The sheets' PDFs leave the content store unless something else refers to the same bytes.
+  const orphaned: string[] = [];
+  for (const sha256 of new Set(sheets.flatMap((s) => [s.a4Sha256, s.letterSha256]))) {
+    if (await context.sequelize.transaction((transaction) => markUnreferenced(sha256, transaction))) orphaned.push(sha256);
+  }
+  await removeUnreferencedContent(orphaned, getContentStore(), context.sequelize);
 };
 
 async function unseedReview(

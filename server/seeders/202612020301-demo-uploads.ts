@@ -3,11 +3,11 @@ import * as wavefile from 'wavefile';
 import { Op } from 'sequelize';
 import type { MigrationFn } from 'umzug';
 import type { DesignInput, DesignResult } from '@/engine';
-import { getConfig } from '../config';
 import type { SeedContext } from '../migrator';
 import { Attachment, AuditLog, Design, Measurement, Part, Revision, Sheet, User } from '../models';
 import { tensionFigures } from '../services/measurements.service';
-import { analysePluck, parseTorqueCsv, removeBytes, storeBytes } from '../uploads';
+import { getContentStore, markUnreferenced, referenceContent, removeUnreferencedContent } from '../storage';
+import { analysePluck, parseTorqueCsv, sha256Of } from '../uploads';
 
 // Uploads of the demo workshop, so a fresh start shows every part of issue 6 populated:
 //   - belt tension measurements on both approved sheets of the "Bench dispensing stage" (CoreXY): the first batch
@@ -15,7 +15,8 @@ import { analysePluck, parseTorqueCsv, removeBytes, storeBytes } from '../upload
 //     sheet with typed plucks near target and one analysed from a synthetic recording;
 //   - a torque–speed table (illustrative values, from memory) on the "42 mm 1.8° long stack" shelf motor;
 //   - a small PNG sketch and a CSV cut list attached to the "Bench dispensing stage".
-// Rows are written with the models on the seeder's connection; bytes go to the content store under UPLOAD_DIR.
+// Rows are written with the models on the seeder's connection; bytes go to the content store (UPLOAD_DIR, or the S3
+// bucket with STORAGE=s3), registered in use in the same transaction.
 
 const DAY = 24 * 3_600_000;
 const BENCH = 'Bench dispensing stage';
@@ -176,7 +177,7 @@ async function benchSheets(): Promise<Frozen[]> {
 }
 
 export const up: MigrationFn<SeedContext> = async ({ context }) => {
-  const root = getConfig().uploadDir;
+  const store = getContentStore();
   const byEmail = async (email: string) => User.findOne({ where: { email } });
   const maker = await byEmail('maker@example.test');
   const admin = await byEmail('admin@example.test');
@@ -233,7 +234,9 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
               frequencyHz: analysis.spectrum.frequencyHz.map((f) => Number(f.toFixed(2))),
               magnitudeDb: analysis.spectrum.magnitudeDb.map((m) => Number(m.toFixed(2))),
             };
-            sha256 = (await storeBytes(root, row.recording)).sha256;
+            sha256 = sha256Of(row.recording);
+            await referenceContent(sha256, row.recording.length, transaction);
+            await store.put(row.recording);
             stored.push(sha256);
           }
           const figures = tensionFigures({ span: found.span, linearMassKgPerM: mu, frequencyHz });
@@ -287,7 +290,9 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
         motor.changed('data', true);
         motor.updatedById = admin.id;
         await motor.save({ transaction });
-        const { sha256, size } = await storeBytes(root, torqueCsv);
+        const [sha256, size] = [sha256Of(torqueCsv), torqueCsv.length];
+        await referenceContent(sha256, size, transaction);
+        await store.put(torqueCsv);
         stored.push(sha256);
         await Attachment.create(
           {
@@ -312,7 +317,9 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
           ['cut-list.csv', 'text/csv', cutList, 20],
         ];
         for (const [fileName, mime, bytes, daysAgo] of files) {
-          const { sha256, size } = await storeBytes(root, bytes);
+          const [sha256, size] = [sha256Of(bytes), bytes.length];
+          await referenceContent(sha256, size, transaction);
+          await store.put(bytes);
           stored.push(sha256);
           await Attachment.create(
             { designId: bench.id, partId: null, uploadedById: designer.id, fileName, mime, size, sha256, createdAt: at(daysAgo) },
@@ -323,16 +330,21 @@ export const up: MigrationFn<SeedContext> = async ({ context }) => {
     });
   } catch (err) {
     // Nothing half-seeded: bytes written for rows that were rolled back go again (unless other rows share them).
-    for (const sha256 of stored) {
-      const refs = (await Attachment.count({ where: { sha256 } })) + (await Measurement.count({ where: { recordingSha256: sha256 } }));
-      if (refs === 0) await removeBytes(root, sha256);
-    }
+    await removeUnreferenced(context, stored);
     throw err;
   }
 };
 
+/** Removes the bytes of `hashes` that nothing refers to any more (through the content registry). */
+async function removeUnreferenced(context: SeedContext, hashes: Iterable<string>): Promise<void> {
+  const orphaned: string[] = [];
+  for (const sha256 of new Set(hashes)) {
+    if (await context.sequelize.transaction((transaction) => markUnreferenced(sha256, transaction))) orphaned.push(sha256);
+  }
+  await removeUnreferencedContent(orphaned, getContentStore(), context.sequelize);
+}
+
 export const down: MigrationFn<SeedContext> = async ({ context }) => {
-  const root = getConfig().uploadDir;
   const sheets = await benchSheets();
   const sheetIds = sheets.map((s) => s.sheet.id);
   const motor = await Part.findOne({ where: { kind: 'motor', name: TORQUE_MOTOR } });
@@ -355,8 +367,5 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
       await motor.save({ transaction });
     }
   });
-  for (const sha256 of hashes) {
-    const refs = (await Attachment.count({ where: { sha256 } })) + (await Measurement.count({ where: { recordingSha256: sha256 } }));
-    if (refs === 0) await removeBytes(root, sha256);
-  }
+  await removeUnreferenced(context, hashes);
 };

@@ -1,22 +1,11 @@
 import { Op, type Transaction } from 'sequelize';
-import { getConfig } from '../config';
 import { getSequelize } from '../db';
 import { AppError, forbidden, notFound } from '../errors';
 import { logger } from '../logger';
 import type { UploadedFile } from '../middleware/upload';
 import { Attachment, Design, Measurement, User, type AttachmentMime } from '../models';
-import {
-  assertTypeMatches,
-  ContentStoreError,
-  CsvError,
-  PluckError,
-  readBytes,
-  removeBytes,
-  sha256Of,
-  storeBytes,
-  UploadTypeError,
-  type SniffedMime,
-} from '../uploads';
+import { getContentStore, markUnreferenced, referenceContent, removeUnreferencedContent } from '../storage';
+import { assertTypeMatches, ContentStoreError, CsvError, PluckError, sha256Of, UploadTypeError, type SniffedMime } from '../uploads';
 import { recordAudit } from './audit.service';
 import type { Page, PublicUser } from './users.service';
 
@@ -51,11 +40,6 @@ type AttachmentRow = Attachment & { uploadedBy?: User | null; design?: Design | 
 const isAdmin = (actor: PublicUser) => actor.roles.includes('admin');
 const isDesignerOwner = (actor: PublicUser, design: Pick<Design, 'ownerId'>) =>
   actor.roles.includes('designer') && design.ownerId === actor.id;
-
-/** The store's root: the configured upload folder (never a path from a request). */
-export function uploadRoot(): string {
-  return getConfig().uploadDir;
-}
 
 /**
  * Turns the errors of the pure upload modules into API errors: 415 for a refused type, 422 for a recording that
@@ -171,57 +155,75 @@ function mayDelete(actor: PublicUser, row: Pick<Attachment, 'uploadedById' | 'de
 const UPLOADER_INCLUDE = { model: User, as: 'uploadedBy', attributes: ['id', 'name'] };
 
 /**
- * Stores bytes in the content store as part of a database transaction that has already inserted the row(s) that
- * refer to them, so the store and the table change together: the file is written after every check passed and
- * before the commit; if the commit fails, the bytes are removed again unless something else refers to them.
- * Inserting first also serialises with {@link deleteAttachment}, which locks the rows of a hash before it removes
- * the file: a concurrent delete of the same content either finishes first (we then rewrite the file) or sees our row.
+ * Stores bytes in the content store (local folder or S3 bucket) as part of a database transaction that has already
+ * inserted the row(s) that refer to them, so the store and the tables change together: each hash is registered as
+ * in use (server/storage/contentRegistry.ts, which keeps a concurrent removal of the same bytes from winning on any
+ * process or database node) and its bytes are put after every check passed and before the commit. If the
+ * transaction fails for good, bytes that nothing refers to are removed again ("nothing saved on failure").
+ * The callback may run more than once (a write conflict on a database cluster runs the whole transaction again).
+ * @param bytes - one buffer, or several (a sheet's two PDFs)
  */
-export async function storeWithRows<T>(bytes: Buffer, insertRows: (transaction: Transaction, sha256: string) => Promise<T>): Promise<T> {
-  const root = uploadRoot();
-  const sha256 = sha256Of(bytes);
-  let isStored = false;
+export async function storeWithRows<T>(
+  bytes: Buffer | Buffer[],
+  insertRows: (transaction: Transaction, sha256: string) => Promise<T>,
+): Promise<T> {
+  const buffers = Array.isArray(bytes) ? bytes : [bytes];
+  const first = sha256Of(buffers[0]);
+  return storeWithRowsMaking(async (transaction) => ({ result: await insertRows(transaction, first), bytes: buffers }));
+}
+
+/**
+ * {@link storeWithRows} for bytes that are only made inside the transaction: `work` writes the rows and returns the
+ * bytes they refer to (an approval renders its sheet while it holds the design's lock), which are then registered
+ * and put before the commit. When a retried attempt made other bytes than the one that committed (a PDF's creation
+ * time), the earlier attempt's bytes are removed once nothing refers to them.
+ */
+export async function storeWithRowsMaking<T>(work: (transaction: Transaction) => Promise<{ result: T; bytes: Buffer[] }>): Promise<T> {
+  const store = getContentStore();
+  const put = new Set<string>();
+  let kept: string[] = [];
   try {
-    return await getSequelize().transaction(async (transaction) => {
-      const result = await insertRows(transaction, sha256);
-      await storeBytes(root, bytes);
-      isStored = true;
-      return result;
+    const result = await getSequelize().transaction(async (transaction) => {
+      const made = await work(transaction);
+      const hashes = made.bytes.map((b) => sha256Of(b));
+      for (const [i, buffer] of made.bytes.entries()) {
+        await referenceContent(hashes[i], buffer.length, transaction);
+        put.add(hashes[i]);
+        await store.put(buffer);
+      }
+      kept = hashes;
+      return made.result;
     });
+    const stale = [...put].filter((h) => !kept.includes(h));
+    if (stale.length) await removeUnreferencedBytes(stale);
+    return result;
   } catch (err) {
-    if (isStored)
-      await removeIfUnreferenced(sha256).catch((cleanupErr: unknown) =>
-        logger.warn({ err: cleanupErr, sha256 }, 'could not clean up stored bytes'),
-      );
+    if (put.size) await removeUnreferencedBytes([...put]);
     throw err;
   }
 }
 
-/** How many attachment and measurement rows refer to `sha256` (optionally locking those rows). */
-export async function countReferences(sha256: string, transaction?: Transaction): Promise<number> {
-  const lock = transaction ? transaction.LOCK.UPDATE : undefined;
-  const attachments = await Attachment.findAll({ where: { sha256 }, attributes: ['id'], transaction, lock });
-  const recordings = await Measurement.findAll({ where: { recordingSha256: sha256 }, attributes: ['id'], transaction, lock });
-  return attachments.length + recordings.length;
-}
-
-async function removeIfUnreferenced(sha256: string): Promise<void> {
-  await getSequelize().transaction(async (transaction) => {
-    if ((await countReferences(sha256, transaction)) === 0) await removeBytes(uploadRoot(), sha256);
-  });
-}
+/** How many attachment, recording and sheet rows refer to `sha256`. */
+export { countReferences } from '../storage';
 
 /**
- * After rows that referred to stored bytes were deleted and committed (e.g. a design's attachments, cascaded with
- * the design), removes the bytes of each hash that no attachment or recording refers to any more. Each hash is
- * checked in its own transaction that locks the rows of that hash, as {@link deleteAttachment} does. Never throws:
- * the delete already happened, so a failed cleanup only leaves an unreferenced file behind and is logged.
+ * After rows that referred to stored bytes were deleted and committed (an attachment, a design's attachments
+ * cascaded with the design), or a transaction that stored them failed: removes the bytes of each hash that no
+ * attachment, recording or sheet refers to any more, safely against a concurrent upload of the same bytes on any
+ * process (see server/storage/contentRegistry.ts). Never throws: the delete already happened, so a failed
+ * cleanup only leaves bytes for the periodic sweeper and is logged.
  * @param sha256s - hashes of the deleted rows (duplicates are fine)
  */
 export async function removeUnreferencedBytes(sha256s: readonly string[]): Promise<void> {
+  const orphaned: string[] = [];
   for (const sha256 of new Set(sha256s)) {
-    await removeIfUnreferenced(sha256).catch((err: unknown) => logger.warn({ err, sha256 }, 'could not remove unreferenced stored bytes'));
+    try {
+      if (await markUnreferenced(sha256)) orphaned.push(sha256);
+    } catch (err) {
+      logger.warn({ err, sha256 }, 'could not check references of stored bytes');
+    }
   }
+  await removeUnreferencedContent(orphaned, getContentStore());
 }
 
 async function findDesignOr404(id: number): Promise<Design> {
@@ -319,14 +321,13 @@ export type AttachmentDownload = { bytes: Buffer; mime: string; fileName: string
 export async function getAttachmentDownload(id: number): Promise<AttachmentDownload> {
   const row = await Attachment.findByPk(id);
   if (!row) throw notFound('Attachment');
-  const bytes = await withUploadErrors(() => readBytes(uploadRoot(), row.sha256, { verify: true }));
+  const bytes = await withUploadErrors(() => getContentStore().get(row.sha256, { verify: true }));
   return { bytes, mime: row.mime, fileName: row.fileName, sha256: row.sha256 };
 }
 
 /**
- * Deletes a design attachment (uploader, design owner or admin). The row goes in a transaction that first locks
- * every row sharing its SHA-256; the bytes are removed, before the commit, only when no other attachment or
- * recording refers to them.
+ * Deletes a design attachment (uploader, design owner or admin). The row goes in a transaction; after the commit
+ * the bytes are removed when no other attachment, recording or sheet refers to them.
  */
 export async function deleteAttachment(actor: PublicUser, id: number): Promise<void> {
   const existing = (await Attachment.findByPk(id, {
@@ -340,8 +341,6 @@ export async function deleteAttachment(actor: PublicUser, id: number): Promise<v
     throw forbidden('Only whoever attached this file, the design owner or an admin can delete it.');
 
   await getSequelize().transaction(async (transaction) => {
-    // Lock every row with this hash first (and the gap: no new row of the same hash can be inserted meanwhile).
-    await countReferences(existing.sha256, transaction);
     const deleted = await Attachment.destroy({ where: { id }, transaction });
     if (deleted === 0) throw notFound('Attachment');
     await recordAudit(
@@ -355,8 +354,9 @@ export async function deleteAttachment(actor: PublicUser, id: number): Promise<v
       },
       transaction,
     );
-    if ((await countReferences(existing.sha256, transaction)) === 0) await removeBytes(uploadRoot(), existing.sha256);
   });
+  // Only after the commit, and only when nothing else refers to the same bytes.
+  await removeUnreferencedBytes([existing.sha256]);
 }
 
 /** Newest source file of a motor's torque table, or null. */

@@ -9,6 +9,8 @@ import {
   type SweepPoint,
 } from '@/engine';
 import { validationError } from '../errors';
+import { calcJson } from '../workers/pool';
+import type { CalcTask } from '../workers/tasks';
 
 /** Body-level names the engine may report on its own (everything else is a field of the design). */
 const BODY_FIELDS = new Set(['path', 'values']);
@@ -70,12 +72,28 @@ const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resol
  * rejects gives a point with `ok: false` and its issues instead of failing the whole sweep. The values run one
  * at a time with a pause between them, so a 50-value sweep does not hold up everyone else's requests.
  */
-export async function sweepInput(design: DesignInput, path: string, values: number[]): Promise<{ path: string; points: SweepPoint[] }> {
+export async function sweepInput(
+  design: DesignInput,
+  path: string,
+  values: number[],
+  options: { yieldBetween?: boolean } = {},
+): Promise<{ path: string; points: SweepPoint[] }> {
   assertSweepPath(design, path);
   const points: SweepPoint[] = [];
   for (const value of values) {
     points.push(...run(() => sweep(design, path, [value])).points);
-    await yieldToEventLoop();
+    // In a worker thread nobody else waits for this loop.
+    if (options.yieldBetween !== false) await yieldToEventLoop();
   }
   return { path, points };
+}
+
+/**
+ * POST /api/calc, /compare and /sweep off the event loop: the engine and the JSON encoding of its answer run in
+ * the engine worker pool, and the route only writes the bytes.
+ * @param task - what to compute (see server/workers/tasks.ts)
+ * @returns the answer as UTF-8 JSON
+ */
+export function calculateJson(task: CalcTask): Promise<Buffer> {
+  return calcJson(task);
 }

@@ -1,4 +1,4 @@
-import { Op, type Order, type WhereOptions } from 'sequelize';
+import { literal, Op, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import { defaultDesign, EngineInputError, evaluateValidDesign, safeParseDesign, type DesignInput, type DesignResult } from '@/engine';
 import { AppError, conflict, forbidden, notFound, validationError, type ErrorDetail } from '../errors';
 import { getSequelize } from '../db';
@@ -14,6 +14,7 @@ import {
 } from '../models';
 import type { CreateDesignInput, ListDesignsQuery, UpdateDesignInput } from '../schemas/designs.schema';
 import { removeUnreferencedBytes } from './attachments.service';
+import { storedResultsInPool } from '../workers/pool';
 import { recordAudit } from './audit.service';
 import type { Page, PublicUser } from './users.service';
 
@@ -136,6 +137,40 @@ function escapeLike(term: string): string {
   return term.replace(/[\\%_]/g, (c) => `\\${c}`);
 }
 
+/** InnoDB's default full-text stop words: the index leaves them out, so they are matched with LIKE instead. */
+const FULLTEXT_STOPWORDS = new Set(
+  'a about an are as at be by com de en for from how i in is it la of on or that the this to was what when where who will with und www'.split(
+    ' ',
+  ),
+);
+/** InnoDB indexes words of at least this many characters (innodb_ft_min_token_size). */
+const FULLTEXT_MIN_WORD = 3;
+
+/**
+ * The name search of the Designs list, built so that no keystroke scans every row: each typed word of three or
+ * more letters must begin a word of the name (FULLTEXT index, boolean mode with prefixes), and among the rows
+ * the index finds, the name must contain what was typed as it is (LIKE, wildcards literal). Typing only short
+ * words or stop words ("xy") matches names that begin with the text (a range of the name index).
+ * @param q - what was typed
+ * @returns the conditions, ANDed with the other filters
+ */
+export function nameSearch(q: string): WhereOptions[] {
+  const text = q.trim();
+  const words = text
+    .toLowerCase()
+    .split(/[^\p{L}\p{N}_]+/u)
+    .filter(Boolean);
+  const indexed = words.filter((w) => w.length >= FULLTEXT_MIN_WORD && !FULLTEXT_STOPWORDS.has(w)).slice(0, 10);
+  if (!indexed.length) return [{ name: { [Op.like]: `${escapeLike(text)}%` } }];
+  const against = indexed.map((w) => `+${w}*`).join(' ');
+  const match = literal(
+    `MATCH (\`Design\`.\`name\`) AGAINST (${getSequelize().escape(against)} IN BOOLEAN MODE)`,
+  ) as unknown as WhereOptions;
+  // One indexed word typed as it is ("dispens"): the index match already means the name contains it.
+  if (words.length === 1 && indexed.length === 1 && text.toLowerCase() === indexed[0]) return [match];
+  return [match, { name: { [Op.like]: `%${escapeLike(text)}%` } }];
+}
+
 const OWNER_INCLUDE = { model: User, as: 'owner', attributes: ['id', 'name'] };
 const UPDATED_BY_INCLUDE = { model: User, as: 'updatedBy', attributes: ['id', 'name'] };
 
@@ -143,7 +178,8 @@ function sortOrder(sort: string): Order {
   const descending = sort.startsWith('-');
   const key = descending ? sort.slice(1) : sort;
   const dir = descending ? 'DESC' : 'ASC';
-  const primary: Order = key === 'owner' ? [[{ model: User, as: 'owner' }, 'name', dir]] : [[key, dir]];
+  // The owner's name is kept on the design (owner_name, indexed), so this sort needs no join.
+  const primary: Order = key === 'owner' ? [['ownerName', dir]] : [[key, dir]];
   // A stable tie-breaker keeps pages from overlapping when many rows share a value.
   return [...(primary as unknown[]), ['id', dir]] as Order;
 }
@@ -154,23 +190,38 @@ function sortOrder(sort: string): Order {
  */
 export async function listDesigns(actor: PublicUser, query: ListDesignsQuery): Promise<Page<DesignListItem>> {
   const where: Record<string | symbol, unknown> = {};
-  if (query.q) where.name = { [Op.like]: `%${escapeLike(query.q)}%` };
+  if (query.q?.trim()) where[Op.and] = nameSearch(query.q);
   if (query.status?.length) where.status = { [Op.in]: query.status };
   if (query.mechanism?.length) where.mechanism = { [Op.in]: query.mechanism };
   if (query.owner !== undefined) where.ownerId = query.owner === 'me' ? actor.id : query.owner;
-  const { rows, count } = await Design.findAndCountAll({
-    where: where as WhereOptions,
-    attributes: { exclude: ['inputs', 'resultSummary'] },
-    include: [OWNER_INCLUDE],
-    order: sortOrder(query.sort),
-    limit: query.pageSize,
-    offset: (query.page - 1) * query.pageSize,
-  });
+  // The page's ids first: a walk along the sort key's index that reads nothing but the index, however deep the
+  // page; then those rows with their owners. The count runs on the designs table alone (no join, smallest index)
+  // instead of findAndCountAll's count over the join.
+  const order = sortOrder(query.sort);
+  const [ids, count] = await Promise.all([
+    Design.findAll({
+      where: where as WhereOptions,
+      attributes: ['id'],
+      order,
+      limit: query.pageSize,
+      offset: (query.page - 1) * query.pageSize,
+      raw: true,
+    }),
+    Design.count({ where: where as WhereOptions }),
+  ]);
+  const rows = ids.length
+    ? await Design.findAll({
+        where: { id: { [Op.in]: ids.map((r) => r.id) } },
+        attributes: { exclude: ['inputs', 'resultSummary'] },
+        include: [OWNER_INCLUDE],
+        order,
+      })
+    : [];
   return { items: rows.map((row) => toListItem(row, actor)), total: count, page: query.page, pageSize: query.pageSize };
 }
 
-async function findDesign(id: number): Promise<DesignRow> {
-  const row = await Design.findByPk(id, { include: [OWNER_INCLUDE, UPDATED_BY_INCLUDE] });
+async function findDesign(id: number, transaction?: Transaction): Promise<DesignRow> {
+  const row = await Design.findByPk(id, { include: [OWNER_INCLUDE, UPDATED_BY_INCLUDE], transaction });
   if (!row) throw notFound('Design');
   return row;
 }
@@ -226,7 +277,7 @@ export async function createDesign(actor: PublicUser, input: CreateDesignInput):
     document = input.document;
     origin = 'document';
   }
-  const stored = computeStoredResults(document);
+  const stored = await storedResultsInPool(document);
 
   const row = await getSequelize().transaction(async (transaction) => {
     const created = await Design.create(
@@ -291,27 +342,33 @@ export async function updateDesign(actor: PublicUser, id: number, patch: UpdateD
   if (row.version !== patch.version) throw versionConflict(row);
 
   const document = withName(patch.inputs ?? normalise(parseJson(row.inputs), 'inputs'), patch.name);
-  const stored = patch.inputs ? computeStoredResults(document, 'inputs') : {};
+  const stored = patch.inputs ? await storedResultsInPool(document, 'inputs') : {};
 
-  const [affected] = await Design.update(
-    {
-      name: document.name,
-      mechanism: document.mechanism,
-      inputs: document as unknown as Record<string, unknown>,
-      ...stored,
-      updatedById: actor.id,
-      version: patch.version + 1,
-    },
-    {
-      where: { id, version: patch.version, status: { [Op.in]: [...EDITABLE_DESIGN_STATUSES] } },
-    },
-  );
-  if (affected === 0) {
+  // The answer is read in the same transaction as the save, so it shows exactly the version this save wrote (a save
+  // by someone else a moment later must not be reported as this one's: the client would then overwrite it unseen).
+  const saved = await getSequelize().transaction(async (transaction) => {
+    const [affected] = await Design.update(
+      {
+        name: document.name,
+        mechanism: document.mechanism,
+        inputs: document as unknown as Record<string, unknown>,
+        ...stored,
+        updatedById: actor.id,
+        version: patch.version + 1,
+      },
+      {
+        where: { id, version: patch.version, status: { [Op.in]: [...EDITABLE_DESIGN_STATUSES] } },
+        transaction,
+      },
+    );
+    return affected === 0 ? null : findDesign(id, transaction);
+  });
+  if (!saved) {
     const now = await findDesign(id);
     if (!EDITABLE_DESIGN_STATUSES.includes(now.status as DesignStatus)) throw notEditable(now);
     throw versionConflict(now);
   }
-  return getDesign(actor, id);
+  return toDetail(saved, actor);
 }
 
 /** Deletes a draft (or returned) design: designers their own, admins any. 409 once it is in review or approved. */

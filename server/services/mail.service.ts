@@ -1,16 +1,31 @@
+import os from 'node:os';
 import nodemailer, { type Transporter } from 'nodemailer';
 import { getConfig } from '../config';
 import { logger } from '../logger';
 
 /** A message to send: both a plain-text and an HTML part. */
-export type MailInput = { to: string | string[]; subject: string; text: string; html: string };
+export type MailInput = {
+  to: string | string[];
+  subject: string;
+  text: string;
+  html: string;
+  /** A fixed Message-ID (`<…@host>`), e.g. the queue's, so every attempt of one mail carries the same one. */
+  messageId?: string;
+};
 
 let transporter: Transporter | undefined;
+
+/** This process, as `pid@host`. */
+const SENDER = `${process.pid}@${os.hostname()}`;
 
 function getTransporter(): Transporter {
   if (!transporter) {
     const { smtp } = getConfig();
     transporter = nodemailer.createTransport({
+      // A few kept-open connections: the queue worker sends in bursts, and a new SMTP session per mail costs more
+      // than the mail itself.
+      pool: true,
+      maxConnections: 3,
       host: smtp.host,
       port: smtp.port,
       secure: smtp.secure,
@@ -43,6 +58,10 @@ export async function sendMail(input: MailInput): Promise<boolean> {
         subject: input.subject,
         text: input.text,
         html: input.html,
+        ...(input.messageId ? { messageId: input.messageId } : {}),
+        // Which process sent it: when a mail leaves twice (its sender died after the SMTP server took it but before the
+        // queue recorded that), this says which process to look at.
+        headers: { 'X-Gantrywright-Sender': SENDER },
       });
       logger.info({ to: input.to, subject: input.subject, messageId: info.messageId }, 'mail sent');
       return true;

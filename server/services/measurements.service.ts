@@ -4,8 +4,9 @@ import { getSequelize } from '../db';
 import { AppError, notFound } from '../errors';
 import type { UploadedFile } from '../middleware/upload';
 import { Measurement, Revision, Sheet, User, type MeasurementSource, type StoredSpectrum } from '../models';
-import { analysePluck, assertTypeMatches, PLUCK_DEFAULT_MAX_HZ, readBytes } from '../uploads';
-import { sanitiseFileName, storeWithRows, uploadRoot, withUploadErrors } from './attachments.service';
+import { getContentStore } from '../storage';
+import { analysePluck, assertTypeMatches, PLUCK_DEFAULT_MAX_HZ } from '../uploads';
+import { sanitiseFileName, storeWithRows, withUploadErrors } from './attachments.service';
 import { recordAudit } from './audit.service';
 import { parseJson } from './revisions.service';
 import { latestSheets } from './sheets.service';
@@ -326,7 +327,7 @@ export async function getRecording(sheetId: number, id: number): Promise<{ bytes
   if (!row) throw notFound('Measurement');
   if (!row.recordingSha256) throw new AppError('not_found', 'This measurement was typed in; it has no recording.', 404);
   const sha256 = row.recordingSha256;
-  const bytes = await withUploadErrors(() => readBytes(uploadRoot(), sha256, { verify: true }));
+  const bytes = await withUploadErrors(() => getContentStore().get(sha256, { verify: true }));
   return { bytes, fileName: row.recordingName ?? 'recording.wav', sha256 };
 }
 

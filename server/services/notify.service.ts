@@ -1,4 +1,5 @@
-import { Op, type Transaction } from 'sequelize';
+import { randomBytes } from 'node:crypto';
+import { Op, QueryTypes, type Transaction } from 'sequelize';
 import { getConfig } from '../config';
 import { logger } from '../logger';
 import { Notification } from '../models';
@@ -12,8 +13,10 @@ import { buildResetMail, RESET_MAIL_KIND } from './resetMail';
  * A notice is written in the same transaction as the state change it announces, so a committed transition
  * always has its mail and a rolled-back one never does. After the commit the caller hands the new ids to
  * {@link deliverSoon}; anything not delivered then (SMTP down, process stopped) is picked up by the periodic
- * {@link startMailQueueWorker} with backoff. Rows are claimed with `locked_until`, so several server processes
- * can share the queue without sending a mail twice. A mail failure never undoes a transition.
+ * {@link startMailQueueWorker} with backoff. Rows are claimed with a conditional UPDATE that writes a random claim
+ * token and a lease (`claim_token`, `locked_until`; {@link claimDueMail}), so any number of server processes, on any
+ * database node, share the queue and each mail is sent once; a sender that crashed loses its rows when the lease
+ * runs out. A mail failure never undoes a transition.
  */
 
 /** Someone to notify. */
@@ -23,13 +26,19 @@ export type Recipient = { email: string; name: string };
 export const RETRY_BACKOFF_MS = [30_000, 2 * 60_000, 10 * 60_000, 30 * 60_000, 60 * 60_000, 2 * 60 * 60_000, 6 * 60 * 60_000];
 /** Attempts before giving up (each attempt is itself sendMail's three quick tries). */
 export const MAX_ATTEMPTS = RETRY_BACKOFF_MS.length + 1;
-/** How long one process holds a claimed row before another may try it (a crashed sender releases it this way). */
-const CLAIM_MS = 2 * 60_000;
-/** Rows handled per pass of the worker. */
+/**
+ * Longest one sendMail call can take (three tries, each with 5 s connect + 5 s greeting + 10 s socket timeouts, and
+ * the pauses between): a sender starts a mail only while at least this much of its lease is left, so a lease never
+ * runs out while a mail is on its way.
+ */
+const LONGEST_SEND_MS = 65_000;
+/** Rows claimed per pass of the worker. */
 const BATCH_SIZE = 25;
 
 /**
  * Writes one mail per recipient into the queue, in `transaction`. Duplicate addresses are sent once.
+ * Rows are inserted one by one: ids on a database cluster step by the cluster size, so a bulk insert's ids cannot
+ * be inferred from the first one.
  * @returns the ids of the queued rows, for {@link deliverSoon} after the commit
  */
 export async function queueMail(
@@ -45,44 +54,110 @@ export async function queueMail(
     seen.add(key);
     return true;
   });
-  if (!unique.length) return [];
   const now = new Date();
-  const rows = await Notification.bulkCreate(
-    unique.map((r) => {
-      const content = build(r);
-      return {
+  const ids: number[] = [];
+  for (const r of unique) {
+    const content = build(r);
+    const row = await Notification.create(
+      {
         kind,
         toAddress: r.email,
         subject: content.subject.slice(0, 300),
         textBody: content.text,
         htmlBody: content.html,
-        status: 'pending' as const,
+        status: 'pending',
         attempts: 0,
         lastError: null,
         nextAttemptAt: now,
         lockedUntil: null,
+        claimToken: null,
         sentAt: null,
-      };
-    }),
-    { transaction },
-  );
-  return rows.map((r) => r.id);
+      },
+      { transaction },
+    );
+    ids.push(row.id);
+  }
+  return ids;
 }
 
-/** Atomically takes a due row for this process. @returns whether this process may send it. */
-async function claim(id: number, now: Date): Promise<boolean> {
-  const [affected] = await Notification.update(
-    { lockedUntil: new Date(now.getTime() + CLAIM_MS) },
-    {
-      where: {
-        id,
-        status: 'pending',
-        nextAttemptAt: { [Op.lte]: now },
-        [Op.or]: [{ lockedUntil: null }, { lockedUntil: { [Op.lt]: now } }],
+/** Affected rows of an UPDATE through Sequelize's mariadb dialect. */
+function affectedRows(result: unknown): number {
+  if (Array.isArray(result)) return affectedRows(result[1] ?? result[0]);
+  if (typeof result === 'number') return result;
+  if (result && typeof result === 'object' && 'affectedRows' in result) return Number((result as { affectedRows: number }).affectedRows);
+  return 0;
+}
+
+/** Rows this sender holds: its token and until when. */
+export type Claim = { token: string; until: Date; rows: Notification[] };
+
+/**
+ * Atomically takes due rows for this sender: ONE conditional UPDATE writes a fresh random token and the lease on
+ * rows that are pending, due and not held by anyone (or whose holder's lease ran out), then the rows carrying the
+ * token are read back. Two senders can never both hold a row: on one server the UPDATE's row locks order them, on a
+ * Galera cluster the second commit fails certification and is retried (server/db.ts), finding the rows taken.
+ * @param options - `ids`: only these rows, due or not (fresh mail after its commit); `limit`: at most this many
+ */
+export async function claimDueMail(options: { ids?: number[]; limit?: number } = {}): Promise<Claim> {
+  const token = randomBytes(16).toString('hex');
+  const now = new Date();
+  // How long this sender holds the rows (MAIL_CLAIM_SECONDS): a crashed sender releases them this way.
+  const until = new Date(now.getTime() + getConfig().mailClaimMs);
+  if (options.ids && !options.ids.length) return { token, until, rows: [] };
+  const sequelize = Notification.sequelize!;
+  // Named rows (fresh mail right after its commit) are taken whenever they are pending; otherwise only due ones.
+  const filter = options.ids ? 'id IN (:ids)' : 'next_attempt_at <= :now';
+  const claimed = affectedRows(
+    await sequelize.query(
+      'UPDATE mail_queue SET claim_token = :token, locked_until = :until, updated_at = :now ' +
+        `WHERE status = 'pending' AND ${filter} AND (locked_until IS NULL OR locked_until < :now) ORDER BY id LIMIT :limit`,
+      {
+        replacements: { token, until, now, ids: options.ids ?? [], limit: options.limit ?? options.ids?.length ?? BATCH_SIZE },
+        type: QueryTypes.UPDATE,
       },
-    },
+    ),
   );
-  return affected === 1;
+  if (claimed === 0) return { token, until, rows: [] };
+  const rows = await Notification.findAll({ where: { claimToken: token }, order: [['id', 'ASC']] });
+  return { token, until, rows };
+}
+
+/** Gives rows of a claim back unsent (the lease is too short to start another mail). */
+async function releaseClaim(token: string, ids: number[]): Promise<void> {
+  if (!ids.length) return;
+  await Notification.update({ lockedUntil: null, claimToken: null }, { where: { id: { [Op.in]: ids }, claimToken: token } });
+}
+
+/** Stable Message-ID of a queued mail: every attempt carries the same one, so a receiver can tell repeats apart. */
+export function queuedMessageId(id: number): string {
+  let host = 'gantrywright.invalid';
+  try {
+    host = new URL(getConfig().appUrl).hostname || host;
+  } catch {
+    // keep the fallback
+  }
+  return `<mail-queue-${id}@${host}>`;
+}
+
+const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
+
+/**
+ * Records the outcome of a send. The UPDATE only matches while the row carries this sender's claim token, so applying
+ * it twice changes nothing; unlike other writes it is therefore repeated when the database went away in the middle of
+ * it (on a cluster: the sender's node died) — otherwise a mail already handed to SMTP would stay claimed and go out a
+ * second time once the lease ran out. @returns the affected rows
+ */
+async function recordOutcome(update: () => Promise<[affectedCount: number]>): Promise<number> {
+  for (let attempt = 1; ; attempt += 1) {
+    try {
+      const [affected] = await update();
+      return affected;
+    } catch (err) {
+      const code = (err as { code?: string }).code;
+      if (attempt >= 8 || (code !== 'db_outcome_unknown' && code !== 'db_unavailable')) throw err;
+      await sleep(Math.min(4000, 250 * 2 ** (attempt - 1)));
+    }
+  }
 }
 
 /**
@@ -94,39 +169,55 @@ async function contentOf(row: Notification): Promise<MailContent | null> {
   return { subject: row.subject, text: row.textBody, html: row.htmlBody };
 }
 
-/** Sends one claimed row and records the outcome: sent, discarded (nobody to send it to), or the error and when to try again. */
-async function sendOne(row: Notification): Promise<'sent' | 'failed' | 'discarded'> {
+/**
+ * Sends one claimed row and records the outcome — sent, discarded (a mail built now that has nobody to go to), or
+ * the error and when to try again — only while the claim is still this sender's.
+ */
+async function sendOne(row: Notification, token: string): Promise<'sent' | 'failed' | 'discarded'> {
   let error: string | null = null;
+  const mine = { id: row.id, claimToken: token };
   try {
     const content = await contentOf(row);
     if (!content) {
-      await Notification.update({ status: 'discarded', lockedUntil: null, lastError: null }, { where: { id: row.id } });
+      await recordOutcome(() =>
+        Notification.update({ status: 'discarded', lockedUntil: null, claimToken: null, lastError: null }, { where: mine }),
+      );
       return 'discarded';
     }
-    const ok = await sendMail({ to: row.toAddress, subject: content.subject, text: content.text, html: content.html });
+    const ok = await sendMail({
+      to: row.toAddress,
+      subject: content.subject,
+      text: content.text,
+      html: content.html,
+      messageId: queuedMessageId(row.id),
+    });
     if (!ok) error = 'The SMTP server did not accept the message (details in the server log).';
   } catch (err) {
     error = err instanceof Error ? err.message : String(err);
   }
   const attempts = row.attempts + 1;
   if (!error) {
-    await Notification.update(
-      { status: 'sent', attempts, sentAt: new Date(), lockedUntil: null, lastError: null },
-      { where: { id: row.id } },
+    const sentAt = new Date();
+    const affected = await recordOutcome(() =>
+      Notification.update({ status: 'sent', attempts, sentAt, lockedUntil: null, lastError: null }, { where: mine }),
     );
+    if (affected !== 1) logger.error({ mailId: row.id }, 'mail sent after its claim was lost');
     return 'sent';
   }
   const isLast = attempts >= MAX_ATTEMPTS;
   const delay = RETRY_BACKOFF_MS[Math.min(attempts - 1, RETRY_BACKOFF_MS.length - 1)];
-  await Notification.update(
-    {
-      status: isLast ? 'failed' : 'pending',
-      attempts,
-      lastError: error.slice(0, 2000),
-      lockedUntil: null,
-      nextAttemptAt: new Date(Date.now() + delay),
-    },
-    { where: { id: row.id } },
+  await recordOutcome(() =>
+    Notification.update(
+      {
+        status: isLast ? 'failed' : 'pending',
+        attempts,
+        lastError: error.slice(0, 2000),
+        lockedUntil: null,
+        claimToken: null,
+        nextAttemptAt: new Date(Date.now() + delay),
+      },
+      { where: mine },
+    ),
   );
   logger[isLast ? 'error' : 'warn'](
     { mailId: row.id, kind: row.kind, to: row.toAddress, attempts, error },
@@ -136,20 +227,23 @@ async function sendOne(row: Notification): Promise<'sent' | 'failed' | 'discarde
 }
 
 /**
- * Sends queued mail that is due: the given ids, or up to one batch of any due rows.
- * @returns how many were sent and how many failed this time
+ * Claims and sends queued mail that is due: the given ids, or up to one batch of any due rows.
+ * @returns how many were sent, failed this time, or were discarded (nobody to send them to)
  */
-export async function deliverQueuedMail(options: { ids?: number[] } = {}): Promise<{ sent: number; failed: number; discarded: number }> {
-  const now = new Date();
-  const where = options.ids
-    ? { id: { [Op.in]: options.ids }, status: 'pending' }
-    : { status: 'pending', nextAttemptAt: { [Op.lte]: now }, [Op.or]: [{ lockedUntil: null }, { lockedUntil: { [Op.lt]: now } }] };
-  if (options.ids && !options.ids.length) return { sent: 0, failed: 0, discarded: 0 };
-  const due = await Notification.findAll({ where, order: [['id', 'ASC']], limit: options.ids ? undefined : BATCH_SIZE });
+export async function deliverQueuedMail(
+  options: { ids?: number[]; limit?: number } = {},
+): Promise<{ sent: number; failed: number; discarded: number }> {
   const outcome = { sent: 0, failed: 0, discarded: 0 };
-  for (const row of due) {
-    if (!(await claim(row.id, now))) continue;
-    outcome[await sendOne(row)] += 1;
+  const claim = await claimDueMail(options);
+  for (const [index, row] of claim.rows.entries()) {
+    if (Date.now() + LONGEST_SEND_MS > claim.until.getTime()) {
+      await releaseClaim(
+        claim.token,
+        claim.rows.slice(index).map((r) => r.id),
+      );
+      break;
+    }
+    outcome[await sendOne(row, claim.token)] += 1;
   }
   return outcome;
 }
@@ -167,13 +261,17 @@ export function deliverSoon(ids: number[]): void {
  * Starts the periodic retry of queued mail in this process (server/index.ts). Every process may run one: rows are
  * claimed in the database. @returns a function that stops it.
  */
-export function startMailQueueWorker(intervalMs = 30_000): () => void {
+export function startMailQueueWorker(intervalMs = getConfig().mailWorkerIntervalMs): () => void {
   let isRunning = false;
   const tick = async () => {
     if (isRunning) return;
     isRunning = true;
     try {
-      await deliverQueuedMail();
+      // Drain what is due, a batch at a time.
+      for (let pass = 0; pass < 20; pass += 1) {
+        const { sent, failed, discarded } = await deliverQueuedMail();
+        if (sent + failed + discarded < BATCH_SIZE) break;
+      }
     } catch (err) {
       logger.warn({ err }, 'mail queue pass failed');
     } finally {

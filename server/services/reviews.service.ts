@@ -3,6 +3,7 @@ import type { DesignInput, DesignResult } from '@/engine';
 import { getSequelize } from '../db';
 import { conflict, forbidden, notFound, validationError } from '../errors';
 import { Design, Revision, RevisionComment, User } from '../models';
+import { storeWithRowsMaking } from './attachments.service';
 import { recordAudit } from './audit.service';
 import { approvedMail, deliverSoon, queueMail, returnedMail, sheetPublishedMail, type Recipient } from './notify.service';
 import {
@@ -18,7 +19,7 @@ import {
   type PersonRef,
   type RevisionDetail,
 } from './revisions.service';
-import { getSheet, renderSheetFiles, storeSheet, type SheetDetail } from './sheets.service';
+import { getSheet, renderSheetFilesOffThread, storeSheet, type SheetDetail } from './sheets.service';
 import { findActiveUsersByRole, type Page, type PublicUser } from './users.service';
 
 /**
@@ -133,12 +134,15 @@ async function designersOf(revision: { authorId: number }, ownerId: number, tran
 }
 
 /**
- * Approves a revision in review: renders the design sheet (A4 and US Letter) from the frozen revision, then in one
- * transaction marks the revision and design approved and stores the sheet; logs it and mails the designer and
- * every maker. Reviewers and admins, never on their own work.
- * The design row is locked first, without waiting, and held while the sheet renders: of concurrent approvals one
- * renders and wins, the others get 409 `busy` at once (before, each rendered a sheet of its own and queued for the
- * lock while holding a pooled connection). Every query runs in that transaction (issue 12, item 2).
+ * Approves a revision in review: in one transaction renders the design sheet (A4 and US Letter) from the frozen
+ * revision, marks the revision and design approved and stores the sheet (its row; the PDFs go to the content store
+ * before the commit, see storeWithRowsMaking); logs it and mails the designer and every maker. Reviewers and
+ * admins, never on their own work.
+ * The design row is locked first, without waiting, and held while the sheet renders (in the PDF worker pool, so the
+ * event loop keeps serving): of concurrent approvals one renders and wins, the others get 409 `busy` at once
+ * (before, each rendered a sheet of its own and queued for the lock while holding a pooled connection). Every query
+ * runs in that transaction (issue 12, item 2). On a database cluster a write conflict runs it all again; the retry
+ * then finds the revision decided and answers 409.
  * @throws 403 (role, own work), 409 (not in review, or being decided right now)
  */
 export async function approveRevision(
@@ -157,13 +161,15 @@ export async function approveRevision(
 
   const approvedAt = new Date();
 
-  const { sheetId, mailIds } = await getSequelize().transaction(async (transaction) => {
+  // The sheet's rows and its PDF bytes (content store) are saved together: if the transaction fails, the bytes go again.
+  const { sheetId, mailIds } = await storeWithRowsMaking(async (transaction) => {
     const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'approved', transaction);
     // Only the request holding the lock reads the frozen inputs and result (~100 kB) and renders: the others are gone.
     const inputs = parseJson<DesignInput>(locked.inputs);
     const frozen = await Revision.findByPk(revisionId, { attributes: ['result'], transaction });
     const author = await User.findByPk(locked.authorId, { attributes: ['name', 'email'], transaction });
-    const rendered = await renderSheetFiles({
+    // In the PDF worker pool: the lock is held meanwhile, but the event loop keeps serving everyone else.
+    const rendered = await renderSheetFilesOffThread({
       designName: inputs.name,
       revisionNumber: locked.number,
       mechanism: inputs.mechanism,
@@ -234,7 +240,7 @@ export async function approveRevision(
         transaction,
       )),
     ];
-    return { sheetId: id, mailIds: ids };
+    return { result: { sheetId: id, mailIds: ids }, bytes: [rendered.a4, rendered.letter] };
   });
   deliverSoon(mailIds);
   return { revision: await getRevision(actor, revisionId), sheet: await getSheet(actor, sheetId) };

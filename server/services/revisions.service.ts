@@ -13,6 +13,7 @@ import {
   type RevisionStatus,
   type RevisionSummaryFigures,
 } from '../models';
+import { freezeInPool } from '../workers/pool';
 import { recordAudit } from './audit.service';
 import { deliverSoon, queueMail, submittedMail } from './notify.service';
 import { findActiveUsersByRole, type Page, type PublicUser } from './users.service';
@@ -532,7 +533,7 @@ export async function submitDesign(actor: PublicUser, designId: number, body: { 
         409,
       );
     }
-    const frozen = freezeDesign(design.inputs);
+    const frozen = await freezeInPool(design.inputs);
     const last = (await Revision.max<number | null, Revision>('number', { where: { designId }, transaction })) ?? 0;
     const revision = await Revision.create(
       {

@@ -1,5 +1,5 @@
 import { Op, type Transaction, type WhereOptions } from 'sequelize';
-import { User, ROLES, type Role } from '../models';
+import { Design, User, ROLES, type Role } from '../models';
 import { conflict, notFound } from '../errors';
 import { getSequelize } from '../db';
 import { recordAudit } from './audit.service';
@@ -126,6 +126,9 @@ export async function updateUser(
     if (patch.disabled !== undefined) user.disabled = patch.disabled;
     await user.save({ transaction });
     const after = toPublicUser(user);
+    // The Designs list sorts by the owner's name kept on each design (models/design.model.ts).
+    if (before.name !== after.name)
+      await Design.update({ ownerName: after.name }, { where: { ownerId: user.id }, transaction, hooks: false });
 
     if (before.disabled !== after.disabled) {
       // A disabled account is signed out everywhere at once (requests read the session row anyway; this also

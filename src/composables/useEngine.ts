@@ -1,13 +1,14 @@
-import { computed, onScopeDispose, ref, shallowRef, watch, type Ref, type ShallowRef } from 'vue';
+import { computed, nextTick, onScopeDispose, ref, shallowRef, toRaw, watch, type Ref, type ShallowRef } from 'vue';
 import { designInputSchema, safeParseDesign, type DesignResult, type InputIssue } from '@/engine';
 import { getEngineRunner, type EngineRunner } from '@/workers/engineClient';
+import type { ResultPart } from '@/workers/resultParts';
 
 /** Options of {@link useEngine}. */
 export interface UseEngineOptions {
-  /** Quiet time after the last change before the engine runs [ms]. */
-  delayMs?: number;
   /** Engine runner (tests pass the main-thread one). */
   runner?: EngineRunner;
+  /** Large result parts the page shows now (the visible tab's); all of them when absent. */
+  parts?: () => ResultPart[];
 }
 
 /** What {@link useEngine} returns. */
@@ -26,6 +27,8 @@ export interface UseEngine {
   error: Ref<string | null>;
   /** How long the last evaluation took, round trip [ms]. */
   lastDurationMs: Ref<number | null>;
+  /** Large parts the current result lacks (the visible tab waits for them). */
+  missingParts: Ref<ResultPart[]>;
 }
 
 function valueAt(source: unknown, path: string): unknown {
@@ -54,15 +57,29 @@ export function formIssues(value: unknown, issues: InputIssue[]): InputIssue[] {
 }
 
 /**
+ * Names of the performance marks the Design desk leaves for `npm run bench` (scripts/bench/editor.ts reads them):
+ * an input changed, an evaluation was sent, its result arrived, its numbers are on screen (after the next paint).
+ */
+export const PERF_MARKS = { input: 'gw:input', evaluate: 'gw:evaluate', result: 'gw:result', numbers: 'gw:numbers' } as const;
+
+/** Marks `name` once the next frame has been painted (a task queued from rAF runs after the paint). */
+export function markAfterPaint(name: string, detail?: unknown): void {
+  if (typeof performance === 'undefined' || typeof requestAnimationFrame === 'undefined') return;
+  requestAnimationFrame(() => setTimeout(() => performance.mark(name, { detail }), 0));
+}
+
+/**
  * Live results for a design being edited: every change is validated at once with the shared schema (so the
- * form shows field messages as the person types), and a valid design is evaluated by the engine in a Web
- * Worker after a short quiet time. Evaluations never pile up: while one runs, only the newest inputs wait.
+ * form shows field messages as the person types), and a valid design goes to the engine worker at once
+ * (validated once: the worker does not parse it again). Evaluations never pile up: while one runs, only the
+ * newest inputs wait, and they go as soon as it returns (a trailing throttle, with no fixed wait). Only the
+ * large result parts the visible tab needs travel; the others are fetched when a tab asks for them.
  * @param source - getter of the design document being edited (null while nothing is loaded)
- * @param options - delay and runner
+ * @param options - runner and the parts shown
  */
 export function useEngine(source: () => unknown, options: UseEngineOptions = {}): UseEngine {
-  const delayMs = options.delayMs ?? 150;
   const runner = options.runner ?? getEngineRunner();
+  const wantedParts = options.parts;
 
   const result = shallowRef<DesignResult | null>(null);
   const issues = ref<InputIssue[]>([]);
@@ -70,8 +87,8 @@ export function useEngine(source: () => unknown, options: UseEngineOptions = {})
   const isComputing = ref(false);
   const error = ref<string | null>(null);
   const lastDurationMs = ref<number | null>(null);
+  const missingParts = ref<ResultPart[]>([]);
 
-  let timer: ReturnType<typeof setTimeout> | null = null;
   let waiting: Record<string, unknown> | null = null;
   let isDisposed = false;
 
@@ -88,16 +105,26 @@ export function useEngine(source: () => unknown, options: UseEngineOptions = {})
     return out;
   });
 
+  function markNumbers(): void {
+    void nextTick(() => markAfterPaint(PERF_MARKS.numbers));
+  }
+
   async function run(design: Record<string, unknown>): Promise<void> {
     isComputing.value = true;
     const started = performance.now();
     try {
-      const outcome = await runner.evaluate(design);
+      performance.mark?.(PERF_MARKS.evaluate);
+      // A plain copy: the page's list is reactive (a proxy), which postMessage cannot clone.
+      const parts = wantedParts ? [...toRaw(wantedParts())] : undefined;
+      const outcome = await runner.evaluate(design, { validated: true, parts });
       if (isDisposed) return;
+      performance.mark?.(PERF_MARKS.result);
       lastDurationMs.value = Math.round(performance.now() - started);
       if (outcome.ok) {
         result.value = outcome.result;
+        missingParts.value = outcome.missing ?? [];
         error.value = null;
+        markNumbers();
       } else {
         // The layout can reject what the field rules let through; show it like any other issue.
         setIssues(outcome.issues);
@@ -118,25 +145,21 @@ export function useEngine(source: () => unknown, options: UseEngineOptions = {})
     }
   }
 
+  /** Trailing throttle: run now when idle; while a run is out, keep only the newest inputs for right after it. */
   function schedule(design: Record<string, unknown>): void {
-    if (timer) clearTimeout(timer);
-    timer = setTimeout(() => {
-      timer = null;
-      if (isComputing.value) waiting = design;
-      else void run(design);
-    }, delayMs);
+    if (isComputing.value) waiting = design;
+    else void run(design);
   }
 
   watch(
     source,
     (value) => {
       if (value === null || value === undefined) return;
+      performance.mark?.(PERF_MARKS.input);
       const parsed = safeParseDesign(value);
       if (!parsed.ok) {
         setIssues(formIssues(value, parsed.issues));
         isStale.value = result.value !== null;
-        if (timer) clearTimeout(timer);
-        timer = null;
         waiting = null;
         return;
       }
@@ -147,10 +170,28 @@ export function useEngine(source: () => unknown, options: UseEngineOptions = {})
     { deep: true, immediate: true },
   );
 
+  // A tab that needs a part the current result lacks fetches it from the worker's copy (no new evaluation).
+  if (wantedParts) {
+    watch(wantedParts, async (parts) => {
+      const current = result.value;
+      if (!current || !parts.some((p) => missingParts.value.includes(p)) || !runner.completeParts) return;
+      const completed = await runner.completeParts(current, parts);
+      if (isDisposed || result.value !== current) return; // a newer result arrived meanwhile
+      if (completed) {
+        result.value = completed;
+        missingParts.value = missingParts.value.filter((p) => !parts.includes(p));
+        markNumbers();
+      } else {
+        const doc = source();
+        const parsed = doc ? safeParseDesign(doc) : null;
+        if (parsed?.ok) schedule(parsed.value as unknown as Record<string, unknown>);
+      }
+    });
+  }
+
   onScopeDispose(() => {
     isDisposed = true;
-    if (timer) clearTimeout(timer);
   });
 
-  return { result, issues, fieldErrors, isStale, isComputing, error, lastDurationMs };
+  return { result, issues, fieldErrors, isStale, isComputing, error, lastDurationMs, missingParts };
 }

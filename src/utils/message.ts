@@ -1,9 +1,17 @@
-import { ElMessage, ElMessageBox } from 'element-plus';
+import type { MessageParams } from 'element-plus';
 import { isApiError } from '@/api/http';
 
 /**
  * The one way the app tells people about outcomes: wraps Element Plus' message and confirm boxes.
  */
+
+/**
+ * Shows a toast. Element Plus' message component loads on the first toast rather than with every page: most page
+ * visits never show one, and the first one appears a few milliseconds later at most.
+ */
+function toast(options: MessageParams): void {
+  void import('element-plus/es/components/message/index.mjs').then(({ ElMessage }) => ElMessage(options));
+}
 
 /**
  * Turns anything thrown into a sentence fit for people (an API validation error lists its fields).
@@ -24,17 +32,17 @@ export function errorMessage(err: unknown, fallback = 'Something went wrong. Try
  */
 export function showError(err: unknown, fallback?: string): void {
   if (isApiError(err) && err.status === 401 && err.code !== 'invalid_credentials') return;
-  ElMessage({ type: 'error', message: errorMessage(err, fallback), showClose: true, duration: 6000 });
+  toast({ type: 'error', message: errorMessage(err, fallback), showClose: true, duration: 6000 });
 }
 
 /** Shows a short success toast. */
 export function showSuccess(message: string): void {
-  ElMessage({ type: 'success', message, duration: 3000 });
+  toast({ type: 'success', message, duration: 3000 });
 }
 
 /** Shows a short neutral toast. */
 export function showInfo(message: string): void {
-  ElMessage({ type: 'info', message, duration: 3000 });
+  toast({ type: 'info', message, duration: 3000 });
 }
 
 /** Options of {@link confirmAction}. */
@@ -51,6 +59,8 @@ export interface ConfirmOptions {
  * @returns true when confirmed, false when cancelled or closed
  */
 export async function confirmAction(options: ConfirmOptions): Promise<boolean> {
+  // Loaded on first use: the confirm box is ~20 kB that no page needs before someone asks to delete something.
+  const { ElMessageBox } = await import('element-plus/es/components/message-box/index.mjs');
   try {
     await ElMessageBox.confirm(options.message, options.title, {
       confirmButtonText: options.confirmText,

@@ -1,16 +1,22 @@
 /// <reference lib="webworker" />
-import { compareOutcomes, evaluateOutcome, sweepPoint } from './engineTasks';
+import type { DesignResult } from '@/engine';
+import { compareOutcomes, evaluateOutcome, sweepPoint, warmEngine } from './engineTasks';
 import type { EngineRequest, EngineResponse } from './engineProtocol';
+import { packResult } from './resultParts';
 
 /**
- * The engine off the main thread: one evaluation takes 100–200 ms on a modest machine, which would make
- * typing stutter. Sweeps yield between points so a cancel message is read before the next point.
+ * The engine off the main thread, so that typing never waits for it. An evaluation answers with the result
+ * minus its large parts, plus the parts the visible tab needs packed into one Float64Array that is transferred
+ * (moved, not copied); the last full result stays here so a tab opened later can fetch its parts without a new
+ * evaluation. Sweeps yield between points so a cancel message is read before the next point.
  */
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 const cancelled = new Set<number>();
+/** The last evaluation's full result, for `parts` requests. */
+let last: { id: number; result: DesignResult } | null = null;
 
-function reply(message: EngineResponse): void {
-  scope.postMessage(message);
+function reply(message: EngineResponse, transfer: Transferable[] = []): void {
+  scope.postMessage(message, transfer);
 }
 
 const nextTurn = (): Promise<void> => new Promise((resolve) => setTimeout(resolve, 0));
@@ -22,8 +28,29 @@ scope.onmessage = async (event: MessageEvent<EngineRequest>) => {
       cancelled.add(msg.id);
       return;
     }
+    if (msg.type === 'warm') {
+      warmEngine();
+      reply({ type: 'warm', id: msg.id });
+      return;
+    }
     if (msg.type === 'evaluate') {
-      reply({ type: 'evaluate', id: msg.id, outcome: evaluateOutcome(msg.design) });
+      const outcome = evaluateOutcome(msg.design, { validated: msg.validated });
+      if (!outcome.ok || !msg.parts) {
+        reply({ type: 'evaluate', id: msg.id, outcome });
+        return;
+      }
+      last = { id: msg.id, result: outcome.result };
+      const { light, packed } = packResult(outcome.result, msg.parts);
+      reply({ type: 'evaluate', id: msg.id, outcome: { ok: true, result: light }, packed }, [packed.values.buffer]);
+      return;
+    }
+    if (msg.type === 'parts') {
+      if (last?.id !== msg.evaluationId) {
+        reply({ type: 'parts', id: msg.id, packed: null });
+        return;
+      }
+      const { packed } = packResult(last.result, msg.parts);
+      reply({ type: 'parts', id: msg.id, packed }, [packed.values.buffer]);
       return;
     }
     if (msg.type === 'compare') {

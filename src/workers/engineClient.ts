@@ -8,16 +8,37 @@ import {
   type SweepSpec,
 } from './engineTasks';
 import type { EngineRequest, EngineResponse } from './engineProtocol';
+import { RESULT_PARTS, unpackResult, type PackedParts, type ResultPart } from './resultParts';
+import { warmEngine } from './engineTasks';
+import type { DesignResult } from '@/engine';
 
 /** Progress callback of a sweep. */
 export type SweepProgress = (done: number, total: number, point: SweepPoint) => void;
+
+/** Options of {@link EngineRunner.evaluate}. */
+export interface EvaluateOptions {
+  /** The design already passed the shared schema: the engine runs on it without parsing it again. */
+  validated?: boolean;
+  /** Large result parts wanted now (the visible tab's); absent = all of them. */
+  parts?: ResultPart[];
+}
+
+/** An evaluation's outcome; a result may lack some large parts (`missing`), fetched later with completeParts. */
+export type Evaluation = Outcome & { missing?: ResultPart[] };
 
 /** Runs engine work in the worker, or on the main thread where workers do not exist. */
 export interface EngineRunner {
   /** True when the work runs in a Web Worker. */
   readonly usesWorker: boolean;
   /** Evaluates one design. */
-  evaluate(design: Record<string, unknown>): Promise<Outcome>;
+  evaluate(design: Record<string, unknown>, options?: EvaluateOptions): Promise<Evaluation>;
+  /**
+   * The same result with the given large parts filled in, from the worker's copy of the last evaluation.
+   * @returns the completed result, or null when a newer evaluation replaced it (evaluate again)
+   */
+  completeParts?(result: DesignResult, parts: ResultPart[]): Promise<DesignResult | null>;
+  /** Loads and compiles the engine ahead of the first evaluation. */
+  warm?(): Promise<void>;
   /** Evaluates the design under every mechanism. */
   compare(design: Record<string, unknown>): Promise<CompareColumn[]>;
   /** Evaluates the design at each value of one input, reporting progress; rejects with AbortError when aborted. */
@@ -38,9 +59,16 @@ const nextTurn = (): Promise<void> => new Promise((resolve) => setTimeout(resolv
 function inlineRunner(): EngineRunner {
   return {
     usesWorker: false,
-    async evaluate(design) {
+    async evaluate(design, options) {
       await nextTurn();
-      return evaluateOutcome(design);
+      return evaluateOutcome(design, { validated: options?.validated });
+    },
+    async completeParts(result) {
+      return result; // main-thread results are always whole
+    },
+    async warm() {
+      await nextTurn();
+      warmEngine(1);
     },
     async compare(design) {
       await nextTurn();
@@ -66,10 +94,23 @@ function workerRunner(worker: Worker): EngineRunner {
   let nextId = 1;
   let fallback: EngineRunner | null = null;
 
+  /** What each worker result still lacks, and which evaluation it came from. */
+  const partsOf = new WeakMap<DesignResult, { evaluationId: number; missing: ResultPart[] }>();
+
+  function withParts(light: DesignResult, packed: PackedParts | undefined, evaluationId: number): Evaluation {
+    if (!packed) return { ok: true, result: light, missing: [] };
+    const result = unpackResult(light, packed);
+    const missing = RESULT_PARTS.filter((p) => !packed.parts.includes(p));
+    partsOf.set(result, { evaluationId, missing });
+    return { ok: true, result, missing };
+  }
+
   function replay(p: Pending): void {
     const inline = fallback!;
     const r = p.request;
-    if (r.type === 'evaluate') inline.evaluate(r.design).then(p.resolve as never, p.reject);
+    if (r.type === 'evaluate') inline.evaluate(r.design, { validated: r.validated }).then(p.resolve as never, p.reject);
+    else if (r.type === 'parts') p.resolve(null as never);
+    else if (r.type === 'warm') p.resolve(undefined as never);
     else if (r.type === 'compare') inline.compare(r.design).then(p.resolve as never, p.reject);
     else if (r.type === 'sweep') inline.sweep(r.design, r.spec, p.onProgress).then(p.resolve as never, p.reject);
   }
@@ -84,7 +125,12 @@ function workerRunner(worker: Worker): EngineRunner {
         return;
       case 'evaluate':
         pending.delete(msg.id);
-        (p.resolve as (v: Outcome) => void)(msg.outcome);
+        (p.resolve as (v: Evaluation) => void)(msg.outcome.ok ? withParts(msg.outcome.result, msg.packed, msg.id) : msg.outcome);
+        return;
+      case 'parts':
+      case 'warm':
+        pending.delete(msg.id);
+        (p.resolve as (v: unknown) => void)(msg.type === 'parts' ? msg.packed : undefined);
         return;
       case 'compare':
         pending.delete(msg.id);
@@ -128,9 +174,25 @@ function workerRunner(worker: Worker): EngineRunner {
     get usesWorker() {
       return fallback === null;
     },
-    evaluate(design) {
-      if (fallback) return fallback.evaluate(design);
-      return send<Outcome>({ type: 'evaluate', id: nextId++, design });
+    evaluate(design, options) {
+      if (fallback) return fallback.evaluate(design, options);
+      return send<Evaluation>({ type: 'evaluate', id: nextId++, design, validated: options?.validated, parts: options?.parts });
+    },
+    async completeParts(result, parts) {
+      const info = partsOf.get(result);
+      if (!info) return result;
+      const need = info.missing.filter((p) => parts.includes(p));
+      if (!need.length) return result;
+      if (fallback) return null;
+      const packed = await send<PackedParts | null>({ type: 'parts', id: nextId++, evaluationId: info.evaluationId, parts: need });
+      if (!packed) return null;
+      const merged = unpackResult(result, packed);
+      partsOf.set(merged, { evaluationId: info.evaluationId, missing: info.missing.filter((p) => !need.includes(p)) });
+      return merged;
+    },
+    warm() {
+      if (fallback) return fallback.warm!();
+      return send<void>({ type: 'warm', id: nextId++ });
     },
     compare(design) {
       if (fallback) return fallback.compare(design);

@@ -1,4 +1,13 @@
-import { MECHANISMS, evaluateDesign, safeParseDesign, type DesignResult, type InputIssue, type Mechanism } from '@/engine';
+import {
+  MECHANISMS,
+  defaultDesign,
+  evaluateValidDesign,
+  safeParseDesign,
+  type DesignInput,
+  type DesignResult,
+  type InputIssue,
+  type Mechanism,
+} from '@/engine';
 
 /**
  * The engine work the Design desk asks for — one evaluation, the same inputs under every mechanism, and a
@@ -39,14 +48,21 @@ export interface SweepPoint {
 }
 
 /**
- * Evaluates a design without throwing for bad input.
+ * Evaluates a design without throwing for bad input, validating it exactly once.
  * @param design - a design document
+ * @param options - `validated`: the design already passed the shared schema (the Design desk validates every
+ *   change on the main thread for its field messages), so the engine runs on it without a second parse
  */
-export function evaluateOutcome(design: unknown): Outcome {
-  const parsed = safeParseDesign(design);
-  if (!parsed.ok) return { ok: false, issues: parsed.issues };
+export function evaluateOutcome(design: unknown, options: { validated?: boolean } = {}): Outcome {
+  let valid: DesignInput;
+  if (options.validated) valid = design as DesignInput;
+  else {
+    const parsed = safeParseDesign(design);
+    if (!parsed.ok) return { ok: false, issues: parsed.issues };
+    valid = parsed.value;
+  }
   try {
-    return { ok: true, result: evaluateDesign(parsed.value) };
+    return { ok: true, result: evaluateValidDesign(valid) };
   } catch (err) {
     const issues = (err as { issues?: InputIssue[] }).issues;
     if (Array.isArray(issues)) return { ok: false, issues };
@@ -121,4 +137,15 @@ export function sweepPoint(design: Record<string, unknown>, path: string, value:
     failCount: r.checks.filter((c) => c.severity === 'fail').length,
     problem: null,
   };
+}
+
+/**
+ * Runs the engine a few times on a template design, so that its code is loaded and compiled before the first
+ * real edit (the first evaluation of a cold worker takes 50–180 ms, a warm one a few).
+ * @param rounds - evaluations to run
+ */
+export function warmEngine(rounds = 4): void {
+  const parsed = safeParseDesign(defaultDesign('corexy'));
+  if (!parsed.ok) return;
+  for (let i = 0; i < rounds; i++) evaluateValidDesign(parsed.value);
 }

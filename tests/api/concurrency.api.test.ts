@@ -4,14 +4,22 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { createApp } from '../../server/app';
 import { closeSequelize, getSequelize, TransactionMisuseError } from '../../server/db';
 import { AuditLog, Design, Revision, Sheet, User } from '../../server/models';
+import { closePools, warmPools } from '../../server/workers/pool';
 import { createDesign, createUser, signIn, type Agent } from '../helpers/factories';
 
-// This file is about locks and pooled connections, not about how long a PDF takes: the renderer answers with a tiny
-// fixed document so that the 2 s below measures waiting, not rendering (sheets.api.test.ts renders real sheets; the
+// This file is about locks and pooled connections, not about how long a PDF takes: the renderer (the PDF worker
+// pool, which a module mock of the renderer itself cannot reach inside its threads) answers with a tiny fixed
+// document so that the 2 s below measures waiting, not rendering (sheets.api.test.ts renders real sheets; the
 // rendering time has its benchmark and worker pool, issue 11).
-vi.mock('../../server/sheet/renderSheet', () => ({
-  renderSheet: async () => Buffer.from('%PDF-1.4\n% concurrency test sheet\n%%EOF\n'),
-}));
+vi.mock('../../server/workers/pool', async (importOriginal) => {
+  const { createHash } = await import('node:crypto');
+  const pdf = Buffer.from('%PDF-1.4\n% concurrency test sheet\n%%EOF\n');
+  const sha256 = createHash('sha256').update(pdf).digest('hex');
+  return {
+    ...(await importOriginal<typeof import('../../server/workers/pool')>()),
+    renderSheetsInPool: async () => ({ a4: pdf, a4Sha256: sha256, letter: pdf, letterSha256: sha256 }),
+  };
+});
 
 /** Every answer must come within this; a stalled pool used to answer 503 after 20 s (issue 12, item 2). */
 const ANSWER_TIMEOUT_MS = 2000;
@@ -26,6 +34,8 @@ let reviewer: Agent;
 let anonymous: ReturnType<typeof request.agent>;
 
 beforeAll(async () => {
+  // As startServer does: the engine thread that freezes a submitted revision is loaded before the first request.
+  await warmPools();
   server = app.listen(0, '127.0.0.1');
   const designer = await createUser({ roles: ['designer'] });
   const checker = await createUser({ roles: ['reviewer'] });
@@ -35,6 +45,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await new Promise((resolve) => server.close(resolve));
+  await closePools();
   await closeSequelize();
 });
 

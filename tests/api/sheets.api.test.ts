@@ -9,6 +9,7 @@ import { createApp } from '../../server/app';
 import { closeSequelize, getSequelize } from '../../server/db';
 import { Design, Sheet, type Role } from '../../server/models';
 import type { PublicUser } from '../../server/services/users.service';
+import { getContentStore } from '../../server/storage';
 import { createDesign, signedInAs, type Agent } from '../helpers/factories';
 
 // Each approval renders the sheet in A4 and US Letter (a few seconds each on a busy machine).
@@ -97,7 +98,8 @@ describe('GET /api/sheets/:id/pdf', () => {
     expect(res.headers['x-content-sha256']).toBe(first.sheet.sha256);
     expect(res.headers.etag).toBe(`"${first.sheet.sha256}"`);
     expect(Number(res.headers['content-length'])).toBe(bytes.length);
-    expect(bytes.equals(stored!.a4Pdf)).toBe(true);
+    expect(stored!.a4Pdf).toBeNull(); // the bytes live in the content store, under their SHA-256
+    expect(bytes.equals(await getContentStore().get(stored!.a4Sha256, { verify: true }))).toBe(true);
   });
 
   it('when the text is read back, then it names the frozen design, revision and approval', () => {
@@ -245,7 +247,8 @@ describe('immutability of sheets', () => {
       const after = await Sheet.findByPk(first.sheet.id);
 
       expect([one.status, pdf.status]).toEqual([404, 404]);
-      expect(sha256(after!.a4Pdf)).toBe(first.sheet.sha256);
+      expect(after!.a4Sha256).toBe(first.sheet.sha256);
+      expect(sha256(await getContentStore().get(after!.a4Sha256))).toBe(first.sheet.sha256);
     },
   );
 

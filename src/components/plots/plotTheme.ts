@@ -25,8 +25,22 @@ function cssVar(name: string, fallback: string): string {
   return value || fallback;
 }
 
-/** Reads the current theme's plot colours. */
+let cached: { theme: string; colours: PlotColours } | null = null;
+
+/**
+ * Reads the current theme's plot colours. Kept per theme: reading CSS variables forces a style recalculation,
+ * and every plot asks for its colours again on each new result while someone types.
+ */
 export function plotColours(): PlotColours {
+  const theme = typeof document === 'undefined' ? '' : document.documentElement.className;
+  if (cached && cached.theme === theme) return cached.colours;
+  const colours = readColours();
+  // Without a document (tests) nothing is read, so nothing needs keeping.
+  if (typeof document !== 'undefined' && typeof getComputedStyle === 'function') cached = { theme, colours };
+  return colours;
+}
+
+function readColours(): PlotColours {
   return {
     series: OKABE_ITO.map((c, i) => cssVar(`--gw-plot-${i + 1}`, c)),
     text: cssVar('--gw-text', '#1d2624'),

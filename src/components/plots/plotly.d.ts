@@ -1,4 +1,7 @@
-// plotly.js-dist-min ships no types; this declares the small part of its API the plot components use.
+// plotly.js ships no types for its source modules. This declares the small part of its API the plot components
+// use, under the module name the plot components import their types from ('plotly.js-dist-min': type-only
+// imports, erased at build; the code itself comes from plotlyBundle.ts). The source entries used by the bundle
+// are declared at the end.
 declare module 'plotly.js-dist-min' {
   /** A Plotly trace (scatter, scatterpolar, heatmap …); kept open because traces have hundreds of options. */
   export type PlotTrace = Record<string, unknown>;
@@ -24,4 +27,21 @@ declare module 'plotly.js-dist-min' {
     Plots: typeof Plots;
   };
   export default Plotly;
+}
+
+declare module 'plotly.js/lib/core' {
+  const Plotly: unknown;
+  export default Plotly;
+}
+declare module 'plotly.js/lib/scatter' {
+  const trace: unknown;
+  export default trace;
+}
+declare module 'plotly.js/lib/scatterpolar' {
+  const trace: unknown;
+  export default trace;
+}
+declare module 'plotly.js/lib/heatmap' {
+  const trace: unknown;
+  export default trace;
 }

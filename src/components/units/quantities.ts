@@ -1,9 +1,11 @@
-import { create, createUnitDependencies, multiplyDependencies, unitDependencies, type MathJsInstance } from 'mathjs';
+import { UNIT_TABLE } from './unitTable';
 
 /**
  * Physical quantities the UI shows, with the unit each one is displayed in per unit system, and the
  * conversions between a stored value (SI or mm, as the design document and the engine keep it) and the
- * displayed one. Conversions go through mathjs units so every factor comes from one library.
+ * displayed one. Every factor comes from one library, mathjs, through a table computed with it
+ * (unitTable.ts, written by scripts/genUnitTable.ts and checked against mathjs by a test), so that pages do not
+ * download mathjs itself to convert millimetres to inches.
  */
 
 /** The two unit systems a person can pick. */
@@ -61,26 +63,6 @@ export const QUANTITIES = {
 /** Key of a quantity in {@link QUANTITIES}. */
 export type QuantityKey = keyof typeof QUANTITIES;
 
-/** The avoirdupois ounce in kg (exact: lb/16, lb = 0.453 592 37 kg; NIST SP 811 footnote 22). */
-const OUNCE_KG = 0.028349523125;
-/** Standard acceleration of gravity in m/s² (exact; NIST SP 811). */
-const STANDARD_GRAVITY_M_PER_S2 = 9.80665;
-
-let mathInstance: MathJsInstance | null = null;
-
-/**
- * A private mathjs instance (the global one stays untouched) with the ounce-force, which mathjs 15 lacks,
- * created from its definition: 1 ozf = 1 oz × g_n. 1 ozf·in is then 7.061 552e-3 N·m (NIST SP 811 B.8).
- */
-function math(): MathJsInstance {
-  if (!mathInstance) {
-    const m = create({ unitDependencies, createUnitDependencies, multiplyDependencies });
-    m.createUnit('ozf', { definition: m.multiply(m.unit(OUNCE_KG, 'kg'), m.unit(STANDARD_GRAVITY_M_PER_S2, 'm/s^2')) as never });
-    mathInstance = m;
-  }
-  return mathInstance;
-}
-
 const factorCache = new Map<string, number>();
 
 /**
@@ -96,13 +78,17 @@ export function conversionFactor(from: string, to: string): number {
   const cached = factorCache.get(key);
   if (cached !== undefined) return cached;
   if (!from || !to) throw new Error(`[conversionFactor] cannot convert "${from}" to "${to}"`);
-  const factor = math().unit(1, from).toNumber(to);
+  const a = UNIT_TABLE[from];
+  const b = UNIT_TABLE[to];
+  if (!a || !b) throw new Error(`[conversionFactor] unknown unit "${a ? to : from}": add it to scripts/genUnitTable.ts and run it`);
+  if (a.dim !== b.dim) throw new Error(`[conversionFactor] cannot convert "${from}" to "${to}": they measure different things`);
+  const factor = a.si / b.si;
   factorCache.set(key, factor);
   return factor;
 }
 
 /**
- * Converts a value between two units with mathjs.
+ * Converts a value between two units (factors computed with mathjs, see unitTable.ts).
  * @param value - the amount in `from`
  * @param from - mathjs unit string, e.g. "mm"
  * @param to - mathjs unit string, e.g. "in"

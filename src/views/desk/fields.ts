@@ -1,5 +1,6 @@
 import { MICROSTEP_OPTIONS, type Mechanism } from '@/engine';
 import type { QuantityKey } from '@/components/units/quantities';
+import { MECHANISM_LABELS, MECHANISM_SHORT } from './mechanismNames';
 
 /** One option of a select field. */
 export interface FieldOption {
@@ -49,15 +50,7 @@ export interface FieldGroup {
   fields: FieldDef[];
 }
 
-/** Mechanism labels used across the Design desk and the designs list. */
-export const MECHANISM_LABELS: Record<Mechanism, string> = {
-  corexy: 'CoreXY — crossed belts',
-  hbot: 'H-bot — one H-shaped belt',
-  cartesian: 'Cartesian — one motor per axis',
-};
-
-/** Short mechanism names for tables and tags. */
-export const MECHANISM_SHORT: Record<Mechanism, string> = { corexy: 'CoreXY', hbot: 'H-bot', cartesian: 'Cartesian' };
+export { MECHANISM_LABELS, MECHANISM_SHORT };
 
 const SIGN_OPTIONS: FieldOption[] = [
   { value: 1, label: '+1 as drawn' },

@@ -5,6 +5,8 @@ import { isApiError } from '@/api/http';
 import { safeParseDesign, type DesignInputRaw, type Mechanism } from '@/engine';
 import { useAutosave } from '@/composables/useAutosave';
 import { useEngine } from '@/composables/useEngine';
+import { getEngineRunner } from '@/workers/engineClient';
+import type { ResultPart } from '@/workers/resultParts';
 import { useAuthStore } from '@/stores/auth';
 import { errorMessage } from '@/utils/message';
 import { getAt, setAt } from './paths';
@@ -52,7 +54,13 @@ export function useDesignDesk(id: Ref<number>) {
     return `This design belongs to ${d.owner?.name ?? 'another designer'}; only the owner or an admin may change it.`;
   });
 
-  const engine = useEngine(() => model.value, { delayMs: 120 });
+  /** Large result parts the visible result tab draws (the view sets it); others are fetched when a tab needs them. */
+  const shownParts = ref<ResultPart[]>([]);
+  // Start the engine worker and compile the engine while the design is still loading, so the first edit is fast.
+  void getEngineRunner()
+    .warm?.()
+    .catch(() => undefined);
+  const engine = useEngine(() => model.value, { parts: () => shownParts.value });
 
   function adopt(loaded: Design): void {
     design.value = loaded;
@@ -141,6 +149,7 @@ export function useDesignDesk(id: Ref<number>) {
     isOwner,
     readOnlyReason,
     engine,
+    shownParts,
     autosave,
     load,
     get,

@@ -74,4 +74,18 @@ describe('ensureEnvFile', () => {
     expect(said[1]).toBe('DB_PASSWORD in .env is still a placeholder; set it to the password of db.example.test.');
     expect(read().DB_PASSWORD).toBe('change-me-dev-password');
   });
+
+  it('when DB_NODES names a cluster on loopback, then its passwords are not invented either (the cluster has its own accounts)', () => {
+    // Arrange
+    fs.writeFileSync(
+      envFile(),
+      'DB_HOST=127.0.0.1\nDB_NODES=127.0.0.1:4621,127.0.0.1:4622\nDB_PASSWORD=change-me-dev-password\nJWT_SECRET=Xq3vR9tLm2Wp7sKd4Hf8Jc1Bn6Yg0Za5Ue2Io9Pr3Tw\n',
+    );
+    // Act
+    const said = ensureEnvFile({ env: envFile(), example: EXAMPLE });
+    // Assert
+    expect(said).toEqual(['DB_PASSWORD in .env is still a placeholder; set it to the password of 127.0.0.1:4621,127.0.0.1:4622.']);
+    expect(read().DB_PASSWORD).toBe('change-me-dev-password');
+    expect(read().DB_OWNER_PASSWORD).toBeUndefined();
+  });
 });

@@ -1,0 +1,237 @@
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+import { ROOT_DIR } from '../../server/paths';
+import { baselineCheckout, BENCH_DB, BENCH_PORTS, benchEnv, Client, startApp, type AppProcess } from './env';
+import { atLeast, atMost, info, median, percentile, readRecorded, say, setRecordedBaseline, sleep, type Figure } from './lib';
+
+/**
+ * Server part of `npm run bench`: this checkout and a baseline commit (see baselineRef) run side by side on the same bench database, and each is measured in turn, in alternating
+ * rounds, so both see the same machine:
+ * - /api/health latency idle, while 50 clients post /api/calc as fast as they can, and while design sheets render;
+ * - /api/calc throughput (full answers, the same request for both) and, for this checkout, with `sections`.
+ */
+
+/**
+ * The baseline commit: BENCH_BASELINE when set; else where this branch leaves main (so both run the same engine
+ * and only the server differs); once the branch is merged (that point is HEAD itself), the baseline recorded in
+ * results.json.
+ */
+export function baselineRef(): string {
+  if (process.env.BENCH_BASELINE) return process.env.BENCH_BASELINE;
+  const git = (...args: string[]) => spawnSync('git', args, { cwd: ROOT_DIR, encoding: 'utf8' }).stdout.trim();
+  const head = git('rev-parse', 'HEAD');
+  const base = git('merge-base', 'HEAD', 'main');
+  if (base && base !== head) return base;
+  const recorded = readRecorded()?.baseline;
+  if (recorded) return recorded;
+  throw new Error('no baseline: set BENCH_BASELINE to the commit to compare with');
+}
+const CLIENTS = Number(process.env.BENCH_CALC_CLIENTS ?? 50);
+const LOAD_SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 5);
+const ROUNDS = Number(process.env.BENCH_SERVER_ROUNDS ?? 3);
+const IDLE_PROBES = 200;
+const SHEETS = 2;
+
+const design = JSON.parse(fs.readFileSync(path.join(ROOT_DIR, 'reference/examples/corexy-dispensing-stage.json'), 'utf8')) as Record<
+  string,
+  unknown
+>;
+
+/** CPU time a process has used so far, all its threads, user + system [ms] (Linux /proc). */
+function cpuMs(pid: number | undefined): number {
+  try {
+    const fields = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+    return ((Number(fields[11]) + Number(fields[12])) * 1000) / 100; // utime, stime in clock ticks (USER_HZ = 100)
+  } catch {
+    return Number.NaN;
+  }
+}
+
+interface Sample {
+  /** Server CPU per completed /api/calc under load [ms]. */
+  cpuPerCalc: number[];
+  idle: number[];
+  underCalc: number[];
+  underSheets: number[];
+  calcPerS: number[];
+  calcErrors: number;
+  bytes: number;
+}
+
+async function healthProbes(client: Client, count: number): Promise<number[]> {
+  const out: number[] = [];
+  for (let i = 0; i < count; i++) {
+    const r = await client.request('GET', '/api/health');
+    if (r.status === 200) out.push(r.ms);
+  }
+  return out;
+}
+
+/** Probes /api/health every few ms until `until` resolves. */
+async function probeWhile<T>(client: Client, until: Promise<T>): Promise<{ latencies: number[]; value: T }> {
+  let done = false;
+  const latencies: number[] = [];
+  const finished = until.finally(() => (done = true));
+  while (!done) {
+    const r = await client.request('GET', '/api/health').catch(() => null);
+    if (r?.status === 200) latencies.push(r.ms);
+    await sleep(5);
+  }
+  return { latencies, value: await finished };
+}
+
+/** `clients` loops posting `body` to /api/calc for `seconds`. */
+async function calcLoad(
+  client: Client,
+  body: unknown,
+  clients: number,
+  seconds: number,
+): Promise<{ done: number; errors: number; bytes: number }> {
+  const end = performance.now() + seconds * 1000;
+  let done = 0;
+  let errors = 0;
+  let bytes = 0;
+  await Promise.all(
+    Array.from({ length: clients }, async () => {
+      while (performance.now() < end) {
+        const r = await client.request('POST', '/api/calc', body).catch((err: Error) => ({ status: 0, body: err.message }));
+        if (r.status === 200) {
+          done++;
+          bytes = r.body.length;
+        } else errors++;
+      }
+    }),
+  );
+  return { done: done, errors, bytes };
+}
+
+/** Creates, submits and approves `count` designs (each approval renders two PDF sheets). */
+async function approveSheets(designer: Client, reviewer: Client, count: number, tag: string): Promise<number> {
+  let approved = 0;
+  for (let i = 0; i < count; i++) {
+    const created = await designer.request('POST', '/api/designs', { template: 'corexy', name: `Bench sheet ${tag} ${Date.now()} ${i}` });
+    const id = (JSON.parse(created.body) as { id: number }).id;
+    const submitted = await designer.request('POST', `/api/designs/${id}/submit`, {});
+    const revision = JSON.parse(submitted.body) as { id: number };
+    const res = await reviewer.request('POST', `/api/revisions/${revision.id}/approve`, { comment: 'bench' });
+    if (res.status === 200) approved++;
+    else throw new Error(`approval failed (${res.status}): ${res.body.slice(0, 200)}`);
+  }
+  return approved;
+}
+
+async function measure(app: AppProcess, sample: Sample, withSheets: boolean): Promise<void> {
+  const probe = new Client(app.url);
+  const load = new Client(app.url);
+  await load.signIn('designer@example.test');
+  sample.idle.push(...(await healthProbes(probe, IDLE_PROBES)));
+  const cpuBefore = cpuMs(app.child.pid);
+  const { latencies, value } = await probeWhile(probe, calcLoad(load, { design }, CLIENTS, LOAD_SECONDS));
+  sample.cpuPerCalc.push((cpuMs(app.child.pid) - cpuBefore) / Math.max(1, value.done));
+  sample.underCalc.push(...latencies);
+  sample.calcPerS.push(value.done / LOAD_SECONDS);
+  sample.calcErrors += value.errors;
+  sample.bytes = value.bytes;
+  if (withSheets) {
+    const reviewer = new Client(app.url);
+    await reviewer.signIn('reviewer@example.test');
+    const sheets = await probeWhile(probe, approveSheets(load, reviewer, SHEETS, app.label));
+    sample.underSheets.push(...sheets.latencies);
+    reviewer.close();
+  }
+  probe.close();
+  load.close();
+}
+
+export async function benchServer(): Promise<Figure[]> {
+  await benchEnv();
+  const ref = baselineRef();
+  const baseline = baselineCheckout(ref);
+  setRecordedBaseline(baseline.commit);
+  say(`server: baseline ${ref} (${baseline.commit.slice(0, 10)}) checked out in ${baseline.dir}`);
+  const apps: AppProcess[] = [];
+  try {
+    const current = await startApp({ cwd: ROOT_DIR, port: BENCH_PORTS.app, database: BENCH_DB, label: 'this checkout' });
+    apps.push(current);
+    const before = await startApp({ cwd: baseline.dir, port: BENCH_PORTS.app + 1, database: BENCH_DB, label: 'baseline' });
+    apps.push(before);
+    const samples = new Map<AppProcess, Sample>(
+      apps.map((a) => [a, { cpuPerCalc: [], idle: [], underCalc: [], underSheets: [], calcPerS: [], calcErrors: 0, bytes: 0 }]),
+    );
+    for (let round = 0; round < ROUNDS; round++) {
+      const order = round % 2 === 0 ? [current, before] : [before, current];
+      for (const app of order) {
+        say(`server: round ${round + 1}/${ROUNDS}, ${app.label}`);
+        await measure(app, samples.get(app)!, round === ROUNDS - 1);
+      }
+    }
+    // The leaner answer the Design desk's server calls can ask for.
+    const lean = new Client(current.url);
+    await lean.signIn('designer@example.test');
+    const leanRun = await calcLoad(lean, { design, sections: ['drive', 'envelope', 'checks'] }, CLIENTS, LOAD_SECONDS);
+    lean.close();
+
+    const now = samples.get(current)!;
+    const then = samples.get(before)!;
+    const p99 = (xs: number[]) => percentile(xs, 99);
+    const idleNow = p99(now.idle);
+    const idleThen = p99(then.idle);
+    const tputNow = median(now.calcPerS);
+    const tputThen = median(then.calcPerS);
+    return [
+      info(
+        'server.health.idle.p99',
+        '/api/health p99, idle',
+        idleNow,
+        'ms',
+        'lower',
+        `baseline ${idleThen.toFixed(1)} ms; medians ${median(now.idle).toFixed(1)} / ${median(then.idle).toFixed(1)} ms`,
+      ),
+      atMost(
+        'server.health.calc.ratio',
+        `/api/health p99 under ${CLIENTS} concurrent /api/calc ÷ idle`,
+        p99(now.underCalc) / idleNow,
+        '×',
+        3,
+        `${p99(now.underCalc).toFixed(1)} ms under load (${now.underCalc.length} probes); baseline ${p99(then.underCalc).toFixed(1)} ms = ${(p99(then.underCalc) / idleThen).toFixed(1)}× its idle`,
+      ),
+      atMost(
+        'server.health.sheets.ratio',
+        '/api/health p99 while sheets render ÷ idle',
+        p99(now.underSheets) / idleNow,
+        '×',
+        3,
+        `${p99(now.underSheets).toFixed(1)} ms during ${SHEETS} approvals; baseline ${p99(then.underSheets).toFixed(1)} ms = ${(p99(then.underSheets) / idleThen).toFixed(1)}× its idle`,
+      ),
+      atLeast(
+        'server.calc.throughput.ratio',
+        '/api/calc throughput ÷ baseline (same run)',
+        tputNow / tputThen,
+        '×',
+        2,
+        `${tputNow.toFixed(0)} vs ${tputThen.toFixed(0)} req/s, full answers (${(now.bytes / 1000).toFixed(0)} kB vs ${(then.bytes / 1000).toFixed(0)} kB), ${CLIENTS} clients; errors ${now.calcErrors}/${then.calcErrors}`,
+      ),
+      info('server.calc.throughput', '/api/calc throughput, full answer', tputNow, 'req/s', 'higher'),
+      info(
+        'server.calc.cpu.ratio',
+        'server CPU per /api/calc, baseline ÷ this (all threads)',
+        median(then.cpuPerCalc) / median(now.cpuPerCalc),
+        '×',
+        'higher',
+        `${median(now.cpuPerCalc).toFixed(2)} ms vs ${median(then.cpuPerCalc).toFixed(2)} ms of CPU per request (user + system, /proc)`,
+      ),
+      info(
+        'server.calc.sections.throughput',
+        '/api/calc throughput, sections drive+envelope+checks',
+        leanRun.done / LOAD_SECONDS,
+        'req/s',
+        'higher',
+        `${(leanRun.bytes / 1000).toFixed(1)} kB per answer`,
+      ),
+    ];
+  } finally {
+    for (const app of apps) await app.stop();
+    baseline.remove();
+  }
+}
