@@ -1,3 +1,4 @@
+import type { ZodError } from 'zod';
 /** One entry of a validation error: which field (dotted path) and what is wrong with it. */
 export type ErrorDetail = { path: string; message: string };
 
@@ -56,4 +57,19 @@ export function notFound(what = 'Resource'): AppError {
 /** 409: the request conflicts with the current state. */
 export function conflict(message: string, code = 'conflict'): AppError {
   return new AppError(code, message, 409);
+}
+
+/** Turns zod issues into `[{ path: 'field.sub', message }]`. An issue on the whole value gets `rootName`. */
+export function zodDetails(error: ZodError, rootName = 'body'): ErrorDetail[] {
+  return error.issues.flatMap((issue): ErrorDetail[] => {
+    const prefix = issue.path.map(String).join('.');
+    // Name each unknown field rather than reporting "Unrecognized key" on the parent object.
+    if (issue.code === 'unrecognized_keys') {
+      return issue.keys.map((key) => ({ path: prefix ? `${prefix}.${key}` : key, message: 'is not a known field' }));
+    }
+    if (issue.code === 'invalid_type' && !prefix && issue.expected === 'object') {
+      return [{ path: rootName, message: rootName === 'body' ? 'must be a JSON object' : 'must be an object' }];
+    }
+    return [{ path: prefix || rootName, message: issue.message }];
+  });
 }

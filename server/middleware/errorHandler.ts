@@ -9,7 +9,7 @@ import {
 } from 'sequelize';
 import { AppError, type ErrorDetails } from '../errors';
 import { logger } from '../logger';
-import { zodDetails } from './validate';
+import { zodDetails } from '../errors';
 
 type ErrorBody = { error: { code: string; message: string; details?: ErrorDetails } };
 

@@ -1,7 +1,8 @@
-import type { Request, RequestHandler } from 'express';
+import type { Request } from 'express';
 import { unauthenticated } from '../errors';
 import { readSession, SESSION_COOKIE } from '../services/session.service';
 import type { PublicUser } from '../services/users.service';
+import { asRouteMiddleware } from './validate';
 
 /** The raw session token of a request (the session cookie), if any. */
 export function sessionToken(req: Request): string | undefined {
@@ -27,7 +28,17 @@ export async function authenticate(req: Request): Promise<PublicUser> {
  * Requires a signed-in, active user (401 otherwise) and puts it on `req.user`. Any account passes, also one without
  * a role: use it only for the account's own profile and sessions; every other route uses requireRole / requireMember.
  */
-export const requireAuth: RequestHandler = async function requireAuth(req, _res, next) {
+export const requireAuth = asRouteMiddleware(async function requireAuth(req, _res, next) {
   await authenticate(req);
   next();
-};
+});
+
+/**
+ * The signed-in user of a request that passed requireAuth, requireRole or requireMember: handlers read it here
+ * instead of asserting `req.user` is set.
+ * @throws AppError 401 `unauthenticated` when none is (a route wired without one of those guards)
+ */
+export function signedInUser(req: { user?: PublicUser }): PublicUser {
+  if (!req.user) throw unauthenticated();
+  return req.user;
+}

@@ -2,6 +2,7 @@ import type { RequestHandler } from 'express';
 import { forbidden } from '../errors';
 import type { Role } from '../models';
 import { authenticate } from './requireAuth';
+import { asRouteMiddleware, type RouteMiddleware } from './validate';
 
 /**
  * Allows the request when the signed-in user holds at least one of `roles`. Admins pass every role
@@ -9,7 +10,7 @@ import { authenticate } from './requireAuth';
  * Authenticates first when requireAuth has not run, so `requireRole(...)` alone is enough on a route:
  * 401 without a session, 403 without the role.
  */
-export function requireRole(...roles: Role[]): RequestHandler & { roles: readonly Role[] } {
+export function requireRole(...roles: Role[]): RouteMiddleware & { roles: readonly Role[] } {
   const allowed = new Set<Role>(roles);
   const requireRoleMiddleware: RequestHandler = async function requireRoleMiddleware(req, _res, next) {
     const user = await authenticate(req);
@@ -17,7 +18,7 @@ export function requireRole(...roles: Role[]): RequestHandler & { roles: readonl
     next();
   };
   // Readable on the middleware, so tests walking the real router know each route's rule.
-  return Object.assign(requireRoleMiddleware, { roles });
+  return Object.assign(asRouteMiddleware(requireRoleMiddleware), { roles });
 }
 
 /** Every role a member of the team can hold besides admin (who passes every check anyway). */

@@ -1,6 +1,10 @@
+import { asRouteMiddleware, type RouteMiddleware } from './validate';
 import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { AppError } from '../errors';
+import type { UploadedFile } from '../uploads/uploadedFile';
+
+export type { UploadedFile };
 
 /** Options of {@link uploadMiddleware}. */
 export type UploadOptions = {
@@ -10,15 +14,6 @@ export type UploadOptions = {
   field?: string;
   /** Words for the file in messages ("recording", "torque table"…; default "file"). */
   what?: string;
-};
-
-/** The file a multipart request carried, as handed to services (no multer types below the route layer). */
-export type UploadedFile = {
-  /** The client's file name (never used as a path). */
-  originalName: string;
-  /** The Content-Type the client declared for the part. */
-  declaredMime: string;
-  bytes: Buffer;
 };
 
 /** Room for the other form fields and the multipart framing on top of the file itself [bytes]. */
@@ -47,7 +42,7 @@ function tooLarge(what: string, maxBytes: number): AppError {
  * 400 `invalid_upload` for a second file, a file in another field, or too many/too long text fields.
  * Put it after the role check, so nobody unauthorised gets to send megabytes.
  */
-export function uploadMiddleware(options: UploadOptions): RequestHandler {
+export function uploadMiddleware(options: UploadOptions): RouteMiddleware {
   const field = options.field ?? 'file';
   const what = options.what ?? 'file';
   const parse = multer({
@@ -63,7 +58,7 @@ export function uploadMiddleware(options: UploadOptions): RequestHandler {
     },
   }).single(field);
 
-  return function uploadFileMiddleware(req, res, next) {
+  const uploadFileMiddleware: RequestHandler = function uploadFileMiddleware(req, res, next) {
     if (!req.is('multipart/form-data')) {
       next();
       return;
@@ -127,6 +122,7 @@ export function uploadMiddleware(options: UploadOptions): RequestHandler {
       }
     });
   };
+  return asRouteMiddleware(uploadFileMiddleware);
 }
 
 /**

@@ -1,23 +1,42 @@
 import type { RequestHandler } from 'express';
-import type { z, ZodError } from 'zod';
-import { validationError, type ErrorDetail } from '../errors';
+import type { z } from 'zod';
+import { validationError, zodDetails, type ErrorDetail } from '../errors';
 
-type Schemas = { body?: z.ZodType; query?: z.ZodType; params?: z.ZodType };
+export { zodDetails };
 
-/** Turns zod issues into `[{ path: 'field.sub', message }]`. An issue on the whole value gets `rootName`. */
-export function zodDetails(error: ZodError, rootName = 'body'): ErrorDetail[] {
-  return error.issues.flatMap((issue): ErrorDetail[] => {
-    const prefix = issue.path.map(String).join('.');
-    // Name each unknown field rather than reporting "Unrecognized key" on the parent object.
-    if (issue.code === 'unrecognized_keys') {
-      return issue.keys.map((key) => ({ path: prefix ? `${prefix}.${key}` : key, message: 'is not a known field' }));
-    }
-    if (issue.code === 'invalid_type' && !prefix && issue.expected === 'object') {
-      return [{ path: rootName, message: rootName === 'body' ? 'must be a JSON object' : 'must be an object' }];
-    }
-    return [{ path: prefix || rootName, message: issue.message }];
-  });
+/** The zod schemas of the request parts a route checks. */
+export type Schemas = { body?: z.ZodType; query?: z.ZodType; params?: z.ZodType };
+
+/**
+ * What a part holds after {@link validate}: the schema's output; a part it does not check is left open (`object`),
+ * so a second `validate` on the same route (params before an upload, body after it) does not fight the first.
+ */
+type PartOf<S extends Schemas, K extends keyof Schemas, Unchecked> = S[K] extends z.ZodType ? z.output<S[K]> : Unchecked;
+
+/**
+ * The type of a middleware that sits beside {@link validate} on a route (guards, uploads): it reads no typed part, so
+ * it accepts any request and lets Express infer the route's parts from `validate` alone.
+ */
+export type RouteMiddleware = RequestHandler<object, unknown, unknown, object>;
+
+/**
+ * Declares a middleware that never reads the typed parts as a {@link RouteMiddleware}. Express hands every handler of
+ * a route the same request object; only the static types differ, so this is a type-level statement, not a conversion.
+ */
+export function asRouteMiddleware<H extends RequestHandler>(handler: H): RouteMiddleware & Omit<H, never> {
+  return handler as unknown as RouteMiddleware & Omit<H, never>;
 }
+
+/**
+ * The handler type {@link validate} returns. Express infers the following handlers' `req.params`, `req.body` and
+ * `req.query` from it, so a route reads the parsed values with their types and without casts.
+ */
+export type ValidatedHandler<S extends Schemas> = RequestHandler<
+  PartOf<S, 'params', object>,
+  unknown,
+  PartOf<S, 'body', unknown>,
+  PartOf<S, 'query', object>
+>;
 
 /** What a request part's text field says when it holds a lone surrogate. */
 export const MALFORMED_TEXT_MESSAGE = 'contains an unpaired surrogate character (text that is not valid Unicode)';
@@ -76,7 +95,7 @@ export function parsePart(
  * The schemas stay readable on the middleware (`.schemas`), so tests can walk the real router and learn what each
  * route takes.
  */
-export function validate(schemas: Schemas): RequestHandler & { schemas: Schemas } {
+export function validate<const S extends Schemas>(schemas: S): ValidatedHandler<S> & { schemas: S } {
   const validateMiddleware: RequestHandler = function validateMiddleware(req, _res, next) {
     const details: ErrorDetail[] = [];
     const parsed: { body?: unknown; query?: unknown; params?: unknown } = {};
@@ -99,5 +118,6 @@ export function validate(schemas: Schemas): RequestHandler & { schemas: Schemas 
       Object.defineProperty(req, 'query', { value: parsed.query, writable: true, configurable: true, enumerable: true });
     next();
   };
-  return Object.assign(validateMiddleware, { schemas });
+  // The middleware replaced the parts with the parsed values above: this is the one place that knows it.
+  return Object.assign(validateMiddleware as unknown as ValidatedHandler<S>, { schemas });
 }

@@ -9,9 +9,9 @@ import {
 } from 'sequelize';
 import type { User } from './user.model';
 
-/** The states of a design (product.md "States of a design"). */
-export const DESIGN_STATUSES = ['draft', 'in_review', 'approved', 'returned'] as const;
-export type DesignStatus = (typeof DESIGN_STATUSES)[number];
+import { DESIGN_STATUSES, type DesignStatus } from '@/contracts';
+
+export { DESIGN_STATUSES, type DesignStatus };
 
 /** States in which the inputs may still change; a design in review or approved is frozen. */
 export const EDITABLE_DESIGN_STATUSES: readonly DesignStatus[] = ['draft', 'returned'];

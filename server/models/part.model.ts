@@ -9,9 +9,9 @@ import {
 } from 'sequelize';
 import type { User } from './user.model';
 
-/** The three shelves of the parts shelf. */
-export const PART_KINDS = ['belt', 'pulley', 'motor'] as const;
-export type PartKind = (typeof PART_KINDS)[number];
+import { PART_KINDS, type PartKind } from '@/contracts';
+
+export { PART_KINDS, type PartKind };
 
 /**
  * One entry of the shared parts shelf (a belt, pulley or motor). The kind-specific numbers live in

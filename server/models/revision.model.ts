@@ -10,9 +10,9 @@ import {
 import type { Design } from './design.model';
 import type { User } from './user.model';
 
-/** Review states of a revision. Only `in_review` may still change; the others are final. */
-export const REVISION_STATUSES = ['in_review', 'withdrawn', 'returned', 'approved'] as const;
-export type RevisionStatus = (typeof REVISION_STATUSES)[number];
+import { REVISION_STATUSES, type RevisionStatus } from '@/contracts';
+
+export { REVISION_STATUSES, type RevisionStatus };
 
 /** Figures of the frozen result that lists show without loading the whole result. */
 export type RevisionSummaryFigures = {

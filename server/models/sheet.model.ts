@@ -11,9 +11,9 @@ import type { Design } from './design.model';
 import type { Revision } from './revision.model';
 import type { User } from './user.model';
 
-/** Paper sizes every sheet is rendered in. */
-export const SHEET_PAPERS = ['A4', 'LETTER'] as const;
-export type SheetPaper = (typeof SHEET_PAPERS)[number];
+import { SHEET_PAPERS, type SheetPaper } from '@/contracts';
+
+export { SHEET_PAPERS, type SheetPaper };
 
 /**
  * The design sheet of an approved revision: the PDF in both paper sizes (bytes in the content store, named by their

@@ -1,8 +1,8 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** The four roles; a user may hold several (or none, until an admin grants one). */
-export const ROLES = ['admin', 'designer', 'reviewer', 'maker'] as const;
-export type Role = (typeof ROLES)[number];
+import { ROLES, type Role } from '@/contracts';
+
+export { ROLES, type Role };
 
 /** A person who signs in. `passwordHash` is null until an invited user sets a password. */
 export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {

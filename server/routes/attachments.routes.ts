@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { requireMember, requireRole } from '../middleware/requireRole';
 import { uploadedFile, uploadMiddleware } from '../middleware/upload';
 import { validate } from '../middleware/validate';
+import { signedInUser } from '../middleware/requireAuth';
 import { idParamsSchema, paginationSchema } from '../schemas/common.schema';
 import {
   assertMayAttach,
@@ -12,8 +13,6 @@ import {
   listDesignAttachments,
   uploadDesignAttachment,
 } from '../services/attachments.service';
-
-const idOf = (params: unknown) => (params as { id: number }).id;
 
 /** The multipart form of an attachment upload: the file and nothing else. */
 const uploadBodySchema = z.strictObject({}).optional();
@@ -34,13 +33,13 @@ export function createDesignAttachmentsRouter(): Router {
     requireRole('designer'),
     validate({ params: idParamsSchema }),
     async function checkDesign(req, _res, next) {
-      await assertMayAttach(req.user!, idOf(req.params));
+      await assertMayAttach(signedInUser(req), req.params.id);
       next();
     },
     uploadMiddleware({ maxBytes: ATTACHMENT_MAX_BYTES, what: 'attachment' }),
     validate({ body: uploadBodySchema }),
     async function create(req, res) {
-      res.status(201).json(await uploadDesignAttachment(req.user!, idOf(req.params), uploadedFile(req.file)));
+      res.status(201).json(await uploadDesignAttachment(signedInUser(req), req.params.id, uploadedFile(req.file)));
     },
   );
 
@@ -49,9 +48,7 @@ export function createDesignAttachmentsRouter(): Router {
     requireMember,
     validate({ params: idParamsSchema, query: listQuerySchema }),
     async function list(req, res) {
-      res
-        .status(200)
-        .json(await listDesignAttachments(req.user!, idOf(req.params), req.query as unknown as { page: number; pageSize: number }));
+      res.status(200).json(await listDesignAttachments(signedInUser(req), req.params.id, req.query));
     },
   );
 
@@ -67,7 +64,7 @@ export function createAttachmentsRouter(): Router {
   const router = Router();
 
   router.get('/:id', requireMember, validate({ params: idParamsSchema }), async function getById(req, res) {
-    const { bytes, mime, fileName, sha256 } = await getAttachmentDownload(idOf(req.params));
+    const { bytes, mime, fileName, sha256 } = await getAttachmentDownload(req.params.id);
     res.status(200);
     res.setHeader('Content-Type', mime === 'text/csv' ? 'text/csv; charset=utf-8' : mime);
     res.attachment(fileName);
@@ -81,7 +78,7 @@ export function createAttachmentsRouter(): Router {
   });
 
   router.delete('/:id', requireRole('designer'), validate({ params: idParamsSchema }), async function remove(req, res) {
-    await deleteAttachment(req.user!, idOf(req.params));
+    await deleteAttachment(signedInUser(req), req.params.id);
     res.status(204).end();
   });
 

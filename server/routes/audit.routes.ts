@@ -8,7 +8,7 @@ import { listAudit } from '../services/audit.service';
 export function createAuditRouter(): Router {
   const router = Router();
   router.get('/', requireRole('admin'), validate({ query: listAuditQuerySchema }), async function list(req, res) {
-    res.status(200).json(await listAudit(req.query as unknown as { page: number; pageSize: number; entity?: string; entityId?: number }));
+    res.status(200).json(await listAudit(req.query));
   });
   return router;
 }

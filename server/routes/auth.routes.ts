@@ -1,15 +1,21 @@
 import { Router, type Request } from 'express';
 import { validate } from '../middleware/validate';
-import { requireAuth, sessionToken } from '../middleware/requireAuth';
+import { requireAuth, sessionToken, signedInUser } from '../middleware/requireAuth';
 import { loginIpRateLimitMiddleware, loginRateLimitMiddleware, resetRateLimitMiddleware } from '../middleware/rateLimit';
 import { idParamsSchema } from '../schemas/common.schema';
-import { forgotSchema, loginSchema, resetSchema, type LoginInput, type ResetInput } from '../schemas/auth.schema';
+import { forgotSchema, loginSchema, resetSchema } from '../schemas/auth.schema';
 import { requestPasswordReset, resetPassword, signIn } from '../services/auth.service';
 import { endOwnSession, listSessions, SESSION_COOKIE, sessionCookieOptions, signOut, signOutEverywhere } from '../services/session.service';
 
 /** Where a sign-in comes from, for the sessions list. */
-const originOf = (req: Request) => ({ userAgent: req.get('user-agent'), ip: req.ip });
-const context = (req: Request) => ({ user: req.user!, sessionId: req.sessionId! });
+type AnyRequest = Request<object, unknown, unknown, object>;
+const originOf = (req: AnyRequest) => ({ userAgent: req.get('user-agent'), ip: req.ip });
+/** The signed-in user and the session the request came with (requireAuth sets both). */
+function context(req: AnyRequest) {
+  const user = signedInUser(req);
+  if (req.sessionId === undefined) throw new Error('requireAuth sets the session id with the user');
+  return { user, sessionId: req.sessionId };
+}
 
 /**
  * /api/auth: sign-in, sign-out, current user, the user's sessions, forgotten password, reset/invitation links.
@@ -30,7 +36,7 @@ export function createAuthRouter(): Router {
     loginIpRateLimitMiddleware(),
     loginRateLimitMiddleware(),
     async function signInHandler(req, res) {
-      const { email, password } = req.body as LoginInput;
+      const { email, password } = req.body;
       const { user, sessionToken: token } = await signIn(email, password, originOf(req));
       res.cookie(SESSION_COOKIE, token, sessionCookieOptions());
       res.status(200).json({ user });
@@ -52,7 +58,7 @@ export function createAuthRouter(): Router {
   });
 
   router.delete('/sessions/:id', requireAuth, validate({ params: idParamsSchema }), async function remove(req, res) {
-    const { wasCurrent } = await endOwnSession(context(req), (req.params as unknown as { id: number }).id);
+    const { wasCurrent } = await endOwnSession(context(req), req.params.id);
     if (wasCurrent) res.clearCookie(SESSION_COOKIE, sessionCookieOptions(true));
     res.status(204).end();
   });
@@ -64,12 +70,12 @@ export function createAuthRouter(): Router {
   });
 
   router.post('/forgot', validate({ body: forgotSchema }), ...resetRateLimitMiddleware(), async function forgot(req, res) {
-    await requestPasswordReset((req.body as { email: string }).email);
+    await requestPasswordReset(req.body.email);
     res.status(202).json({ message: 'If the address belongs to an account, a reset link is on its way.' });
   });
 
   router.post('/reset', validate({ body: resetSchema }), async function reset(req, res) {
-    const { token, password } = req.body as ResetInput;
+    const { token, password } = req.body;
     const { user, sessionToken: newToken } = await resetPassword(token, password, originOf(req));
     res.cookie(SESSION_COOKIE, newToken, sessionCookieOptions());
     res.status(200).json({ user });

@@ -1,11 +1,10 @@
 import { Router } from 'express';
 import { validate } from '../middleware/validate';
+import { signedInUser } from '../middleware/requireAuth';
 import { requireMember, requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
 import { emptyBodySchema, submitDesignSchema } from '../schemas/revisions.schema';
 import { listDesignRevisions, reopenDesign, submitDesign, withdrawDesign } from '../services/revisions.service';
-
-const idOf = (params: unknown) => (params as { id: number }).id;
 
 /**
  * The review flow's routes under /api/designs (mounted beside the designs router, which has none of these paths):
@@ -19,7 +18,7 @@ export function createDesignFlowRouter(): Router {
     requireRole('designer'),
     validate({ params: idParamsSchema, body: submitDesignSchema }),
     async function submit(req, res) {
-      res.status(201).json(await submitDesign(req.user!, idOf(req.params), req.body as { version?: number }));
+      res.status(201).json(await submitDesign(signedInUser(req), req.params.id, req.body));
     },
   );
 
@@ -28,7 +27,7 @@ export function createDesignFlowRouter(): Router {
     requireRole('designer'),
     validate({ params: idParamsSchema, body: emptyBodySchema }),
     async function withdraw(req, res) {
-      res.status(200).json(await withdrawDesign(req.user!, idOf(req.params)));
+      res.status(200).json(await withdrawDesign(signedInUser(req), req.params.id));
     },
   );
 
@@ -37,12 +36,12 @@ export function createDesignFlowRouter(): Router {
     requireRole('designer'),
     validate({ params: idParamsSchema, body: emptyBodySchema }),
     async function reopen(req, res) {
-      res.status(200).json(await reopenDesign(req.user!, idOf(req.params)));
+      res.status(200).json(await reopenDesign(signedInUser(req), req.params.id));
     },
   );
 
   router.get('/:id/revisions', requireMember, validate({ params: idParamsSchema }), async function listRevisions(req, res) {
-    res.status(200).json(await listDesignRevisions(req.user!, idOf(req.params)));
+    res.status(200).json(await listDesignRevisions(signedInUser(req), req.params.id));
   });
 
   return router;

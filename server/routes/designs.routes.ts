@@ -1,18 +1,10 @@
 import { Router } from 'express';
 import { validate } from '../middleware/validate';
+import { signedInUser } from '../middleware/requireAuth';
 import { requireMember, requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
-import {
-  createDesignSchema,
-  listDesignsQuerySchema,
-  updateDesignSchema,
-  type CreateDesignInput,
-  type ListDesignsQuery,
-  type UpdateDesignInput,
-} from '../schemas/designs.schema';
+import { createDesignSchema, listDesignsQuerySchema, updateDesignSchema } from '../schemas/designs.schema';
 import { createDesign, deleteDesign, exportDesign, getDesign, listDesigns, updateDesign } from '../services/designs.service';
-
-const idOf = (params: unknown) => (params as { id: number }).id;
 
 /**
  * /api/designs: the Designs table and the Design desk's load/save.
@@ -22,19 +14,19 @@ export function createDesignsRouter(): Router {
   const router = Router();
 
   router.get('/', requireMember, validate({ query: listDesignsQuerySchema }), async function list(req, res) {
-    res.status(200).json(await listDesigns(req.user!, req.query as unknown as ListDesignsQuery));
+    res.status(200).json(await listDesigns(signedInUser(req), req.query));
   });
 
   router.post('/', requireRole('designer'), validate({ body: createDesignSchema }), async function create(req, res) {
-    res.status(201).json(await createDesign(req.user!, req.body as CreateDesignInput));
+    res.status(201).json(await createDesign(signedInUser(req), req.body));
   });
 
   router.get('/:id', requireMember, validate({ params: idParamsSchema }), async function getById(req, res) {
-    res.status(200).json(await getDesign(req.user!, idOf(req.params)));
+    res.status(200).json(await getDesign(signedInUser(req), req.params.id));
   });
 
   router.get('/:id/export', requireMember, validate({ params: idParamsSchema }), async function exportDocument(req, res) {
-    const { fileName, document } = await exportDesign(req.user!, idOf(req.params));
+    const { fileName, document } = await exportDesign(signedInUser(req), req.params.id);
     res.attachment(fileName);
     res
       .type('application/json')
@@ -47,12 +39,12 @@ export function createDesignsRouter(): Router {
     requireRole('designer'),
     validate({ params: idParamsSchema, body: updateDesignSchema }),
     async function update(req, res) {
-      res.status(200).json(await updateDesign(req.user!, idOf(req.params), req.body as UpdateDesignInput));
+      res.status(200).json(await updateDesign(signedInUser(req), req.params.id, req.body));
     },
   );
 
   router.delete('/:id', requireRole('designer'), validate({ params: idParamsSchema }), async function remove(req, res) {
-    await deleteDesign(req.user!, idOf(req.params));
+    await deleteDesign(signedInUser(req), req.params.id);
     res.status(204).end();
   });
 

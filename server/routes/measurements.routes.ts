@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { requireRole } from '../middleware/requireRole';
 import { uploadedFile, uploadMiddleware } from '../middleware/upload';
 import { validate } from '../middleware/validate';
+import { signedInUser } from '../middleware/requireAuth';
 import { idSchema, paginationSchema } from '../schemas/common.schema';
 import {
   assertSheetTakesMeasurements,
@@ -12,7 +13,6 @@ import {
   recordMeasurement,
   RECORDING_MAX_BYTES,
   TYPED_FREQUENCY_RANGE_HZ,
-  type RecordMeasurementInput,
 } from '../services/measurements.service';
 
 /** Everyone with a role may read a sheet's measurements; makers (and admins) record them. */
@@ -58,14 +58,14 @@ export function createMeasurementsRouter(): Router {
     requireRole('maker'),
     validate({ params: sheetParamsSchema }),
     async function checkSheet(req, _res, next) {
-      await assertSheetTakesMeasurements((req.params as unknown as { id: number }).id);
+      await assertSheetTakesMeasurements(req.params.id);
       next();
     },
     uploadMiddleware({ maxBytes: RECORDING_MAX_BYTES, what: 'recording' }),
     validate({ body: recordBodySchema }),
     async function create(req, res) {
-      const { id } = req.params as unknown as { id: number };
-      res.status(201).json(await recordMeasurement(req.user!, id, req.body as RecordMeasurementInput, uploadedFile(req.file)));
+      const { id } = req.params;
+      res.status(201).json(await recordMeasurement(signedInUser(req), id, req.body, uploadedFile(req.file)));
     },
   );
 
@@ -74,8 +74,8 @@ export function createMeasurementsRouter(): Router {
     requireRole(...SHEET_READERS),
     validate({ params: sheetParamsSchema, query: listQuerySchema }),
     async function list(req, res) {
-      const { id } = req.params as unknown as { id: number };
-      res.status(200).json(await listMeasurements(req.user!, id, req.query as unknown as { page: number; pageSize: number }));
+      const { id } = req.params;
+      res.status(200).json(await listMeasurements(signedInUser(req), id, req.query));
     },
   );
 
@@ -84,7 +84,7 @@ export function createMeasurementsRouter(): Router {
     requireRole(...SHEET_READERS),
     validate({ params: measurementParamsSchema }),
     async function getById(req, res) {
-      const { id, measurementId } = req.params as unknown as { id: number; measurementId: number };
+      const { id, measurementId } = req.params;
       res.status(200).json(await getMeasurement(id, measurementId));
     },
   );
@@ -94,7 +94,7 @@ export function createMeasurementsRouter(): Router {
     requireRole(...SHEET_READERS),
     validate({ params: measurementParamsSchema }),
     async function download(req, res) {
-      const { id, measurementId } = req.params as unknown as { id: number; measurementId: number };
+      const { id, measurementId } = req.params;
       const { bytes, fileName, sha256 } = await getRecording(id, measurementId);
       res.status(200);
       res.setHeader('Content-Type', 'audio/wav');

@@ -8,7 +8,7 @@ import { listOutbox } from '../services/outbox.service';
 export function createOutboxRouter(): Router {
   const router = Router();
   router.get('/', requireRole('admin'), validate({ query: listOutboxQuerySchema }), async function list(req, res) {
-    res.status(200).json(await listOutbox(req.query as unknown as { page: number; pageSize: number; to?: string }));
+    res.status(200).json(await listOutbox(req.query));
   });
   return router;
 }

@@ -1,7 +1,8 @@
 import { Router } from 'express';
 import { validate } from '../middleware/validate';
+import { signedInUser } from '../middleware/requireAuth';
 import { requireMember, requireRole } from '../middleware/requireRole';
-import type { PartKind } from '../models';
+import { PART_KINDS } from '@/contracts';
 import { idParamsSchema } from '../schemas/common.schema';
 import {
   beltPartPatchSchema,
@@ -11,9 +12,6 @@ import {
   motorPartSchema,
   pulleyPartPatchSchema,
   pulleyPartSchema,
-  type ListPartsQuery,
-  type PartInput,
-  type PartPatch,
 } from '../schemas/parts.schema';
 import { createPart, getPart, listParts, PART_SHELVES, updatePart } from '../services/parts.service';
 
@@ -34,21 +32,21 @@ const SCHEMAS = {
 export function createPartsRouter(): Router {
   const router = Router();
 
-  for (const kind of Object.keys(PART_SHELVES) as PartKind[]) {
+  for (const kind of PART_KINDS) {
     const shelf = PART_SHELVES[kind];
     const schemas = SCHEMAS[kind];
 
     router.get(`/${shelf}`, requireMember, validate({ query: listPartsQuerySchema }), async function list(req, res) {
-      res.status(200).json(await listParts(kind, req.query as unknown as ListPartsQuery));
+      res.status(200).json(await listParts(kind, req.query));
     });
 
     router.post(`/${shelf}`, requireRole('admin'), validate({ body: schemas.create }), async function create(req, res) {
-      res.status(201).json(await createPart(req.user!, kind, req.body as PartInput));
+      res.status(201).json(await createPart(signedInUser(req), kind, req.body));
     });
 
     for (const segment of [shelf, kind]) {
       router.get(`/${segment}/:id`, requireMember, validate({ params: idParamsSchema }), async function getById(req, res) {
-        res.status(200).json(await getPart(kind, (req.params as unknown as { id: number }).id));
+        res.status(200).json(await getPart(kind, req.params.id));
       });
 
       router.patch(
@@ -56,7 +54,7 @@ export function createPartsRouter(): Router {
         requireRole('admin'),
         validate({ params: idParamsSchema, body: schemas.patch }),
         async function update(req, res) {
-          res.status(200).json(await updatePart(req.user!, kind, (req.params as unknown as { id: number }).id, req.body as PartPatch));
+          res.status(200).json(await updatePart(signedInUser(req), kind, req.params.id, req.body));
         },
       );
     }

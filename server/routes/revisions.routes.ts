@@ -1,18 +1,11 @@
 import { Router } from 'express';
 import { validate } from '../middleware/validate';
+import { signedInUser } from '../middleware/requireAuth';
 import { requireMember, requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
-import {
-  approveSchema,
-  createCommentSchema,
-  listRevisionsQuerySchema,
-  returnSchema,
-  type ListRevisionsQuery,
-} from '../schemas/revisions.schema';
+import { approveSchema, createCommentSchema, listRevisionsQuerySchema, returnSchema } from '../schemas/revisions.schema';
 import { getRevision, getRevisionDiff, listRevisions } from '../services/revisions.service';
 import { addComment, approveRevision, listComments, returnRevision } from '../services/reviews.service';
-
-const idOf = (params: unknown) => (params as { id: number }).id;
 
 /**
  * /api/revisions: frozen revisions, their diff and discussion, and the reviewer's decision.
@@ -22,19 +15,19 @@ export function createRevisionsRouter(): Router {
   const router = Router();
 
   router.get('/', requireRole('reviewer'), validate({ query: listRevisionsQuerySchema }), async function list(req, res) {
-    res.status(200).json(await listRevisions(req.user!, req.query as unknown as ListRevisionsQuery));
+    res.status(200).json(await listRevisions(signedInUser(req), req.query));
   });
 
   router.get('/:id', requireMember, validate({ params: idParamsSchema }), async function getById(req, res) {
-    res.status(200).json(await getRevision(req.user!, idOf(req.params)));
+    res.status(200).json(await getRevision(signedInUser(req), req.params.id));
   });
 
   router.get('/:id/diff', requireMember, validate({ params: idParamsSchema }), async function diff(req, res) {
-    res.status(200).json(await getRevisionDiff(req.user!, idOf(req.params)));
+    res.status(200).json(await getRevisionDiff(signedInUser(req), req.params.id));
   });
 
   router.get('/:id/comments', requireMember, validate({ params: idParamsSchema }), async function listThread(req, res) {
-    res.status(200).json(await listComments(req.user!, idOf(req.params)));
+    res.status(200).json(await listComments(signedInUser(req), req.params.id));
   });
 
   router.post(
@@ -42,7 +35,7 @@ export function createRevisionsRouter(): Router {
     requireMember,
     validate({ params: idParamsSchema, body: createCommentSchema }),
     async function comment(req, res) {
-      res.status(201).json(await addComment(req.user!, idOf(req.params), req.body as { body: string; parentId?: number | null }));
+      res.status(201).json(await addComment(signedInUser(req), req.params.id, req.body));
     },
   );
 
@@ -51,7 +44,7 @@ export function createRevisionsRouter(): Router {
     requireRole('reviewer'),
     validate({ params: idParamsSchema, body: approveSchema }),
     async function approve(req, res) {
-      res.status(200).json(await approveRevision(req.user!, idOf(req.params), req.body as { comment: string }));
+      res.status(200).json(await approveRevision(signedInUser(req), req.params.id, req.body));
     },
   );
 
@@ -60,7 +53,7 @@ export function createRevisionsRouter(): Router {
     requireRole('reviewer'),
     validate({ params: idParamsSchema, body: returnSchema }),
     async function returnToDesigner(req, res) {
-      res.status(200).json(await returnRevision(req.user!, idOf(req.params), req.body as { reason: string }));
+      res.status(200).json(await returnRevision(signedInUser(req), req.params.id, req.body));
     },
   );
 

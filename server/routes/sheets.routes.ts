@@ -1,12 +1,10 @@
 import { Router } from 'express';
 import { validate } from '../middleware/validate';
+import { signedInUser } from '../middleware/requireAuth';
 import { requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
-import { listSheetsQuerySchema, sheetPdfQuerySchema, type ListSheetsQuery } from '../schemas/sheets.schema';
-import type { SheetPaper } from '../models';
+import { listSheetsQuerySchema, sheetPdfQuerySchema } from '../schemas/sheets.schema';
 import { getSheet, getSheetPdf, listSheets } from '../services/sheets.service';
-
-const idOf = (params: unknown) => (params as { id: number }).id;
 
 /** Everyone with a role may read sheets: makers build from them, the others check what was published. */
 const SHEET_READERS = ['maker', 'designer', 'reviewer'] as const;
@@ -19,11 +17,11 @@ export function createSheetsRouter(): Router {
   const router = Router();
 
   router.get('/', requireRole(...SHEET_READERS), validate({ query: listSheetsQuerySchema }), async function list(req, res) {
-    res.status(200).json(await listSheets(req.user!, req.query as unknown as ListSheetsQuery));
+    res.status(200).json(await listSheets(signedInUser(req), req.query));
   });
 
   router.get('/:id', requireRole(...SHEET_READERS), validate({ params: idParamsSchema }), async function getById(req, res) {
-    res.status(200).json(await getSheet(req.user!, idOf(req.params)));
+    res.status(200).json(await getSheet(signedInUser(req), req.params.id));
   });
 
   router.get(
@@ -31,11 +29,7 @@ export function createSheetsRouter(): Router {
     requireRole(...SHEET_READERS),
     validate({ params: idParamsSchema, query: sheetPdfQuerySchema }),
     async function download(req, res) {
-      const { bytes, sha256, fileName } = await getSheetPdf(
-        req.user!,
-        idOf(req.params),
-        (req.query as unknown as { paper: SheetPaper }).paper,
-      );
+      const { bytes, sha256, fileName } = await getSheetPdf(signedInUser(req), req.params.id, req.query.paper);
       res.status(200);
       res.setHeader('Content-Type', 'application/pdf');
       // The name is a slug (a-z, 0-9, '-') so it needs no escaping.

@@ -3,10 +3,9 @@ import { z } from 'zod';
 import { requireMember, requireRole } from '../middleware/requireRole';
 import { uploadedFile, uploadMiddleware } from '../middleware/upload';
 import { validate } from '../middleware/validate';
+import { signedInUser } from '../middleware/requireAuth';
 import { idParamsSchema } from '../schemas/common.schema';
 import { assertMotorExists, getTorqueCurve, TORQUE_CSV_MAX_BYTES, uploadTorqueCurve } from '../services/torqueCurves.service';
-
-const idOf = (params: unknown) => (params as { id: number }).id;
 
 /**
  * Motor torque–speed tables, mounted at /api/parts (beside the parts router):
@@ -22,18 +21,18 @@ export function createTorqueCurvesRouter(): Router {
     requireRole('admin'),
     validate({ params: idParamsSchema }),
     async function checkMotor(req, _res, next) {
-      await assertMotorExists(idOf(req.params));
+      await assertMotorExists(req.params.id);
       next();
     },
     uploadMiddleware({ maxBytes: TORQUE_CSV_MAX_BYTES, what: 'torque table' }),
     validate({ body: z.strictObject({}).optional() }),
     async function upload(req, res) {
-      res.status(200).json(await uploadTorqueCurve(req.user!, idOf(req.params), uploadedFile(req.file)));
+      res.status(200).json(await uploadTorqueCurve(signedInUser(req), req.params.id, uploadedFile(req.file)));
     },
   );
 
   router.get('/motors/:id/torque-curve', requireMember, validate({ params: idParamsSchema }), async function getById(req, res) {
-    res.status(200).json(await getTorqueCurve(req.user!, idOf(req.params)));
+    res.status(200).json(await getTorqueCurve(signedInUser(req), req.params.id));
   });
 
   return router;

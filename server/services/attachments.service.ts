@@ -2,7 +2,7 @@ import { Op, type Transaction } from 'sequelize';
 import { getSequelize } from '../db';
 import { AppError, forbidden, notFound } from '../errors';
 import { logger } from '../logger';
-import type { UploadedFile } from '../middleware/upload';
+import type { UploadedFile } from '../uploads/uploadedFile';
 import { Attachment, Design, Measurement, User, type AttachmentMime } from '../models';
 import { getContentStore, markUnreferenced, referenceContent, removeUnreferencedContent } from '../storage';
 import { assertTypeMatches, ContentStoreError, CsvError, PluckError, sha256Of, UploadTypeError, type SniffedMime } from '../uploads';

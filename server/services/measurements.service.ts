@@ -2,7 +2,7 @@ import type { Transaction } from 'sequelize';
 import { tensionFromFrequencyN, type DesignInput, type DesignResult, type Mechanism } from '@/engine';
 import { getSequelize } from '../db';
 import { AppError, notFound } from '../errors';
-import type { UploadedFile } from '../middleware/upload';
+import type { UploadedFile } from '../uploads/uploadedFile';
 import { Measurement, Revision, Sheet, User, type MeasurementSource, type StoredSpectrum } from '../models';
 import { getContentStore } from '../storage';
 import { analysePluck, assertTypeMatches, PLUCK_DEFAULT_MAX_HZ } from '../uploads';

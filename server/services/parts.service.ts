@@ -1,8 +1,7 @@
 import { Op, UniqueConstraintError, type Transaction, type WhereOptions } from 'sequelize';
-import { AppError, notFound, validationError } from '../errors';
+import { AppError, notFound, validationError, zodDetails } from '../errors';
 import { getSequelize } from '../db';
 import { Part, type PartKind } from '../models';
-import { zodDetails } from '../middleware/validate';
 import {
   beltPartSchema,
   motorPartSchema,

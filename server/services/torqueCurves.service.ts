@@ -1,6 +1,6 @@
 import { getSequelize } from '../db';
 import { AppError, notFound } from '../errors';
-import type { UploadedFile } from '../middleware/upload';
+import type { UploadedFile } from '../uploads/uploadedFile';
 import { Attachment, Part } from '../models';
 import { torqueCurveSchema } from '../schemas/parts.schema';
 import { CsvError, parseTorqueCsv, assertTypeMatches, type CsvErrorDetail, type TorquePoint, type TorqueTable } from '../uploads';

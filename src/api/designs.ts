@@ -2,11 +2,9 @@ import type { DesignInputRaw, Mechanism } from '@/engine';
 import { apiUrl, del, get, patch, post } from './http';
 import type { Page } from './types';
 
-/** States of a design (product.md "States of a design"). */
-export type DesignStatus = 'draft' | 'in_review' | 'approved' | 'returned';
+import { DESIGN_STATUSES, type DesignStatus } from '@/contracts';
 
-/** Every design status, in workflow order. */
-export const DESIGN_STATUSES: readonly DesignStatus[] = ['draft', 'in_review', 'approved', 'returned'];
+export { DESIGN_STATUSES, type DesignStatus };
 
 /** Who owns a design. */
 export interface DesignOwner {

@@ -4,7 +4,9 @@ import { get, post } from './http';
 import type { Page } from './types';
 
 /** Review states of a revision: only `in_review` still changes. */
-export type RevisionStatus = 'in_review' | 'withdrawn' | 'returned' | 'approved';
+import type { RevisionStatus } from '@/contracts';
+
+export type { RevisionStatus };
 
 /** Someone named in an answer. */
 export interface PersonRef {

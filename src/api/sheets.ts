@@ -4,7 +4,9 @@ import type { PersonRef } from './revisions';
 import type { Page } from './types';
 
 /** Paper sizes every sheet is stored in. */
-export type SheetPaper = 'A4' | 'LETTER';
+import type { SheetPaper } from '@/contracts';
+
+export type { SheetPaper };
 
 /** One stored PDF of a sheet. */
 export interface SheetFile {

@@ -1,5 +1,6 @@
-/** The four roles a user may hold (several at once). */
-export type Role = 'admin' | 'designer' | 'reviewer' | 'maker';
+import type { Role } from '@/contracts';
+
+export type { Role };
 
 /** Every role, in the order the UI lists them. */
 export const ROLES: readonly Role[] = ['designer', 'reviewer', 'maker', 'admin'];

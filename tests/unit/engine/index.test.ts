@@ -6,35 +6,10 @@ import * as engine from '@/engine';
 const ENGINE_DIR = fileURLToPath(new URL('../../../src/engine/', import.meta.url));
 
 describe('engine entry point (src/engine/index.ts)', () => {
-  it.each([
-    'pitchDiameterMm',
-    'stepsPerMm',
-    'carriageToMotor',
-    'motorToCarriage',
-    'openBeltLengthMm',
-    'wrapAngleRad',
-    'spanFrequencyHz',
-    'tensionFromFrequencyN',
-    'reflectedMassKg',
-    'naturalFrequencyHz',
-    'motorTorqueNm',
-    'pullOutTorqueNm',
-    'beltArmTensionsN',
-    'moveTimeS',
-    'evaluateDesign',
-    'compareMechanisms',
-    'sweep',
-    'parseDesign',
-    'safeParseDesign',
-    'defaultDesign',
-    'travelToFrame',
-  ])('when %s is looked up, then the entry point exports it as a function (the named functions of src/engine/README.md)', (name) => {
-    expect(typeof (engine as Record<string, unknown>)[name]).toBe('function');
-  });
-
-  it('when ENGINE_VERSION and the schema are looked up, then they are exported', () => {
+  // Each named function is checked against published values in its own file; the type checker already fails the
+  // build when one goes missing from the entry point, so no "is it a function" test here.
+  it('when ENGINE_VERSION is read, then it is a semantic version (stored with every result)', () => {
     expect(engine.ENGINE_VERSION).toMatch(/^\d+\.\d+\.\d+$/);
-    expect(typeof engine.designInputSchema.safeParse).toBe('function');
   });
 
   it('when the engine sources are read, then none imports a framework, the platform or another part of the app', () => {

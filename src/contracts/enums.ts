@@ -1,0 +1,22 @@
+// The closed sets of words the API, the database and the screens share. One declaration each: the models build their
+// ENUM columns from these, the zod schemas accept exactly these, and the client's unions are these types.
+
+/** The four roles; a user may hold several (or none, until an admin grants one). */
+export const ROLES = ['admin', 'designer', 'reviewer', 'maker'] as const;
+export type Role = (typeof ROLES)[number];
+
+/** The states of a design: a draft goes into review, comes back returned (editable again) or is approved. */
+export const DESIGN_STATUSES = ['draft', 'in_review', 'approved', 'returned'] as const;
+export type DesignStatus = (typeof DESIGN_STATUSES)[number];
+
+/** Review states of a revision. Only `in_review` may still change; the others are final. */
+export const REVISION_STATUSES = ['in_review', 'withdrawn', 'returned', 'approved'] as const;
+export type RevisionStatus = (typeof REVISION_STATUSES)[number];
+
+/** The three shelves of the parts shelf. */
+export const PART_KINDS = ['belt', 'pulley', 'motor'] as const;
+export type PartKind = (typeof PART_KINDS)[number];
+
+/** Paper sizes every sheet is rendered in. */
+export const SHEET_PAPERS = ['A4', 'LETTER'] as const;
+export type SheetPaper = (typeof SHEET_PAPERS)[number];
