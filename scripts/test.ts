@@ -135,7 +135,7 @@ async function main(): Promise<number> {
   process.on('SIGINT', onSignal);
   process.on('SIGTERM', onSignal);
 
-  let vitestCode: number | null = 1;
+  let vitestCode: number | null;
   try {
     // A test MariaDB left running by an interrupted run must stop before its folder is wiped.
     await stopMariaDbInDir(path.join(dataDir, 'mariadb'), say);

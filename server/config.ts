@@ -104,7 +104,7 @@ const envSchema = z.object({
     .optional(),
   S3_PREFIX: z
     .string()
-    .regex(/^[A-Za-z0-9!_.*'()\/-]{0,200}$/, "letters, digits and !_.*'()/- only")
+    .regex(/^[A-Za-z0-9!_.*'()/-]{0,200}$/, "letters, digits and !_.*'()/- only")
     .optional(),
   S3_ACCESS_KEY_ID: z.string().optional(),
   S3_SECRET_ACCESS_KEY: z.string().optional(),

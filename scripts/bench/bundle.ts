@@ -4,7 +4,7 @@ import fs from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import { ROOT_DIR } from '../../server/paths';
-import { atLeast, atMost, info, say, type Figure } from './lib';
+import { atMost, info, say, type Figure } from './lib';
 
 /**
  * Bundle part of `npm run bench`: builds the client, then adds up from the Vite manifest what each page loads

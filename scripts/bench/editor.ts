@@ -91,7 +91,7 @@ async function openDesk(page: Page, base: string, id: number, tab: string): Prom
   } catch (err) {
     const shot = path.join(ROOT_DIR, '.data-bench', 'editor-failure.png');
     await page.screenshot({ path: shot, fullPage: true });
-    throw new Error(`${(err as Error).message.split('\n')[0]} (screenshot: ${shot})`);
+    throw new Error(`${(err as Error).message.split('\n')[0]} (screenshot: ${shot})`, { cause: err });
   }
   await page.waitForFunction(
     () => {

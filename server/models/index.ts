@@ -2,21 +2,19 @@ import type { Sequelize } from 'sequelize';
 import { initUserModel, User } from './user.model';
 import { initPasswordTokenModel, PasswordToken } from './passwordToken.model';
 import { initAuditLogModel, AuditLog } from './auditLog.model';
-import { initRateLimitHitModel, RateLimitHit } from './rateLimitHit.model';
 import { initDesignModel, Design } from './design.model';
 import { initPartModel, Part } from './part.model';
 import { initRevisionModel, Revision } from './revision.model';
 import { initRevisionCommentModel, RevisionComment } from './comment.model';
 import { initSheetModel, Sheet } from './sheet.model';
-import { initNotificationModel, Notification } from './notification.model';
+import { initNotificationModel } from './notification.model';
 import { initAttachmentModel, Attachment } from './attachment.model';
 import { initMeasurementModel, Measurement } from './measurement.model';
 import { initSessionModel, Session } from './session.model';
 
 export { User, ROLES, type Role } from './user.model';
-export { PasswordToken, TOKEN_PURPOSES, type TokenPurpose } from './passwordToken.model';
+export { PasswordToken, type TokenPurpose } from './passwordToken.model';
 export { AuditLog } from './auditLog.model';
-export { RateLimitHit } from './rateLimitHit.model';
 export {
   Design,
   DESIGN_STATUSES,
@@ -26,14 +24,14 @@ export {
   type DesignMechanism,
   type DesignResultSummary,
 } from './design.model';
-export { Part, PART_KINDS, type PartKind } from './part.model';
+export { Part, type PartKind } from './part.model';
 export { Revision, REVISION_STATUSES, type RevisionStatus, type RevisionSummaryFigures } from './revision.model';
 export { RevisionComment } from './comment.model';
-export { Sheet, SHEET_PAPERS, type SheetPaper } from './sheet.model';
-export { Notification, NOTIFICATION_STATUSES, type NotificationStatus } from './notification.model';
-export { Attachment, ATTACHMENT_MIMES, type AttachmentMime } from './attachment.model';
-export { Measurement, MEASUREMENT_SOURCES, type MeasurementSource, type StoredSpectrum } from './measurement.model';
-export { Session, SESSION_REVOKE_REASONS, type SessionRevokeReason } from './session.model';
+export { Sheet, type SheetPaper } from './sheet.model';
+export { Notification } from './notification.model';
+export { Attachment, type AttachmentMime } from './attachment.model';
+export { Measurement, type MeasurementSource, type StoredSpectrum } from './measurement.model';
+export { Session, type SessionRevokeReason } from './session.model';
 
 /**
  * Initialises every model on `sequelize`, then wires all associations in this one block.
@@ -43,7 +41,6 @@ export function initModels(sequelize: Sequelize): void {
   initUserModel(sequelize);
   initPasswordTokenModel(sequelize);
   initAuditLogModel(sequelize);
-  initRateLimitHitModel(sequelize);
   initDesignModel(sequelize);
   initPartModel(sequelize);
   initRevisionModel(sequelize);

@@ -9,9 +9,9 @@ import {
 } from 'sequelize';
 import type { User } from './user.model';
 
-import { PART_KINDS, type PartKind } from '@/contracts';
+import type { PartKind } from '@/contracts';
 
-export { PART_KINDS, type PartKind };
+export type { PartKind };
 
 /**
  * One entry of the shared parts shelf (a belt, pulley or motor). The kind-specific numbers live in

@@ -11,9 +11,9 @@ import type { Design } from './design.model';
 import type { Revision } from './revision.model';
 import type { User } from './user.model';
 
-import { SHEET_PAPERS, type SheetPaper } from '@/contracts';
+import type { SheetPaper } from '@/contracts';
 
-export { SHEET_PAPERS, type SheetPaper };
+export type { SheetPaper };
 
 /**
  * The design sheet of an approved revision: the PDF in both paper sizes (bytes in the content store, named by their

@@ -15,6 +15,3 @@ export const resetSchema = z.strictObject({
   token: z.string({ message: 'is required' }).min(1, 'is required').max(200, 'is too long'),
   password: newPasswordSchema,
 });
-
-export type LoginInput = z.infer<typeof loginSchema>;
-export type ResetInput = z.infer<typeof resetSchema>;

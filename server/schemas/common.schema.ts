@@ -39,5 +39,3 @@ export const emailSchema = z
 export const newPasswordSchema = z.string({ message: 'is required' }).superRefine((password, ctx) => {
   for (const message of passwordProblems(password)) ctx.addIssue({ code: 'custom', message });
 });
-
-export type Pagination = z.infer<typeof paginationSchema>;

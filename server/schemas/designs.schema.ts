@@ -92,7 +92,6 @@ export type UpdateDesignInput = { inputs?: DesignInput; name?: string; version: 
 
 /** Sort keys of the Designs table; a leading "-" sorts descending. */
 export const DESIGN_SORT_KEYS = ['name', 'updatedAt', 'status', 'mechanism', 'owner', 'createdAt'] as const;
-export type DesignSortKey = (typeof DESIGN_SORT_KEYS)[number];
 const SORT_VALUES = DESIGN_SORT_KEYS.flatMap((key) => [key, `-${key}`]) as [string, ...string[]];
 
 /** A comma-separated list of allowed values (`?status=draft,returned`). */

@@ -39,8 +39,6 @@ export const listRevisionsQuerySchema = paginationSchema.extend({
   designId: idSchema.optional(),
 });
 
-export type ListRevisionsQuery = { page: number; pageSize: number; status?: RevisionStatus[]; designId?: number };
-
 const text = (what: string, max: number) =>
   z
     .string({ message: `is required: ${what}` })

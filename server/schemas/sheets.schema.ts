@@ -11,8 +11,6 @@ export const listSheetsQuerySchema = paginationSchema.extend({
     .optional(),
 });
 
-export type ListSheetsQuery = { page: number; pageSize: number; designId?: number; current?: boolean };
-
 /** GET /api/sheets/:id/pdf?paper=a4|letter (default a4). */
 export const sheetPdfQuerySchema = z.object({
   paper: z

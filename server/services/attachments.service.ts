@@ -3,7 +3,7 @@ import { getSequelize } from '../db';
 import { AppError, forbidden, notFound } from '../errors';
 import { logger } from '../logger';
 import type { UploadedFile } from '../uploads/uploadedFile';
-import { Attachment, Design, Measurement, User, type AttachmentMime } from '../models';
+import { Attachment, Design, User, type AttachmentMime } from '../models';
 import { getContentStore, markUnreferenced, referenceContent, removeUnreferencedContent } from '../storage';
 import { assertTypeMatches, ContentStoreError, CsvError, PluckError, sha256Of, UploadTypeError, type SniffedMime } from '../uploads';
 import { recordAudit } from './audit.service';
@@ -202,9 +202,6 @@ export async function storeWithRowsMaking<T>(work: (transaction: Transaction) =>
     throw err;
   }
 }
-
-/** How many attachment, recording and sheet rows refer to `sha256`. */
-export { countReferences } from '../storage';
 
 /**
  * After rows that referred to stored bytes were deleted and committed (an attachment, a design's attachments

@@ -7,7 +7,7 @@ export type Health = { status: 'ok' | 'degraded'; db: 'up' | 'down'; version: st
 /** Pings the database (2 s limit). */
 export async function checkHealth(): Promise<Health> {
   const config = getConfig();
-  let dbUp = false;
+  let dbUp: boolean;
   try {
     await Promise.race([
       getSequelize().query('SELECT 1'),

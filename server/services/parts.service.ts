@@ -9,7 +9,6 @@ import {
   type ListPartsQuery,
   type PartInput,
   type PartPatch,
-  type TorquePoint,
 } from '../schemas/parts.schema';
 import { recordAudit } from './audit.service';
 import type { Page, PublicUser } from './users.service';
@@ -199,12 +198,4 @@ export async function updatePart(actor: PublicUser, kind: PartKind, id: number, 
     if (err instanceof UniqueConstraintError) throw nameTaken(kind, String((patch as { name?: string }).name ?? ''));
     throw err;
   }
-}
-
-/**
- * Replaces (or with null clears) the torque–speed table of a motor. For the torque-curve upload route:
- * it parses the CSV and validates rows with `torqueCurveSchema` (schemas/parts.schema.ts), then calls this.
- */
-export async function setMotorTorqueCurve(actor: PublicUser, id: number, curve: TorquePoint[] | null): Promise<PublicPart> {
-  return updatePart(actor, 'motor', id, { torqueCurve: curve } as PartPatch);
 }

@@ -1,4 +1,3 @@
-import { getSequelize } from '../db';
 import { AppError, notFound } from '../errors';
 import type { UploadedFile } from '../uploads/uploadedFile';
 import { Attachment, Part } from '../models';
@@ -56,7 +55,7 @@ function locateRows(text: string): { dataLines: number[]; headerCells: string[] 
 
 /** The header cell naming the torque or the speed column (by its unit), or the plain word. */
 function columnName(headerCells: string[], kind: 'speed' | 'torque'): string {
-  const isTorque = (c: string) => /torque|newton|ounce|oz|n\s*[·⋅•∙*.\-]?\s*c?m\b/i.test(c);
+  const isTorque = (c: string) => /torque|newton|ounce|oz|n\s*[·⋅•∙*.-]?\s*c?m\b/i.test(c);
   const torque = headerCells.filter(isTorque);
   const speed = headerCells.filter((c) => !isTorque(c));
   const pick = kind === 'torque' ? torque : speed;

@@ -7,15 +7,8 @@ import { S3ContentStore } from './s3ContentStore';
 
 export type { ContentStore } from './contentStore';
 export { LocalContentStore } from './localContentStore';
-export { S3ContentStore, type S3StoreOptions } from './s3ContentStore';
-export {
-  countReferences,
-  markUnreferenced,
-  referenceContent,
-  removeUnreferencedContent,
-  startContentSweeper,
-  sweepOrphans,
-} from './contentRegistry';
+export { S3ContentStore } from './s3ContentStore';
+export { markUnreferenced, referenceContent, removeUnreferencedContent, startContentSweeper, sweepOrphans } from './contentRegistry';
 
 let current: { key: string; store: ContentStore } | undefined;
 let override: ContentStore | undefined;

@@ -423,7 +423,7 @@ describe('design documents with junk inside', () => {
     }
     return [];
   }
-  function withValue(doc: unknown, path: string, value: unknown): unknown {
+  function withValue(doc: unknown, path: string, value: unknown): object {
     const copy = structuredClone(doc) as Record<string, unknown>;
     const keys = path.split('.');
     let node = copy;

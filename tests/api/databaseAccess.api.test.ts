@@ -72,7 +72,7 @@ describe('published sheets stay as approved', () => {
     // Arrange
     const before = await readSheetRow(sheetId);
     const columns = Object.keys(before);
-    const forged = { ...before, a4_pdf: Buffer.from('%PDF-1.4 forged') };
+    const forged: Record<string, unknown> = { ...before, a4_pdf: Buffer.from('%PDF-1.4 forged') };
     // Act
     const error = await refusal(
       `REPLACE INTO sheets (${columns.map((c) => `\`${c}\``).join(', ')}) VALUES (${columns.map(() => '?').join(', ')})`,

@@ -1,7 +1,7 @@
 import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { z } from 'zod';
+import type { z } from 'zod';
 import { defaultDesign } from '@/engine';
 import { createApp } from '../../server/app';
 import { resetConfigCache } from '../../server/config';
@@ -259,7 +259,7 @@ function queryFor(route: ApiRoute): string {
   return `?${parts.join('&')}`;
 }
 
-type Planned = { method: string; url: string; headers: Record<string, string>; body?: string | Buffer; label: string };
+type Planned = { method: string; url: string; headers: Record<string, string>; body?: string | Uint8Array; label: string };
 
 const MULTIPART_JUNK = [
   () => ({ type: 'multipart/form-data', body: '--x\r\nno boundary declared\r\n' }),
@@ -351,7 +351,7 @@ describe('fuzz sweep over the real router', () => {
         if (n >= REQUESTS) return;
         const p = plan(routes[n % routes.length]);
         perRoute.set(p.label, (perRoute.get(p.label) ?? 0) + 1);
-        const res = await fetch(p.url, { method: p.method, headers: p.headers, body: p.body, redirect: 'manual' });
+        const res = await fetch(p.url, { method: p.method, headers: p.headers, body: p.body as BodyInit | undefined, redirect: 'manual' });
         const text = await res.text();
         if (res.status >= 500)
           failures.push(`${res.status} ${p.method} ${p.url} ${String(p.body ?? '').slice(0, 200)} → ${text.slice(0, 300)}`);

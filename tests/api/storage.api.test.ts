@@ -3,7 +3,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { createHash } from 'node:crypto';
 import { ListObjectsV2Command, PutObjectCommand } from '@aws-sdk/client-s3';
-import request from 'supertest';
+import type request from 'supertest';
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
@@ -157,13 +157,14 @@ describe.each(BACKENDS)('content store: $name', ({ open }) => {
     async (address) => {
       // Act
       const outcomes = await Promise.all(
-        [() => backend.store.get(address), () => backend.store.has(address), () => backend.store.remove(address)].map((call) =>
-          Promise.resolve()
-            .then(call)
-            .then(
-              () => null,
-              (err: unknown) => err,
-            ),
+        [() => backend.store.get(address), () => backend.store.has(address), () => backend.store.remove(address)].map(
+          (call: () => Promise<unknown>) =>
+            Promise.resolve()
+              .then(call)
+              .then(
+                () => null,
+                (err: unknown) => err,
+              ),
         ),
       );
       // Assert

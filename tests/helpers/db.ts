@@ -1,6 +1,4 @@
-import type { Sequelize } from 'sequelize';
 import { getConfig } from '../../server/config';
-import { createSequelize } from '../../server/db';
 import { runMigrations, runSeeders, withSchemaOwner } from '../../server/migrator';
 
 /**
@@ -19,11 +17,6 @@ export function assertTestEnvironment(): void {
         'Run them with: npm test -- --project api   (or --project e2e)',
     );
   }
-}
-
-/** A Sequelize connection to another database on the test server (same host, user, password). */
-export function connectTo(databaseName: string): Sequelize {
-  return createSequelize({ ...getConfig().db, name: databaseName, poolMax: 2 });
 }
 
 /**

@@ -13,15 +13,6 @@ export interface LegacyBeltFigures {
 }
 
 /**
- * True when a result was computed by an engine before the corrected physics (major version 1).
- * @param result - an engine result, possibly frozen long ago
- * @returns whether it is an engine 1 result
- */
-export function isEngineOneResult(result: Pick<DesignResult, 'engineVersion'>): boolean {
-  return /^1\./.test(result.engineVersion ?? '');
-}
-
-/**
  * The one-motor-projected microstep figures of an engine 1 result, or null for a current result.
  * @param result - an engine result
  * @returns {x, y, diagonal} [mm] or null

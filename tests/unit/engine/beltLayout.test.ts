@@ -107,7 +107,7 @@ describe('buildBeltLayout', () => {
     ['corexy', ['frame', 'frame'], 'motors sit on the frame'],
     ['hbot', ['frame', 'frame'], 'motors sit on the frame'],
     ['cartesian', ['gantry', 'frame', 'frame'], 'the X motor rides the gantry'],
-  ] as const)('when the %s layout is built, then the drive pulleys ride %j (%s)', (mech, bodies) => {
+  ] as const)('when the %s layout is built, then the drive pulleys ride %j (%s)', (mech, bodies, _why) => {
     const layout = buildBeltLayout(randomDesign(3, mech));
     const drives = layout.loops.flatMap((l) => l.elements.filter((e) => e.kind === 'drive').map((e) => e.body));
     expect(drives).toEqual(bodies);

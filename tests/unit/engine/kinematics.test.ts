@@ -49,7 +49,7 @@ describe('kinematicsMatrix', () => {
       ],
       'one motor per axis (definition)',
     ],
-  ] as const)('when the mechanism is %s, then K is %j (%s)', (mech, expected) => {
+  ] as const)('when the mechanism is %s, then K is %j (%s)', (mech, expected, _source) => {
     expect(kinematicsMatrix(mech)).toEqual(expected);
   });
 

@@ -68,7 +68,7 @@ describe('carriageStiffnessNPerM', () => {
   it.each([
     [1, 'one Y motor turns both Y belts through the cross shaft: (k_L + k_R) in series with one motor'],
     [2, 'each Y belt has its own motor: each side in series with its motor, then in parallel'],
-  ] as const)('when a cartesian stage has %i Y motor(s), then K_c is diagonal and k_y follows the drive (%s)', (yMotors) => {
+  ] as const)('when a cartesian stage has %i Y motor(s), then K_c is diagonal and k_y follows the drive (%s)', (yMotors, _why) => {
     const d = { ...defaultDesign('cartesian'), yMotors } as DesignInput;
     const t = frameToTravel(d);
     const kMotor = 3e5;

@@ -1,4 +1,4 @@
-import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi, type Mock } from 'vitest';
 import { effectScope, nextTick, reactive, ref } from 'vue';
 import { ApiError } from '@/api/http';
 import { useAutosave } from '@/composables/useAutosave';
@@ -15,7 +15,9 @@ function conflictError(currentVersion: number): ApiError {
   return new ApiError(409, 'version_conflict', body.error.message, [], body);
 }
 
-function setup(options: { save?: ReturnType<typeof vi.fn>; reload?: ReturnType<typeof vi.fn> } = {}) {
+type Save = Mock<(payload: unknown, version: number) => Promise<{ version: number }>>;
+
+function setup(options: { save?: Save; reload?: Mock<() => Promise<void>> } = {}) {
   const doc = reactive({ inputs: { name: 'Stage', frame: { outerXMm: 460 } } });
   const version = ref(3);
   const save = options.save ?? vi.fn(async (_payload: unknown, v: number) => ({ version: v + 1 }));

@@ -23,7 +23,7 @@ const api = vi.mocked(await import('@/api/revisions'));
 const message = vi.mocked(await import('@/utils/message'));
 
 const REVISION = { id: 31, designId: 7, number: 2, status: 'in_review' } as RevisionDetail;
-const DIFF = { revisionId: 31, number: 2, previous: null, inputs: [], results: [] } as RevisionDiff;
+const DIFF: RevisionDiff = { revisionId: 31, number: 2, engineVersion: '2.0.0', previous: null, inputs: [], results: [] };
 
 function comment(id: number, body: string, parentId: number | null = null): RevisionComment {
   return {
