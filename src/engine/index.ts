@@ -45,7 +45,7 @@ export {
   interpolateTorqueCurve,
   motorHoldingStiffnessNmPerRad,
 } from './motorTorque';
-export { moveTimeS } from './moveTime';
+export { moveTimeS, jerkLimitedMoveTimeS } from './moveTime';
 export { frameToTravel, travelToFrame, type TravelInfo, type TravelInput } from './frame';
 export {
   buildBeltLayout,
@@ -99,3 +99,43 @@ export { compareMechanisms, keyFigures, type KeyFigures, type ComparisonRow } fr
 export { sweep, type SweepPoint } from './sweep';
 export { beltGeometryAt, type BeltGeometry } from './beltGeometryAt';
 export { layoutDrawing, layoutDrawingAt } from './layoutDrawing';
+export {
+  zvShaperImpulses,
+  zvdShaperImpulses,
+  zvShaperDurationS,
+  zvdShaperDurationS,
+  rampResidualVibrationMm,
+  rampTimeForToleranceS,
+  vibrationControl,
+  type ShaperImpulse,
+  type ShapingResult,
+} from './vibrationControl';
+export { generalizedEigen3, type Sym3, type Eigen3 } from './linalg';
+export {
+  TYPICAL_GANTRY_BEAMS,
+  MODE_LABELS,
+  typicalGantryBeam,
+  beamEffectiveMassShare,
+  beamBendingFrequencyHz,
+  shaftTorsionStiffnessNmPerRad,
+  gantryYawMass,
+  yawModeFrequencyHz,
+  lowestModeMap,
+  type TypicalBeam,
+  type YawMass,
+  type ModeId,
+  type ModeReport,
+  type LowestModeMap,
+} from './structuralModes';
+export { pulleyRadialLoadN, shaftLoads, type PulleyLoadInput, type PulleyLoad, type LoadsResult } from './shaftLoads';
+export { copperLossW, supplySizing, rmsTorqueNm, referenceMoveRmsTorqueNm, SUPPLY_MARGIN } from './heat';
+export {
+  toothMeshFrequencyHz,
+  stepRatesHz,
+  meshCrossings,
+  excitation,
+  type ExcitationTarget,
+  type MeshCrossing,
+  type ExcitationResult,
+} from './excitation';
+export { scheduleJob, type JobPoint, type DirectionLimits, type JobMove, type JobResult, type MoveLimit } from './jobSchedule';
