@@ -12,6 +12,7 @@ export {
   defaultDesign,
   issuesFromZod,
   MICROSTEP_OPTIONS,
+  JOB_MAX_POINTS,
   type DesignInput,
   type DesignInputRaw,
 } from './schema';
@@ -139,3 +140,15 @@ export {
   type ExcitationResult,
 } from './excitation';
 export { scheduleJob, type JobPoint, type DirectionLimits, type JobMove, type JobResult, type MoveLimit } from './jobSchedule';
+export {
+  loadAngleErrorMm,
+  microstepDeadband,
+  carriageErrorMm,
+  errorBudgetMap,
+  biggestErrorTerm,
+  type Deadband,
+  type ErrorTerm,
+  type ErrorBudgetPoint,
+  type ErrorBudgetResult,
+  type ErrorBudgetInput,
+} from './errorBudget';
