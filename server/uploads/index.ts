@@ -11,3 +11,5 @@ export { assertTypeMatches, sniffType, UploadTypeError } from './sniffType';
 export type { SniffedMime, SniffedType, UploadTypeErrorCode } from './sniffType';
 export { assertSha256, ContentStoreError, contentPath, readBytes, removeBytes, sha256Of, storeBytes } from './contentStore';
 export type { ContentStoreErrorCode, StoredContent } from './contentStore';
+export { parseJobCsv, JOB_CSV_LIMITS } from './jobCsv';
+export type { JobCsvLengthUnit, JobCsvTimeUnit, JobCsvPoint, JobTable } from './jobCsv';
