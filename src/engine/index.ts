@@ -152,3 +152,4 @@ export {
   type ErrorBudgetResult,
   type ErrorBudgetInput,
 } from './errorBudget';
+export { yawSlopesMmPerRad, gantryYawMap } from './gantryYaw';
