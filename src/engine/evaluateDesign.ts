@@ -2,6 +2,7 @@ import { solveLoop, type LoopState, type MotorVar } from './beltLayout';
 import { beltTensionOverTravel, type LoopTensionResult } from './beltTensionMap';
 import { CAUTIONS } from './cautions';
 import { designChecks, MIN_TEETH_IN_MESH, teethInMeshFactor } from './checks';
+import { secondLayerChecks } from './secondLayerChecks';
 import { fullStepsPerRev } from './drive';
 import { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type EnvelopeInput, type EnvelopeResult } from './envelope';
 import { frameToTravel, type TravelInfo } from './frame';
@@ -13,6 +14,7 @@ import { modelTopSpeedRevPerS, motorHoldingStiffnessNmPerRad, torqueConstantNmPe
 import { CLAMP_ALLOWANCE_MM, partsList } from './partsList';
 import { guideReactionN, rackingMomentPerNewtonM, rackingTurnSpacingMm } from './racking';
 import { parseDesign, type DesignInput } from './schema';
+import { evaluateSecondLayer, spanBands, structureStiffness, type SecondLayerResult, type StructureStiffness } from './secondLayer';
 import { stiffnessMap, type StiffnessResult } from './stiffness';
 import { spanFrequencyHz } from './tension';
 import { TYPICAL_YAW_MOMENT_RATING_NM, typicalToothAllowableN } from './typicalValues';
@@ -207,10 +209,13 @@ function envelopeSection(d: DesignInput, k: Matrix2, m: MassModel, tq: TorqueSou
 }
 
 /** Stiffness map over the travel (docs/models/stiffness-and-ringing.md). */
-function stiffnessSection(d: DesignInput, t: TravelInfo, m: MassModel, rM: number): StiffnessResult {
+function stiffnessSection(d: DesignInput, t: TravelInfo, m: MassModel, rM: number, structure: StructureStiffness): StiffnessResult {
   const kMotor = motorHoldingStiffnessNmPerRad(d.motor, d.driver) / (rM * rM);
   const motorStiffness: Record<MotorVar, number> = { A: kMotor, B: kMotor, B2: kMotor };
   return stiffnessMap({
+    // The gantry's yaw coordinate and a cross shaft, for the structural modes (docs/models/structural-modes.md).
+    yawSlopesMmPerRad: structure.yawSlopesMmPerRad,
+    shaft: structure.shaft,
     models: t.models,
     motorStiffnessNPerM: motorStiffness,
     axialStiffnessN: d.belt.axialStiffnessN,
@@ -447,6 +452,63 @@ function checksOf(
 }
 
 /**
+ * The second layer (docs/models/): error budget, structural modes, vibration control, excitation, heat, shaft loads
+ * and the job, from what the first layer computed.
+ */
+function secondLayerOf(
+  d: DesignInput,
+  x: {
+    k: Matrix2;
+    t: TravelInfo;
+    states: LoopState[];
+    m: MassModel;
+    es: EnvelopeSection;
+    map: StiffnessResult;
+    structure: StructureStiffness;
+    belts: BeltReport[];
+    rM: number;
+    plannedAccel: number;
+    motors: DesignResult['motors'];
+  },
+): SecondLayerResult {
+  const { t, es, belts, rM } = x;
+  const kTheta = motorHoldingStiffnessNmPerRad(d.motor, d.driver);
+  let worstIndex = 0;
+  es.env.accelMaxMPerS2.forEach((a, i) => a < es.env.accelMaxMPerS2[worstIndex] - 1e-12 && (worstIndex = i));
+  return evaluateSecondLayer({
+    d,
+    k: x.k,
+    t,
+    envIn: es.envIn,
+    env: es.env,
+    worstIndex,
+    map: x.map,
+    structure: x.structure,
+    motorsOn: x.m.motorsOn,
+    pulleyRadiusM: rM,
+    motorStiffnessNPerM: kTheta / (rM * rM),
+    holdingTorqueNm: kTheta / (90 / d.motor.stepAngleDeg),
+    plannedAccelMPerS2: x.plannedAccel,
+    belts: t.layout.loops.map((loop, i) => ({
+      id: loop.id,
+      label: loop.label,
+      loop,
+      wrapsRad: x.states[i].path.wraps.map((w) => w.wrapRad),
+      spans: spanBands(
+        t.models[i],
+        t,
+        belts[i].spans.map((sp) => sp.label),
+        d,
+        Math.max(1, d.frame.clearanceMm),
+      ),
+      worstTightN: belts[i].tension.worstTightN,
+      peakPullN: belts[i].tension.peakPullN,
+    })),
+    motorLabels: x.motors.map((mo) => ({ id: mo.id, label: `Motor ${mo.axisLabel}` })),
+  });
+}
+
+/**
  * Evaluates a design: validates it with the schema, then computes kinematics, drive numbers, travel, belt
  * layout, masses, motor torque, the acceleration/speed envelope, belt tensions over the travel, the stiffness map,
  * ringing, racking, parts and checks (docs/README.md).
@@ -476,7 +538,8 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
   const m = massModel(d, t, states, rM);
   const tq = torqueSource(d);
   const es = envelopeSection(d, k, m, tq, rM);
-  const map = stiffnessSection(d, t, m, rM);
+  const structure = structureStiffness(d, t, rM);
+  const map = stiffnessSection(d, t, m, rM, structure);
   const tensions = beltTensionOverTravel({
     models: t.models,
     motorVars: t.layout.motorVars,
@@ -499,7 +562,12 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
     worst: ringing(es.axes.worst.accelMaxMPerS2, fMin, tol),
     planned: ringing(plannedAccel, fMin, tol),
   };
-  const checks = checksOf(d, { t, es, belts, racking, ringingPlanned: ringingFig.planned, plannedAccel });
+  const signs = motorsAndSigns(d, kinv, m.motorsOn);
+  const second = secondLayerOf(d, { k, t, states, m, es, map, structure, belts, rM, plannedAccel, motors: signs.motors });
+  const checks = [
+    ...checksOf(d, { t, es, belts, racking, ringingPlanned: ringingFig.planned, plannedAccel }),
+    ...secondLayerChecks({ second, cruiseSpeedMPerS: es.envIn.cruiseMPerS, travel: { xMm: t.xMm, yMm: t.yMm } }),
+  ];
   const env = es.env;
   return {
     engineVersion: ENGINE_VERSION,
@@ -513,7 +581,7 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
         b: (Math.atan2(kinv[1][1], kinv[0][1]) * DEG + 360) % 360,
       },
     },
-    ...motorsAndSigns(d, kinv, m.motorsOn),
+    ...signs,
     drive,
     travel: { xMm: t.xMm, yMm: t.yMm, limitedBy: t.limitedBy },
     parking,
@@ -550,7 +618,18 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
       min: map.min,
       ringing: ringingFig,
       toleranceMm: tol,
+      lowest: second.lowest,
+      lowestMap: second.lowestMap,
     },
+    errorBudget: second.errorBudget,
+    modes: second.modes,
+    modesNotHeld: second.modesNotHeld,
+    structure: second.structure,
+    shaping: second.shaping,
+    excitation: second.excitation,
+    heat: second.heat,
+    loads: second.loads,
+    job: second.job,
     racking,
     layout: layoutDrawing({
       layout: t.layout,

@@ -106,3 +106,24 @@ export function referenceMoveRmsTorqueNm(args: {
     moveS: move,
   };
 }
+
+/** Heat and supply section of the result (format.md: heat.motors[], heat.supply). */
+export interface HeatResult {
+  /** Every motor (two on the Y coordinate of a cartesian stage with two Y motors). */
+  motors: {
+    id: string;
+    label: string;
+    /** 2·I²·R at the driver's current [W]. */
+    copperLossW: number;
+    /** Largest mechanical output over the directions at the cruise speed [W]. */
+    mechanicalW: number;
+    /** RMS torque over the reference cycle [N·m]. */
+    rmsTorqueNm: number;
+    /** Holding torque at the rated current: the torque the motor may give continuously [N·m]. */
+    continuousTorqueNm: number;
+  }[];
+  totalCopperLossW: number;
+  supply: { powerW: number; currentA: number; drawW: number; margin: number; supplyV: number };
+  /** The reference cycle the RMS torque is taken over: across the X travel, then across the Y travel. */
+  referenceMoves: { directionDeg: number; distanceMm: number; speedMPerS: number; accelMPerS2: number; moveS: number }[];
+}

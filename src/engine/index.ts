@@ -153,3 +153,13 @@ export {
   type ErrorBudgetInput,
 } from './errorBudget';
 export { yawSlopesMmPerRad, gantryYawMap } from './gantryYaw';
+export {
+  evaluateSecondLayer,
+  structureStiffness,
+  directionLimits,
+  spanBands,
+  type SecondLayerResult,
+  type SecondLayerContext,
+  type StructureInfo,
+} from './secondLayer';
+export { type HeatResult } from './heat';
