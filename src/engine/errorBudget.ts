@@ -158,8 +158,20 @@ export function errorBudgetMap(
   const ny = inp.yMm.length;
   const nd = inp.directionsDeg.length;
   const stride = Math.max(1, Math.floor(inp.mapStride));
+  // When every direction's opposite has the opposite force and the same load-angle error (a symmetric stage), the
+  // map need only look at half the turn: |C·F| is even in F.
+  const half = nd % 2 === 0 ? nd / 2 : 0;
+  let isSymmetric = half > 0;
+  for (let i = 0; isSymmetric && i < half; i++) {
+    const j = i + half;
+    const scale = Math.abs(inp.forceXN[i]) + Math.abs(inp.forceYN[i]) + 1e-12;
+    isSymmetric =
+      Math.abs(inp.forceXN[i] + inp.forceXN[j]) <= 1e-9 * scale &&
+      Math.abs(inp.forceYN[i] + inp.forceYN[j]) <= 1e-9 * scale &&
+      Math.abs(inp.loadAngleMm[i] - inp.loadAngleMm[j]) <= 1e-9 * (Math.abs(inp.loadAngleMm[i]) + 1e-12);
+  }
   const idx: number[] = [];
-  for (let i = 0; i < nd; i += stride) idx.push(i);
+  for (let i = 0; i < (isSymmetric ? half : nd); i += stride) idx.push(i);
   const m = idx.length;
   const fa = new Float64Array(m);
   const fb = new Float64Array(m);
@@ -195,8 +207,8 @@ export function errorBudgetMap(
       const g22 = (c12 * c12 + c22 * c22) * 1e6;
       let best = 0;
       for (let j = 0; j < m; j++) {
-        const q = g11 * fa[j] + g12 * fb[j] + g22 * fc[j];
-        const t = Math.sqrt(q > 0 ? q : 0) + la[j];
+        // A positive semi-definite form: round-off may give −0 or a NaN that simply loses the comparison.
+        const t = Math.sqrt(g11 * fa[j] + g12 * fb[j] + g22 * fc[j]) + la[j];
         if (t > best) best = t;
       }
       row[ix] = best + fixed;

@@ -250,17 +250,19 @@ export function lowestModeMap(args: { xMm: number[]; yMm: number[]; maps: Partia
   const lowestFrequencyHz: number[][] = [];
   const lowestModeId: ModeId[][] = [];
   let lowest = { frequencyHz: Infinity, modeId: ids[0] ?? ('belt' as ModeId), xMm: 0, yMm: 0 };
+  const maps = ids.map((id) => args.maps[id]!);
   for (let iy = 0; iy < ny; iy++) {
     const fr = new Array<number>(nx);
     const idr = new Array<ModeId>(nx);
+    const rows = maps.map((m) => m[iy]);
     for (let ix = 0; ix < nx; ix++) {
       let f = Infinity;
       let id: ModeId = ids[0];
-      for (const m of ids) {
-        const v = args.maps[m]![iy][ix];
+      for (let k = 0; k < rows.length; k++) {
+        const v = rows[k][ix];
         if (v < f) {
           f = v;
-          id = m;
+          id = ids[k];
         }
       }
       fr[ix] = f;

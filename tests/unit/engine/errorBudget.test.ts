@@ -190,6 +190,35 @@ describe('errorBudgetMap', () => {
     expect(r.worst.totalMm).toBeCloseTo(Math.max(...r.totalMm.flat()), 12);
   });
 
+  it('when opposite directions differ (an unsymmetric stage), then every direction is still searched (independent: brute force)', () => {
+    // Arrange: a force offset that does not reverse with the direction
+    const fx = force.map((f) => f[0] + 5);
+    const fy = force.map((f) => f[1]);
+    const inp = {
+      xMm: [0],
+      yMm: [0],
+      kxxNPerM: Float64Array.from([1e5]),
+      kxyNPerM: Float64Array.from([0]),
+      kyyNPerM: Float64Array.from([1e5]),
+      motorComplianceMPerN: [
+        [0, 0],
+        [0, 0],
+      ] as Matrix2,
+      directionsDeg: directions,
+      forceXN: fx,
+      forceYN: fy,
+      loadAngleMm: directions.map(() => 0),
+      deadbandMm: 0,
+      runoutMm: 0,
+      mapStride: 1,
+    };
+    // Act
+    const r = errorBudgetMap(inp);
+    // Assert
+    const brute = Math.max(...fx.map((x, i) => (Math.hypot(x, fy[i]) / 1e5) * 1000));
+    expect(r.totalMm[0][0]).toBeCloseTo(brute, 12);
+  });
+
   it('when the map samples every 6th direction, then it never reports more than the full check at the worst point', () => {
     // Arrange
     const n = 1;
