@@ -31,6 +31,12 @@ export const STORED_UNITS = [
   'mH',
   'H',
   'mm^-1',
+  'mm^4',
+  'GPa',
+  'mm/s^3',
+  'W',
+  's',
+  'ms',
 ];
 
 /** The avoirdupois ounce in kg (exact: lb/16, lb = 0.453 592 37 kg; NIST SP 811 footnote 22). */
@@ -38,10 +44,12 @@ export const OUNCE_KG = 0.028349523125;
 /** Standard acceleration of gravity in m/s² (exact; NIST SP 811). */
 export const STANDARD_GRAVITY_M_PER_S2 = 9.80665;
 
-/** A mathjs instance with the ounce-force, which mathjs 15 lacks: 1 ozf = 1 oz × g_n. */
+/** A mathjs instance with the ounce-force, which mathjs 15 lacks (1 ozf = 1 oz × g_n), and the million psi. */
 export function unitMath() {
   const m = create({ unitDependencies, createUnitDependencies, multiplyDependencies });
   m.createUnit('ozf', { definition: m.multiply(m.unit(OUNCE_KG, 'kg'), m.unit(STANDARD_GRAVITY_M_PER_S2, 'm/s^2')) as never });
+  // Moduli in imperial units read best in millions of psi (mathjs's psi takes no prefix).
+  m.createUnit('Mpsi', '1e6 psi');
   return m;
 }
 

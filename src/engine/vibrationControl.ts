@@ -1,4 +1,5 @@
 import { requireNumber, throwInputError } from './errors';
+import type { ModeId } from './structuralModes';
 
 // Vibration-control numbers for the lowest mode (docs/models/vibration-control.md): the zero-vibration input
 // shapers and the residual vibration a velocity ramp leaves behind.
@@ -134,7 +135,7 @@ export interface ShapingResult {
   /** Frequency the shapers are tuned to: the lowest mode [Hz]. */
   frequencyHz: number;
   /** Mode it comes from (modes[].id). */
-  modeId: string;
+  modeId: ModeId;
   /** Move time the ZV and ZVD shapers add [s]. */
   zvDurationS: number;
   zvdDurationS: number;
@@ -167,7 +168,7 @@ const FREQUENCY_FACTORS = [0.5, 0.625, 0.75, 0.875, 1, 1.25, 1.5, 1.75, 2, 2.5, 
  * @returns the section
  * @see docs/models/vibration-control.md
  */
-export function vibrationControl(args: { frequencyHz: number; modeId: string; speedMPerS: number; toleranceMm: number }): ShapingResult {
+export function vibrationControl(args: { frequencyHz: number; modeId: ModeId; speedMPerS: number; toleranceMm: number }): ShapingResult {
   const f = requireNumber('vibrationControl', 'frequencyHz', args?.frequencyHz, 0, Infinity, true);
   const v = args.speedMPerS;
   const period = 1 / f;

@@ -58,6 +58,15 @@ export const QUANTITIES = {
   count: same('', ''),
   ratio: same('', ''),
   percent: same('', '%'),
+  /** Second moment of area of a beam section. */
+  secondMoment: { metric: { unit: 'mm^4', label: 'mm⁴' }, imperial: { unit: 'in^4', label: 'in⁴' } },
+  /** Elastic moduli: GPa / million psi. */
+  modulus: { metric: { unit: 'GPa', label: 'GPa' }, imperial: { unit: 'Mpsi', label: 'Mpsi' } },
+  jerk: { metric: { unit: 'm/s^3', label: 'm/s³' }, imperial: { unit: 'in/s^3', label: 'in/s³' } },
+  power: same('W', 'W'),
+  time: same('s', 's'),
+  /** Short times (shaper delays, ramps): ms. */
+  timeShort: same('ms', 'ms'),
 } as const satisfies Record<string, QuantityDef>;
 
 /** Key of a quantity in {@link QUANTITIES}. */

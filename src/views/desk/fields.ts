@@ -43,7 +43,7 @@ export interface FieldDef {
 
 /** A titled group of inputs. */
 export interface FieldGroup {
-  id: 'frame' | 'belts' | 'motors' | 'masses' | 'motion';
+  id: 'frame' | 'belts' | 'motors' | 'masses' | 'motion' | 'structure';
   title: string;
   /** Which shelf picker sits at the top of the group. */
   picker?: 'belt' | 'motor';
@@ -474,6 +474,116 @@ export const FIELD_GROUPS: FieldGroup[] = [
             defaultValue: { holdN: 25 },
           },
         },
+      ),
+    ],
+  },
+  {
+    id: 'structure',
+    title: 'Structure & controller',
+    fields: [
+      num(
+        'gantryBeam.secondMomentMm4',
+        'Gantry beam second moment',
+        'secondMoment',
+        'mm^4',
+        'Second moment of area of the gantry beam about the vertical axis (the one it bends about when the carriage accelerates along Y), from the profile maker’s table. Off: a typical value for the frame’s extrusion size — 20 × 20 mm about 6 900 mm⁴, 30 × 30 mm about 28 000 mm⁴, 40 × 40 mm about 95 000 mm⁴ (typical values rounded from aluminium profile catalogues; makers differ by several per cent).',
+        {
+          optional: {
+            path: 'gantryBeam.secondMomentMm4',
+            label: 'Enter the beam’s second moment',
+            offText: 'Typical value for the frame profile',
+            defaultValue: 6900,
+          },
+        },
+      ),
+      num(
+        'gantryBeam.modulusGPa',
+        'Gantry beam modulus',
+        'modulus',
+        'GPa',
+        'Young’s modulus of the beam material. Off: aluminium profile alloy, about 69 GPa (typical value); steel is about 200 GPa.',
+        {
+          optional: {
+            path: 'gantryBeam.modulusGPa',
+            label: 'Enter the beam’s modulus',
+            offText: 'Aluminium, typical value',
+            defaultValue: 69,
+          },
+        },
+      ),
+      num(
+        'gantryBeam.massKgPerM',
+        'Gantry beam mass per metre',
+        'linearMass',
+        'kg/m',
+        'Mass of the beam itself per metre, for its own share in the bending mode. Off: a typical value for the frame’s extrusion size (20 × 20 mm about 0.5 kg/m).',
+        {
+          optional: {
+            path: 'gantryBeam.massKgPerM',
+            label: 'Enter the beam’s mass per metre',
+            offText: 'Typical value for the frame profile',
+            defaultValue: 0.5,
+          },
+        },
+      ),
+      num(
+        'crossShaft.diameterMm',
+        'Cross shaft diameter',
+        'length',
+        'mm',
+        'Solid round shaft that carries one Y motor’s turn to the far side (cartesian with one Y motor). Its twist lets the gantry turn. Default 8 mm.',
+        { onlyFor: ['cartesian'] },
+      ),
+      num(
+        'crossShaft.shearModulusGPa',
+        'Cross shaft shear modulus',
+        'modulus',
+        'GPa',
+        'Shear modulus of the shaft material. Default 79.3 GPa, steel (typical value).',
+        { onlyFor: ['cartesian'] },
+      ),
+      num(
+        'pulley.runoutMm',
+        'Drive pulley runout',
+        'lengthFine',
+        'mm',
+        'Eccentricity of the drive pulley’s pitch circle on the shaft: a once-per-turn position error in the error budget. Default 0.02 mm (typical value for a small machined pulley).',
+      ),
+      num(
+        'controller.maxStepRateHz',
+        'Controller step-rate limit',
+        'frequency',
+        'Hz',
+        'Highest step-pulse rate the motion controller gives one motor. Default 100 kHz (a typical figure for a small 32-bit controller); enter your controller’s.',
+      ),
+      num(
+        'controller.jerkMmPerS3',
+        'Controller jerk',
+        'jerk',
+        'mm/s^3',
+        'Jerk limit of the controller’s motion planner. On: job moves are timed as jerk-limited S-curves. Off: constant-acceleration ramps.',
+        {
+          optional: {
+            path: 'controller.jerkMmPerS3',
+            label: 'Moves are jerk-limited',
+            offText: 'Constant-acceleration ramps',
+            defaultValue: 100000,
+          },
+        },
+      ),
+      num(
+        'radialLoadRating.motorShaftN',
+        'Motor shaft radial load rating',
+        'force',
+        'N',
+        'Radial load the motor maker allows on the shaft (usually quoted at a distance from the flange). Default 28 N, typical for a 42 mm-frame stepper; enter the datasheet figure.',
+      ),
+      num(
+        'radialLoadRating.idlerN',
+        'Idler radial load rating',
+        'force',
+        'N',
+        'Radial load an idler and its bearings may carry. Default 200 N (typical value for small idlers on miniature ball bearings).',
       ),
     ],
   },
