@@ -96,7 +96,14 @@ export type {
   LayoutPart,
   LayoutBelt,
 } from './types';
-export { compareMechanisms, keyFigures, type KeyFigures, type ComparisonRow } from './compareMechanisms';
+export {
+  compareMechanisms,
+  keyFigures,
+  secondLayerFigures,
+  type KeyFigures,
+  type ComparisonRow,
+  type SecondLayerFigures,
+} from './compareMechanisms';
 export { sweep, type SweepPoint } from './sweep';
 export { beltGeometryAt, type BeltGeometry } from './beltGeometryAt';
 export { layoutDrawing, layoutDrawingAt } from './layoutDrawing';
