@@ -62,9 +62,10 @@ describe('evaluateSecondLayer (through evaluateDesign)', () => {
     expect(w.runoutMm).toBeCloseTo(0.02, 12);
   });
 
-  it('when the drive pulleys wrap a quarter turn at 40 N pretension, then each motor shaft takes 2·40·sin 45° (derived)', () => {
+  it('when the drive pulleys wrap θ at 40 N pretension, then each motor shaft takes 2·40·sin(θ/2) (derived)', () => {
     const r = evaluateDesign(design());
-    expect(r.loads.motorShaftRadialN.atPretension).toBeCloseTo(80 * Math.sin(Math.PI / 4), 9);
+    const wrap = (r.belts[0].driveWrapDeg * Math.PI) / 180;
+    expect(r.loads.motorShaftRadialN.atPretension).toBeCloseTo(80 * Math.sin(wrap / 2), 9);
   });
 
   it('when 1.2 A flows in 1.8 Ω phases, then each motor loses 5.184 W and the supply covers the sum with its margin (derived)', () => {
