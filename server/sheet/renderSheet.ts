@@ -5,6 +5,7 @@ import { BASE_FONT, sheetFontFiles } from './fonts';
 import { userTextRuns, utcStamp } from './format';
 import { COLOR, type Content, type ContentObject, contentWidth, PAGE_MARGINS, STYLES } from './layout';
 import { wordmarkGlyph } from './plots/glyphs';
+import { jobSection, secondLayerSection } from './secondLayerSections';
 import { layoutSection } from './layoutSection';
 import { plotsSection } from './plotsSection';
 import {
@@ -155,6 +156,8 @@ export function buildSheetDoc(input: SheetInput): SheetDocDefinition {
       ...stiffnessSection(data),
       ...plotsSection(data, width),
       ...partsSection(data.result),
+      ...secondLayerSection(data, width, '9'),
+      ...jobSection(data, width, '10'),
     ],
   };
 }

@@ -98,7 +98,7 @@ const crossShaftSchema = z.strictObject({
 
 /** Ratings the radial loads on motor shafts and idlers are checked against (typical values as defaults). */
 const radialLoadRatingSchema = z.strictObject({
-  motorShaftN: pos(1e6, 'motor shaft radial load rating').default(28),
+  motorShaftN: pos(1e6, 'motor shaft radial load rating').default(75),
   idlerN: pos(1e6, 'idler radial load rating').default(200),
 });
 
@@ -195,7 +195,7 @@ const sign = z.union([z.literal(1), z.literal(-1)], { error: 'motor direction mu
  * ringingToleranceMm 0.02, plannedAccelMmPerS2 null (the envelope's worst direction), wantedTravel null,
  * pulley.runoutMm 0.02, gantryBeam {all null: typical for the frame's extrusion size}, controller
  * {maxStepRateHz 100000, jerkMmPerS3 null}, crossShaft {diameterMm 8, shearModulusGPa 79.3 (steel)},
- * radialLoadRating {motorShaftN 28, idlerN 200}, job null (see docs/models/ for each).
+ * radialLoadRating {motorShaftN 75, idlerN 200}, job null (see docs/models/ for each).
  * Cross-field rule: yMotors 2 only for "cartesian". The frame must leave travel (checked by {@link parseDesign}).
  * @see docs/README.md (the models) and src/engine/README.md (the design document)
  */
@@ -240,7 +240,7 @@ export const designInputSchema = z
     gantryBeam: gantryBeamSchema.default({ secondMomentMm4: null, modulusGPa: null, massKgPerM: null }),
     controller: controllerSchema.default({ maxStepRateHz: 100000, jerkMmPerS3: null }),
     crossShaft: crossShaftSchema.default({ diameterMm: 8, shearModulusGPa: 79.3 }),
-    radialLoadRating: radialLoadRatingSchema.default({ motorShaftN: 28, idlerN: 200 }),
+    radialLoadRating: radialLoadRatingSchema.default({ motorShaftN: 75, idlerN: 200 }),
     /** Optional placement job (points in travel coordinates); null when the design has none. */
     job: jobSchema.nullable().default(null),
   })
@@ -368,7 +368,7 @@ export function defaultDesign(mechanism: Mechanism): DesignInput {
     gantryBeam: { secondMomentMm4: null, modulusGPa: null, massKgPerM: null },
     controller: { maxStepRateHz: 100000, jerkMmPerS3: null },
     crossShaft: { diameterMm: 8, shearModulusGPa: 79.3 },
-    radialLoadRating: { motorShaftN: 28, idlerN: 200 },
+    radialLoadRating: { motorShaftN: 75, idlerN: 200 },
     job: null,
   });
 }

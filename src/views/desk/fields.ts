@@ -576,7 +576,7 @@ export const FIELD_GROUPS: FieldGroup[] = [
         'Motor shaft radial load rating',
         'force',
         'N',
-        'Radial load the motor maker allows on the shaft (usually quoted at a distance from the flange). Default 28 N, typical for a 42 mm-frame stepper; enter the datasheet figure.',
+        'Radial load the motor maker allows on the shaft (usually quoted at a distance from the flange). Default 75 N, a typical figure for a 42 mm-frame stepper quoted at 20 mm from the flange (makers quote roughly 25–75 N); enter the datasheet figure.',
       ),
       num(
         'radialLoadRating.idlerN',

@@ -238,7 +238,7 @@ describe('parseDesign (second-layer inputs)', () => {
     expect(d.gantryBeam).toEqual({ secondMomentMm4: null, modulusGPa: null, massKgPerM: null });
     expect(d.controller).toEqual({ maxStepRateHz: 100000, jerkMmPerS3: null });
     expect(d.crossShaft).toEqual({ diameterMm: 8, shearModulusGPa: 79.3 });
-    expect(d.radialLoadRating).toEqual({ motorShaftN: 28, idlerN: 200 });
+    expect(d.radialLoadRating).toEqual({ motorShaftN: 75, idlerN: 200 });
     expect(d.job).toBeNull();
   });
 
