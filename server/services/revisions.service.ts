@@ -318,7 +318,15 @@ export function diffInputs(before: unknown, after: unknown): InputChange[] {
     else if (canonicalJson(a.get(path)) !== canonicalJson(value)) changes.push({ path, change: 'changed', old: a.get(path), new: value });
   }
   for (const [path, value] of a) if (!b.has(path)) changes.push({ path, change: 'removed', old: value, new: null });
-  return changes.sort((x, y) => x.path.localeCompare(y.path));
+  return changes.map(summariseJobPoints).sort((x, y) => x.path.localeCompare(y.path));
+}
+
+/** A job's point list (up to 1000 points) is compared whole but shown as its size, so the diff stays readable. */
+function summariseJobPoints(c: InputChange): InputChange {
+  if (c.path !== 'job.points') return c;
+  const words = (v: unknown) => (Array.isArray(v) ? `${v.length} point${v.length === 1 ? '' : 's'}` : v);
+  const same = Array.isArray(c.old) && Array.isArray(c.new) && c.old.length === c.new.length;
+  return { ...c, old: words(c.old), new: same ? `${words(c.new)}, moved` : words(c.new) };
 }
 
 type KeyResult = { key: string; label: string; unit: string; get: (r: DesignResult) => number | null | undefined };
@@ -372,6 +380,25 @@ const KEY_RESULTS: KeyResult[] = [
     get: (r) => r.stiffness.ringing.planned.amplitudeMm,
   },
   { key: 'racking.peakMomentNm', label: 'Gantry racking moment (H loop)', unit: 'N·m', get: (r) => r.racking.peakMomentNm },
+  // The second layer (docs/models/); older revisions have none of these and show them as new.
+  { key: 'errorBudget.worst.totalMm', label: 'Worst positioning error', unit: 'mm', get: (r) => r.errorBudget.worst.totalMm },
+  { key: 'stiffness.lowest.frequencyHz', label: 'Lowest of all modes', unit: 'Hz', get: (r) => r.stiffness.lowest.frequencyHz },
+  { key: 'shaping.zvDurationS', label: 'Time a ZV shaper adds per move', unit: 's', get: (r) => r.shaping.zvDurationS },
+  {
+    key: 'excitation.microstepRateHzAtCruise',
+    label: 'Microstep rate at cruise, fastest motor',
+    unit: 'Hz',
+    get: (r) => r.excitation.microstepRateHzAtCruise,
+  },
+  { key: 'heat.totalCopperLossW', label: 'Copper loss, all motors', unit: 'W', get: (r) => r.heat.totalCopperLossW },
+  { key: 'heat.supply.powerW', label: 'Supply power', unit: 'W', get: (r) => r.heat.supply.powerW },
+  {
+    key: 'loads.motorShaftRadialN.atPeak',
+    label: 'Motor shaft load at peak pull',
+    unit: 'N',
+    get: (r) => r.loads.motorShaftRadialN.atPeak,
+  },
+  { key: 'job.totalS', label: 'Job cycle time', unit: 's', get: (r) => r.job?.totalS },
   { key: 'checks.fail', label: 'Failed checks', unit: '', get: (r) => r.checks.filter((c) => c.severity === 'fail').length },
   { key: 'checks.warn', label: 'Warnings', unit: '', get: (r) => r.checks.filter((c) => c.severity === 'warn').length },
 ];

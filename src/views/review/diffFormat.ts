@@ -9,6 +9,7 @@ const EXTRA_LABELS: Record<string, string> = {
   name: 'Design name',
   description: 'Description',
   'motor.torqueCurve': 'Motor torque–speed table',
+  'job.points': 'Job points',
 };
 
 /**
