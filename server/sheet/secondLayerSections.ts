@@ -272,7 +272,8 @@ export function jobSection(data: SheetData, width: number, number: string): Cont
         {
           text:
             `  for ${job.pointCount} points: ${sig(job.moveS ?? Number.NaN, 3)} s moving, ${sig(job.dwellS, 3)} s dwelling, ` +
-            `${job.profile === 'jerk-limited' ? 'jerk-limited S-curves' : 'constant-acceleration ramps'}, each move with its own direction's limits.`,
+            `${job.profile === 'jerk-limited' ? 'jerk-limited S-curves' : 'constant-acceleration ramps'}, each move with its own direction's limits.` +
+            (job.atLimits && job.atLimits.totalS !== null ? ` As fast as the motors allow: ${sig(job.atLimits.totalS, 4)} s.` : ''),
           fontSize: 8,
         },
       ],

@@ -43,8 +43,10 @@ export interface SecondLayerFigures {
   supplyPowerW: number;
   /** Largest radial load on a motor shaft at peak pull [N]. */
   motorShaftLoadN: number;
-  /** Job cycle time (null without a job, or when some move cannot be made) [s]. */
+  /** Job cycle time at the plan (null without a job, or when some move cannot be made) [s]. */
   jobTotalS: number | null;
+  /** Job cycle time as fast as the motors allow [s]. */
+  jobAtLimitsS: number | null;
 }
 
 /**
@@ -64,6 +66,7 @@ export function secondLayerFigures(r: DesignResult): SecondLayerFigures {
     supplyPowerW: r.heat.supply.powerW,
     motorShaftLoadN: r.loads.motorShaftRadialN.atPeak,
     jobTotalS: r.job ? r.job.totalS : null,
+    jobAtLimitsS: r.job?.atLimits ? r.job.atLimits.totalS : null,
   };
 }
 

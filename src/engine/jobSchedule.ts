@@ -12,15 +12,21 @@ export interface JobPoint {
   dwellS?: number;
 }
 
-/** What the stage can do in a direction (the acceleration/speed envelope, evaluated at any angle). */
-export interface DirectionLimits {
+/** What the stage can do along one direction of travel. */
+export interface DirectionLimit {
+  /** Highest speed along the direction [m/s]. */
+  speedMPerS: number;
   /**
-   * Largest constant acceleration along a direction for a ramp that ends at a speed (every motor must have the
+   * Largest constant acceleration along the direction for a ramp that ends at a speed (every motor must have the
    * torque at every speed on the way) [m/s²].
    */
-  accelMPerS2(directionRad: number, topSpeedMPerS: number): number;
-  /** Highest speed along a direction [m/s]. */
-  speedMPerS(directionRad: number): number;
+  accelMPerS2(topSpeedMPerS: number): number;
+}
+
+/** The stage's limits along any direction (the acceleration/speed envelope, evaluated at any angle). */
+export interface DirectionLimits {
+  /** The limits along a direction [rad]; the direction's own numbers are worked out once per call. */
+  along(directionRad: number): DirectionLimit;
 }
 
 /** What limited a move. */
@@ -56,6 +62,11 @@ export interface JobResult {
   slowest: number[];
   /** Indices of points outside the travel. */
   outsideTravel: number[];
+  /**
+   * The same job as fast as the motors allow (no planned acceleration, no cruise speed; the controller's jerk kept):
+   * what the mechanism itself could do [s].
+   */
+  atLimits: { totalS: number | null; moveS: number | null } | null;
 }
 
 /** Peak speeds tried per move before refining around the best. */
@@ -76,9 +87,10 @@ function timeMove(
   planned: number | null,
   jerk: number | null,
 ): { timeS: number | null; peak: number; accel: number; limitedBy: MoveLimit } {
-  const vTop = Math.min(cruise, limits.speedMPerS(theta));
+  const along = limits.along(theta);
+  const vTop = Math.min(cruise, along.speedMPerS);
   const byMotors = vTop < cruise;
-  const accelFor = (v: number) => Math.min(planned ?? Infinity, limits.accelMPerS2(theta, v));
+  const accelFor = (v: number) => Math.min(planned ?? Infinity, along.accelMPerS2(v));
   const timeFor = (v: number): number => {
     const a = accelFor(v);
     if (!(a > 0) || !(v > 0)) return Infinity;
@@ -194,5 +206,6 @@ export function scheduleJob(args: {
     moves,
     slowest,
     outsideTravel,
+    atLimits: null,
   };
 }

@@ -13,7 +13,7 @@ import { excitation, type ExcitationResult, type ExcitationTarget } from './exci
 import type { TravelInfo } from './frame';
 import { gantryYawMap, yawSlopesMmPerRad } from './gantryYaw';
 import { copperLossW, referenceMoveRmsTorqueNm, rmsTorqueNm, supplySizing, type HeatResult } from './heat';
-import { scheduleJob, type DirectionLimits, type JobResult } from './jobSchedule';
+import { scheduleJob, type DirectionLimits, type JobPoint, type JobResult } from './jobSchedule';
 import { inverse2, multiply2, transpose2, type Matrix2 } from './linalg';
 import type { DesignInput } from './schema';
 import { shaftLoads, type LoadsResult, type PulleyLoadInput } from './shaftLoads';
@@ -357,40 +357,37 @@ function floorAt(c: PullCurve, v: number): number {
 
 /**
  * The stage's limits at any angle, from the envelope input: each motor's pull is affine in the acceleration,
- * α·a + β, and must stay within its lowest available pull up to its belt speed.
+ * α·a + β (α and β worked out once per direction), and must stay within its lowest available pull up to its
+ * belt speed.
  * @param envIn - envelope input
  * @returns acceleration [m/s²] and speed [m/s] limits along any direction
  */
 export function directionLimits(envIn: EnvelopeInput): DirectionLimits {
-  const share = (th: number): [number, number] => {
-    const c = Math.cos(th);
-    const s = Math.sin(th);
-    return [envIn.k[0][0] * c + envIn.k[0][1] * s, envIn.k[1][0] * c + envIn.k[1][1] * s];
-  };
   return {
-    accelMPerS2(th, v) {
+    along(th) {
       const f0 = motorForcesN(envIn, th, 0);
       const f1 = motorForcesN(envIn, th, 1);
-      const sh = share(th);
-      let best = Infinity;
+      const c = Math.cos(th);
+      const s = Math.sin(th);
+      const sh = [Math.abs(envIn.k[0][0] * c + envIn.k[0][1] * s), Math.abs(envIn.k[1][0] * c + envIn.k[1][1] * s)];
+      const alpha = [f1[0] - f0[0], f1[1] - f0[1]];
+      let speed = Infinity;
       for (let m = 0; m < 2; m++) {
-        const alpha = f1[m] - f0[m];
-        const beta = f0[m];
-        const p = floorAt(envIn.pull[m], v * Math.abs(sh[m]));
-        if (Math.abs(beta) > p) return 0;
-        if (Math.abs(alpha) > 1e-15) best = Math.min(best, (p - Math.sign(alpha) * beta) / Math.abs(alpha));
+        if (sh[m] > 1e-12) speed = Math.min(speed, beltSpeedForPull(envIn.pull[m], Math.abs(f0[m])) / sh[m]);
+        else if (Math.abs(f0[m]) > envIn.pull[m].pullN[0]) speed = 0;
       }
-      return Math.max(0, best);
-    },
-    speedMPerS(th) {
-      const f0 = motorForcesN(envIn, th, 0);
-      const sh = share(th);
-      let v = Infinity;
-      for (let m = 0; m < 2; m++) {
-        if (Math.abs(sh[m]) > 1e-12) v = Math.min(v, beltSpeedForPull(envIn.pull[m], Math.abs(f0[m])) / Math.abs(sh[m]));
-        else if (Math.abs(f0[m]) > envIn.pull[m].pullN[0]) v = 0;
-      }
-      return Number.isFinite(v) ? v : 0;
+      return {
+        speedMPerS: Number.isFinite(speed) ? speed : 0,
+        accelMPerS2(v) {
+          let best = Infinity;
+          for (let m = 0; m < 2; m++) {
+            const p = floorAt(envIn.pull[m], v * sh[m]);
+            if (Math.abs(f0[m]) > p) return 0;
+            if (Math.abs(alpha[m]) > 1e-15) best = Math.min(best, (p - Math.sign(alpha[m]) * f0[m]) / Math.abs(alpha[m]));
+          }
+          return Math.max(0, best);
+        },
+      };
     },
   };
 }
@@ -398,10 +395,10 @@ export function directionLimits(envIn: EnvelopeInput): DirectionLimits {
 /** One move of the reference cycle: across the travel along a direction, rest to rest. */
 function referenceMove(ctx: SecondLayerContext, deg: number, distanceMm: number) {
   const { envIn } = ctx;
-  const lim = directionLimits(envIn);
   const th = deg * DEG;
-  const speed = Math.min(envIn.cruiseMPerS, lim.speedMPerS(th));
-  const accel = Math.min(ctx.plannedAccelMPerS2, speed > 0 ? lim.accelMPerS2(th, speed) : 0);
+  const lim = directionLimits(envIn).along(th);
+  const speed = Math.min(envIn.cruiseMPerS, lim.speedMPerS);
+  const accel = Math.min(ctx.plannedAccelMPerS2, speed > 0 ? lim.accelMPerS2(speed) : 0);
   const torques = (a: number) => motorForcesN(envIn, th, a).map((f, m) => (f * ctx.pulleyRadiusM) / ctx.motorsOn[m]);
   if (!(distanceMm > 0 && speed > 0 && accel > 0)) return null;
   const acc = torques(accel);
@@ -484,6 +481,26 @@ function loadsSection(ctx: SecondLayerContext): LoadsResult {
   return shaftLoads({ pulleys, motorShaftRatingN: ctx.d.radialLoadRating.motorShaftN, idlerRatingN: ctx.d.radialLoadRating.idlerN });
 }
 
+/** A speed no stage reaches: "no cruise limit" for the job at the motors' limits [m/s]. */
+const UNLIMITED_SPEED_M_PER_S = 1000;
+
+function jobSection(ctx: SecondLayerContext, points: readonly JobPoint[]): JobResult {
+  const d = ctx.d;
+  const common = {
+    points,
+    limits: directionLimits(ctx.envIn),
+    jerkMPerS3: d.controller.jerkMmPerS3 !== null ? d.controller.jerkMmPerS3 / 1000 : null,
+    travel: { xMm: ctx.t.xMm, yMm: ctx.t.yMm },
+  };
+  const planned = scheduleJob({
+    ...common,
+    cruiseSpeedMPerS: ctx.envIn.cruiseMPerS,
+    plannedAccelMPerS2: d.plannedAccelMmPerS2 !== null ? d.plannedAccelMmPerS2 / 1000 : null,
+  });
+  const fastest = scheduleJob({ ...common, cruiseSpeedMPerS: UNLIMITED_SPEED_M_PER_S, plannedAccelMPerS2: null });
+  return { ...planned, atLimits: { totalS: fastest.totalS, moveS: fastest.moveS } };
+}
+
 /**
  * Evaluates the second layer from the first layer's numbers: the error budget on the stiffness-map grid (reusing
  * its per-point stiffness), the structural modes and the lowest of them, vibration control, excitation, heat,
@@ -495,17 +512,7 @@ function loadsSection(ctx: SecondLayerContext): LoadsResult {
 export function evaluateSecondLayer(ctx: SecondLayerContext): SecondLayerResult {
   const modes = modesSection(ctx);
   const d = ctx.d;
-  const job =
-    d.job && d.job.points.length > 0
-      ? scheduleJob({
-          points: d.job.points,
-          limits: directionLimits(ctx.envIn),
-          cruiseSpeedMPerS: ctx.envIn.cruiseMPerS,
-          plannedAccelMPerS2: d.plannedAccelMmPerS2 !== null ? d.plannedAccelMmPerS2 / 1000 : null,
-          jerkMPerS3: d.controller.jerkMmPerS3 !== null ? d.controller.jerkMmPerS3 / 1000 : null,
-          travel: { xMm: ctx.t.xMm, yMm: ctx.t.yMm },
-        })
-      : null;
+  const job = d.job && d.job.points.length > 0 ? jobSection(ctx, d.job.points) : null;
   return {
     errorBudget: errorBudgetSection(ctx),
     ...modes,

@@ -151,9 +151,11 @@ export interface ShapingResult {
   byFrequency: { frequencyHz: number[]; trapezoidalS: number[]; jerkLimitedS: number[] };
 }
 
-/** Ramp times sampled for the residual plot, as multiples of the mode's period. */
+/** Ramp times sampled for the residual plot: at least this many periods of the mode… */
 const RESIDUAL_PERIODS = 6;
-const RESIDUAL_SAMPLES = 241;
+/** …and at most this many (the samples must still resolve every lobe). */
+const MAX_RESIDUAL_PERIODS = 40;
+const RESIDUAL_SAMPLES = 401;
 /** Frequencies sampled for the "what stiffness buys" plot, as multiples of the lowest mode. */
 const FREQUENCY_FACTORS = [0.5, 0.625, 0.75, 0.875, 1, 1.25, 1.5, 1.75, 2, 2.5, 3];
 
@@ -172,11 +174,14 @@ export function vibrationControl(args: { frequencyHz: number; modeId: ModeId; sp
   const f = requireNumber('vibrationControl', 'frequencyHz', args?.frequencyHz, 0, Infinity, true);
   const v = args.speedMPerS;
   const period = 1 / f;
+  const forTolerance = rampTimeForToleranceS({ frequencyHz: f, speedMPerS: v, toleranceMm: args.toleranceMm });
+  // The plot reaches past the shortest safe ramp, so the designer sees where the curves settle under the tolerance.
+  const span = Math.min(MAX_RESIDUAL_PERIODS * period, Math.max(RESIDUAL_PERIODS * period, 1.25 * forTolerance.trapezoidalS));
   const rampTimeS: number[] = [];
   const trapezoidalMm: number[] = [];
   const jerkLimitedMm: number[] = [];
   for (let i = 0; i < RESIDUAL_SAMPLES; i++) {
-    const t = (RESIDUAL_PERIODS * period * i) / (RESIDUAL_SAMPLES - 1);
+    const t = (span * i) / (RESIDUAL_SAMPLES - 1);
     rampTimeS.push(t);
     trapezoidalMm.push(rampResidualVibrationMm({ frequencyHz: f, speedMPerS: v, rampTimeS: t }));
     jerkLimitedMm.push(rampResidualVibrationMm({ frequencyHz: f, speedMPerS: v, rampTimeS: t, jerkTimeS: t / 2 }));
@@ -195,7 +200,7 @@ export function vibrationControl(args: { frequencyHz: number; modeId: ModeId; sp
     zvdDurationS: zvdShaperDurationS({ frequencyHz: f }),
     rampSpeedMPerS: v,
     toleranceMm: args.toleranceMm,
-    rampTimeForTolerance: rampTimeForToleranceS({ frequencyHz: f, speedMPerS: v, toleranceMm: args.toleranceMm }),
+    rampTimeForTolerance: forTolerance,
     residual: { rampTimeS, trapezoidalMm, jerkLimitedMm },
     byFrequency,
   };

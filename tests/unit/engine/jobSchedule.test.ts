@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { scheduleJob, type DirectionLimits } from '@/engine';
 
 /** Limits that are the same in every direction and at every speed. */
-const flat = (accel: number, speed: number): DirectionLimits => ({ accelMPerS2: () => accel, speedMPerS: () => speed });
+const flat = (accel: number, speed: number): DirectionLimits => ({ along: () => ({ speedMPerS: speed, accelMPerS2: () => accel }) });
 
 describe('scheduleJob', () => {
   it.each([
@@ -33,8 +33,7 @@ describe('scheduleJob', () => {
   it('when each move has its own direction limits, then each move uses them and dwells add up', () => {
     // Arrange: the stage accelerates at 10 m/s² along the axes and at 2 m/s² along the diagonals
     const limits: DirectionLimits = {
-      accelMPerS2: (th) => (Math.abs(Math.sin(2 * th)) > 0.5 ? 2 : 10),
-      speedMPerS: () => 1,
+      along: (th) => ({ speedMPerS: 1, accelMPerS2: () => (Math.abs(Math.sin(2 * th)) > 0.5 ? 2 : 10) }),
     };
     const points = [
       { xMm: 0, yMm: 0, dwellS: 0.1 },
@@ -63,7 +62,7 @@ describe('scheduleJob', () => {
 
   it('when the motors lose acceleration with speed, then the move peaks at the quickest speed (independent: dense scan)', () => {
     // Arrange: a(v) = 8·(1 − v/0.6) m/s², cruise allowed up to 0.5 m/s, 0.4 m move
-    const limits: DirectionLimits = { accelMPerS2: (_th, v) => 8 * (1 - v / 0.6), speedMPerS: () => 0.6 };
+    const limits: DirectionLimits = { along: () => ({ speedMPerS: 0.6, accelMPerS2: (v) => 8 * (1 - v / 0.6) }) };
     const s = 0.4;
     let best = Infinity;
     for (let i = 1; i <= 200000; i++) {
@@ -144,7 +143,7 @@ describe('scheduleJob', () => {
         { xMm: 0, yMm: 0 },
         { xMm: 50, yMm: 50 },
       ],
-      limits: { accelMPerS2: () => 0, speedMPerS: () => 0 },
+      limits: { along: () => ({ speedMPerS: 0, accelMPerS2: () => 0 }) },
       cruiseSpeedMPerS: 0.3,
       plannedAccelMPerS2: 3,
       jerkMPerS3: null,

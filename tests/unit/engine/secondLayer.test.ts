@@ -103,6 +103,21 @@ describe('evaluateSecondLayer (through evaluateDesign)', () => {
     expect(r.job!.moves[1].directionDeg).toBeCloseTo(180, 9);
   });
 
+  it('when the motors could go faster than the plan, then the job at the motors’ limits is quicker, and never slower', () => {
+    const d = design((x) => ({
+      ...x,
+      job: {
+        points: [
+          { xMm: 10, yMm: 10 },
+          { xMm: 210, yMm: 150 },
+          { xMm: 30, yMm: 60 },
+        ],
+      },
+    }));
+    const job = evaluateDesign(d).job!;
+    expect(job.atLimits!.totalS!).toBeLessThan(job.totalS!);
+  });
+
   it('when a job has no points, then there is no job section', () => {
     expect(evaluateDesign(design((x) => ({ ...x, job: { points: [] } }))).job).toBeNull();
   });
@@ -129,11 +144,11 @@ describe('directionLimits', () => {
     const lim = directionLimits(inp);
     // Act / Assert: every 15th direction
     for (let i = 0; i < 360; i += 15) {
-      const th = (env.directionsDeg[i] * Math.PI) / 180;
-      expect(lim.accelMPerS2(th, 0)).toBeCloseTo(env.accelMaxMPerS2[i], 6);
-      expect(lim.speedMPerS(th)).toBeCloseTo(env.speedMaxMPerS[i], 6);
+      const along = lim.along((env.directionsDeg[i] * Math.PI) / 180);
+      expect(along.accelMPerS2(0)).toBeCloseTo(env.accelMaxMPerS2[i], 6);
+      expect(along.speedMPerS).toBeCloseTo(env.speedMaxMPerS[i], 6);
       // the acceleration left for a ramp that ends at the top speed is gone
-      expect(lim.accelMPerS2(th, env.speedMaxMPerS[i])).toBeLessThan(1e-6 + env.accelMaxMPerS2[i] * 0.01);
+      expect(along.accelMPerS2(env.speedMaxMPerS[i])).toBeLessThan(1e-6 + env.accelMaxMPerS2[i] * 0.01);
     }
   });
 });
