@@ -1,4 +1,5 @@
 import { requireNumber } from './errors';
+import { sampledGridMap } from './gridSampling';
 import type { Matrix2 } from './linalg';
 
 // Positioning-error budget (docs/models/error-budget.md): belt stretch under load, the motors' load angle, the
@@ -140,6 +141,8 @@ export interface ErrorBudgetInput {
   runoutMm: number;
   /** Every how many directions the map samples (the worst point is then checked in every direction). */
   mapStride: number;
+  /** Every how many grid points the map is evaluated exactly, interpolated in between (default 1: all). */
+  gridStride?: number;
 }
 
 /**
@@ -193,32 +196,23 @@ export function errorBudgetMap(
     const det = a * d - b * b;
     return [d / det - cm[0][0], -b / det - (cm[0][1] + cm[1][0]) / 2, a / det - cm[1][1]];
   };
-  const totalMm: number[][] = [];
-  let worstP = 0;
-  let worstV = -Infinity;
-  for (let iy = 0; iy < ny; iy++) {
-    const row = new Array<number>(nx);
-    for (let ix = 0; ix < nx; ix++) {
-      const p = iy * nx + ix;
-      const [c11, c12, c22] = compliance(p);
-      // Coefficients of |C·F|² in mm² (C in m/N → ×1e6).
-      const g11 = (c11 * c11 + c12 * c12) * 1e6;
-      const g12 = c12 * (c11 + c22) * 1e6;
-      const g22 = (c12 * c12 + c22 * c22) * 1e6;
-      let best = 0;
-      for (let j = 0; j < m; j++) {
-        // A positive semi-definite form: round-off may give −0 or a NaN that simply loses the comparison.
-        const t = Math.sqrt(g11 * fa[j] + g12 * fb[j] + g22 * fc[j]) + la[j];
-        if (t > best) best = t;
-      }
-      row[ix] = best + fixed;
-      if (row[ix] > worstV) {
-        worstV = row[ix];
-        worstP = p;
-      }
+  const pointTotal = (ix: number, iy: number): number => {
+    const [c11, c12, c22] = compliance(iy * nx + ix);
+    // Coefficients of |C·F|² in mm² (C in m/N → ×1e6).
+    const g11 = (c11 * c11 + c12 * c12) * 1e6;
+    const g12 = c12 * (c11 + c22) * 1e6;
+    const g22 = (c12 * c12 + c22 * c22) * 1e6;
+    let best = 0;
+    for (let j = 0; j < m; j++) {
+      // A positive semi-definite form: round-off may give −0 or a NaN that simply loses the comparison.
+      const t = Math.sqrt(g11 * fa[j] + g12 * fb[j] + g22 * fc[j]) + la[j];
+      if (t > best) best = t;
     }
-    totalMm.push(row);
-  }
+    return best + fixed;
+  };
+  const sampled = sampledGridMap(nx, ny, Math.max(1, Math.floor(inp.gridStride ?? 1)), pointTotal, 'max');
+  const totalMm = sampled.values;
+  const worstP = sampled.iy * nx + sampled.ix;
   // At the worst point, every direction.
   const [c11, c12, c22] = compliance(worstP);
   let worst: ErrorBudgetPoint | null = null;

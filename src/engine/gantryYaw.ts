@@ -1,4 +1,5 @@
 import { solveLoop, type BeltLayout, type LayoutLoop } from './beltLayout';
+import { sampledGridMap } from './gridSampling';
 import type { YawMass } from './structuralModes';
 
 // Gantry yaw from the belt layout (docs/models/structural-modes.md): how each belt piece's length changes when the
@@ -143,26 +144,23 @@ export function gantryYawMap(args: {
   ny: number;
   massAt: (ix: number) => YawMass;
   halfSpanMm: number;
+  /** Every how many grid points the yaw is solved exactly, interpolated in between (default 1: all). */
+  gridStride?: number;
 }): number[][] {
   const { kNPerM: k, yawNPerRad: y, nx, ny } = args;
   const masses = Array.from({ length: nx }, (_, ix) => args.massAt(ix));
   const half = args.halfSpanMm / 1000;
   const kk = [0, 0, 0, 0, 0, 0];
-  const out: number[][] = [];
-  for (let iy = 0; iy < ny; iy++) {
-    const row = new Array<number>(nx);
-    for (let ix = 0; ix < nx; ix++) {
-      const p = iy * nx + ix;
-      kk[0] = k.xx[p];
-      kk[1] = k.xy[p];
-      kk[2] = k.yy[p];
-      kk[3] = y.xf[p];
-      kk[4] = y.yf[p];
-      kk[5] = y.ff[p];
-      const m = masses[ix];
-      row[ix] = yawPointHz(kk, m.xKg, m.yKg, m.couplingKgM, m.yawInertiaKgM2, half);
-    }
-    out.push(row);
-  }
-  return out;
+  const at = (ix: number, iy: number): number => {
+    const p = iy * nx + ix;
+    kk[0] = k.xx[p];
+    kk[1] = k.xy[p];
+    kk[2] = k.yy[p];
+    kk[3] = y.xf[p];
+    kk[4] = y.yf[p];
+    kk[5] = y.ff[p];
+    const m = masses[ix];
+    return yawPointHz(kk, m.xKg, m.yKg, m.couplingKgM, m.yawInertiaKgM2, half);
+  };
+  return sampledGridMap(nx, ny, Math.max(1, Math.floor(args.gridStride ?? 1)), at, 'min').values;
 }

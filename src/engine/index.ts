@@ -160,6 +160,7 @@ export {
   type ErrorBudgetInput,
 } from './errorBudget';
 export { yawSlopesMmPerRad, gantryYawMap } from './gantryYaw';
+export { sampledGridMap, gridStride } from './gridSampling';
 export {
   evaluateSecondLayer,
   structureStiffness,

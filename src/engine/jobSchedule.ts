@@ -1,5 +1,5 @@
 import { requireNumber } from './errors';
-import { jerkLimitedMoveTimeS, moveTimeS } from './moveTime';
+import { sCurveTime, trapezoidTime } from './moveTime';
 
 // Job timing (docs/models/job-timing.md): a list of XY points becomes move-by-move times, each move limited by
 // what the stage can do in its own direction.
@@ -71,6 +71,8 @@ export interface JobResult {
 
 /** Peak speeds tried per move before refining around the best. */
 const SPEED_SAMPLES = 24;
+/** Golden-section steps of the refinement: the bracket shrinks to 0.618^30 ≈ 5e-7 of two samples. */
+const GOLDEN_STEPS = 30;
 /** Moves listed as the slowest. */
 const SLOWEST_COUNT = 5;
 
@@ -94,8 +96,7 @@ function timeMove(
   const timeFor = (v: number): number => {
     const a = accelFor(v);
     if (!(a > 0) || !(v > 0)) return Infinity;
-    const args = { distanceMm: s * 1000, speedMmPerS: v * 1000, accelMmPerS2: a * 1000 };
-    return jerk ? jerkLimitedMoveTimeS({ ...args, jerkMmPerS3: jerk * 1000 }) : moveTimeS(args);
+    return jerk ? sCurveTime(s, v, a, jerk) : trapezoidTime(s, v, a);
   };
   // Whether the profile reaches its peak speed (then the speed limit binds) or turns back before (the acceleration).
   const reaches = (v: number, a: number) =>
@@ -123,13 +124,28 @@ function timeMove(
     const t = timeFor(v);
     if (t < best.t) best = { v, t };
   }
+  // Golden-section search in the bracket around the best sample (one new evaluation per step).
   let lo = Math.max(1e-9, best.v - vTop / SPEED_SAMPLES);
   let hi = Math.min(vTop, best.v + vTop / SPEED_SAMPLES);
-  for (let i = 0; i < 40; i++) {
-    const m1 = lo + (hi - lo) / 3;
-    const m2 = hi - (hi - lo) / 3;
-    if (timeFor(m1) <= timeFor(m2)) hi = m2;
-    else lo = m1;
+  const g = (Math.sqrt(5) - 1) / 2;
+  let m1 = hi - g * (hi - lo);
+  let m2 = lo + g * (hi - lo);
+  let t1 = timeFor(m1);
+  let t2 = timeFor(m2);
+  for (let i = 0; i < GOLDEN_STEPS; i++) {
+    if (t1 <= t2) {
+      hi = m2;
+      m2 = m1;
+      t2 = t1;
+      m1 = hi - g * (hi - lo);
+      t1 = timeFor(m1);
+    } else {
+      lo = m1;
+      m1 = m2;
+      t1 = t2;
+      m2 = lo + g * (hi - lo);
+      t2 = timeFor(m2);
+    }
   }
   const v = (lo + hi) / 2;
   const t = timeFor(v) <= best.t ? { v, t: timeFor(v) } : best;

@@ -36,12 +36,35 @@ export function jerkLimitedMoveTimeS(args: { distanceMm: number; speedMmPerS: nu
   const v = requireNumber(sc, 'speedMmPerS', args?.speedMmPerS, 0, Infinity, true);
   const a = requireNumber(sc, 'accelMmPerS2', args?.accelMmPerS2, 0, Infinity, true);
   const j = requireNumber(sc, 'jerkMmPerS3', args?.jerkMmPerS3, 0, Infinity, true);
+  return sCurveTime(s, v, a, j);
+}
+
+/** Time to reach a speed from rest under an acceleration and a jerk limit (any consistent units). */
+function sCurveRampTime(peak: number, a: number, j: number): number {
+  return peak >= (a * a) / j ? peak / a + a / j : 2 * Math.sqrt(peak / j);
+}
+
+/**
+ * The arithmetic of {@link jerkLimitedMoveTimeS} for callers that have already checked their numbers (the job
+ * scheduler calls it thousands of times per evaluation).
+ * @param s - distance, v - speed limit, a - acceleration limit, j - jerk limit (any consistent units, all > 0 but s ≥ 0)
+ * @returns move time
+ */
+export function sCurveTime(s: number, v: number, a: number, j: number): number {
   if (s === 0) return 0;
-  const ramp = (peak: number) => (peak >= (a * a) / j ? peak / a + a / j : 2 * Math.sqrt(peak / j));
-  const tv = ramp(v);
+  const tv = sCurveRampTime(v, a, j);
   if (s >= v * tv) return s / v + tv;
   const vp = Math.cbrt((s * s * j) / 4);
-  if (vp <= (a * a) / j) return 2 * ramp(vp);
+  if (vp <= (a * a) / j) return 2 * sCurveRampTime(vp, a, j);
   const vq = (-(a * a) / j + Math.sqrt((a * a * a * a) / (j * j) + 4 * a * s)) / 2;
-  return 2 * ramp(vq);
+  return 2 * sCurveRampTime(vq, a, j);
+}
+
+/**
+ * The arithmetic of {@link moveTimeS} for callers that have already checked their numbers.
+ * @param s - distance, v - speed, a - acceleration (any consistent units, v and a > 0)
+ * @returns move time
+ */
+export function trapezoidTime(s: number, v: number, a: number): number {
+  return s >= (v * v) / a ? s / v + v / a : 2 * Math.sqrt(s / a);
 }

@@ -12,6 +12,7 @@ import {
 import { excitation, type ExcitationResult, type ExcitationTarget } from './excitation';
 import type { TravelInfo } from './frame';
 import { gantryYawMap, yawSlopesMmPerRad } from './gantryYaw';
+import { gridStride } from './gridSampling';
 import { copperLossW, referenceMoveRmsTorqueNm, rmsTorqueNm, supplySizing, type HeatResult } from './heat';
 import { scheduleJob, type DirectionLimits, type JobPoint, type JobResult } from './jobSchedule';
 import { inverse2, multiply2, transpose2, type Matrix2 } from './linalg';
@@ -234,6 +235,7 @@ function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
     deadbandMm,
     runoutMm,
     mapStride: ERROR_MAP_STRIDE,
+    gridStride: gridStride(map.xMm.length),
   });
   return {
     ...grid,
@@ -284,6 +286,7 @@ function modesSection(ctx: SecondLayerContext): Pick<SecondLayerResult, 'modes' 
       nx,
       ny,
       halfSpanMm: beam.spanMm / 2,
+      gridStride: gridStride(nx),
       massAt: (ix) =>
         gantryYawMass({
           xKg: ctx.envIn.xKg,
