@@ -171,3 +171,4 @@ export {
   type StructureInfo,
 } from './secondLayer';
 export { type HeatResult } from './heat';
+export { jobTime } from './jobTime';
