@@ -106,7 +106,7 @@ export interface ErrorBudgetPoint {
   directionDeg: number;
 }
 
-/** Error-budget section of the result (format.md: errorBudget.worst, errorBudget.totalMm). */
+/** Error-budget section of the result (docs/models/error-budget.md). */
 export interface ErrorBudgetResult {
   /** The point and direction where the total is largest, with each term there. */
   worst: ErrorBudgetPoint;

@@ -75,7 +75,7 @@ export function meshCrossings(args: { pitchMm: number; topBeltSpeedMPerS: number
   return out.sort((a, b) => a.fromBeltSpeedMPerS - b.fromBeltSpeedMPerS);
 }
 
-/** Excitation section of the result (format.md: excitation.*). */
+/** Excitation section of the result (docs/models/excitation.md). */
 export interface ExcitationResult {
   /** Tooth-mesh frequency at the cruise speed, fastest motor, worst direction [Hz]. */
   toothMeshHzAtCruise: number;

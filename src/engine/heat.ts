@@ -107,7 +107,7 @@ export function referenceMoveRmsTorqueNm(args: {
   };
 }
 
-/** Heat and supply section of the result (format.md: heat.motors[], heat.supply). */
+/** Heat and supply section of the result (docs/models/heat-and-supply.md). */
 export interface HeatResult {
   /** Every motor (two on the Y coordinate of a cartesian stage with two Y motors). */
   motors: {

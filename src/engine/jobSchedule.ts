@@ -47,7 +47,7 @@ export interface JobMove {
   limitedBy: MoveLimit;
 }
 
-/** Job section of the result (format.md: job.totalS, job.moves[]). */
+/** Job section of the result (docs/models/job-timing.md). */
 export interface JobResult {
   /** Moves plus dwells; null when some move cannot be made [s]. */
   totalS: number | null;

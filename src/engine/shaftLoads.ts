@@ -49,7 +49,7 @@ export interface PulleyLoad {
   ratingN: number;
 }
 
-/** Loads section of the result (format.md: loads.motorShaftRadialN, loads.idlerRadialN). */
+/** Loads section of the result (docs/models/shaft-loads.md). */
 export interface LoadsResult {
   /** Largest radial load on any motor shaft [N]. */
   motorShaftRadialN: { atPretension: number; atPeak: number };
