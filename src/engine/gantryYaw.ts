@@ -129,7 +129,7 @@ function yawPointHz(k: number[], mx: number, my: number, c: number, j: number, h
  * The gantry yaw mode at every grid point from the map's condensed stiffness (x, y, φ) and the gantry's mass
  * data, which depends on where the carriage sits along the gantry.
  * @param args.kNPerM - condensed x/y stiffness per point, flat [iy·nx + ix] [N/m]
- * @param args.yawNPerRad - condensed yaw rows per point [N/rad, N·m/rad]
+ * @param args.yawAt - condensed yaw rows at a grid point [N/rad, N·m/rad]
  * @param args.nx - grid columns
  * @param args.ny - grid rows
  * @param args.massAt - mass data with the carriage in column ix
@@ -139,7 +139,7 @@ function yawPointHz(k: number[], mx: number, my: number, c: number, j: number, h
  */
 export function gantryYawMap(args: {
   kNPerM: { xx: Float64Array; xy: Float64Array; yy: Float64Array };
-  yawNPerRad: { xf: Float64Array; yf: Float64Array; ff: Float64Array };
+  yawAt: (ix: number, iy: number) => { xf: number; yf: number; ff: number };
   nx: number;
   ny: number;
   massAt: (ix: number) => YawMass;
@@ -147,7 +147,7 @@ export function gantryYawMap(args: {
   /** Every how many grid points the yaw is solved exactly, interpolated in between (default 1: all). */
   gridStride?: number;
 }): number[][] {
-  const { kNPerM: k, yawNPerRad: y, nx, ny } = args;
+  const { kNPerM: k, nx, ny } = args;
   const masses = Array.from({ length: nx }, (_, ix) => args.massAt(ix));
   const half = args.halfSpanMm / 1000;
   const kk = [0, 0, 0, 0, 0, 0];
@@ -156,9 +156,10 @@ export function gantryYawMap(args: {
     kk[0] = k.xx[p];
     kk[1] = k.xy[p];
     kk[2] = k.yy[p];
-    kk[3] = y.xf[p];
-    kk[4] = y.yf[p];
-    kk[5] = y.ff[p];
+    const y = args.yawAt(ix, iy);
+    kk[3] = y.xf;
+    kk[4] = y.yf;
+    kk[5] = y.ff;
     const m = masses[ix];
     return yawPointHz(kk, m.xKg, m.yKg, m.couplingKgM, m.yawInertiaKgM2, half);
   };

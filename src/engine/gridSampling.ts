@@ -10,15 +10,24 @@ function nodes(n: number, stride: number): number[] {
   return out;
 }
 
-/** Sampling stride for a grid of `points` per axis: exact below 41 points, every other point up to 81, then every third. */
-export function gridStride(points: number): number {
-  return points <= 41 ? 1 : points <= 81 ? 2 : 3;
+/** Most sample points whose neighbourhood is refined around the extreme. */
+const MAX_REFINED = 4;
+
+/**
+ * Sampling stride for a grid of `points` per axis: every point up to 41, every other up to 81, then every third
+ * (every fourth for the smoothest maps).
+ * @param points - grid points per axis
+ * @param isVerySmooth - the quantity varies slowly enough for a coarser sampling (the yaw mode)
+ */
+export function gridStride(points: number, isVerySmooth = false): number {
+  return points <= 41 ? 1 : points <= 81 ? 2 : isVerySmooth ? 4 : 3;
 }
 
 /**
  * A map over an nx × ny grid evaluated exactly at every `stride`-th point of each axis (and the last) and filled in
- * between by bilinear interpolation; then the extreme (`'min'` or `'max'`) is made exact: every point around the
- * extreme node is evaluated exactly, and so is every point whose interpolated value comes within `margin` of it.
+ * between by bilinear interpolation; then the extreme (`'min'` or `'max'`) is made exact: every point between the
+ * best sample and its neighbouring samples is evaluated exactly, and so around the few next-best samples within
+ * `margin` of it.
  * @param nx - grid columns
  * @param ny - grid rows
  * @param stride - sampling stride (1: every point exact)
@@ -33,13 +42,14 @@ export function sampledGridMap(
   stride: number,
   at: (ix: number, iy: number) => number,
   extreme: 'min' | 'max',
-  margin = 0.02,
+  margin = 0.01,
 ): { values: number[][]; ix: number; iy: number } {
   const xs = nodes(nx, stride);
   const ys = nodes(ny, stride);
-  const values: number[][] = Array.from({ length: ny }, () => new Array<number>(nx));
-  const exact: boolean[][] = Array.from({ length: ny }, () => new Array<boolean>(nx).fill(false));
-  for (const iy of ys) for (const ix of xs) ((values[iy][ix] = at(ix, iy)), (exact[iy][ix] = true));
+  // Packed rows (filled with 0 first) keep the arrays in fast elements mode for every later reader.
+  const values: number[][] = Array.from({ length: ny }, () => new Array<number>(nx).fill(0));
+  const exact = new Uint8Array(nx * ny);
+  for (const iy of ys) for (const ix of xs) ((values[iy][ix] = at(ix, iy)), (exact[iy * nx + ix] = 1));
   if (stride > 1) {
     // Interpolate along the exact rows, then down every column.
     for (const iy of ys) {
@@ -58,20 +68,28 @@ export function sampledGridMap(
       }
     }
   }
-  const better = (u: number, v: number) => (extreme === 'min' ? u < v : u > v);
-  let best = { v: values[0][0], ix: 0, iy: 0 };
-  for (let iy = 0; iy < ny; iy++) for (let ix = 0; ix < nx; ix++) if (better(values[iy][ix], best.v)) best = { v: values[iy][ix], ix, iy };
+  const sign = extreme === 'min' ? 1 : -1;
+  const better = (u: number, v: number) => sign * u < sign * v;
+  // The extreme among the exact samples (interpolated points never beat their corners).
+  let best = { v: values[ys[0]][xs[0]], ix: xs[0], iy: ys[0] };
+  for (const iy of ys) for (const ix of xs) if (better(values[iy][ix], best.v)) best = { v: values[iy][ix], ix, iy };
   if (stride > 1) {
+    // Exact values around the best sample and around every other sample within `margin` of it (at most a few: a
+    // flat map would otherwise be evaluated whole), so the extreme the map reports is exact where it lies.
     const threshold = extreme === 'min' ? best.v * (1 + margin) : best.v * (1 - margin);
     const near = (v: number) => (extreme === 'min' ? v <= threshold : v >= threshold);
-    const todo: [number, number][] = [];
-    for (let iy = 0; iy < ny; iy++)
-      for (let ix = 0; ix < nx; ix++)
-        if (!exact[iy][ix] && (near(values[iy][ix]) || (Math.abs(ix - best.ix) <= stride && Math.abs(iy - best.iy) <= stride)))
-          todo.push([ix, iy]);
-    for (const [ix, iy] of todo) {
-      values[iy][ix] = at(ix, iy);
-      if (better(values[iy][ix], best.v)) best = { v: values[iy][ix], ix, iy };
+    const candidates: [number, number][] = [[best.ix, best.iy]];
+    for (const iy of ys) for (const ix of xs) if ((ix !== best.ix || iy !== best.iy) && near(values[iy][ix])) candidates.push([ix, iy]);
+    candidates.sort((a, b) => (extreme === 'min' ? values[a[1]][a[0]] - values[b[1]][b[0]] : values[b[1]][b[0]] - values[a[1]][a[0]]));
+    for (const [cx, cy] of candidates.slice(0, MAX_REFINED)) {
+      for (let iy = Math.max(0, cy - stride + 1); iy <= Math.min(ny - 1, cy + stride - 1); iy++) {
+        for (let ix = Math.max(0, cx - stride + 1); ix <= Math.min(nx - 1, cx + stride - 1); ix++) {
+          if (exact[iy * nx + ix]) continue;
+          values[iy][ix] = at(ix, iy);
+          exact[iy * nx + ix] = 1;
+          if (better(values[iy][ix], best.v)) best = { v: values[iy][ix], ix, iy };
+        }
+      }
     }
   }
   return { values, ix: best.ix, iy: best.iy };

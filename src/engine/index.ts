@@ -172,3 +172,4 @@ export {
 } from './secondLayer';
 export { type HeatResult } from './heat';
 export { jobTime } from './jobTime';
+export { secondLayerChecks, STEP_RATE_WARN_SHARE, SHAFT_LOAD_FAIL_FACTOR } from './secondLayerChecks';

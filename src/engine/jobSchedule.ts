@@ -70,9 +70,12 @@ export interface JobResult {
 }
 
 /** Peak speeds tried per move before refining around the best. */
-const SPEED_SAMPLES = 24;
-/** Golden-section steps of the refinement: the bracket shrinks to 0.618^30 ≈ 5e-7 of two samples. */
-const GOLDEN_STEPS = 30;
+const SPEED_SAMPLES = 8;
+/**
+ * Golden-section steps of the refinement: the bracket shrinks to 0.618^24 ≈ 1e-5 of two samples; the move time is
+ * flat at its minimum, so its error is of the order of the square of that.
+ */
+const GOLDEN_STEPS = 24;
 /** Moves listed as the slowest. */
 const SLOWEST_COUNT = 5;
 

@@ -29,7 +29,6 @@ import {
   type ModeId,
   type ModeReport,
 } from './structuralModes';
-import { spanFrequencyHz } from './tension';
 import { vibrationControl, type ShapingResult } from './vibrationControl';
 
 // The second layer of the evaluation (docs/models/): error budget, structural modes, vibration control,
@@ -277,39 +276,10 @@ function modesSection(ctx: SecondLayerContext): Pick<SecondLayerResult, 'modes' 
   };
   const notHeld: SecondLayerResult['modesNotHeld'] = [];
   const yawId: ModeId = d.mechanism === 'cartesian' && d.yMotors === 1 ? 'cross-shaft' : 'gantry-yaw';
-  if (map.yawNPerRad) {
-    const mid = d.frame.outerXMm / 2;
-    const xMotor = t.layout.loops.flatMap((l) => l.elements).find((e) => e.kind === 'drive' && e.body === 'gantry');
-    const yaw = gantryYawMap({
-      kNPerM: map.kNPerM,
-      yawNPerRad: map.yawNPerRad,
-      nx,
-      ny,
-      halfSpanMm: beam.spanMm / 2,
-      gridStride: gridStride(nx),
-      massAt: (ix) =>
-        gantryYawMass({
-          xKg: ctx.envIn.xKg,
-          gantryKg: d.masses.gantryKg,
-          spanMm: beam.spanMm,
-          points: [
-            { massKg: carriageKg, offsetMm: t.originXMm + map.xMm[ix] - mid },
-            ...(d.mechanism === 'cartesian' && xMotor ? [{ massKg: d.motor.massKg, offsetMm: xMotor.baseXMm - mid }] : []),
-          ],
-        }),
-    });
-    if (yaw.some((row) => row.some((f) => f === 0))) {
-      notHeld.push({
-        id: yawId,
-        label: MODE_LABELS[yawId],
-        message:
-          d.mechanism === 'hbot'
-            ? 'The H belt does not hold the gantry square: the carriage can slide along X while the gantry turns without stretching any belt piece. Only the Y guides keep the gantry from turning (see the racking check).'
-            : 'The belts do not hold the gantry square: only the Y guides keep it from turning.',
-      });
-    } else {
-      maps[yawId] = yaw;
-    }
+  if (map.yawAt) {
+    const yaw = yawMap(ctx);
+    if (yaw) maps[yawId] = yaw;
+    else notHeld.push(yawNotHeld(d, yawId));
   }
   const r = lowestModeMap({ xMm: map.xMm, yMm: map.yMm, maps });
   return {
@@ -317,6 +287,60 @@ function modesSection(ctx: SecondLayerContext): Pick<SecondLayerResult, 'modes' 
     modesNotHeld: notHeld,
     lowest: r.lowest,
     lowestMap: { frequencyHz: r.lowestFrequencyHz, modeId: r.lowestModeId },
+  };
+}
+
+/** The gantry yaw mode over the grid, or null when the belts leave yaw unheld (checked first at the grid's centre). */
+function yawMap(ctx: SecondLayerContext): number[][] | null {
+  const { d, t, map } = ctx;
+  const nx = map.xMm.length;
+  const ny = map.yMm.length;
+  const beam = ctx.structure.info.gantryBeam;
+  const carriageKg = d.masses.carriageKg + d.masses.toolKg;
+  const mid = d.frame.outerXMm / 2;
+  const xMotor = t.layout.loops.flatMap((l) => l.elements).find((e) => e.kind === 'drive' && e.body === 'gantry');
+  const massAt = (ix: number) =>
+    gantryYawMass({
+      xKg: ctx.envIn.xKg,
+      gantryKg: d.masses.gantryKg,
+      spanMm: beam.spanMm,
+      points: [
+        { massKg: carriageKg, offsetMm: t.originXMm + map.xMm[ix] - mid },
+        ...(d.mechanism === 'cartesian' && xMotor ? [{ massKg: d.motor.massKg, offsetMm: xMotor.baseXMm - mid }] : []),
+      ],
+    });
+  const args = { kNPerM: map.kNPerM, yawAt: map.yawAt!, halfSpanMm: beam.spanMm / 2, massAt };
+  // A belt layout that leaves yaw unheld leaves it unheld everywhere: one point tells (the H loop's mechanism).
+  const cx = Math.floor(nx / 2);
+  const cy = Math.floor(ny / 2);
+  const centre = gantryYawMap({
+    ...args,
+    kNPerM: pointStiffness(map, cx, cy),
+    yawAt: () => map.yawAt!(cx, cy),
+    nx: 1,
+    ny: 1,
+    massAt: () => massAt(cx),
+  });
+  if (!(centre[0][0] > 0)) return null;
+  const yaw = gantryYawMap({ ...args, nx, ny, gridStride: gridStride(nx, true) });
+  return yaw.some((row) => row.some((f) => !(f > 0))) ? null : yaw;
+}
+
+/** The map's condensed x/y stiffness of one grid point, as a 1 × 1 map. */
+function pointStiffness(map: StiffnessResult, ix: number, iy: number): StiffnessResult['kNPerM'] {
+  const p = iy * map.xMm.length + ix;
+  return { xx: Float64Array.of(map.kNPerM.xx[p]), xy: Float64Array.of(map.kNPerM.xy[p]), yy: Float64Array.of(map.kNPerM.yy[p]) };
+}
+
+/** Why the belts leave the gantry's yaw to the guides. */
+function yawNotHeld(d: DesignInput, yawId: ModeId): SecondLayerResult['modesNotHeld'][number] {
+  return {
+    id: yawId,
+    label: MODE_LABELS[yawId],
+    message:
+      d.mechanism === 'hbot'
+        ? 'The H belt does not hold the gantry square: the carriage can slide along X while the gantry turns without stretching any belt piece. Only the Y guides keep the gantry from turning (see the racking check).'
+        : 'The belts do not hold the gantry square: only the Y guides keep it from turning.',
   };
 }
 
@@ -559,7 +583,9 @@ export function spanBands(
   return model.spans
     .map((s, i) => {
       const lengths = corners.map(([x, y]) => Math.max(minSpanMm, s.l0Mm + s.gx * x + s.gy * y));
-      const f = (l: number) => spanFrequencyHz({ tensionN: d.pretensionN, linearMassKgPerM: d.belt.linearMassKgPerM, spanMm: l });
+      // The string law f = √(T/μ)/(2L) (docs/models/excitation.md), the pretension and belt already validated.
+      const wave = Math.sqrt(d.pretensionN / d.belt.linearMassKgPerM);
+      const f = (l: number) => wave / (2 * (l / 1000));
       return {
         label: labels[i] ?? `span ${i + 1}`,
         minHz: f(Math.max(...lengths)),

@@ -44,8 +44,11 @@ export interface StiffnessResult {
   matrixAtMinNPerM: [[number, number], [number, number]];
   /** Condensed carriage stiffness at every grid point, flat [iy·nx + ix] [N/m] (reused by the error budget). */
   kNPerM: { xx: Float64Array; xy: Float64Array; yy: Float64Array };
-  /** With yaw slopes: the yaw rows of the condensed stiffness at every grid point [N/rad, N·m/rad]. */
-  yawNPerRad: { xf: Float64Array; yf: Float64Array; ff: Float64Array } | null;
+  /**
+   * With yaw slopes: the yaw rows of the condensed stiffness at a grid point, condensed on demand (the yaw mode is
+   * solved at sampled points only) [N/rad, N·m/rad].
+   */
+  yawAt: ((ix: number, iy: number) => { xf: number; yf: number; ff: number }) | null;
 }
 
 function linspace(a: number, b: number, n: number): number[] {
@@ -305,30 +308,10 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   const ny = ys.length;
   const n = prep.pieces;
   const ea = inp.axialStiffnessN * 1000;
-  // Pieces whose vectors (gx, gy, gφ, t) are parallel share one outer product: sum their springs first. Corexy's
-  // two arms of a loop, for instance, are one group.
-  const groupOf = new Int32Array(n);
-  const groups: number[][] = [];
-  const vec = (r: number) => [prep.gx[r], prep.gy[r], prep.gf[r], prep.t[r * NV], prep.t[r * NV + 1], prep.t[r * NV + 2]];
-  for (let r = 0; r < n; r++) {
-    const v = vec(r);
-    let found = -1;
-    for (let g = 0; g < groups.length && found < 0; g++) {
-      const w = groups[g];
-      if (v.every((x, i) => x === w[i]) || v.every((x, i) => x === -w[i])) found = g;
-    }
-    if (found < 0) {
-      found = groups.length;
-      groups.push(v);
-    }
-    groupOf[r] = found;
-  }
-  const ng = groups.length;
-  const coef = new Float64Array(ng * NP);
-  groups.forEach((v, g) => {
-    let c = 0;
-    for (let i = 0; i < NQ; i++) for (let j = i; j < NQ; j++) coef[g * NP + c++] = v[i] * v[j];
-  });
+  // Two groupings of the pieces: without the yaw slope for the belt mode at every point (15 products), and with it
+  // for the yaw rows, condensed only where the yaw mode is asked for (21 products).
+  const plain = groupPieces(prep, false);
+  const withYaw = groupPieces(prep, true);
   // Springs that depend on one coordinate only are computed once per column or row instead of per point.
   const colK = new Float64Array(n * nx);
   const rowK = new Float64Array(n * ny);
@@ -349,13 +332,23 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   }
   // A piece with gx = gy = 0 (constant length) got ea/l0 in both tables; keep only the column value.
   for (let r = 0; r < n; r++) if (prep.gx[r] === 0 && prep.gy[r] === 0) for (let iy = 0; iy < ny; iy++) rowK[r * ny + iy] = 0;
-  const hasYaw = prep.gf.some((g) => g !== 0);
+  /** Sums each group's springs at a grid point into `kg`. */
+  const springs = (ix: number, iy: number, groupOf: Int32Array, kg: Float64Array): void => {
+    kg.fill(0);
+    for (let r = 0; r < n; r++) kg[groupOf[r]] += colK[r * nx + ix] + rowK[r * ny + iy];
+    const cx = inp.originXMm + xs[ix];
+    const cy = inp.originYMm + ys[iy];
+    for (let m = 0; m < mixed.length; m++) {
+      const r = mixed[m];
+      const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
+      kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
+    }
+  };
   const kxxA = new Float64Array(nx * ny);
   const kxyA = new Float64Array(nx * ny);
   const kyyA = new Float64Array(nx * ny);
-  const yaw = hasYaw ? { xf: new Float64Array(nx * ny), yf: new Float64Array(nx * ny), ff: new Float64Array(nx * ny) } : null;
-  const kg = new Float64Array(ng);
-  const out = new Float64Array(6);
+  const kg = new Float64Array(plain.count);
+  const out = new Float64Array(3);
   const f: number[][] = [];
   let best = { frequencyHz: Infinity, xMm: 0, yMm: 0 };
   let bestK: [[number, number], [number, number]] = [
@@ -366,25 +359,22 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   for (let iy = 0; iy < ny; iy++) {
     const row = new Array<number>(nx);
     const cy = inp.originYMm + ys[iy];
+    const groupOf = plain.groupOf;
     for (let ix = 0; ix < nx; ix++) {
-      const cx = inp.originXMm + xs[ix];
+      // The springs of every group at this point (inline: the map's hot loop).
       kg.fill(0);
       for (let r = 0; r < n; r++) kg[groupOf[r]] += colK[r * nx + ix] + rowK[r * ny + iy];
-      for (let m = 0; m < mixed.length; m++) {
-        const r = mixed[m];
+      const cx = inp.originXMm + xs[ix];
+      for (let mi = 0; mi < mixed.length; mi++) {
+        const r = mixed[mi];
         const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
         kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
       }
-      condensePoint(kg, coef, ng, prep.h0, out);
+      condensePlain(kg, plain.coef, plain.count, prep.h0, out);
       const p = iy * nx + ix;
       kxxA[p] = out[0];
       kxyA[p] = out[1];
       kyyA[p] = out[2];
-      if (yaw) {
-        yaw.xf[p] = out[3];
-        yaw.yf[p] = out[4];
-        yaw.ff[p] = out[5];
-      }
       const lam = lowestEigenvalue2(out[0], out[1], out[2], inp.xKg, inp.yKg);
       const hz = Math.sqrt(lam > 0 ? lam : 0) / twoPi;
       row[ix] = hz;
@@ -398,6 +388,9 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
     }
     f.push(row);
   }
+  const hasYaw = prep.gf.some((g) => g !== 0);
+  const kgYaw = new Float64Array(withYaw.count);
+  const outYaw = new Float64Array(6);
   return {
     xMm: xs,
     yMm: ys,
@@ -405,6 +398,109 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
     min: best,
     matrixAtMinNPerM: bestK,
     kNPerM: { xx: kxxA, xy: kxyA, yy: kyyA },
-    yawNPerRad: yaw,
+    yawAt: hasYaw
+      ? (ix, iy) => {
+          springs(ix, iy, withYaw.groupOf, kgYaw);
+          condensePoint(kgYaw, withYaw.coef, withYaw.count, prep.h0, outYaw);
+          return { xf: outYaw[3], yf: outYaw[4], ff: outYaw[5] };
+        }
+      : null,
   };
+}
+
+/**
+ * Groups pieces whose vectors (gx, gy, [gφ,] t) are parallel: they share one outer product, so their springs are
+ * summed first (corexy's two arms of a loop, for instance, are one group).
+ * @param prep - prepared pieces
+ * @param withYaw - include the yaw slope gφ in the vectors
+ * @returns group of each piece, the number of groups and each group's products (15 without yaw, 21 with)
+ */
+function groupPieces(prep: Prepared, withYaw: boolean): { groupOf: Int32Array; count: number; coef: Float64Array } {
+  const n = prep.pieces;
+  const groupOf = new Int32Array(n);
+  const groups: number[][] = [];
+  const vec = (r: number) =>
+    withYaw
+      ? [prep.gx[r], prep.gy[r], prep.gf[r], prep.t[r * NV], prep.t[r * NV + 1], prep.t[r * NV + 2]]
+      : [prep.gx[r], prep.gy[r], prep.t[r * NV], prep.t[r * NV + 1], prep.t[r * NV + 2]];
+  for (let r = 0; r < n; r++) {
+    const v = vec(r);
+    let found = -1;
+    for (let g = 0; g < groups.length && found < 0; g++) {
+      const w = groups[g];
+      if (v.every((x, i) => x === w[i]) || v.every((x, i) => x === -w[i])) found = g;
+    }
+    if (found < 0) {
+      found = groups.length;
+      groups.push(v);
+    }
+    groupOf[r] = found;
+  }
+  const len = withYaw ? NQ : NQ - 1;
+  const np = (len * (len + 1)) / 2;
+  const coef = new Float64Array(groups.length * np);
+  groups.forEach((v, g) => {
+    let c = 0;
+    for (let i = 0; i < len; i++) for (let j = i; j < len; j++) coef[g * np + c++] = v[i] * v[j];
+  });
+  return { groupOf, count: groups.length, coef };
+}
+
+/**
+ * Static condensation at one grid point without the yaw coordinate: the 2 × 2 carriage block (x, y) from the
+ * groups' 15 products of (gx, gy, t0, t1, t2), the three motor variables eliminated by LDLᵀ.
+ * @param kg - spring of each group at this point [N/m]
+ * @param coef - the groups' 15 products each: xx xy x0 x1 x2 | yy y0 y1 y2 | 00 01 02 | 11 12 | 22
+ * @param ng - number of groups
+ * @param h0 - starting H_mm (motor springs, cross-shaft coupling): h00 h01 h02 h11 h12 h22
+ * @param out - written: kxx, kxy, kyy [N/m]
+ */
+function condensePlain(kg: Float64Array, coef: Float64Array, ng: number, h0: Float64Array, out: Float64Array): void {
+  let kxx = 0,
+    kxy = 0,
+    x0 = 0,
+    x1 = 0,
+    x2 = 0,
+    kyy = 0,
+    y0 = 0,
+    y1 = 0,
+    y2 = 0;
+  let h00 = h0[0],
+    h01 = h0[1],
+    h02 = h0[2],
+    h11 = h0[3],
+    h12 = h0[4],
+    h22 = h0[5];
+  for (let g = 0; g < ng; g++) {
+    const k = kg[g];
+    const o = g * 15;
+    kxx += k * coef[o];
+    kxy += k * coef[o + 1];
+    x0 += k * coef[o + 2];
+    x1 += k * coef[o + 3];
+    x2 += k * coef[o + 4];
+    kyy += k * coef[o + 5];
+    y0 += k * coef[o + 6];
+    y1 += k * coef[o + 7];
+    y2 += k * coef[o + 8];
+    h00 += k * coef[o + 9];
+    h01 += k * coef[o + 10];
+    h02 += k * coef[o + 11];
+    h11 += k * coef[o + 12];
+    h12 += k * coef[o + 13];
+    h22 += k * coef[o + 14];
+  }
+  const f10 = h01 / h00;
+  const f20 = h02 / h00;
+  const d1 = h11 - f10 * h01;
+  const e12 = h12 - f10 * h02;
+  const f21 = e12 / d1;
+  const d2 = h22 - f20 * h02 - f21 * e12;
+  const x1b = x1 - f10 * x0;
+  const y1b = y1 - f10 * y0;
+  const x2b = x2 - f20 * x0 - f21 * x1b;
+  const y2b = y2 - f20 * y0 - f21 * y1b;
+  out[0] = kxx - (x0 * x0) / h00 - (x1b * x1b) / d1 - (x2b * x2b) / d2;
+  out[1] = kxy - (x0 * y0) / h00 - (x1b * y1b) / d1 - (x2b * y2b) / d2;
+  out[2] = kyy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
 }

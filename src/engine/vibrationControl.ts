@@ -180,11 +180,15 @@ export function vibrationControl(args: { frequencyHz: number; modeId: ModeId; sp
   const rampTimeS: number[] = [];
   const trapezoidalMm: number[] = [];
   const jerkLimitedMm: number[] = [];
+  // The closed forms of rampResidualVibrationMm, inline: v/ω·|sinc(ωT/2)| and v/ω·sinc²(ωT/4) [mm].
+  const w = 2 * Math.PI * f;
+  const amp = (Math.abs(v) / w) * 1000;
   for (let i = 0; i < RESIDUAL_SAMPLES; i++) {
     const t = (span * i) / (RESIDUAL_SAMPLES - 1);
     rampTimeS.push(t);
-    trapezoidalMm.push(rampResidualVibrationMm({ frequencyHz: f, speedMPerS: v, rampTimeS: t }));
-    jerkLimitedMm.push(rampResidualVibrationMm({ frequencyHz: f, speedMPerS: v, rampTimeS: t, jerkTimeS: t / 2 }));
+    trapezoidalMm.push(amp * Math.abs(sinc((w * t) / 2)));
+    const q = sinc((w * t) / 4);
+    jerkLimitedMm.push(amp * q * q);
   }
   const byFrequency = { frequencyHz: [] as number[], trapezoidalS: [] as number[], jerkLimitedS: [] as number[] };
   for (const factor of FREQUENCY_FACTORS) {

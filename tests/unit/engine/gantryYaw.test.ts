@@ -93,7 +93,7 @@ describe('gantryYawMap', () => {
     const span = d.frame.outerXMm - 2 * d.frame.extrusionMm;
     const yaw = gantryYawMap({
       kNPerM: map.kNPerM,
-      yawNPerRad: map.yawNPerRad!,
+      yawAt: map.yawAt!,
       nx: map.xMm.length,
       ny: map.yMm.length,
       halfSpanMm: span / 2,
@@ -127,16 +127,17 @@ describe('gantryYawMap', () => {
           points: [{ massKg: 0.4, offsetMm: t.originXMm + map.xMm[ix] - d.frame.outerXMm / 2 }],
         });
       // Act
-      const yaw = gantryYawMap({ kNPerM: map.kNPerM, yawNPerRad: map.yawNPerRad!, nx: 3, ny: 3, halfSpanMm: span / 2, massAt });
+      const yaw = gantryYawMap({ kNPerM: map.kNPerM, yawAt: map.yawAt!, nx: 3, ny: 3, halfSpanMm: span / 2, massAt });
       // Assert
       for (let iy = 0; iy < 3; iy++)
         for (let ix = 0; ix < 3; ix++) {
           const p = iy * 3 + ix;
           const m = massAt(ix);
+          const y = map.yawAt!(ix, iy);
           const K = [
-            [map.kNPerM.xx[p], map.kNPerM.xy[p], map.yawNPerRad!.xf[p]],
-            [map.kNPerM.xy[p], map.kNPerM.yy[p], map.yawNPerRad!.yf[p]],
-            [map.yawNPerRad!.xf[p], map.yawNPerRad!.yf[p], map.yawNPerRad!.ff[p]],
+            [map.kNPerM.xx[p], map.kNPerM.xy[p], y.xf],
+            [map.kNPerM.xy[p], map.kNPerM.yy[p], y.yf],
+            [y.xf, y.yf, y.ff],
           ];
           const M = [
             [m.xKg, 0, 0],
