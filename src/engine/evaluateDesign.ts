@@ -73,6 +73,24 @@ function ringing(accel: number, fHz: number, tolMm: number): RingingFigure {
   };
 }
 
+/** Ringing at the axes' and the worst direction's limits and at the planned acceleration, at the lowest belt mode. */
+function ringingFigures(es: EnvelopeSection, fHz: number, tolMm: number, plannedAccel: number): DesignResult['stiffness']['ringing'] {
+  return {
+    x: ringing(es.axes.x.accelMaxMPerS2, fHz, tolMm),
+    y: ringing(es.axes.y.accelMaxMPerS2, fHz, tolMm),
+    worst: ringing(es.axes.worst.accelMaxMPerS2, fHz, tolMm),
+    planned: ringing(plannedAccel, fHz, tolMm),
+  };
+}
+
+/** The second layer's own sections of the result (everything but the lowest-mode fields of `stiffness`). */
+function secondLayerSections(
+  second: SecondLayerResult,
+): Pick<DesignResult, 'errorBudget' | 'modes' | 'modesNotHeld' | 'structure' | 'shaping' | 'excitation' | 'heat' | 'loads' | 'job'> {
+  const { errorBudget, modes, modesNotHeld, structure, shaping, excitation, heat, loads, job } = second;
+  return { errorBudget, modes, modesNotHeld, structure, shaping, excitation, heat, loads, job };
+}
+
 /** Drive pulley radius and the drive numbers of the result (docs/models/resolution.md). */
 function driveNumbers(d: DesignInput, k: Matrix2): { rM: number; section: DesignResult['drive'] } {
   const p = d.belt.pitchMm;
@@ -553,15 +571,8 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
   });
   const belts = beltReports(d, t, states, tensions);
   const racking = rackingSection(d, t, es.env);
-  const tol = d.ringingToleranceMm;
-  const fMin = map.min.frequencyHz;
   const plannedAccel = d.plannedAccelMmPerS2 !== null ? d.plannedAccelMmPerS2 / 1000 : es.axes.worst.accelMaxMPerS2;
-  const ringingFig = {
-    x: ringing(es.axes.x.accelMaxMPerS2, fMin, tol),
-    y: ringing(es.axes.y.accelMaxMPerS2, fMin, tol),
-    worst: ringing(es.axes.worst.accelMaxMPerS2, fMin, tol),
-    planned: ringing(plannedAccel, fMin, tol),
-  };
+  const ringingFig = ringingFigures(es, map.min.frequencyHz, d.ringingToleranceMm, plannedAccel);
   const signs = motorsAndSigns(d, kinv, m.motorsOn);
   const second = secondLayerOf(d, { k, t, states, m, es, map, structure, belts, rM, plannedAccel, motors: signs.motors });
   const checks = [
@@ -617,19 +628,11 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
       lowestFrequencyHz: map.lowestFrequencyHz,
       min: map.min,
       ringing: ringingFig,
-      toleranceMm: tol,
+      toleranceMm: d.ringingToleranceMm,
       lowest: second.lowest,
       lowestMap: second.lowestMap,
     },
-    errorBudget: second.errorBudget,
-    modes: second.modes,
-    modesNotHeld: second.modesNotHeld,
-    structure: second.structure,
-    shaping: second.shaping,
-    excitation: second.excitation,
-    heat: second.heat,
-    loads: second.loads,
-    job: second.job,
+    ...secondLayerSections(second),
     racking,
     layout: layoutDrawing({
       layout: t.layout,

@@ -181,5 +181,8 @@ describe('DesignDeskJobTab', () => {
     const rows = wrapper.findAll('[data-test="job-compare"] tbody tr');
     expect(rows).toHaveLength(3);
     expect(rows.map((r) => r.text()).join(' ')).toMatch(/CoreXY.*H-bot.*Cartesian/s);
+    // plan total, at-limits total and its moving time per mechanism
+    expect(rows[0].findAll('td')).toHaveLength(3);
+    expect(rows[0].findAll('td')[2].text()).toMatch(/\d.*s/);
   });
 });
