@@ -561,16 +561,10 @@ export function beltsSection(data: SheetData): Content[] {
       numCell(`${fixed(b.teethInMesh, 1)} (${fixed(b.driveWrapDeg, 0)}°)`),
       numCell(N(b.peakPullN)),
       numCell(
-        old
-          ? `${N(old.tightSideN)} / ${N(old.allowableTensionN)}`
-          : `${N(b.tension.worstTightN)} / ${N(b.tension.tensileAllowableN)}`,
+        old ? `${N(old.tightSideN)} / ${N(old.allowableTensionN)}` : `${N(b.tension.worstTightN)} / ${N(b.tension.tensileAllowableN)}`,
       ),
       numCell(N(old ? old.slackSideN : b.tension.worstSlackN), !old && b.tension.worstSlackN <= 0),
-      numCell(
-        old
-          ? '—'
-          : `${N(b.tension.toothLoadN)} / ${N(b.tension.toothAllowableN)}${b.tension.toothAllowableIsTypical ? '*' : ''}`,
-      ),
+      numCell(old ? '—' : `${N(b.tension.toothLoadN)} / ${N(b.tension.toothAllowableN)}${b.tension.toothAllowableIsTypical ? '*' : ''}`),
     ];
   });
   const where = (p: { xMm: number; yMm: number; directionDeg: number }) =>

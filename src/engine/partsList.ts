@@ -35,7 +35,6 @@ function row(item: string, quantity: number, pieces: Piece[]): PartsListRow {
   return { item, quantity, spec, specParts };
 }
 
-
 interface Placed {
   loop: LayoutLoop;
   el: LayoutElement;
@@ -54,10 +53,7 @@ export function partsList(p: PartsInput): PartsListRow[] {
   const rows: PartsListRow[] = [];
   const mech = p.layout.mechanism;
   const dPitch = (z: number) => mm((z * p.beltPitchMm) / Math.PI, 2);
-  const size = (z: number): Piece[] => [
-    `${z} teeth, ${p.beltPitchMm} mm pitch, for ${p.beltWidthMm} mm belt, pitch diameter `,
-    dPitch(z),
-  ];
+  const size = (z: number): Piece[] => [`${z} teeth, ${p.beltPitchMm} mm pitch, for ${p.beltWidthMm} mm belt, pitch diameter `, dPitch(z)];
   const motors = mech === 'cartesian' ? 1 + p.yMotors : 2;
   rows.push(
     row('Stepper motor', motors, [
@@ -92,9 +88,7 @@ export function partsList(p: PartsInput): PartsListRow[] {
     if (done.has(x.el.id)) continue;
     const kind = x.toothed ? 'Toothed idler' : 'Smooth idler';
     const back = x.toothed ? '' : ' (runs on the belt back)';
-    const spec: Piece[] = x.toothed
-      ? size(x.el.teeth)
-      : ['belt-line diameter ', dPitch(x.el.teeth), `, for ${p.beltWidthMm} mm belt`];
+    const spec: Piece[] = x.toothed ? size(x.el.teeth) : ['belt-line diameter ', dPitch(x.el.teeth), `, for ${p.beltWidthMm} mm belt`];
     const mates = x.el.stackId ? placed.filter((q) => q.el.stackId === x.el.stackId && q.el.kind === 'idler') : [x];
     mates.forEach((q) => done.add(q.el.id));
     if (mates.length === 1) {

@@ -318,12 +318,17 @@ export function originPlanSvg(
     carriageRect(dr, f, 'rgba(219,232,245,0.7)'),
     line(px - 4, py, px + 4, py, { stroke: PALETTE.blue, 'stroke-width': 0.8 }),
     line(px, py - 4, px, py + 4, { stroke: PALETTE.blue, 'stroke-width': 0.8 }),
-    text(px, f.Y(dr.carriage.yMm + dr.carriage.depthMm / 2) - 3, `parking: ${position ? position(parking.xMm, parking.yMm) : `X ${fmt(parking.xMm)}, Y ${fmt(parking.yMm)} mm`}`, {
-      size: 6,
-      bold: true,
-      anchor: 'middle',
-      fill: PALETTE.blue,
-    }),
+    text(
+      px,
+      f.Y(dr.carriage.yMm + dr.carriage.depthMm / 2) - 3,
+      `parking: ${position ? position(parking.xMm, parking.yMm) : `X ${fmt(parking.xMm)}, Y ${fmt(parking.yMm)} mm`}`,
+      {
+        size: 6,
+        bold: true,
+        anchor: 'middle',
+        fill: PALETTE.blue,
+      },
+    ),
     line(x0, y0, x0 + arrow, y0, { stroke: green, 'stroke-width': 1.1 }),
     head(x0 + arrow, y0, 1, 0),
     line(x0, y0, x0, y0 - arrow, { stroke: green, 'stroke-width': 1.1 }),

@@ -189,15 +189,19 @@ export const FIELD_GROUPS: FieldGroup[] = [
           isSweepable: false,
         },
       ),
-      num('pulley.idlerInertiaKgM2', 'Moment of inertia of one idler. Off: estimated as an aluminium idler with flanges (no hub) of the idler’s size.', {
-        optional: {
-          path: 'pulley.idlerInertiaKgM2',
-          label: 'Enter idler inertia',
-          offText: 'Estimated from the idler size',
-          defaultValue: 5e-7,
+      num(
+        'pulley.idlerInertiaKgM2',
+        'Moment of inertia of one idler. Off: estimated as an aluminium idler with flanges (no hub) of the idler’s size.',
+        {
+          optional: {
+            path: 'pulley.idlerInertiaKgM2',
+            label: 'Enter idler inertia',
+            offText: 'Estimated from the idler size',
+            defaultValue: 5e-7,
+          },
+          isSweepable: false,
         },
-        isSweepable: false,
-      }),
+      ),
       num(
         'pretensionN',
         'Static tension each belt span is set to with the motors off. Under load the short arm of a belt takes almost all of a pull near the ends of travel, so keeping the slack side taut needs close to the full peak pull, not half of it. The Belt tension tab shows the worst slack side and turns the pretension into a pluck frequency per span.',
