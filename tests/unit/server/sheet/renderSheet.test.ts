@@ -235,7 +235,7 @@ describe('renderSheet with a result frozen by engine 1', () => {
     // Assert
     const flat = poppler('pdftotext', pdf, '-layout').replace(/\s+/g, ' ');
     expect(flat).toContain('1.0.0');
-    expect(flat).toContain('Along X (engine 1.0.0) 0.00625');
+    expect(flat).toContain('Along X (engine 1.0.0) 6.25 µm');
     expect(flat).toContain('Tensions as approved with engine 1.0.0');
     const b = old.result.belts[0] as unknown as { tightSideN: number; allowableTensionN: number };
     expect(flat).toContain(`${b.tightSideN.toFixed(1)} / ${b.allowableTensionN.toFixed(0)}`);
