@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
+import { defaultDesign } from '@/engine';
 import { fakeMicrophoneArgs, launchBrowser, openPage, signInThroughForm, type OpenPage } from '../helpers/browser';
 import { synthWav, typicalPluck } from '../unit/server/uploads/synthRecording';
 
@@ -61,7 +62,9 @@ describe('review journey: submit, return, fix, resubmit, approve, download', () 
     pages.push(designer, reviewer, maker);
     await designer.page.goto('/sign-in');
     await signInThroughForm(designer.page, 'designer@example.test');
-    const created = await designer.page.request.post('/api/designs', { data: { template: 'corexy', name } });
+    // The CoreXY template run at 80 % of its torque: a torque-margin warning, and at 40 N pretension both belts' slack
+    // sides fall low enough to warn about ratcheting.
+    const created = await designer.page.request.post('/api/designs', { data: { ...defaultDesign('corexy'), name, torqueMargin: 0.8 } });
     expect(created.status()).toBe(201);
     const designId = ((await created.json()) as { id: number }).id;
 
@@ -69,9 +72,9 @@ describe('review journey: submit, return, fix, resubmit, approve, download', () 
     await designer.page.goto(`/designs/${designId}`);
     await designer.page.waitForSelector('[data-test="tab-summary"]');
     await designer.page.click('[data-test="design-submit"]');
-    // The submit dialog lists the design's warnings (two belts with five teeth in mesh) before anything is frozen.
+    // The submit dialog lists the design's warnings (torque margin, both belts' slack side) before anything is frozen.
     await designer.page.waitForSelector('[data-test="submit-dialog"] [data-test="submit-counts"]');
-    expect(await designer.page.locator('[data-test="submit-check"][data-severity="warn"]').count()).toBe(2);
+    expect(await designer.page.locator('[data-test="submit-check"][data-severity="warn"]').count()).toBe(3);
     await designer.page.click('[data-test="submit-confirm"]');
     await designer.page.waitForSelector('[data-test="design-desk"] [data-test="status-in_review"]');
 
@@ -112,8 +115,8 @@ describe('review journey: submit, return, fix, resubmit, approve, download', () 
     await reviewer.page.waitForSelector('[data-test="diff-input-pretensionN"]');
     expect(await reviewer.page.textContent('[data-test="diff-input-pretensionN"]')).toContain('45');
     await reviewer.page.click('[data-test="review-approve"]');
-    // The approve dialog shows what the reviewer approves over: no failure, two warnings, so no justification asked.
-    await reviewer.page.waitForSelector('[data-test="approve-counts"] [data-test="count-warn"][data-count="2"]');
+    // The approve dialog shows what the reviewer approves over: no failure, the torque-margin warning, so no justification asked.
+    await reviewer.page.waitForSelector('[data-test="approve-counts"] [data-test="count-warn"][data-count="1"]');
     expect(await reviewer.page.isVisible('[data-test="approve-justification"]')).toBe(false);
     await reviewer.page.fill('[data-test="approve-comment"]', 'Pretension fixed; fine to build.');
     await reviewer.page.click('[data-test="approve-confirm"]');
