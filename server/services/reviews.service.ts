@@ -1,4 +1,5 @@
 import type { DesignInput, DesignResult } from '@/engine';
+import { isUnitSystem, plural } from '@/format';
 import { getSequelize } from '../db';
 import { conflict, forbidden, notFound, validationError } from '../errors';
 import { Revision, RevisionComment, User } from '../models';
@@ -138,11 +139,26 @@ async function designersOf(revision: { authorId: number }, ownerId: number): Pro
 export async function approveRevision(
   actor: PublicUser,
   revisionId: number,
-  input: { comment: string },
+  input: { comment: string; justification?: string },
 ): Promise<{ revision: RevisionDetail; sheet: SheetDetail }> {
   const revision = await findRevision(revisionId, { withResult: true });
   assertMayDecide(actor, revision, 'approve');
   if (revision.status !== 'in_review') throw wrongState(revision.number, revision.status, 'approved');
+
+  const result = parseJson<DesignResult>(revision.result);
+  const failed = result.checks.filter((c) => c.severity === 'fail');
+  const justification = failed.length ? (input.justification ?? '').trim() : '';
+  if (failed.length && !justification) {
+    throw validationError(
+      [
+        {
+          path: 'justification',
+          message: `is required: ${plural(failed.length, 'check')} of this revision failed; say why it may be built anyway`,
+        },
+      ],
+      `Revision ${revision.number} has ${plural(failed.length, 'failed check')}: approving it needs a written justification.`,
+    );
+  }
 
   const approvedAt = new Date();
   const inputs = parseJson<DesignInput>(revision.inputs);
@@ -152,22 +168,36 @@ export async function approveRevision(
     revisionNumber: revision.number,
     mechanism: inputs.mechanism,
     designer: { name: author?.name ?? '', email: author?.email ?? '' },
-    approval: { reviewerName: actor.name, approvedAt, comment: input.comment },
+    approval: { reviewerName: actor.name, approvedAt, comment: input.comment, justification: justification || null },
     inputs,
-    result: parseJson<DesignResult>(revision.result),
+    result,
     fingerprint: revision.fingerprint,
+    units: isUnitSystem(revision.sheetUnits) ? revision.sheetUnits : 'metric',
   });
 
   // The sheet's rows and its PDF bytes (content store) are saved together: if the transaction fails, the bytes go again.
   const { sheetId, mailIds } = await storeWithRows([rendered.a4, rendered.letter], async (transaction) => {
     const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'approved', transaction);
-    await locked.update({ status: 'approved', decidedById: actor.id, decidedAt: approvedAt, decisionNote: input.comment }, { transaction });
+    await locked.update(
+      {
+        status: 'approved',
+        decidedById: actor.id,
+        decidedAt: approvedAt,
+        decisionNote: input.comment,
+        approvalJustification: justification || null,
+      },
+      { transaction },
+    );
     await design.update({ status: 'approved' }, { transaction });
     const id = await storeSheet(
       { revisionId, designId: design.id, approvedById: actor.id, approvedAt, comment: input.comment, rendered },
       transaction,
     );
-    const note = input.comment || null;
+    // An approval over failed checks names them and carries the reviewer's justification in the audit log.
+    const overruled = failed.length
+      ? `Approved with ${plural(failed.length, 'failed check')} (${failed.map((c) => c.subject ?? c.id).join(', ')}). Justification: ${justification}`
+      : null;
+    const note = [input.comment || null, overruled].filter(Boolean).join('\n') || null;
     await recordAudit(
       {
         actorId: actor.id,
@@ -212,7 +242,8 @@ export async function approveRevision(
       ...(await queueMail(
         'revision.approved',
         designers,
-        (to) => approvedMail(to, { ...ref, reviewerName: actor.name, comment: input.comment, sheetId: id }),
+        (to) =>
+          approvedMail(to, { ...ref, reviewerName: actor.name, comment: input.comment, sheetId: id, justification: justification || null }),
         transaction,
       )),
       ...(await queueMail(

@@ -50,6 +50,8 @@ const SUBSTITUTES: [RegExp, string][] = [
   [/\u2248/g, '~'],
   [/\u221a/g, 'sqrt '],
   [/\u221e/g, 'infinity'],
+  // Second moments of area (mm⁴, in⁴): the superscript four is in no subset the sheet embeds.
+  [/\u2074/g, '^4'],
 ];
 
 /** Replace symbols the sheet fonts lack by words or ASCII. */

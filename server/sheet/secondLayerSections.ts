@@ -1,8 +1,8 @@
-import { fixed, sig } from './format';
+import { fixed } from './format';
 import { block, COLOR, type Content, type ContentObject, heading, numCell, table, th } from './layout';
 import { heatmap } from './plots/heatmap';
 import { jobPathPlot } from './plots/jobPath';
-import { safe } from './sections';
+import { safe, unitsOf } from './sections';
 import type { SheetData } from './types';
 
 // The second layer on the design sheet (docs/models/): a page for the error budget, the modes and vibration
@@ -24,15 +24,23 @@ function errorBlock(data: SheetData, width: number): Content {
   const r = data.result;
   const b = r.errorBudget;
   const w = b.worst;
+  const u = unitsOf(data);
+  const L = u.label('length');
+  const kL = u.factor('length', 'mm');
+  const kF = u.factor('lengthFine', 'mm');
   const rows = (Object.keys(TERM_NAMES) as (keyof typeof TERM_NAMES)[]).map((term) => {
     const value = { stretch: w.stretchMm, loadAngle: w.loadAngleMm, deadband: w.deadbandMm, runout: w.runoutMm }[term];
     return [
       { text: TERM_NAMES[term], bold: b.biggest.term === term },
-      numCell(fixed(value * 1000, 1), b.biggest.term === term),
-      numCell(`${fixed(w.totalMm > 0 ? (value / w.totalMm) * 100 : 0, 0)} %`),
+      numCell(u.n(value, 'lengthFine', 'mm', 3), b.biggest.term === term),
+      numCell(u.q(w.totalMm > 0 ? value / w.totalMm : 0, 'percent', 'ratio', 3)),
     ];
   });
-  rows.push([{ text: 'Total (worst case)', bold: true }, numCell(fixed(w.totalMm * 1000, 1), true), numCell('100 %')]);
+  rows.push([
+    { text: 'Total (worst case)', bold: true },
+    numCell(u.n(w.totalMm, 'lengthFine', 'mm', 3), true),
+    numCell(u.q(1, 'percent', 'ratio')),
+  ]);
   const s = r.stiffness;
   return block(
     { text: 'Positioning-error budget', style: 'h2', margin: [0, 0, 0, 3] },
@@ -41,15 +49,15 @@ function errorBlock(data: SheetData, width: number): Content {
         {
           width: 230,
           stack: [
-            table(['*', 52, 46], [th('Term'), th('Error [µm]', 'right'), th('Share', 'right')], rows),
+            table(['*', 52, 46], [th('Term'), th(`Error [${u.label('lengthFine')}]`, 'right'), th('Share', 'right')], rows),
             note(
-              `At X ${fixed(w.xMm, 1)} mm, Y ${fixed(w.yMm, 1)} mm, moving toward ${fixed(w.directionDeg, 0)}°, at ${sig(b.accelMPerS2, 3)} m/s². ` +
-                `The terms are added as a worst case. The runout error repeats every ${fixed(b.runoutPeriodMm, 1)} mm of belt.` +
+              `At X ${u.q(w.xMm, 'length', 'mm')}, Y ${u.q(w.yMm, 'length', 'mm')}, moving toward ${fixed(w.directionDeg, 0)}°, at ${u.q(b.accelMPerS2, 'accel', 'm/s^2', 3)}. ` +
+                `The terms are added as a worst case. The runout error repeats every ${u.q(b.runoutPeriodMm, 'length', 'mm', 3)} of belt.` +
                 (b.isSingleMicrostepEffective
                   ? ''
                   : ' Friction exceeds the torque step of one microstep: the carriage moves in jumps of several.'),
             ),
-            safe(b.biggest.message, { fontSize: 7.5, margin: [0, 5, 0, 0] }),
+            safe(b.biggest.parts ? u.parts(b.biggest.parts) : b.biggest.message, { fontSize: 7.5, margin: [0, 5, 0, 0] }),
           ],
         },
         {
@@ -58,13 +66,13 @@ function errorBlock(data: SheetData, width: number): Content {
             width: width - 244,
             maxPlotHeight: 170,
             title: 'Worst total error over the travel',
-            xTitle: 'Carriage X [mm]',
-            yTitle: 'Carriage Y [mm]',
-            barTitle: 'Error [µm]',
-            xMm: s.xMm,
-            yMm: s.yMm,
-            values: b.totalMm.map((row) => row.map((v) => v * 1000)),
-            min: { value: w.totalMm * 1000, xMm: w.xMm, yMm: w.yMm, label: `worst ${fixed(w.totalMm * 1000, 1)} µm` },
+            xTitle: `Carriage X [${L}]`,
+            yTitle: `Carriage Y [${L}]`,
+            barTitle: `Error [${u.label('lengthFine')}]`,
+            xMm: s.xMm.map((v) => v * kL),
+            yMm: s.yMm.map((v) => v * kL),
+            values: b.totalMm.map((row) => row.map((v) => v * kF)),
+            min: { value: w.totalMm * kF, xMm: w.xMm * kL, yMm: w.yMm * kL, label: `worst ${u.q(w.totalMm, 'lengthFine', 'mm', 3)}` },
           }),
         },
       ],
@@ -77,10 +85,11 @@ function modesBlock(data: SheetData): Content {
   const r = data.result;
   const beam = r.structure.gantryBeam;
   const typical = beam.typical.secondMoment || beam.typical.modulus || beam.typical.mass;
+  const u = unitsOf(data);
   const rows = r.modes.map((m, i) => [
     { text: m.label, bold: i === 0 },
     numCell(fixed(m.frequencyHz, 1), i === 0),
-    numCell(`${fixed(m.xMm, 0)}, ${fixed(m.yMm, 0)}`),
+    numCell(`${u.n(m.xMm, 'length', 'mm', 3)}, ${u.n(m.yMm, 'length', 'mm', 3)}`),
   ]);
   const sh = r.shaping;
   return block(
@@ -90,13 +99,13 @@ function modesBlock(data: SheetData): Content {
         {
           width: 250,
           stack: [
-            table(['*', 48, 60], [th('Mode'), th('Lowest [Hz]', 'right'), th('At X, Y [mm]', 'right')], rows),
+            table(['*', 48, 60], [th('Mode'), th('Lowest [Hz]', 'right'), th(`At X, Y [${u.label('length')}]`, 'right')], rows),
             ...r.modesNotHeld.map((m) => safe(`${m.label}: ${m.message}`, { fontSize: 7.5, bold: true, margin: [0, 4, 0, 0] })),
             note(
-              `Gantry beam over ${fixed(beam.spanMm, 0)} mm: I = ${grouped(beam.secondMomentMm4)} mm⁴, E = ${sig(beam.modulusGPa, 3)} GPa, ` +
-                `${sig(beam.massKgPerM, 3)} kg/m${typical ? ` (typical values for a ${beam.typical.profile} where the design gives none)` : ''}.` +
+              `Gantry beam over ${u.q(beam.spanMm, 'length', 'mm')}: I = ${u.q(beam.secondMomentMm4, 'secondMoment', 'mm^4', 3)}, ` +
+                `E = ${u.q(beam.modulusGPa, 'modulus', 'GPa', 3)}, ${u.q(beam.massKgPerM, 'linearMass', 'kg/m', 3)}${typical ? ` (typical values for a ${beam.typical.profile} where the design gives none)` : ''}.` +
                 (r.structure.crossShaft
-                  ? ` Cross shaft ${fixed(r.structure.crossShaft.diameterMm, 1)} mm over ${fixed(r.structure.crossShaft.lengthMm, 0)} mm.`
+                  ? ` Cross shaft ${u.q(r.structure.crossShaft.diameterMm, 'length', 'mm', 3)} over ${u.q(r.structure.crossShaft.lengthMm, 'length', 'mm')}.`
                   : '') +
                 ' Each mode is computed with the rest of the machine rigid.',
             ),
@@ -109,15 +118,17 @@ function modesBlock(data: SheetData): Content {
               text: [
                 { text: 'Shapers tuned to ', fontSize: 8 },
                 { text: `${fixed(sh.frequencyHz, 1)} Hz`, bold: true },
-                { text: ` add ${fixed(sh.zvDurationS * 1000, 1)} ms (ZV) or ${fixed(sh.zvdDurationS * 1000, 1)} ms (ZVD) to every move.` },
+                {
+                  text: ` add ${u.q(sh.zvDurationS, 'timeShort', 's', 3)} (ZV) or ${u.q(sh.zvdDurationS, 'timeShort', 's', 3)} (ZVD) to every move.`,
+                },
               ],
               fontSize: 8,
             },
             {
               text:
-                `Without a shaper a ramp from rest to ${sig(sh.rampSpeedMPerS * 1000, 3)} mm/s must last at least ` +
-                `${fixed(sh.rampTimeForTolerance.trapezoidalS * 1000, 0)} ms at constant acceleration, or ` +
-                `${fixed(sh.rampTimeForTolerance.jerkLimitedS * 1000, 0)} ms jerk-limited, to ring less than ${sig(sh.toleranceMm, 2)} mm.`,
+                `Without a shaper a ramp from rest to ${u.q(sh.rampSpeedMPerS, 'speed', 'm/s', 3)} must last at least ` +
+                `${u.q(sh.rampTimeForTolerance.trapezoidalS, 'timeShort', 's', 3)} at constant acceleration, or ` +
+                `${u.q(sh.rampTimeForTolerance.jerkLimitedS, 'timeShort', 's', 3)} jerk-limited, to ring less than ${u.q(sh.toleranceMm, 'lengthFine', 'mm', 3)}.`,
               fontSize: 8,
               margin: [0, 4, 0, 0],
             },
@@ -126,8 +137,8 @@ function modesBlock(data: SheetData): Content {
               [th('Lowest mode [Hz]'), th('Ramp [ms]', 'right'), th('Jerk-lim. [ms]', 'right')],
               sh.byFrequency.frequencyHz.map((f, i) => [
                 { text: fixed(f, 0), bold: Math.abs(f - sh.frequencyHz) < 1e-9 },
-                numCell(fixed(sh.byFrequency.trapezoidalS[i] * 1000, 0)),
-                numCell(fixed(sh.byFrequency.jerkLimitedS[i] * 1000, 0)),
+                numCell(u.n(sh.byFrequency.trapezoidalS[i], 'timeShort', 's', 3)),
+                numCell(u.n(sh.byFrequency.jerkLimitedS[i], 'timeShort', 's', 3)),
               ]),
               { margin: [0, 5, 0, 0] },
             ),
@@ -148,6 +159,7 @@ function driveBlock(data: SheetData): Content {
   const r = data.result;
   const e = r.excitation;
   const over = e.microstepRateHzAtCruise > e.stepRateLimitHz;
+  const u = unitsOf(data);
   const crossings = e.crossings
     .slice(0, 8)
     .map((c) => [
@@ -155,8 +167,8 @@ function driveBlock(data: SheetData): Content {
       numCell(c.maxHz > c.minHz * 1.001 ? `${fixed(c.minHz, 0)} to ${fixed(c.maxHz, 0)}` : fixed(c.minHz, 0)),
       numCell(
         c.toBeltSpeedMPerS > c.fromBeltSpeedMPerS * 1.001
-          ? `${fixed(c.fromBeltSpeedMPerS * 1000, 0)} to ${fixed(c.toBeltSpeedMPerS * 1000, 0)}`
-          : fixed(c.fromBeltSpeedMPerS * 1000, 0),
+          ? `${u.n(c.fromBeltSpeedMPerS, 'speed', 'm/s', 3)} to ${u.n(c.toBeltSpeedMPerS, 'speed', 'm/s', 3)}`
+          : u.n(c.fromBeltSpeedMPerS, 'speed', 'm/s', 3),
       ),
     ]);
   const h = r.heat;
@@ -167,14 +179,19 @@ function driveBlock(data: SheetData): Content {
       text:
         `Step rates of the fastest motor: ${grouped(e.microstepRateHzAtCruise)} microsteps/s at the cruise speed, ` +
         `${grouped(e.microstepRateHzAtTop)} at the top speed, against the controller's ${grouped(e.stepRateLimitHz)} per motor ` +
-        `(it allows ${sig(e.speedAtStepLimitMPerS * 1000, 3)} mm/s in every direction).`,
+        `(it allows ${u.q(e.speedAtStepLimitMPerS, 'speed', 'm/s', 3)} in every direction).`,
       fontSize: 7.5,
       bold: over,
     },
     crossings.length
-      ? table(['*', 60, 70], [th('Tooth mesh meets'), th('Frequency [Hz]', 'right'), th('Belt speed [mm/s]', 'right')], crossings, {
-          margin: [0, 4, 0, 0],
-        })
+      ? table(
+          ['*', 60, 70],
+          [th('Tooth mesh meets'), th('Frequency [Hz]', 'right'), th(`Belt speed [${u.label('speed')}]`, 'right')],
+          crossings,
+          {
+            margin: [0, 4, 0, 0],
+          },
+        )
       : note('The tooth-mesh frequency (belt speed ÷ pitch) meets no mode below the top speed.'),
     {
       columns: [
@@ -188,13 +205,13 @@ function driveBlock(data: SheetData): Content {
                 safe(m.label),
                 numCell(fixed(m.copperLossW, 2)),
                 numCell(fixed(m.mechanicalW, 2)),
-                numCell(`${fixed((m.rmsTorqueNm / m.continuousTorqueNm) * 100, 0)} %`),
+                numCell(u.q(m.rmsTorqueNm / m.continuousTorqueNm, 'percent', 'ratio', 3)),
               ]),
               { margin: [0, 6, 0, 0] },
             ),
             note(
               `Supply: at least ${fixed(h.supply.powerW, 0)} W, ${fixed(h.supply.currentA, 2)} A at ${fixed(h.supply.supplyV, 0)} V ` +
-                `(${fixed((h.supply.margin - 1) * 100, 0)} % over the estimated draw). RMS torque of a cycle across X then Y, as a share of the rated holding torque.`,
+                `(${u.q(h.supply.margin - 1, 'percent', 'ratio', 3)} over the estimated draw). RMS torque of a cycle across X then Y, as a share of the rated holding torque.`,
             ),
           ],
         },
@@ -203,17 +220,22 @@ function driveBlock(data: SheetData): Content {
           stack: [
             table(
               ['*', 42, 42, 38],
-              [th('Pulley'), th('Pretension [N]', 'right'), th('Peak [N]', 'right'), th('Of rating', 'right')],
+              [
+                th('Pulley'),
+                th(`Pretension [${u.label('force')}]`, 'right'),
+                th(`Peak [${u.label('force')}]`, 'right'),
+                th('Of rating', 'right'),
+              ],
               loads.map((p) => [
                 safe(p.label, { fontSize: 7 }),
-                numCell(fixed(p.atPretensionN, 1)),
-                numCell(fixed(p.atPeakN, 1), p.atPeakN > p.ratingN),
-                numCell(`${fixed((p.atPeakN / p.ratingN) * 100, 0)} %`),
+                numCell(u.n(p.atPretensionN, 'force', 'N', 3)),
+                numCell(u.n(p.atPeakN, 'force', 'N', 3), p.atPeakN > p.ratingN),
+                numCell(u.q(p.atPeakN / p.ratingN, 'percent', 'ratio', 3)),
               ]),
               { margin: [0, 6, 0, 0] },
             ),
             note(
-              `Ratings: motor shaft ${fixed(r.loads.ratingN.motorShaft, 0)} N, idler ${fixed(r.loads.ratingN.idler, 0)} N. ` +
+              `Ratings: motor shaft ${u.q(r.loads.ratingN.motorShaft, 'force', 'N', 3)}, idler ${u.q(r.loads.ratingN.idler, 'force', 'N', 3)}. ` +
                 'Radial load from the two belt arms at the wrap; the most loaded pulleys are listed.',
             ),
           ],
@@ -252,14 +274,15 @@ export function jobSection(data: SheetData, width: number, number: string): Cont
   const job = data.result.job;
   const points = data.design.job?.points ?? [];
   if (!job || points.length === 0) return [];
+  const u = unitsOf(data);
   const slowRows = job.slowest.map((i) => {
     const m = job.moves[i];
     return [
       `${m.fromIndex + 1} to ${m.toIndex + 1}`,
-      numCell(fixed(m.distanceMm, 1)),
+      numCell(u.n(m.distanceMm, 'length', 'mm', 3)),
       numCell(fixed(m.directionDeg, 0)),
-      numCell(m.timeS === null ? '—' : fixed(m.timeS * 1000, 0)),
-      numCell(fixed(m.peakSpeedMPerS * 1000, 0)),
+      numCell(u.n(m.timeS, 'timeShort', 's', 3)),
+      numCell(u.n(m.peakSpeedMPerS, 'speed', 'm/s', 3)),
       m.limitedBy,
     ];
   });
@@ -268,12 +291,14 @@ export function jobSection(data: SheetData, width: number, number: string): Cont
     {
       text: [
         { text: 'Cycle time ', fontSize: 9 },
-        { text: job.totalS === null ? 'not reachable' : `${sig(job.totalS, 4)} s`, bold: true, fontSize: 12 },
+        { text: job.totalS === null ? 'not reachable' : u.q(job.totalS, 'time', 's', 4), bold: true, fontSize: 12 },
         {
           text:
-            `  for ${job.pointCount} points: ${sig(job.moveS ?? Number.NaN, 3)} s moving, ${sig(job.dwellS, 3)} s dwelling, ` +
+            `  for ${job.pointCount} points: ${u.q(job.moveS, 'time', 's', 3)} moving, ${u.q(job.dwellS, 'time', 's', 3)} dwelling, ` +
             `${job.profile === 'jerk-limited' ? 'jerk-limited S-curves' : 'constant-acceleration ramps'}, each move with its own direction's limits.` +
-            (job.atLimits && job.atLimits.totalS !== null ? ` As fast as the motors allow: ${sig(job.atLimits.totalS, 4)} s.` : ''),
+            (job.atLimits && job.atLimits.totalS !== null
+              ? ` As fast as the motors allow: ${u.q(job.atLimits.totalS, 'time', 's', 4)}.`
+              : ''),
           fontSize: 8,
         },
       ],
@@ -291,10 +316,10 @@ export function jobSection(data: SheetData, width: number, number: string): Cont
       [60, 50, 50, 50, 60, '*'],
       [
         th('Points'),
-        th('Length [mm]', 'right'),
+        th(`Length [${u.label('length')}]`, 'right'),
         th('Direction [°]', 'right'),
-        th('Time [ms]', 'right'),
-        th('Peak [mm/s]', 'right'),
+        th(`Time [${u.label('timeShort')}]`, 'right'),
+        th(`Peak [${u.label('speed')}]`, 'right'),
         th('Limited by'),
       ],
       slowRows,

@@ -1,6 +1,8 @@
+import { qty, renderQuantity } from './checkText';
 import { requireNumber } from './errors';
 import { sampledGridMap } from './gridSampling';
 import type { Matrix2 } from './linalg';
+import type { CheckQuantity } from './types';
 
 // Positioning-error budget (docs/models/error-budget.md): belt stretch under load, the motors' load angle, the
 // microstep deadband from friction and the periodic error of an eccentric drive pulley, over the travel grid.
@@ -112,8 +114,8 @@ export interface ErrorBudgetResult {
   worst: ErrorBudgetPoint;
   /** Largest total over the directions at each grid point, [iy][ix] [mm]. */
   totalMm: number[][];
-  /** The largest term at the worst point and what halves it. */
-  biggest: { term: ErrorTerm; message: string };
+  /** The largest term at the worst point and what halves it: `message` in metric, `parts` for any unit system. */
+  biggest: { term: ErrorTerm; message: string; parts: (string | CheckQuantity)[] };
   /** Acceleration the budget is taken at (the planned one, or the worst direction's limit) [m/s²]. */
   accelMPerS2: number;
   /** Single microsteps move the carriage on every motor. */
@@ -240,8 +242,6 @@ export function errorBudgetMap(
   return { worst: w, totalMm };
 }
 
-const fmt = (v: number, digits = 3) => Number(v.toPrecision(digits)).toString();
-
 /**
  * The largest term at the worst point and, in plain words, what halves it: belt stretch ∝ F/EA, load angle
  * ≈ τ/(N_r·T), deadband ≈ τ_f/(N_r·T), runout ∝ eccentricity.
@@ -253,7 +253,7 @@ const fmt = (v: number, digits = 3) => Number(v.toPrecision(digits)).toString();
 export function biggestErrorTerm(
   w: ErrorBudgetPoint,
   d: { axialStiffnessN: number; accelMPerS2: number; holdingTorqueNm: number; frictionXN: number; frictionYN: number; runoutMm: number },
-): { term: ErrorTerm; message: string } {
+): ErrorBudgetResult['biggest'] {
   const terms: [ErrorTerm, number][] = [
     ['stretch', w.stretchMm],
     ['loadAngle', w.loadAngleMm],
@@ -261,12 +261,57 @@ export function biggestErrorTerm(
     ['runout', w.runoutMm],
   ];
   const [term, size] = terms.reduce((a, b) => (b[1] > a[1] ? b : a));
-  const half = fmt(size / 2);
-  const messages: Record<ErrorTerm, string> = {
-    stretch: `Belt stretch is the largest term (${fmt(size)} mm). To halve it to ${half} mm, double the belt's axial stiffness EA (now ${fmt(d.axialStiffnessN)} N: a wider or steel-corded belt) or halve the acceleration (now ${fmt(d.accelMPerS2)} m/s²); shorter belt arms also help.`,
-    loadAngle: `The motors' load angle is the largest term (${fmt(size)} mm). To halve it to about ${half} mm, use a motor with twice the holding torque (now ${fmt(d.holdingTorqueNm)} N·m) or a 0.9° motor (twice the rotor teeth), or halve the acceleration (now ${fmt(d.accelMPerS2)} m/s²).`,
-    deadband: `The microstep deadband is the largest term (${fmt(size)} mm). To halve it to about ${half} mm, halve the guide friction (now ${fmt(d.frictionXN)} N in X, ${fmt(d.frictionYN)} N in Y) or double the holding torque (now ${fmt(d.holdingTorqueNm)} N·m); a 0.9° motor halves it as well.`,
-    runout: `Drive pulley runout is the largest term (${fmt(size)} mm). To halve it to ${half} mm, halve the pulley's eccentricity (now ${fmt(d.runoutMm)} mm): a better pulley, or a bore without play on the shaft.`,
+  const half = size / 2;
+  const mm = (v: number) => qty(v, 'lengthMm');
+  const partsOf: Record<ErrorTerm, CheckParts> = {
+    stretch: [
+      'Belt stretch is the largest term (',
+      mm(size),
+      '). To halve it to ',
+      mm(half),
+      ", double the belt's axial stiffness EA (now ",
+      qty(d.axialStiffnessN, 'forceN'),
+      ': a wider or steel-corded belt) or halve the acceleration (now ',
+      qty(d.accelMPerS2, 'accelMPerS2'),
+      '); shorter belt arms also help.',
+    ],
+    loadAngle: [
+      "The motors' load angle is the largest term (",
+      mm(size),
+      '). To halve it to about ',
+      mm(half),
+      ', use a motor with twice the holding torque (now ',
+      qty(d.holdingTorqueNm, 'torqueNm'),
+      ') or a 0.9° motor (twice the rotor teeth), or halve the acceleration (now ',
+      qty(d.accelMPerS2, 'accelMPerS2'),
+      ').',
+    ],
+    deadband: [
+      'The microstep deadband is the largest term (',
+      mm(size),
+      '). To halve it to about ',
+      mm(half),
+      ', halve the guide friction (now ',
+      qty(d.frictionXN, 'forceN'),
+      ' in X, ',
+      qty(d.frictionYN, 'forceN'),
+      ' in Y) or double the holding torque (now ',
+      qty(d.holdingTorqueNm, 'torqueNm'),
+      '); a 0.9° motor halves it as well.',
+    ],
+    runout: [
+      'Drive pulley runout is the largest term (',
+      mm(size),
+      '). To halve it to ',
+      mm(half),
+      ", halve the pulley's eccentricity (now ",
+      mm(d.runoutMm),
+      '): a better pulley, or a bore without play on the shaft.',
+    ],
   };
-  return { term, message: messages[term] };
+  // The parts carry the numbers so each reader shows them in their own units; the message is the metric text.
+  const parts = partsOf[term];
+  return { term, parts, message: parts.map((p) => (typeof p === 'string' ? p : renderQuantity(p))).join('') };
 }
+
+type CheckParts = (string | CheckQuantity)[];

@@ -3,6 +3,7 @@ import { beltTensionOverTravel, type LoopTensionResult } from './beltTensionMap'
 import { CAUTIONS } from './cautions';
 import { designChecks, MIN_TEETH_IN_MESH, teethInMeshFactor } from './checks';
 import { secondLayerChecks } from './secondLayerChecks';
+import { torqueTableCheck } from './torqueTableCheck';
 import { fullStepsPerRev } from './drive';
 import { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type EnvelopeInput, type EnvelopeResult } from './envelope';
 import { frameToTravel, type TravelInfo } from './frame';
@@ -579,6 +580,9 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
     ...checksOf(d, { t, es, belts, racking, ringingPlanned: ringingFig.planned, plannedAccel }),
     ...secondLayerChecks({ second, cruiseSpeedMPerS: es.envIn.cruiseMPerS, travel: { xMm: t.xMm, yMm: t.yMm } }),
   ];
+  // A torque table replaces the motor model only for the supply and current it was measured at.
+  const tableCheck = torqueTableCheck(d.motor, d.driver);
+  if (tableCheck) checks.push(tableCheck);
   const env = es.env;
   return {
     engineVersion: ENGINE_VERSION,

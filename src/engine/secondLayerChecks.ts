@@ -20,7 +20,7 @@ function stepRateCheck(second: SecondLayerResult): Check {
     ? [
         'At the Cruise speed the fastest motor needs ',
         qty(need, 'frequencyHz'),
-        ' microsteps per second, above the Controller step-rate limit of ',
+        ' microsteps per second, above the Controller step rate limit of ',
         qty(limit, 'frequencyHz'),
         '; that limit allows at most ',
         qty(e.speedAtStepLimitMPerS, 'speedMPerS'),
@@ -29,7 +29,7 @@ function stepRateCheck(second: SecondLayerResult): Check {
     : [
         'At the Cruise speed the fastest motor needs ',
         qty(need, 'frequencyHz'),
-        ' microsteps per second, within the Controller step-rate limit of ',
+        ' microsteps per second, within the Controller step rate limit of ',
         qty(limit, 'frequencyHz'),
         ...(topOver
           ? [

@@ -13,7 +13,7 @@ describe('secondLayerChecks', () => {
     expect(c.severity).toBe('fail');
     expect(c.kind).toBe('frequencyHz');
     expect(c.limit).toBe(10000);
-    expect(c.message).toMatch(/above the Controller step-rate limit of 10000 Hz/);
+    expect(c.message).toMatch(/above the Controller step rate limit of 10000 Hz/);
     expect(c.parts.some((p) => typeof p === 'object' && p.kind === 'speedMPerS')).toBe(true);
   });
 
@@ -57,7 +57,16 @@ describe('secondLayerChecks', () => {
 
   it('when a move cannot be made, then job-moves fails naming its points', () => {
     // Arrange: the real second layer with a job whose second move has no time
-    const second = evaluateDesign({ ...defaultDesign('corexy'), map: { points: 5 }, job: { points: [{ xMm: 1, yMm: 1 }, { xMm: 50, yMm: 50 }] } }) as unknown as SecondLayerResult;
+    const second = evaluateDesign({
+      ...defaultDesign('corexy'),
+      map: { points: 5 },
+      job: {
+        points: [
+          { xMm: 1, yMm: 1 },
+          { xMm: 50, yMm: 50 },
+        ],
+      },
+    }) as unknown as SecondLayerResult;
     const job = { ...second.job!, totalS: null, moves: [{ ...second.job!.moves[0], timeS: null }] };
     // Act
     const checks = secondLayerChecks({ second: { ...second, job }, cruiseSpeedMPerS: 0.3, travel: { xMm: 200, yMm: 200 } });

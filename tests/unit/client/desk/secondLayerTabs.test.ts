@@ -2,6 +2,7 @@ import { beforeEach, describe, expect, it } from 'vitest';
 import { flushPromises, mount } from '@vue/test-utils';
 import { createPinia, setActivePinia } from 'pinia';
 import { defaultDesign, evaluateDesign, type DesignInput, type Mechanism } from '@/engine';
+import { renderParts } from '@/format';
 import { useUnitsStore } from '@/stores/units';
 import DesignDeskDriveTab from '@/views/desk/DesignDeskDriveTab.vue';
 import DesignDeskErrorTab from '@/views/desk/DesignDeskErrorTab.vue';
@@ -30,7 +31,13 @@ describe('DesignDeskErrorTab', () => {
     // Assert
     expect(wrapper.findAll('[data-test^="error-row-"]')).toHaveLength(4);
     expect(wrapper.get(`[data-test="error-row-${result.errorBudget.biggest.term}"]`).classes()).toContain('err__row--big');
-    expect(wrapper.get('[data-test="error-advice"]').text()).toBe(result.errorBudget.biggest.message);
+    // The advice goes through the formatting layer: fine lengths in µm, as in the table above it.
+    const advice = wrapper
+      .get('[data-test="error-advice"]')
+      .text()
+      .replace(/\u00a0/g, ' ');
+    expect(advice).toBe(renderParts(result.errorBudget.biggest.parts, 'metric').replace(/\u00a0/g, ' '));
+    expect(advice).toMatch(/largest term \([\d.]+ µm\)/);
     const total = (result.errorBudget.worst.totalMm * 1000).toPrecision(3);
     expect(wrapper.get('[data-test="error-total"]').text()).toContain(`${Number(total)}`);
     expect(wrapper.get('[data-test="error-total"]').text()).toContain('µm');

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { formatNumber } from '@/format';
 import { buildSheetDoc } from '../../../../server/sheet/renderSheet';
 import { docChars } from './docText';
 import { designFor, exampleDesign, exampleSheetInput } from './fixtures/sheetInput';
@@ -29,9 +30,10 @@ describe('secondLayerSection', () => {
     // Assert
     expect(text).toContain('Positioning error, modes and the drive');
     expect(text).toContain('Positioning-error budget');
-    expect(text).toContain(`Total (worst case)${(r.errorBudget.worst.totalMm * 1000).toFixed(1)}`);
+    // The sheet prints through the app's formatting layer: µm and 3 significant figures in metric.
+    expect(text).toContain(`Total (worst case)${formatNumber(r.errorBudget.worst.totalMm * 1000, 3)}`);
     for (const m of r.modes) expect(text).toContain(m.label);
-    expect(text).toContain(`add ${(r.shaping.zvDurationS * 1000).toFixed(1)} ms (ZV)`);
+    expect(text).toContain(`add ${formatNumber(r.shaping.zvDurationS * 1000, 3)} ms (ZV)`);
     expect(text).toContain('Supply: at least');
     expect(text).not.toContain('Job timing');
   });
@@ -49,7 +51,7 @@ describe('secondLayerSection', () => {
     const text = sheetText({ ...input, result: older as typeof input.result });
     // Assert
     expect(text).not.toContain('Positioning-error budget');
-    expect(text).toContain('Parts list');
+    expect(text).toContain('Parts to order');
   });
 });
 
