@@ -1,3 +1,4 @@
+import type { UnitSystem } from '@/format';
 import { Router } from 'express';
 import { validate } from '../middleware/validate';
 import { requireMember, requireRole } from '../middleware/requireRole';
@@ -19,7 +20,7 @@ export function createDesignFlowRouter(): Router {
     requireRole('designer'),
     validate({ params: idParamsSchema, body: submitDesignSchema }),
     async function submit(req, res) {
-      res.status(201).json(await submitDesign(req.user!, idOf(req.params), req.body as { version?: number }));
+      res.status(201).json(await submitDesign(req.user!, idOf(req.params), req.body as { version?: number; sheetUnits?: UnitSystem }));
     },
   );
 

@@ -51,7 +51,7 @@ export function createRevisionsRouter(): Router {
     requireRole('reviewer'),
     validate({ params: idParamsSchema, body: approveSchema }),
     async function approve(req, res) {
-      res.status(200).json(await approveRevision(req.user!, idOf(req.params), req.body as { comment: string }));
+      res.status(200).json(await approveRevision(req.user!, idOf(req.params), req.body as { comment: string; justification: string }));
     },
   );
 

@@ -2,6 +2,7 @@ import { solveLoop, type LoopState, type MotorVar } from './beltLayout';
 import { beltTensionOverTravel, type LoopTensionResult } from './beltTensionMap';
 import { CAUTIONS } from './cautions';
 import { designChecks, MIN_TEETH_IN_MESH, teethInMeshFactor } from './checks';
+import { torqueTableCheck } from './torqueTableCheck';
 import { fullStepsPerRev } from './drive';
 import { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type EnvelopeInput, type EnvelopeResult } from './envelope';
 import { frameToTravel, type TravelInfo } from './frame';
@@ -500,6 +501,9 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
     planned: ringing(plannedAccel, fMin, tol),
   };
   const checks = checksOf(d, { t, es, belts, racking, ringingPlanned: ringingFig.planned, plannedAccel });
+  // A torque table replaces the motor model only for the supply and current it was measured at.
+  const tableCheck = torqueTableCheck(d.motor, d.driver);
+  if (tableCheck) checks.push(tableCheck);
   const env = es.env;
   return {
     engineVersion: ENGINE_VERSION,

@@ -27,6 +27,7 @@ export {
 } from './kinematics';
 export { openBeltLengthMm, openBeltLengthExactMm, wrapAngleRad, teethInMesh } from './openBelt';
 export { spanFrequencyHz, tensionFromFrequencyN } from './tension';
+export { pluckBandHz, PLUCK_TENSION_TOLERANCE } from './pluckBand';
 export { beltArmTensionsN, chainTensionChangesN } from './beltArmTensions';
 export { beltTensionOverTravel, convexHullIndices, type PullPairs, type BeltTensionInput, type LoopTensionResult } from './beltTensionMap';
 export { microstepFigures, type MicrostepFigures } from './microstep';
@@ -69,6 +70,7 @@ export { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type En
 export { stiffnessMap, carriageStiffnessNPerM, type StiffnessInput, type StiffnessResult } from './stiffness';
 export { rackingMomentPerNewtonM, rackingTurnSpacingMm, guideReactionN } from './racking';
 export { designChecks, teethInMeshFactor, type CheckInput } from './checks';
+export { torqueTableCheck, TORQUE_TABLE_CONDITION_TOLERANCE } from './torqueTableCheck';
 export { CAUTIONS } from './cautions';
 export { partsList, CLAMP_ALLOWANCE_MM } from './partsList';
 export { evaluateDesign, evaluateValidDesign, ENVELOPE_DIRECTIONS } from './evaluateDesign';
@@ -82,6 +84,7 @@ export type {
   DesignResult,
   Check,
   CheckQuantity,
+  PartsListRow,
   QuantityKind,
   Severity,
   Caution,

@@ -101,6 +101,14 @@ const motorSchema = z
     rotorInertiaKgM2: num(0, 1, 'rotor inertia'),
     massKg: num(0, 100, 'motor mass'),
     torqueCurve: z.array(torquePointSchema).min(2).max(500).nullable().default(null),
+    /**
+     * Supply voltage and driver current the torque table was measured at (a table measured at another supply or
+     * current does not describe this drive; a check warns); null = not recorded.
+     */
+    torqueCurveConditions: z
+      .strictObject({ supplyV: pos(1000, 'torque table supply voltage'), currentRmsA: pos(50, 'torque table driver current') })
+      .nullable()
+      .default(null),
     /** Highest shaft speed the builder allows (bearings, pulley rating); null = no limit beyond the torque. */
     maxSpeedRevPerS: pos(1000, 'speed limit').nullable().default(null),
   })

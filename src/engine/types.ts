@@ -23,6 +23,8 @@ export interface MotorSpec {
   rotorInertiaKgM2: number;
   massKg: number;
   torqueCurve?: TorquePoint[] | null;
+  /** Supply [V] and driver RMS current [A] the torque table was measured at (null when not recorded). */
+  torqueCurveConditions?: { supplyV: number; currentRmsA: number } | null;
   maxSpeedRevPerS?: number | null;
 }
 
@@ -83,7 +85,15 @@ export interface Check {
 
 /** One safety caution shown on every sheet and on the Design desk (docs/models/checks.md "Cautions"). */
 export interface Caution {
-  id: 'pinch-points' | 'electrical-supply' | 'stored-energy' | 'codes-and-practice';
+  id:
+    | 'pinch-points'
+    | 'electrical-supply'
+    | 'stored-energy'
+    | 'hot-motors'
+    | 'unexpected-motion'
+    | 'emergency-stop'
+    | 'tool-hazards'
+    | 'codes-and-practice';
   title: string;
   text: string;
 }
@@ -241,6 +251,16 @@ export interface LayoutDrawing {
   belts: LayoutBelt[];
 }
 
+/** One row of the parts list for ordering. */
+export interface PartsListRow {
+  item: string;
+  quantity: number;
+  /** The specification in metric words. */
+  spec: string;
+  /** The same specification as text pieces and quantities, for readers in other unit systems. */
+  specParts?: (string | CheckQuantity)[];
+}
+
 /** The full result of evaluateDesign (the result fields of src/engine/README.md plus what the Design desk draws). */
 export interface DesignResult {
   engineVersion: string;
@@ -331,7 +351,7 @@ export interface DesignResult {
     guideReactionN: number;
   };
   layout: LayoutDrawing;
-  partsList: { item: string; quantity: number; spec: string }[];
+  partsList: PartsListRow[];
   checks: Check[];
   cautions: Caution[];
 }

@@ -1,4 +1,4 @@
-import type { QuantityKey } from '@/components/units/quantities';
+import type { QuantityKey } from '@/format';
 
 /** How to show a number that carries an engine unit string (checks report "N", "mm", "m/s²" …). */
 export interface EngineUnit {

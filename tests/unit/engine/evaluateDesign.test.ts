@@ -106,7 +106,7 @@ describe('evaluateDesign', () => {
       expect(b.tension.tensileAllowableN).toBe(design.belt.allowableTensionN);
       for (const s of b.spans) expect(Object.keys(s)).toEqual(expect.arrayContaining(['id', 'lengthMm', 'targetFrequencyHz']));
     }
-    for (const p of r.partsList) expect(Object.keys(p).sort()).toEqual(['item', 'quantity', 'spec']);
+    for (const p of r.partsList) expect(Object.keys(p).sort()).toEqual(['item', 'quantity', 'spec', 'specParts']);
   });
 
   it.each(demos)('when the demo %s is evaluated, then every number is finite and nothing is undefined (JSON-safe)', (_f, design) => {
