@@ -25,7 +25,17 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { ensureDebianPackages, findBinary, MARIADB_PACKAGE, mariaDbPaths, runSql, type DebianRequirement, type MariaDbPaths } from './db';
+import {
+  ensureDatabases,
+  ensureDebianPackages,
+  findBinary,
+  MARIADB_PACKAGE,
+  mariaDbPaths,
+  runSql,
+  type DbAccount,
+  type DebianRequirement,
+  type MariaDbPaths,
+} from './db';
 
 type Log = (line: string) => void;
 const defaultLog: Log = (line) => process.stdout.write(`${line}\n`);
@@ -442,33 +452,15 @@ export async function restartNode(node: ClusterNode, nodes: ClusterNode[], log: 
 }
 
 /**
- * Creates the database and two accounts on the cluster (DDL replicates to every node): an owner that runs the
- * migrations (everything on the database) and the application's account that may only read and write rows.
+ * Creates the database and the two accounts on the cluster (DDL replicates to every node), as `npm start` does on its
+ * private server (ensureDatabases in scripts/db.ts): the schema owner that runs the migrations (everything on the
+ * database) and the application's account that may only read and write rows.
  */
 export async function ensureClusterDatabase(
   node: ClusterNode,
-  spec: { database: string; owner: { user: string; password: string }; app: { user: string; password: string } },
+  spec: { database: string; owner: DbAccount; app: DbAccount },
 ): Promise<void> {
-  const ident = /^[A-Za-z0-9_]{1,64}$/;
-  for (const name of [spec.database, spec.owner.user, spec.app.user]) {
-    if (!ident.test(name)) throw new Error(`"${name}" may contain only letters, digits and _.`);
-  }
-  const quote = (value: string) => `'${value.replace(/\\/g, '\\\\').replace(/'/g, "\\'")}'`;
-  const owner = `${quote(spec.owner.user)}@'127.0.0.1'`;
-  const app = `${quote(spec.app.user)}@'127.0.0.1'`;
-  await runSql(
-    node.paths,
-    [
-      `CREATE DATABASE IF NOT EXISTS \`${spec.database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`,
-      `CREATE USER IF NOT EXISTS ${owner} IDENTIFIED BY ${quote(spec.owner.password)};`,
-      `ALTER USER ${owner} IDENTIFIED BY ${quote(spec.owner.password)};`,
-      `GRANT ALL PRIVILEGES ON \`${spec.database}\`.* TO ${owner};`,
-      `CREATE USER IF NOT EXISTS ${app} IDENTIFIED BY ${quote(spec.app.password)};`,
-      `ALTER USER ${app} IDENTIFIED BY ${quote(spec.app.password)};`,
-      `GRANT SELECT, INSERT, UPDATE, DELETE ON \`${spec.database}\`.* TO ${app};`,
-      'FLUSH PRIVILEGES;',
-    ].join('\n'),
-  );
+  await ensureDatabases(node, { databases: [spec.database], user: spec.app.user, password: spec.app.password, owner: spec.owner });
 }
 
 /** `--name value` from argv. */

@@ -135,6 +135,24 @@ function isAlive(pid: number): boolean {
   }
 }
 
+/**
+ * The pid of a mariadbd serving `dataDir`, found from the process table (for when its pid file is gone or names
+ * another process), or null.
+ */
+export function findMariaDbServing(dataDir: string): number | null {
+  let entries: string[];
+  try {
+    entries = fs.readdirSync('/proc');
+  } catch {
+    return null;
+  }
+  for (const entry of entries) {
+    const pid = Number(entry);
+    if (Number.isInteger(pid) && pid > 0 && pid !== process.pid && isOurMariaDb(pid, dataDir)) return pid;
+  }
+  return null;
+}
+
 /** True when `pid` is a mariadbd serving `dataDir` (not some unrelated process that reused the pid). */
 function isOurMariaDb(pid: number, dataDir: string): boolean {
   try {
@@ -250,10 +268,16 @@ export async function stopMariaDbInDir(dir: string, log: Log = defaultLog): Prom
 export type MariaDbHandle = {
   paths: MariaDbPaths;
   port: number;
+  /** The pid it had when started or adopted (MariaDB may have been restarted since: `stop()` finds the current one). */
   pid: number;
   /** True when an instance left running by an earlier run was reused. */
   adopted: boolean;
-  stop: () => Promise<void>;
+  /**
+   * Stops the instance that serves this data folder now — the one started here, or one that replaced it after a
+   * restart (issue 12, item 10: Ctrl-C said "Stopped MariaDB" while the restarted server kept running and held the
+   * port). @returns the pid stopped, or null when none was running
+   */
+  stop: () => Promise<number | null>;
 };
 
 /**
@@ -269,14 +293,26 @@ export async function startMariaDb(options: { dir: string; port: number; log?: L
   fs.mkdirSync(paths.dir, { recursive: true });
 
   const makeHandle = (pid: number, adopted: boolean): MariaDbHandle => {
-    let stopping: Promise<void> | undefined;
+    let stopping: Promise<number | null> | undefined;
+    const currentPid = (): number | null => {
+      const fromFile = readPid(paths.pidFile);
+      if (fromFile && isAlive(fromFile) && isOurMariaDb(fromFile, paths.dataDir)) return fromFile;
+      if (isAlive(pid) && isOurMariaDb(pid, paths.dataDir)) return pid;
+      return findMariaDbServing(paths.dataDir);
+    };
     return {
       paths,
       port: options.port,
       pid,
       adopted,
       stop: () => {
-        stopping ??= stopPid(paths, pid, log).then(() => removeStaleFiles(paths));
+        stopping ??= (async () => {
+          const target = currentPid();
+          if (target) await stopPid(paths, target, log);
+          // Only once nothing serves the folder: the pid file and socket of a live server are never removed.
+          if (!currentPid()) removeStaleFiles(paths);
+          return target;
+        })();
         return stopping;
       },
     };
@@ -360,20 +396,47 @@ function assertIdentifier(name: string, what: string): void {
   if (!/^[A-Za-z0-9_]{1,64}$/.test(name)) throw new Error(`${what} "${name}" may contain only letters, digits and _.`);
 }
 
+/** A MariaDB account for TCP connections from 127.0.0.1. */
+export type DbAccount = { user: string; password: string };
+
+/** The only statements the application's account may run on its tables (issue 12, item 7). */
+export const APP_PRIVILEGES = ['SELECT', 'INSERT', 'UPDATE', 'DELETE'] as const;
+
 /**
- * Creates the databases (utf8mb4) and the application user `user`@`127.0.0.1` with `password`, granting it
- * everything on those databases. Idempotent; the password is reset to the given one each time so it always
- * matches .env.
+ * Creates the databases (utf8mb4) and two accounts @'127.0.0.1':
+ * - the schema owner (`owner`): every privilege on those databases; migrations and the demo seed run as it;
+ * - the application (`user`): only SELECT, INSERT, UPDATE and DELETE on their tables, so a server bug or injected
+ *   SQL cannot drop a table, remove the trigger that freezes published sheets, or grant itself more.
+ * Without `owner` the application account gets every privilege itself (the layout before issue 12; migrations
+ * then run as it). Idempotent: privileges are revoked and granted afresh each time (an older install's GRANT ALL
+ * goes), and passwords are reset to the given ones so they always match .env. Name every database the accounts
+ * use: grants on databases left out are revoked. `handle` may be any server reachable through its socket (a node of
+ * the scale test's Galera cluster, where the statements replicate to every node).
  */
-export async function ensureDatabases(handle: MariaDbHandle, spec: { databases: string[]; user: string; password: string }): Promise<void> {
+export async function ensureDatabases(
+  handle: Pick<MariaDbHandle, 'paths'>,
+  spec: { databases: string[]; user: string; password: string; owner?: DbAccount },
+): Promise<void> {
   assertIdentifier(spec.user, 'DB_USER');
+  if (spec.owner) {
+    assertIdentifier(spec.owner.user, 'DB_OWNER_USER');
+    if (spec.owner.user === spec.user) throw new Error('DB_OWNER_USER must differ from DB_USER: the server must not own the schema.');
+  }
   spec.databases.forEach((db) => assertIdentifier(db, 'Database name'));
-  const account = `${quoteString(spec.user)}@'127.0.0.1'`;
+  const accountOf = (name: string) => `${quoteString(name)}@'127.0.0.1'`;
+  const app = accountOf(spec.user);
+  const ensureAccount = (account: string, password: string) => [
+    `CREATE USER IF NOT EXISTS ${account} IDENTIFIED BY ${quoteString(password)};`,
+    `ALTER USER ${account} IDENTIFIED BY ${quoteString(password)};`,
+    `REVOKE ALL PRIVILEGES, GRANT OPTION FROM ${account};`,
+  ];
+  const appGrant = spec.owner ? APP_PRIVILEGES.join(', ') : 'ALL PRIVILEGES';
   const statements = [
     ...spec.databases.map((db) => `CREATE DATABASE IF NOT EXISTS \`${db}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`),
-    `CREATE USER IF NOT EXISTS ${account} IDENTIFIED BY ${quoteString(spec.password)};`,
-    `ALTER USER ${account} IDENTIFIED BY ${quoteString(spec.password)};`,
-    ...spec.databases.map((db) => `GRANT ALL PRIVILEGES ON \`${db}\`.* TO ${account};`),
+    ...(spec.owner ? ensureAccount(accountOf(spec.owner.user), spec.owner.password) : []),
+    ...(spec.owner ? spec.databases.map((db) => `GRANT ALL PRIVILEGES ON \`${db}\`.* TO ${accountOf(spec.owner!.user)};`) : []),
+    ...ensureAccount(app, spec.password),
+    ...spec.databases.map((db) => `GRANT ${appGrant} ON \`${db}\`.* TO ${app};`),
     'FLUSH PRIVILEGES;',
   ];
   await runSql(handle.paths, statements.join('\n'));
@@ -412,6 +475,9 @@ async function cli(): Promise<void> {
         databases: [process.env.DB_NAME || 'gantrywright'],
         user: process.env.DB_USER || 'gantry',
         password: process.env.DB_PASSWORD,
+        owner: process.env.DB_OWNER_PASSWORD
+          ? { user: process.env.DB_OWNER_USER || 'gantry_owner', password: process.env.DB_OWNER_PASSWORD }
+          : undefined,
       });
     }
     defaultLog('Left running; stop it with: npm run db:stop');

@@ -225,6 +225,17 @@ function listen(
 }
 
 /**
+ * Whether a request's Host header names this catcher: the address it listens on, 127.0.0.1, localhost or [::1],
+ * with its port. Anything else is refused (DNS rebinding: a web page on a name that resolves to 127.0.0.1 would
+ * otherwise read every caught mail, reset links included; issue 12, item 10).
+ */
+export function isAllowedHost(hostHeader: string | undefined, listenHost: string, port: number): boolean {
+  if (!hostHeader) return false;
+  const names = new Set([listenHost, '127.0.0.1', 'localhost', '[::1]'].map((h) => (h.includes(':') && !h.startsWith('[') ? `[${h}]` : h)));
+  return [...names].some((name) => hostHeader.toLowerCase() === `${name}:${port}`);
+}
+
+/**
  * Starts the SMTP catcher and its HTTP list. Messages persist in `dir`/messages.jsonl.
  */
 export async function startMailCatcher(options: {
@@ -274,6 +285,15 @@ export async function startMailCatcher(options: {
       res.writeHead(status, body === undefined ? {} : { 'Content-Type': 'application/json; charset=utf-8' });
       res.end(body === undefined ? undefined : JSON.stringify(body));
     };
+    if (!isAllowedHost(req.headers.host, host, (web.address() as AddressInfo).port)) {
+      send(403, {
+        error: {
+          code: 'forbidden_host',
+          message: 'The mail catcher answers only requests addressed to the loopback address it listens on.',
+        },
+      });
+      return;
+    }
     if (url.pathname === '/messages' && req.method === 'GET') {
       const to = url.searchParams.get('to')?.toLowerCase();
       send(200, to ? messages.filter((m) => m.to.some((t) => t.toLowerCase() === to)) : messages);

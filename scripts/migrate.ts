@@ -17,15 +17,21 @@ async function main(): Promise<void> {
   const config = getConfig();
   const [command = 'up', ...rest] = process.argv.slice(2);
   const { createSequelize } = await import('../server/db');
-  const { createMigrator, createSeeder } = await import('../server/migrator');
+  const { createMigrator, createSeeder, schemaOwnerDb } = await import('../server/migrator');
   const { initModels } = await import('../server/models');
 
   let db: MariaDbHandle | undefined;
   if (['127.0.0.1', 'localhost'].includes(config.db.host) && (config.db.nodes?.length ?? 1) === 1) {
     db = await startMariaDb({ dir: path.join(config.dataDir, 'mariadb'), port: config.db.port, log: say });
-    await ensureDatabases(db, { databases: [config.db.name], user: config.db.user, password: config.db.password });
+    await ensureDatabases(db, {
+      databases: [config.db.name],
+      user: config.db.user,
+      password: config.db.password,
+      owner: config.dbOwner ?? undefined,
+    });
   }
-  const sequelize = createSequelize(config.db);
+  // Schema work runs as the schema owner (DB_OWNER_USER); the server itself never holds those rights.
+  const sequelize = createSequelize(schemaOwnerDb(config));
   initModels(sequelize);
   try {
     const migrator = createMigrator(sequelize);

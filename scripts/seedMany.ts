@@ -142,12 +142,19 @@ async function main(): Promise<void> {
     ? await startMariaDb({ dir: path.join(config.dataDir, 'mariadb'), port: config.db.port, log: (l) => process.stdout.write(`${l}\n`) })
     : null;
   if (db) {
-    await ensureDatabases(db, { databases: [database], user: config.db.user, password: config.db.password });
+    // The accounts' grants are set afresh for every database named, so npm start's database is named too.
+    await ensureDatabases(db, {
+      databases: [config.db.name, database],
+      user: config.db.user,
+      password: config.db.password,
+      owner: config.dbOwner ?? undefined,
+    });
     await recreateDatabase(db, database);
   }
   const { createSequelize } = await import('../server/db');
-  const { runMigrations, runSeeders } = await import('../server/migrator');
-  const sequelize = createSequelize({ ...config.db, name: database });
+  const { runMigrations, runSeeders, schemaOwnerDb } = await import('../server/migrator');
+  // Schema and demo data as the schema owner, like npm start.
+  const sequelize = createSequelize({ ...schemaOwnerDb(config, database), poolMax: config.db.poolMax });
   try {
     await runMigrations(sequelize);
     await runSeeders(sequelize);

@@ -9,8 +9,11 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
+import { parseEnv } from 'node:util';
+import { pathToFileURL } from 'node:url';
 import { ROOT_DIR } from '../server/paths';
 import { ConfigError, getConfig, loadDotEnv, type AppConfig } from '../server/config';
+import { isPlaceholderSecret } from '../server/security/secretStrength';
 import { ensureDatabases, ensureDebianPackages, MARIADB_PACKAGE, MissingPackagesError, startMariaDb, type MariaDbHandle } from './db';
 import { startMailCatcher, type MailCatcher } from './mailcatcher';
 import { buildClientIfStale } from './buildClient';
@@ -19,33 +22,60 @@ import { acquireRunLock } from './runLock';
 const say = (line = '') => process.stdout.write(`${line}\n`);
 const ENV_FILE = path.join(ROOT_DIR, '.env');
 const ENV_EXAMPLE = path.join(ROOT_DIR, '.env.example');
+const isLocalHost = (host: string) => ['127.0.0.1', 'localhost', '::1'].includes(host);
 
-/** Creates .env from .env.example on first run, with a random JWT secret and database password. */
-export function ensureEnvFile(): void {
-  const secret = () => randomBytes(32).toString('base64url');
-  if (!fs.existsSync(ENV_FILE)) {
-    const template = fs.readFileSync(ENV_EXAMPLE, 'utf8');
-    const filled = template.replace(/^JWT_SECRET=.*$/m, `JWT_SECRET=${secret()}`).replace(/^DB_PASSWORD=.*$/m, `DB_PASSWORD=${secret()}`);
-    fs.writeFileSync(ENV_FILE, filled, { mode: 0o600 });
-    say('Created .env with a random JWT secret and database password.');
-    return;
+/** Variables `npm start` fills with random values: the session signing secret and the two database passwords. */
+export const GENERATED_SECRETS = ['JWT_SECRET', 'DB_PASSWORD', 'DB_OWNER_PASSWORD'] as const;
+/** Of those, the ones that must match what a database server already has (left alone when DB_HOST is not local). */
+const DATABASE_SECRETS = new Set<string>(['DB_PASSWORD', 'DB_OWNER_PASSWORD']);
+
+/** 32 random bytes, base64url: 43 characters. */
+const randomSecret = () => randomBytes(32).toString('base64url');
+
+/**
+ * Creates .env from .env.example on first run, with random secrets. On later runs, fills in any of
+ * {@link GENERATED_SECRETS} that is missing, empty or still a published placeholder (the value .env.example ships,
+ * or any "change-me…"): such a value is public, and a session signed with it could be forged. The database passwords
+ * are only generated for the project's own local MariaDB, whose accounts npm start then sets to match.
+ * @returns what was done, one line each (printed by npm start)
+ */
+export function ensureEnvFile(files: { env: string; example: string } = { env: ENV_FILE, example: ENV_EXAMPLE }): string[] {
+  if (!fs.existsSync(files.env)) {
+    let text = fs.readFileSync(files.example, 'utf8');
+    for (const key of GENERATED_SECRETS) text = setEnvLine(text, key, randomSecret());
+    fs.writeFileSync(files.env, text, { mode: 0o600 });
+    return [`Created .env with a random ${GENERATED_SECRETS.join(', ')}.`];
   }
-  // An existing .env without the two secrets gets them added (never overwritten).
-  let text = fs.readFileSync(ENV_FILE, 'utf8');
-  let changed = false;
-  for (const key of ['JWT_SECRET', 'DB_PASSWORD']) {
-    const line = new RegExp(`^${key}=(.*)$`, 'm').exec(text);
-    if (line && line[1].trim() !== '') continue;
-    text = line ? text.replace(line[0], `${key}=${secret()}`) : `${text.replace(/\n?$/, '\n')}${key}=${secret()}\n`;
-    changed = true;
+  let text = fs.readFileSync(files.env, 'utf8');
+  const values = parseEnv(text) as Record<string, string>;
+  // A cluster (DB_NODES) is someone else's servers, like a DB_HOST elsewhere: its passwords are not ours to invent.
+  const dbIsLocal = isLocalHost(values.DB_HOST || '127.0.0.1') && !values.DB_NODES?.trim();
+  const messages: string[] = [];
+  for (const key of GENERATED_SECRETS) {
+    const value = values[key]?.trim() ?? '';
+    const isPlaceholder = value !== '' && isPlaceholderSecret(value);
+    if (value !== '' && !isPlaceholder) continue;
+    if (DATABASE_SECRETS.has(key) && !dbIsLocal) {
+      if (isPlaceholder)
+        messages.push(`${key} in .env is still a placeholder; set it to the password of ${values.DB_NODES?.trim() || values.DB_HOST}.`);
+      continue;
+    }
+    text = setEnvLine(text, key, randomSecret());
+    messages.push(
+      isPlaceholder
+        ? `Replaced the placeholder ${key} in .env with a random value (the placeholder is public${key === 'JWT_SECRET' ? '; everyone signs in again' : ''}).`
+        : `Added a random ${key} to .env.`,
+    );
   }
-  if (changed) {
-    fs.writeFileSync(ENV_FILE, text);
-    say('Added missing JWT_SECRET / DB_PASSWORD to .env.');
-  }
+  if (messages.some((m) => m.startsWith('Replaced') || m.startsWith('Added'))) fs.writeFileSync(files.env, text, { mode: 0o600 });
+  return messages;
 }
 
-const isLocalHost = (host: string) => ['127.0.0.1', 'localhost', '::1'].includes(host);
+/** Sets `KEY=value` in .env text: replaces the line when present, appends it otherwise. */
+function setEnvLine(text: string, key: string, value: string): string {
+  const line = new RegExp(`^${key}=.*$`, 'm');
+  return line.test(text) ? text.replace(line, `${key}=${value}`) : `${text.replace(/\n?$/, '\n')}${key}=${value}\n`;
+}
 
 type Running = {
   db?: MariaDbHandle;
@@ -57,18 +87,23 @@ type Running = {
 
 /** Stops everything that was started, newest first. Each step is attempted even if an earlier one fails. */
 async function stopAll(running: Running): Promise<void> {
-  const steps: Array<[string, (() => Promise<void>) | undefined]> = [
+  const stopMariaDb = async (): Promise<string> => {
+    const pid = await running.db!.stop();
+    return pid ? `Stopped MariaDB (pid ${pid}).` : 'MariaDB was no longer running.';
+  };
+  const steps: Array<[string, (() => Promise<string | void>) | undefined]> = [
     ['Vite dev server', running.vite ? () => stopChild(running.vite!) : undefined],
     ['API server', running.server?.close],
     ['database connections', running.closeDb],
     ['mail catcher', running.catcher?.close],
-    ['MariaDB', running.db ? () => running.db!.stop() : undefined],
+    // Whatever instance serves the data folder now, also one restarted since npm start began.
+    ['MariaDB', running.db ? stopMariaDb : undefined],
   ];
   for (const [name, step] of steps) {
     if (!step) continue;
     try {
-      await step();
-      say(`Stopped ${name}.`);
+      const said = await step();
+      say(said || `Stopped ${name}.`);
     } catch (err) {
       say(`Could not stop ${name} cleanly: ${(err as Error).message}`);
     }
@@ -100,7 +135,7 @@ function printBanner(config: AppConfig, dev: boolean, formatDemoSignIns: () => s
 
 async function main(): Promise<void> {
   const dev = process.argv.includes('--dev');
-  ensureEnvFile();
+  for (const line of ensureEnvFile()) say(line);
   loadDotEnv(ENV_FILE);
   let config: AppConfig;
   try {
@@ -154,8 +189,8 @@ async function main(): Promise<void> {
 
   try {
     // Server modules read configuration at import time of first use, so import them after .env is loaded.
-    const { getSequelize, closeSequelize } = await import('../server/db');
-    const { runMigrations, runSeeders } = await import('../server/migrator');
+    const { closeSequelize } = await import('../server/db');
+    const { runMigrations, runSeeders, withSchemaOwner } = await import('../server/migrator');
     const { formatDemoSignIns } = await import('../server/seeders/demoAccounts');
     const { startServer } = await import('../server/index');
 
@@ -163,18 +198,26 @@ async function main(): Promise<void> {
     if (isLocalHost(config.db.host) && (config.db.nodes?.length ?? 1) === 1) {
       ensureDebianPackages([MARIADB_PACKAGE], say);
       running.db = await startMariaDb({ dir: path.join(config.dataDir, 'mariadb'), port: config.db.port, log: say });
-      await ensureDatabases(running.db, { databases: [config.db.name], user: config.db.user, password: config.db.password });
+      await ensureDatabases(running.db, {
+        databases: [config.db.name],
+        user: config.db.user,
+        password: config.db.password,
+        owner: config.dbOwner ?? undefined,
+      });
     } else {
       say(
         `Using the MariaDB server(s) at ${(config.db.nodes ?? [config.db]).map((n) => `${n.host}:${n.port}`).join(', ')} (not the private one).`,
       );
     }
 
-    const sequelize = getSequelize();
     running.closeDb = closeSequelize;
-    const migrated = await runMigrations(sequelize);
+    // Migrations and the demo seed run as the schema owner; the server connects as DB_USER, which may only read and
+    // write rows.
+    const { migrated, seeded } = await withSchemaOwner(config, async (owner) => ({
+      migrated: await runMigrations(owner),
+      seeded: await runSeeders(owner),
+    }));
     say(migrated.length ? `Applied ${migrated.length} migration(s): ${migrated.join(', ')}` : 'Database schema is up to date.');
-    const seeded = await runSeeders(sequelize);
     if (seeded.length) {
       say(`Seeded demo data: ${seeded.join(', ')}`);
       say(formatDemoSignIns());
@@ -216,4 +259,4 @@ async function main(): Promise<void> {
   }
 }
 
-void main();
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) void main();

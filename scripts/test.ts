@@ -52,6 +52,7 @@ export const TEST_SETTINGS = {
   apiDatabase: 'gw_test_api',
   e2eDatabase: 'gw_test_e2e',
   dbUser: 'gw_test',
+  dbOwnerUser: 'gw_test_owner',
 } as const;
 
 const ALL_PROJECTS = ['unit', 'client', 'api', 'e2e'] as const;
@@ -142,12 +143,14 @@ async function main(): Promise<number> {
     fs.mkdirSync(dataDir, { recursive: true });
 
     const dbPassword = randomBytes(18).toString('base64url');
+    const dbOwnerPassword = randomBytes(18).toString('base64url');
     if (needsServices) {
       db = await startMariaDb({ dir: path.join(dataDir, 'mariadb'), port: TEST_SETTINGS.dbPort, log: say });
       await ensureDatabases(db, {
         databases: [TEST_SETTINGS.apiDatabase, TEST_SETTINGS.e2eDatabase],
         user: TEST_SETTINGS.dbUser,
         password: dbPassword,
+        owner: { user: TEST_SETTINGS.dbOwnerUser, password: dbOwnerPassword },
       });
       catcher = await startMailCatcher({
         smtpPort: TEST_SETTINGS.smtpPort,
@@ -176,6 +179,8 @@ async function main(): Promise<number> {
       GW_TEST_DB_E2E: TEST_SETTINGS.e2eDatabase,
       DB_USER: TEST_SETTINGS.dbUser,
       DB_PASSWORD: dbPassword,
+      DB_OWNER_USER: TEST_SETTINGS.dbOwnerUser,
+      DB_OWNER_PASSWORD: dbOwnerPassword,
       JWT_SECRET: randomBytes(32).toString('base64url'),
       SESSION_HOURS: '12',
       SMTP_HOST: '127.0.0.1',
@@ -183,6 +188,10 @@ async function main(): Promise<number> {
       MAILCATCHER_HTTP_PORT: String(TEST_SETTINGS.mailcatcherHttpPort),
       LOGIN_RATE_LIMIT: '5',
       LOGIN_RATE_WINDOW_MINUTES: '15',
+      // Every test file signs in and asks for resets from 127.0.0.1 at once: the per-address limits are tested with
+      // their own small values and client addresses (tests/api/abuse.api.test.ts), not left to trip other files.
+      LOGIN_IP_RATE_LIMIT: '100000',
+      RESET_IP_RATE_LIMIT: '100000',
     });
 
     const vitestArgs = [

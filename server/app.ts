@@ -7,6 +7,7 @@ import { DIST_DIR } from './paths';
 import { requestIdMiddleware } from './middleware/requestId';
 import { securityHeadersMiddleware } from './middleware/security';
 import { JSON_BODY_LIMIT, JSON_TYPES, requireJsonBodyMiddleware } from './middleware/contentType';
+import { originCheckMiddleware } from './middleware/originCheck';
 import { errorHandlerMiddleware } from './middleware/errorHandler';
 import { notFoundMiddleware } from './middleware/notFound';
 import { precompressedAssetsMiddleware, sendBuilt } from './middleware/precompressed';
@@ -38,6 +39,8 @@ export function createApp(): Express {
 
   app.use(
     '/api',
+    // Before anything reads the body: a request another site started is refused unread (CSRF).
+    originCheckMiddleware(),
     requireJsonBodyMiddleware(),
     // /api/calc bodies are parsed in the engine worker pool instead (routes/calc.routes.ts), off the event loop.
     express.json({

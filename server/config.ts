@@ -4,6 +4,7 @@ import path from 'node:path';
 import { parseEnv } from 'node:util';
 import { z } from 'zod';
 import { ROOT_DIR, resolveFromRoot } from './paths';
+import { isPlaceholderSecret, signingSecretProblem } from './security/secretStrength';
 
 const port = (fallback: number) => z.coerce.number().int().min(1).max(65535).default(fallback);
 const positiveInt = (fallback: number) => z.coerce.number().int().positive().default(fallback);
@@ -45,13 +46,29 @@ const envSchema = z.object({
     .string()
     .regex(/^[A-Za-z0-9_]{1,32}$/, 'letters, digits and _ only')
     .default('gantry'),
-  DB_PASSWORD: z.string({ message: 'is required (npm start writes one into .env)' }).min(8, 'must be at least 8 characters'),
+  DB_PASSWORD: z
+    .string({ message: 'is required (npm start writes one into .env)' })
+    .min(8, 'must be at least 8 characters')
+    .refine((v) => !isPlaceholderSecret(v), 'is a placeholder from .env.example, which anyone can read; set a random value'),
+  /** The account that owns the schema: migrations and seeders run as it; the server never uses it. */
+  DB_OWNER_USER: z
+    .string()
+    .regex(/^[A-Za-z0-9_]{1,32}$/, 'letters, digits and _ only')
+    .default('gantry_owner'),
+  DB_OWNER_PASSWORD: z
+    .string()
+    .min(8, 'must be at least 8 characters')
+    .refine((v) => !isPlaceholderSecret(v), 'is a placeholder from .env.example, which anyone can read; set a random value')
+    .optional(),
   DB_POOL_MAX: positiveInt(10),
   DB_NODES: z.string().regex(NODE_LIST, 'a comma-separated list of host:port, e.g. 10.0.0.1:3306,10.0.0.2:3306').optional(),
   DB_READ_REPLICAS: z.string().regex(NODE_LIST, 'a comma-separated list of host:port, e.g. 10.0.0.2:3306,10.0.0.3:3306').optional(),
   DB_SYNC_WAIT: z.coerce.number().int().min(0).max(15).default(1),
   DB_RETRY_ATTEMPTS: z.coerce.number().int().min(1).max(20).default(6),
-  JWT_SECRET: z.string({ message: 'is required (npm start writes a random one into .env)' }).min(32, 'must be at least 32 characters'),
+  JWT_SECRET: z.string({ message: 'is required (npm start writes a random one into .env)' }).superRefine((value, ctx) => {
+    const problem = signingSecretProblem(value);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem });
+  }),
   SESSION_HOURS: z.coerce
     .number()
     .positive()
@@ -73,6 +90,10 @@ const envSchema = z.object({
   UPLOAD_DIR: z.string().min(1).optional(),
   LOGIN_RATE_LIMIT: positiveInt(10),
   LOGIN_RATE_WINDOW_MINUTES: positiveInt(15),
+  LOGIN_IP_RATE_LIMIT: positiveInt(50),
+  RESET_RATE_LIMIT: positiveInt(3),
+  RESET_IP_RATE_LIMIT: positiveInt(20),
+  RESET_RATE_WINDOW_MINUTES: positiveInt(60),
   TRUST_PROXY: z.string().optional(),
   STORAGE: z.enum(['local', 's3']).default('local'),
   S3_ENDPOINT: z.url({ protocol: /^https?$/, message: 'must be an http(s) URL such as http://127.0.0.1:4650' }).optional(),
@@ -122,6 +143,11 @@ export type AppConfig = {
     /** Attempts of a transaction (or statement) that hit a write conflict or lost its server. */
     retryAttempts?: number;
   };
+  /**
+   * The schema owner's account (migrations, seeders), or null when DB_OWNER_PASSWORD is not set: then migrations run
+   * as DB_USER, which must then hold the DDL rights itself.
+   */
+  dbOwner: { user: string; password: string } | null;
   jwtSecret: string;
   sessionHours: number;
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
@@ -135,6 +161,12 @@ export type AppConfig = {
   uploadDir: string;
   loginRateLimit: number;
   loginRateWindowMinutes: number;
+  /** Failed sign-ins per client IP within the window, whatever the e-mail. */
+  loginIpRateLimit: number;
+  /** Password-reset requests per e-mail address, and per client IP, within `resetRateWindowMinutes`. */
+  resetRateLimit: number;
+  resetIpRateLimit: number;
+  resetRateWindowMinutes: number;
   /** Express `trust proxy` setting: false, a hop count or a list of addresses. */
   trustProxy: boolean | number | string;
   /** Where uploads and design sheets are stored: a local folder (`uploadDir`) or an S3-compatible bucket. */
@@ -194,14 +226,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     throw new ConfigError(`Invalid configuration (environment or .env):\n${lines.join('\n')}`);
   }
   const e = parsed.data;
-  if (e.NODE_ENV === 'production') {
-    const placeholders = (['JWT_SECRET', 'DB_PASSWORD'] as const).filter((k) => e[k].startsWith('change-me'));
-    if (placeholders.length) {
-      throw new ConfigError(
-        `Invalid configuration (environment or .env):\n${placeholders.map((k) => `  ${k}: still the placeholder from .env.example; set a random value`).join('\n')}`,
-      );
-    }
-  }
   const dataDir = resolveFromRoot(e.DATA_DIR);
   const storageProblems: string[] = [];
   if (e.STORAGE === 's3' && !e.S3_BUCKET) storageProblems.push('  S3_BUCKET: is required when STORAGE=s3');
@@ -245,6 +269,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
       syncWait: e.DB_SYNC_WAIT,
       retryAttempts: e.DB_RETRY_ATTEMPTS,
     },
+    dbOwner: e.DB_OWNER_PASSWORD ? { user: e.DB_OWNER_USER, password: e.DB_OWNER_PASSWORD } : null,
     jwtSecret: e.JWT_SECRET,
     sessionHours: e.SESSION_HOURS,
     smtp: { host: e.SMTP_HOST, port: e.SMTP_PORT, secure: e.SMTP_SECURE, user: e.SMTP_USER, password: e.SMTP_PASSWORD },
@@ -256,6 +281,10 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     uploadDir: e.UPLOAD_DIR ? resolveFromRoot(e.UPLOAD_DIR) : path.join(dataDir, 'uploads'),
     loginRateLimit: e.LOGIN_RATE_LIMIT,
     loginRateWindowMinutes: e.LOGIN_RATE_WINDOW_MINUTES,
+    loginIpRateLimit: e.LOGIN_IP_RATE_LIMIT,
+    resetRateLimit: e.RESET_RATE_LIMIT,
+    resetIpRateLimit: e.RESET_IP_RATE_LIMIT,
+    resetRateWindowMinutes: e.RESET_RATE_WINDOW_MINUTES,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
     storage,
     workers: { engineThreads: e.ENGINE_THREADS ?? Math.max(1, os.availableParallelism() - 1), pdfThreads: Math.min(e.PDF_THREADS, 8) },

@@ -7,6 +7,8 @@ declare global {
       id: string;
       /** The signed-in user, set by requireAuth. */
       user?: PublicUser;
+      /** The id of the signed-in user's session (row of `sessions`), set with `user`. */
+      sessionId?: number;
     }
   }
 }

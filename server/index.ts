@@ -8,6 +8,7 @@ import { getLogger } from './logger';
 import { closeMail } from './services/mail.service';
 import { startMailQueueWorker } from './services/notify.service';
 import { getContentStore, startContentSweeper } from './storage';
+import { closePasswordPool } from './workers/passwordPool';
 import { closePools, warmPools } from './workers/pool';
 
 /** A listening server and how to stop it. */
@@ -55,7 +56,7 @@ export async function startServer(options: { port?: number; host?: string } = {}
         setTimeout(() => server.closeAllConnections(), 5000).unref();
       });
       closeMail();
-      await closePools();
+      await Promise.all([closePools(), closePasswordPool()]);
       await closeSequelize();
       log.info('server stopped');
     })();

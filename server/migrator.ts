@@ -3,6 +3,8 @@ import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { QueryInterface, Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug, type MigrationFn, type RunnableMigration } from 'umzug';
+import type { AppConfig } from './config';
+import { createSequelize } from './db';
 import { ROOT_DIR } from './paths';
 import { initModels, User } from './models';
 
@@ -73,9 +75,47 @@ export async function runMigrations(sequelize: Sequelize): Promise<string[]> {
   return applied.map((m) => m.name);
 }
 
-/** Applies every pending demo seeder (binding the models to `sequelize` first). @returns the names applied. */
+/**
+ * Applies every pending demo seeder. Seeders use the models, so they are bound to `sequelize` for the run and bound
+ * back afterwards to whatever instance they served before (the server's, when npm start seeds with the owner's
+ * connection and then serves with the application's).
+ * @returns the names applied.
+ */
 export async function runSeeders(sequelize: Sequelize): Promise<string[]> {
-  if (User.sequelize !== sequelize) initModels(sequelize);
-  const applied = await createSeeder(sequelize).up();
-  return applied.map((m) => m.name);
+  const previous = boundSequelize();
+  if (previous !== sequelize) initModels(sequelize);
+  try {
+    const applied = await createSeeder(sequelize).up();
+    return applied.map((m) => m.name);
+  } finally {
+    if (previous && previous !== sequelize) initModels(previous);
+  }
+}
+
+/** The instance the models are bound to now, if any. */
+function boundSequelize(): Sequelize | undefined {
+  try {
+    return User.sequelize ?? undefined;
+  } catch {
+    return undefined; // never initialised
+  }
+}
+
+/**
+ * Connection settings for schema work (migrations, seeders): the schema owner's account (DB_OWNER_USER and
+ * DB_OWNER_PASSWORD) when configured, else the application's own (which then needs the DDL rights itself).
+ * @param databaseName - another database on the same server (tests), default DB_NAME
+ */
+export function schemaOwnerDb(config: AppConfig, databaseName = config.db.name): AppConfig['db'] {
+  return { ...config.db, name: databaseName, poolMax: 2, ...(config.dbOwner ?? {}) };
+}
+
+/** Runs `work` on a connection as the schema owner (see {@link schemaOwnerDb}) and closes it afterwards. */
+export async function withSchemaOwner<T>(config: AppConfig, work: (sequelize: Sequelize) => Promise<T>, databaseName?: string): Promise<T> {
+  const sequelize = createSequelize(schemaOwnerDb(config, databaseName));
+  try {
+    return await work(sequelize);
+  } finally {
+    await sequelize.close();
+  }
 }

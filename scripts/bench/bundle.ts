@@ -1,4 +1,5 @@
 import { spawnSync } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
@@ -134,7 +135,7 @@ export async function benchBundle(): Promise<Figure[]> {
 /** Starts the app in this process (no database needed for static files) and checks the headers. */
 async function headerChecks(manifest: Manifest, entry: string): Promise<Figure[]> {
   process.env.DB_PASSWORD ??= 'bench-only-password';
-  process.env.JWT_SECRET ??= 'b'.repeat(40);
+  process.env.JWT_SECRET ??= randomBytes(32).toString('base64url');
   process.env.LOG_LEVEL ??= 'silent';
   const { createApp } = await import('../../server/app');
   const server = createApp().listen(0, '127.0.0.1');

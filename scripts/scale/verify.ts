@@ -223,7 +223,8 @@ export async function verifyRun(input: {
   // avoid: a sender killed after the SMTP server took a mail but before the queue recorded it; its claim expires and
   // another process sends the mail again, with the same Message-ID. Such a repeat is allowed only when the first copy
   // came from a process this run killed, and it is reported.
-  const queue = await rows<{ id: number; status: string }>(db, 'SELECT id, status FROM mail_queue');
+  // A discarded row was built at sending time and had nobody to go to (a reset asked for an unknown address).
+  const queue = await rows<{ id: number; status: string }>(db, "SELECT id, status FROM mail_queue WHERE status <> 'discarded'");
   const notSent = queue.filter((q) => q.status !== 'sent');
   const byMessageId = new Map<string, CaughtMessage[]>();
   for (const m of input.mails) if (m.messageId) byMessageId.set(m.messageId, [...(byMessageId.get(m.messageId) ?? []), m]);

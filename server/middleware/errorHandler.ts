@@ -1,6 +1,12 @@
 import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
-import { ConnectionError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from 'sequelize';
+import {
+  BaseError as SequelizeError,
+  ConnectionError,
+  ForeignKeyConstraintError,
+  UniqueConstraintError,
+  ValidationError as SequelizeValidationError,
+} from 'sequelize';
 import { AppError, type ErrorDetails } from '../errors';
 import { logger } from '../logger';
 import { zodDetails } from './validate';
@@ -20,6 +26,33 @@ type HttpLikeError = Error & {
 
 function formatBytes(bytes: number): string {
   return bytes >= 1024 * 1024 ? `${Math.round((bytes / (1024 * 1024)) * 10) / 10} MB` : `${Math.round(bytes / 1024)} kB`;
+}
+
+/** Driver error codes that mean the connection to MariaDB went away mid-query (the query may or may not have run). */
+const LOST_CONNECTION_CODES = new Set([
+  'ER_CONNECTION_KILLED', // 1927: KILL CONNECTION, or a server shutting down
+  'ER_SERVER_SHUTDOWN', // 1053
+  'ER_SOCKET_UNEXPECTED_CLOSE',
+  'ER_CONNECTION_ALREADY_CLOSED',
+  'ER_CMD_CONNECTION_CLOSED',
+  'ER_CLOSED_POOL',
+  'ER_GET_CONNECTION_TIMEOUT',
+  'ECONNRESET',
+  'ECONNREFUSED',
+  'EPIPE',
+  'ETIMEDOUT',
+]);
+
+/**
+ * True for a query that failed because the connection was lost (not because of the query): the driver marks such
+ * errors `fatal`, gives them SQLSTATE class 08 (connection exception) or one of the codes above. Sequelize only maps
+ * connection errors at connect time to ConnectionError; one cut mid-query arrives as a plain DatabaseError.
+ */
+export function isLostConnection(err: unknown): boolean {
+  if (!(err instanceof SequelizeError)) return false;
+  const parent = (err as { parent?: { fatal?: boolean; sqlState?: string; code?: string } }).parent;
+  if (!parent) return false;
+  return parent.fatal === true || (parent.sqlState ?? '').startsWith('08') || LOST_CONNECTION_CODES.has(parent.code ?? '');
 }
 
 /** Maps a thrown value to a status and JSON body. Unknown errors map to 500 (and are flagged as bugs). */
@@ -73,8 +106,12 @@ export function toErrorResponse(err: unknown, requestId?: string): { status: num
   }
   if (err instanceof ForeignKeyConstraintError)
     return reply(409, 'conflict', 'The record refers to, or is referred to by, another record.');
-  if (err instanceof ConnectionError) {
+  if (err instanceof ConnectionError || isLostConnection(err)) {
     return { ...reply(503, 'db_unavailable', 'The database is not reachable. Try again shortly.'), isBug: false };
+  }
+  // A path segment with broken percent-encoding ("/api/designs/%E0%A4%A"): the router could not decode it.
+  if (err instanceof URIError && (err as HttpLikeError).status === 400) {
+    return reply(400, 'bad_request', 'The address contains broken percent-encoding.');
   }
   if (e && typeof e === 'object' && e.expose && typeof (e.status ?? e.statusCode) === 'number') {
     const status = (e.status ?? e.statusCode) as number;

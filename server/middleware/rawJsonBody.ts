@@ -1,4 +1,5 @@
 import express, { type RequestHandler } from 'express';
+import type { z } from 'zod';
 import { AppError } from '../errors';
 
 /**
@@ -7,8 +8,10 @@ import { AppError } from '../errors';
  * and like it, only UTF-8 is accepted.
  * @param limit - largest body, e.g. "1mb"
  * @param types - media types read
+ * @param schemas - what the worker validates the body against: readable on the middleware (`.schemas`) like
+ *   validate()'s, so tests that walk the real router know what the route takes
  */
-export function rawJsonBodyMiddleware(limit: string, types: string[]): RequestHandler[] {
+export function rawJsonBodyMiddleware(limit: string, types: string[], schemas: { body: z.ZodType }): RequestHandler[] {
   return [
     function utf8Only(req, _res, next) {
       const charset = /;\s*charset=("?)([^";]+)\1/i.exec(req.headers['content-type'] ?? '')?.[2];
@@ -16,6 +19,6 @@ export function rawJsonBodyMiddleware(limit: string, types: string[]): RequestHa
         next(new AppError('unsupported_media_type', `unsupported charset "${charset.toUpperCase()}"`, 415));
       else next();
     },
-    express.raw({ limit, type: types }),
+    Object.assign(express.raw({ limit, type: types }), { schemas }),
   ];
 }

@@ -83,9 +83,20 @@ export function uploadMiddleware(options: UploadOptions): RequestHandler {
         next();
         return;
       }
-      const e = err as { name?: string; code?: string; field?: string };
+      const e = err as { name?: string; code?: string; field?: string; message?: string };
       if (e.name !== 'MulterError') {
-        next(err);
+        // Everything else comes from reading the form itself (busboy): no boundary, a truncated body, a broken part
+        // header. The client sent a form that cannot be read — a 400, not a server fault (issue 12, item 9).
+        next(
+          new AppError(
+            'invalid_upload',
+            `The upload form could not be read (${(e.message ?? 'malformed multipart body').slice(0, 120)}).`,
+            400,
+            {
+              details: [{ path: 'body', message: 'is not a complete multipart/form-data body; send the form again' }],
+            },
+          ),
+        );
         return;
       }
       switch (e.code) {

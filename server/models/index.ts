@@ -11,6 +11,7 @@ import { initSheetModel, Sheet } from './sheet.model';
 import { initNotificationModel, Notification } from './notification.model';
 import { initAttachmentModel, Attachment } from './attachment.model';
 import { initMeasurementModel, Measurement } from './measurement.model';
+import { initSessionModel, Session } from './session.model';
 
 export { User, ROLES, type Role } from './user.model';
 export { PasswordToken, TOKEN_PURPOSES, type TokenPurpose } from './passwordToken.model';
@@ -32,6 +33,7 @@ export { Sheet, SHEET_PAPERS, type SheetPaper } from './sheet.model';
 export { Notification, NOTIFICATION_STATUSES, type NotificationStatus } from './notification.model';
 export { Attachment, ATTACHMENT_MIMES, type AttachmentMime } from './attachment.model';
 export { Measurement, MEASUREMENT_SOURCES, type MeasurementSource, type StoredSpectrum } from './measurement.model';
+export { Session, SESSION_REVOKE_REASONS, type SessionRevokeReason } from './session.model';
 
 /**
  * Initialises every model on `sequelize`, then wires all associations in this one block.
@@ -50,6 +52,7 @@ export function initModels(sequelize: Sequelize): void {
   initNotificationModel(sequelize);
   initAttachmentModel(sequelize);
   initMeasurementModel(sequelize);
+  initSessionModel(sequelize);
 
   // Associations (one place).
   User.hasMany(PasswordToken, { foreignKey: 'userId', as: 'passwordTokens', onDelete: 'CASCADE' });
@@ -79,4 +82,6 @@ export function initModels(sequelize: Sequelize): void {
   Sheet.hasMany(Measurement, { foreignKey: 'sheetId', as: 'measurements' });
   Measurement.belongsTo(Sheet, { foreignKey: 'sheetId', as: 'sheet' });
   Measurement.belongsTo(User, { foreignKey: 'measuredById', as: 'measuredBy' });
+  User.hasMany(Session, { foreignKey: 'userId', as: 'sessions', onDelete: 'CASCADE' });
+  Session.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 }

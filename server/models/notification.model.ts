@@ -1,7 +1,10 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** Delivery states of a queued mail: waiting (also between retries), delivered, or given up after the last attempt. */
-export const NOTIFICATION_STATUSES = ['pending', 'sent', 'failed'] as const;
+/**
+ * Delivery states of a queued mail: waiting (also between retries), delivered, given up after the last attempt, or
+ * discarded (built at sending time and found to have nobody to go to: a reset asked for an unknown address).
+ */
+export const NOTIFICATION_STATUSES = ['pending', 'sent', 'failed', 'discarded'] as const;
 export type NotificationStatus = (typeof NOTIFICATION_STATUSES)[number];
 
 /**

@@ -1,7 +1,6 @@
 import { Router } from 'express';
 import { z } from 'zod';
-import { requireAuth } from '../middleware/requireAuth';
-import { requireRole } from '../middleware/requireRole';
+import { requireMember, requireRole } from '../middleware/requireRole';
 import { uploadedFile, uploadMiddleware } from '../middleware/upload';
 import { validate } from '../middleware/validate';
 import { idParamsSchema, paginationSchema } from '../schemas/common.schema';
@@ -25,7 +24,7 @@ const listQuerySchema = paginationSchema.extend({ pageSize: paginationSchema.sha
 /**
  * Design attachments, mounted at /api/designs (beside the designs router; Express falls through to it):
  *   POST /api/designs/:id/attachments   multipart `file` ≤ 10 MB: PDF, PNG, JPEG or CSV (owner designer or admin) → 201
- *   GET  /api/designs/:id/attachments   everyone signed in → { items, total, page, pageSize, canUpload }
+ *   GET  /api/designs/:id/attachments   every team member → { items, total, page, pageSize, canUpload }
  */
 export function createDesignAttachmentsRouter(): Router {
   const router = Router();
@@ -45,24 +44,29 @@ export function createDesignAttachmentsRouter(): Router {
     },
   );
 
-  router.get('/:id/attachments', requireAuth, validate({ params: idParamsSchema, query: listQuerySchema }), async function list(req, res) {
-    res
-      .status(200)
-      .json(await listDesignAttachments(req.user!, idOf(req.params), req.query as unknown as { page: number; pageSize: number }));
-  });
+  router.get(
+    '/:id/attachments',
+    requireMember,
+    validate({ params: idParamsSchema, query: listQuerySchema }),
+    async function list(req, res) {
+      res
+        .status(200)
+        .json(await listDesignAttachments(req.user!, idOf(req.params), req.query as unknown as { page: number; pageSize: number }));
+    },
+  );
 
   return router;
 }
 
 /**
- * /api/attachments/:id — download (everyone signed in) and delete (uploader, design owner or admin).
+ * /api/attachments/:id — download (every team member) and delete (uploader, design owner or admin).
  * Downloads carry the sniffed Content-Type, `attachment` disposition with the sanitised name, nosniff and a
  * sandboxing CSP, so a file can never run as a page of the app.
  */
 export function createAttachmentsRouter(): Router {
   const router = Router();
 
-  router.get('/:id', requireAuth, validate({ params: idParamsSchema }), async function getById(req, res) {
+  router.get('/:id', requireMember, validate({ params: idParamsSchema }), async function getById(req, res) {
     const { bytes, mime, fileName, sha256 } = await getAttachmentDownload(idOf(req.params));
     res.status(200);
     res.setHeader('Content-Type', mime === 'text/csv' ? 'text/csv; charset=utf-8' : mime);

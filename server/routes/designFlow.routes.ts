@@ -1,8 +1,7 @@
 import type { UnitSystem } from '@/format';
 import { Router } from 'express';
 import { validate } from '../middleware/validate';
-import { requireAuth } from '../middleware/requireAuth';
-import { requireRole } from '../middleware/requireRole';
+import { requireMember, requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
 import { emptyBodySchema, submitDesignSchema } from '../schemas/revisions.schema';
 import { listDesignRevisions, reopenDesign, submitDesign, withdrawDesign } from '../services/revisions.service';
@@ -43,7 +42,7 @@ export function createDesignFlowRouter(): Router {
     },
   );
 
-  router.get('/:id/revisions', requireAuth, validate({ params: idParamsSchema }), async function listRevisions(req, res) {
+  router.get('/:id/revisions', requireMember, validate({ params: idParamsSchema }), async function listRevisions(req, res) {
     res.status(200).json(await listDesignRevisions(req.user!, idOf(req.params)));
   });
 

@@ -1,7 +1,6 @@
 import { Router } from 'express';
 import { validate } from '../middleware/validate';
-import { requireAuth } from '../middleware/requireAuth';
-import { requireRole } from '../middleware/requireRole';
+import { requireMember, requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
 import {
   createDesignSchema,
@@ -17,12 +16,12 @@ const idOf = (params: unknown) => (params as { id: number }).id;
 
 /**
  * /api/designs: the Designs table and the Design desk's load/save.
- * Everyone signed in reads; designers (and admins) create, and change or delete their own drafts (admins any).
+ * Every team member (any role) reads (a design in review only those who may read its revision); designers (and admins) create, and change or delete their own drafts (admins any).
  */
 export function createDesignsRouter(): Router {
   const router = Router();
 
-  router.get('/', requireAuth, validate({ query: listDesignsQuerySchema }), async function list(req, res) {
+  router.get('/', requireMember, validate({ query: listDesignsQuerySchema }), async function list(req, res) {
     res.status(200).json(await listDesigns(req.user!, req.query as unknown as ListDesignsQuery));
   });
 
@@ -30,12 +29,12 @@ export function createDesignsRouter(): Router {
     res.status(201).json(await createDesign(req.user!, req.body as CreateDesignInput));
   });
 
-  router.get('/:id', requireAuth, validate({ params: idParamsSchema }), async function getById(req, res) {
+  router.get('/:id', requireMember, validate({ params: idParamsSchema }), async function getById(req, res) {
     res.status(200).json(await getDesign(req.user!, idOf(req.params)));
   });
 
-  router.get('/:id/export', requireAuth, validate({ params: idParamsSchema }), async function exportDocument(req, res) {
-    const { fileName, document } = await exportDesign(idOf(req.params));
+  router.get('/:id/export', requireMember, validate({ params: idParamsSchema }), async function exportDocument(req, res) {
+    const { fileName, document } = await exportDesign(req.user!, idOf(req.params));
     res.attachment(fileName);
     res
       .type('application/json')

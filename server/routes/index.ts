@@ -20,7 +20,7 @@ import { createDesignJobRouter } from './designJob.routes';
 /**
  * The API router, mounted at /api. This is the one registration point: each feature adds one
  * `apiRouter.use('/<resource>', create<Resource>Router())` line below. Every route guards itself with
- * requireAuth / requireRole.
+ * requireRole / requireMember (requireAuth alone only for the account's own profile and sessions).
  */
 export function createApiRouter(): Router {
   const apiRouter = Router();

@@ -5,7 +5,7 @@ import { uploadedFile, uploadMiddleware } from '../middleware/upload';
 import { validate } from '../middleware/validate';
 import { idSchema, paginationSchema } from '../schemas/common.schema';
 import {
-  assertSheetExists,
+  assertSheetTakesMeasurements,
   getMeasurement,
   getRecording,
   listMeasurements,
@@ -58,7 +58,7 @@ export function createMeasurementsRouter(): Router {
     requireRole('maker'),
     validate({ params: sheetParamsSchema }),
     async function checkSheet(req, _res, next) {
-      await assertSheetExists((req.params as unknown as { id: number }).id);
+      await assertSheetTakesMeasurements((req.params as unknown as { id: number }).id);
       next();
     },
     uploadMiddleware({ maxBytes: RECORDING_MAX_BYTES, what: 'recording' }),

@@ -1,7 +1,6 @@
 import { Router } from 'express';
 import { validate } from '../middleware/validate';
-import { requireAuth } from '../middleware/requireAuth';
-import { requireRole } from '../middleware/requireRole';
+import { requireMember, requireRole } from '../middleware/requireRole';
 import type { PartKind } from '../models';
 import { idParamsSchema } from '../schemas/common.schema';
 import {
@@ -25,7 +24,7 @@ const SCHEMAS = {
 } as const;
 
 /**
- * /api/parts: the shared parts shelf. Everyone signed in reads; admins add, edit and retire.
+ * /api/parts: the shared parts shelf. Every team member (any role) reads; admins add, edit and retire.
  *   GET  /api/parts/{belts|pulleys|motors}?page&pageSize&q&includeRetired=1
  *   GET  /api/parts/{belts|pulleys|motors}/:id      (retired parts too)
  *   POST /api/parts/{belts|pulleys|motors}          (admin)
@@ -39,7 +38,7 @@ export function createPartsRouter(): Router {
     const shelf = PART_SHELVES[kind];
     const schemas = SCHEMAS[kind];
 
-    router.get(`/${shelf}`, requireAuth, validate({ query: listPartsQuerySchema }), async function list(req, res) {
+    router.get(`/${shelf}`, requireMember, validate({ query: listPartsQuerySchema }), async function list(req, res) {
       res.status(200).json(await listParts(kind, req.query as unknown as ListPartsQuery));
     });
 
@@ -48,7 +47,7 @@ export function createPartsRouter(): Router {
     });
 
     for (const segment of [shelf, kind]) {
-      router.get(`/${segment}/:id`, requireAuth, validate({ params: idParamsSchema }), async function getById(req, res) {
+      router.get(`/${segment}/:id`, requireMember, validate({ params: idParamsSchema }), async function getById(req, res) {
         res.status(200).json(await getPart(kind, (req.params as unknown as { id: number }).id));
       });
 

@@ -1,7 +1,6 @@
 import { Router } from 'express';
 import { validate } from '../middleware/validate';
-import { requireAuth } from '../middleware/requireAuth';
-import { requireRole } from '../middleware/requireRole';
+import { requireMember, requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
 import {
   approveSchema,
@@ -26,21 +25,21 @@ export function createRevisionsRouter(): Router {
     res.status(200).json(await listRevisions(req.user!, req.query as unknown as ListRevisionsQuery));
   });
 
-  router.get('/:id', requireAuth, validate({ params: idParamsSchema }), async function getById(req, res) {
+  router.get('/:id', requireMember, validate({ params: idParamsSchema }), async function getById(req, res) {
     res.status(200).json(await getRevision(req.user!, idOf(req.params)));
   });
 
-  router.get('/:id/diff', requireAuth, validate({ params: idParamsSchema }), async function diff(req, res) {
+  router.get('/:id/diff', requireMember, validate({ params: idParamsSchema }), async function diff(req, res) {
     res.status(200).json(await getRevisionDiff(req.user!, idOf(req.params)));
   });
 
-  router.get('/:id/comments', requireAuth, validate({ params: idParamsSchema }), async function listThread(req, res) {
+  router.get('/:id/comments', requireMember, validate({ params: idParamsSchema }), async function listThread(req, res) {
     res.status(200).json(await listComments(req.user!, idOf(req.params)));
   });
 
   router.post(
     '/:id/comments',
-    requireAuth,
+    requireMember,
     validate({ params: idParamsSchema, body: createCommentSchema }),
     async function comment(req, res) {
       res.status(201).json(await addComment(req.user!, idOf(req.params), req.body as { body: string; parentId?: number | null }));

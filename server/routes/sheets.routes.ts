@@ -31,7 +31,11 @@ export function createSheetsRouter(): Router {
     requireRole(...SHEET_READERS),
     validate({ params: idParamsSchema, query: sheetPdfQuerySchema }),
     async function download(req, res) {
-      const { bytes, sha256, fileName } = await getSheetPdf(idOf(req.params), (req.query as unknown as { paper: SheetPaper }).paper);
+      const { bytes, sha256, fileName } = await getSheetPdf(
+        req.user!,
+        idOf(req.params),
+        (req.query as unknown as { paper: SheetPaper }).paper,
+      );
       res.status(200);
       res.setHeader('Content-Type', 'application/pdf');
       // The name is a slug (a-z, 0-9, '-') so it needs no escaping.

@@ -1,6 +1,5 @@
 import { Router } from 'express';
-import { requireAuth } from '../middleware/requireAuth';
-import { requireRole } from '../middleware/requireRole';
+import { requireMember, requireRole } from '../middleware/requireRole';
 import { uploadedFile, uploadMiddleware } from '../middleware/upload';
 import { validate } from '../middleware/validate';
 import { idParamsSchema } from '../schemas/common.schema';
@@ -13,7 +12,7 @@ const idOf = (params: unknown) => (params as { id: number }).id;
  * Motor torque–speed tables, mounted at /api/parts (beside the parts router):
  *   POST /api/parts/motors/:id/torque-curve   multipart `file` = CSV ≤ 64 kB, `supplyV`, `currentRmsA` (what it was measured at)
  *                                             (admin) → 200 { motor, file, sourceUnits }
- *   GET  /api/parts/motors/:id/torque-curve   everyone signed in → { motor, file }
+ *   GET  /api/parts/motors/:id/torque-curve   every team member → { motor, file }
  * Clearing a table is PATCH /api/parts/motors/:id { torqueCurve: null } on the parts router.
  */
 export function createTorqueCurvesRouter(): Router {
@@ -34,7 +33,7 @@ export function createTorqueCurvesRouter(): Router {
     },
   );
 
-  router.get('/motors/:id/torque-curve', requireAuth, validate({ params: idParamsSchema }), async function getById(req, res) {
+  router.get('/motors/:id/torque-curve', requireMember, validate({ params: idParamsSchema }), async function getById(req, res) {
     res.status(200).json(await getTorqueCurve(req.user!, idOf(req.params)));
   });
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { passwordProblems } from '../security/passwordPolicy';
 
 const MAX_INT = 2_147_483_647;
 
@@ -32,12 +33,11 @@ export const emailSchema = z
   .pipe(z.email({ message: 'must be an e-mail address' }));
 
 /**
- * A new password: 10 characters or more, and at most 72 bytes (bcrypt ignores anything past 72 bytes,
- * so a longer one would silently not count).
+ * A new password, checked against the password policy (security/passwordPolicy.ts): 12 characters or more, at most
+ * 72 bytes, not a common password. Whose it is (name, e-mail) is checked once the account is known.
  */
-export const newPasswordSchema = z
-  .string({ message: 'is required' })
-  .min(10, 'must be at least 10 characters')
-  .refine((p) => Buffer.byteLength(p, 'utf8') <= 72, 'must be at most 72 bytes');
+export const newPasswordSchema = z.string({ message: 'is required' }).superRefine((password, ctx) => {
+  for (const message of passwordProblems(password)) ctx.addIssue({ code: 'custom', message });
+});
 
 export type Pagination = z.infer<typeof paginationSchema>;

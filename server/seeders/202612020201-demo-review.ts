@@ -9,6 +9,7 @@ import { renderSheetFiles } from '../services/sheets.service';
 import { getContentStore, markUnreferenced, referenceContent, removeUnreferencedContent } from '../storage';
 import { sha256Of } from '../uploads';
 import { DEMO_DESIGNS, demoDesignDocument } from './202612020102-demo-designs';
+import { createSheetFreezeTriggers, dropSheetFreezeTriggers } from '../migrations/sheetFreeze';
 
 // The review history of the demo workshop, so a fresh start shows every state:
 //   Bench dispensing stage  revision 1 approved (its sheet now superseded), reopened, revision 2 approved (current sheet)
@@ -340,6 +341,26 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
   const revisionIds = (await Revision.findAll({ where: { designId: { [Op.in]: designIds } }, attributes: ['id'] })).map((r) => r.id);
   const sheets = await Sheet.findAll({ where: { designId: { [Op.in]: designIds } }, attributes: ['id', 'a4Sha256', 'letterSha256'] });
   const sheetIds = sheets.map((s) => s.id);
+  // Published sheets refuse DELETE; seeders run as the schema owner, who lifts the triggers for the unseed only
+  // (DROP/CREATE TRIGGER commit implicitly, so they stay outside the transaction).
+  await dropSheetFreezeTriggers(context.sequelize);
+  try {
+    await unseedReview(context, { designIds, revisionIds, sheetIds });
+  } finally {
+    await createSheetFreezeTriggers(context.sequelize);
+  }
+  // The sheets' PDFs leave the content store unless something else refers to the same bytes.
+  const orphaned: string[] = [];
+  for (const sha256 of new Set(sheets.flatMap((s) => [s.a4Sha256, s.letterSha256]))) {
+    if (await context.sequelize.transaction((transaction) => markUnreferenced(sha256, transaction))) orphaned.push(sha256);
+  }
+  await removeUnreferencedContent(orphaned, getContentStore(), context.sequelize);
+};
+
+async function unseedReview(
+  context: SeedContext,
+  { designIds, revisionIds, sheetIds }: { designIds: number[]; revisionIds: number[]; sheetIds: number[] },
+): Promise<void> {
   await context.sequelize.transaction(async (transaction) => {
     await AuditLog.destroy({
       where: {
@@ -359,10 +380,4 @@ export const down: MigrationFn<SeedContext> = async ({ context }) => {
     await Revision.destroy({ where: { designId: { [Op.in]: designIds } }, transaction }); // their comments go with them
     await Design.update({ status: 'draft' }, { where: { id: { [Op.in]: designIds } }, transaction });
   });
-  // The sheets' PDFs leave the content store unless something else refers to the same bytes.
-  const orphaned: string[] = [];
-  for (const sha256 of new Set(sheets.flatMap((s) => [s.a4Sha256, s.letterSha256]))) {
-    if (await context.sequelize.transaction((transaction) => markUnreferenced(sha256, transaction))) orphaned.push(sha256);
-  }
-  await removeUnreferencedContent(orphaned, getContentStore(), context.sequelize);
-};
+}

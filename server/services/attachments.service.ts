@@ -167,22 +167,38 @@ export async function storeWithRows<T>(
   bytes: Buffer | Buffer[],
   insertRows: (transaction: Transaction, sha256: string) => Promise<T>,
 ): Promise<T> {
-  const store = getContentStore();
   const buffers = Array.isArray(bytes) ? bytes : [bytes];
-  const hashes = buffers.map((b) => sha256Of(b));
-  let putAny = false;
+  const first = sha256Of(buffers[0]);
+  return storeWithRowsMaking(async (transaction) => ({ result: await insertRows(transaction, first), bytes: buffers }));
+}
+
+/**
+ * {@link storeWithRows} for bytes that are only made inside the transaction: `work` writes the rows and returns the
+ * bytes they refer to (an approval renders its sheet while it holds the design's lock), which are then registered
+ * and put before the commit. When a retried attempt made other bytes than the one that committed (a PDF's creation
+ * time), the earlier attempt's bytes are removed once nothing refers to them.
+ */
+export async function storeWithRowsMaking<T>(work: (transaction: Transaction) => Promise<{ result: T; bytes: Buffer[] }>): Promise<T> {
+  const store = getContentStore();
+  const put = new Set<string>();
+  let kept: string[] = [];
   try {
-    return await getSequelize().transaction(async (transaction) => {
-      const result = await insertRows(transaction, hashes[0]);
-      for (const [i, buffer] of buffers.entries()) {
+    const result = await getSequelize().transaction(async (transaction) => {
+      const made = await work(transaction);
+      const hashes = made.bytes.map((b) => sha256Of(b));
+      for (const [i, buffer] of made.bytes.entries()) {
         await referenceContent(hashes[i], buffer.length, transaction);
-        putAny = true;
+        put.add(hashes[i]);
         await store.put(buffer);
       }
-      return result;
+      kept = hashes;
+      return made.result;
     });
+    const stale = [...put].filter((h) => !kept.includes(h));
+    if (stale.length) await removeUnreferencedBytes(stale);
+    return result;
   } catch (err) {
-    if (putAny) await removeUnreferencedBytes(hashes);
+    if (put.size) await removeUnreferencedBytes([...put]);
     throw err;
   }
 }
@@ -272,7 +288,7 @@ export async function uploadDesignAttachment(actor: PublicUser, designId: number
   return toPublicAttachment(full, actor, design);
 }
 
-/** A design's attachments, newest first; everyone signed in may read them (as they may read the design). */
+/** A design's attachments, newest first; every team member may read them (as they may read the design). */
 export async function listDesignAttachments(
   actor: PublicUser,
   designId: number,
@@ -301,7 +317,7 @@ export async function listDesignAttachments(
 /** What a download needs: the bytes (checked against their hash), their type and a safe name. */
 export type AttachmentDownload = { bytes: Buffer; mime: string; fileName: string; sha256: string };
 
-/** An attachment's bytes for download (everyone signed in). @throws 404 when the row or its bytes are missing. */
+/** An attachment's bytes for download (every team member). @throws 404 when the row or its bytes are missing. */
 export async function getAttachmentDownload(id: number): Promise<AttachmentDownload> {
   const row = await Attachment.findByPk(id);
   if (!row) throw notFound('Attachment');

@@ -6,6 +6,7 @@ import {
   Attachment,
   Design,
   EDITABLE_DESIGN_STATUSES,
+  Revision,
   User,
   type DesignMechanism,
   type DesignResultSummary,
@@ -184,7 +185,7 @@ function sortOrder(sort: string): Order {
 }
 
 /**
- * Lists designs for the Designs table: everyone signed in sees every design (reviewers and makers read only).
+ * Lists designs for the Designs table: every team member sees every design (reviewers and makers read only).
  * Filters by name search, status, mechanism and owner ("me" or an id); sorts by one column.
  */
 export async function listDesigns(actor: PublicUser, query: ListDesignsQuery): Promise<Page<DesignListItem>> {
@@ -225,9 +226,31 @@ async function findDesign(id: number, transaction?: Transaction): Promise<Design
   return row;
 }
 
-/** One design with its inputs; everyone signed in may read it. */
+/**
+ * Whether `actor` may read a design's inputs. A design in review holds exactly the inputs of the revision under
+ * review, so the revision read rule applies to it (issue 12, item 8: GET /api/designs/:id and /export bypassed it):
+ * reviewers, admins, the owner and the revision's author only, until it is approved. In every other state any
+ * team member reads it.
+ */
+export async function mayReadDesign(actor: PublicUser, design: Pick<Design, 'id' | 'ownerId' | 'status'>): Promise<boolean> {
+  if (design.status !== 'in_review') return true;
+  if (isAdmin(actor) || actor.roles.includes('reviewer') || design.ownerId === actor.id) return true;
+  const inReview = await Revision.findOne({ where: { designId: design.id, status: 'in_review' }, attributes: ['authorId'] });
+  return inReview?.authorId === actor.id;
+}
+
+/** 403 unless `actor` may read the design's inputs (see {@link mayReadDesign}). */
+async function assertMayReadDesign(actor: PublicUser, design: Pick<Design, 'id' | 'ownerId' | 'status'>): Promise<void> {
+  if (!(await mayReadDesign(actor, design))) {
+    throw forbidden('This design is in review: only reviewers, admins and its designer can read it until it is approved.');
+  }
+}
+
+/** One design with its inputs: every team member, but a design in review only for those who may read its revision. */
 export async function getDesign(actor: PublicUser, id: number): Promise<DesignDetail> {
-  return toDetail(await findDesign(id), actor);
+  const row = await findDesign(id);
+  await assertMayReadDesign(actor, row);
+  return toDetail(row, actor);
 }
 
 /**
@@ -246,6 +269,7 @@ export async function createDesign(actor: PublicUser, input: CreateDesignInput):
       throw new AppError('not_found', 'The design to copy was not found.', 404, {
         details: [{ path: 'copyOf', message: 'no design with this id' }],
       });
+    await assertMayReadDesign(actor, source);
     const name = input.name ?? `Copy of ${source.name}`.slice(0, 200);
     document = normalise({ ...parseJson<DesignInput>(source.inputs), name });
     origin = `copy of design ${source.id}`;
@@ -439,9 +463,10 @@ export function exportFileName(name: string): string {
   return `${slug || 'design'}.json`;
 }
 
-/** The design document (src/engine/README.md) of a design, for download; POST /api/designs imports it again. */
-export async function exportDesign(id: number): Promise<{ fileName: string; document: DesignInput }> {
-  const row = await Design.findByPk(id, { attributes: ['id', 'name', 'inputs'] });
+/** The design document (src/engine/README.md) of a design, for download; POST /api/designs imports it again. Same rule as reading it. */
+export async function exportDesign(actor: PublicUser, id: number): Promise<{ fileName: string; document: DesignInput }> {
+  const row = await Design.findByPk(id, { attributes: ['id', 'name', 'inputs', 'ownerId', 'status'] });
   if (!row) throw notFound('Design');
+  await assertMayReadDesign(actor, row);
   return { fileName: exportFileName(row.name), document: parseJson<DesignInput>(row.inputs) };
 }

@@ -9,6 +9,7 @@ import { analysePluck, assertTypeMatches, PLUCK_DEFAULT_MAX_HZ } from '../upload
 import { sanitiseFileName, storeWithRows, withUploadErrors } from './attachments.service';
 import { recordAudit } from './audit.service';
 import { parseJson } from './revisions.service';
+import { latestSheets } from './sheets.service';
 import type { Page, PublicUser } from './users.service';
 
 /** Largest pluck recording [bytes] (issue 6: 2 MB; 10 s of 16-bit mono at 96 kHz would not fit, at 48 kHz it does). */
@@ -144,9 +145,26 @@ function toPublic(row: MeasurementRow): PublicMeasurement {
   };
 }
 
-/** 404 unless the sheet exists (checked before an upload is read). */
-export async function assertSheetExists(sheetId: number): Promise<void> {
-  if (!(await Sheet.findByPk(sheetId, { attributes: ['id'] }))) throw notFound('Sheet');
+/**
+ * 404 unless the sheet exists; 409 `sheet_superseded` when a later revision of its design has been approved: a belt
+ * is tensioned to the current sheet, and a measurement against an old one would be judged against the wrong targets
+ * (issue 12, item 10). Checked before an upload is read, and again when the measurement is stored.
+ */
+export async function assertSheetTakesMeasurements(sheetId: number): Promise<void> {
+  const sheet = (await Sheet.findByPk(sheetId, {
+    attributes: ['id', 'designId'],
+    include: [{ model: Revision, as: 'revision', attributes: ['number'] }],
+  })) as (Sheet & { revision?: Revision }) | null;
+  if (!sheet) throw notFound('Sheet');
+  const newest = (await latestSheets([sheet.designId])).get(sheet.designId);
+  if (newest && sheet.revision && newest.revisionNumber > sheet.revision.number) {
+    throw new AppError(
+      'sheet_superseded',
+      `This sheet (revision ${sheet.revision.number}) was superseded by revision ${newest.revisionNumber}. Record measurements on the current sheet (sheet ${newest.sheetId}), whose targets the belts are set to.`,
+      409,
+      { details: { currentSheetId: newest.sheetId, currentRevisionNumber: newest.revisionNumber } },
+    );
+  }
 }
 
 async function loadFrozenSheet(sheetId: number): Promise<FrozenSheet> {
@@ -216,6 +234,7 @@ export async function recordMeasurement(
   input: RecordMeasurementInput,
   file: UploadedFile | null,
 ): Promise<MeasurementDetail> {
+  await assertSheetTakesMeasurements(sheetId);
   const frozen = await loadFrozenSheet(sheetId);
   const hasTyped = input.frequencyHz !== undefined;
   if (hasTyped && file) {

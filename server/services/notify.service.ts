@@ -6,6 +6,7 @@ import { logger } from '../logger';
 import { Notification } from '../models';
 import { sendMail } from './mail.service';
 import { escapeHtml, type MailContent } from './mailTemplates';
+import { buildResetMail, RESET_MAIL_KIND } from './resetMail';
 
 /**
  * E-mail notices of the review flow, through a mail queue in MariaDB (table `mail_queue`).
@@ -161,17 +162,34 @@ async function recordOutcome(update: () => Promise<[affectedCount: number]>): Pr
 }
 
 /**
- * Sends one claimed row and records the outcome (sent, or the error and when to try again) only while the claim is
- * still this sender's. @returns whether it was sent
+ * The content of a row: as stored, or — for kinds whose content holds a one-time secret — built now.
+ * @returns null when a built mail has nobody to go to
  */
-async function sendOne(row: Notification, token: string): Promise<boolean> {
+async function contentOf(row: Notification): Promise<MailContent | null> {
+  if (row.kind === RESET_MAIL_KIND) return buildResetMail(row.toAddress);
+  return { subject: row.subject, text: row.textBody, html: row.htmlBody };
+}
+
+/**
+ * Sends one claimed row and records the outcome — sent, discarded (a mail built now that has nobody to go to), or
+ * the error and when to try again — only while the claim is still this sender's.
+ */
+async function sendOne(row: Notification, token: string): Promise<'sent' | 'failed' | 'discarded'> {
   let error: string | null = null;
+  const mine = { id: row.id, claimToken: token };
   try {
+    const content = await contentOf(row);
+    if (!content) {
+      await recordOutcome(() =>
+        Notification.update({ status: 'discarded', lockedUntil: null, claimToken: null, lastError: null }, { where: mine }),
+      );
+      return 'discarded';
+    }
     const ok = await sendMail({
       to: row.toAddress,
-      subject: row.subject,
-      text: row.textBody,
-      html: row.htmlBody,
+      subject: content.subject,
+      text: content.text,
+      html: content.html,
       messageId: queuedMessageId(row.id),
     });
     if (!ok) error = 'The SMTP server did not accept the message (details in the server log).';
@@ -179,14 +197,13 @@ async function sendOne(row: Notification, token: string): Promise<boolean> {
     error = err instanceof Error ? err.message : String(err);
   }
   const attempts = row.attempts + 1;
-  const mine = { id: row.id, claimToken: token };
   if (!error) {
     const sentAt = new Date();
     const affected = await recordOutcome(() =>
       Notification.update({ status: 'sent', attempts, sentAt, lockedUntil: null, lastError: null }, { where: mine }),
     );
     if (affected !== 1) logger.error({ mailId: row.id }, 'mail sent after its claim was lost');
-    return true;
+    return 'sent';
   }
   const isLast = attempts >= MAX_ATTEMPTS;
   const delay = RETRY_BACKOFF_MS[Math.min(attempts - 1, RETRY_BACKOFF_MS.length - 1)];
@@ -207,15 +224,17 @@ async function sendOne(row: Notification, token: string): Promise<boolean> {
     { mailId: row.id, kind: row.kind, to: row.toAddress, attempts, error },
     isLast ? 'mail given up' : 'mail will be retried',
   );
-  return false;
+  return 'failed';
 }
 
 /**
  * Claims and sends queued mail that is due: the given ids, or up to one batch of any due rows.
- * @returns how many were sent and how many failed this time
+ * @returns how many were sent, failed this time, or were discarded (nobody to send them to)
  */
-export async function deliverQueuedMail(options: { ids?: number[]; limit?: number } = {}): Promise<{ sent: number; failed: number }> {
-  const outcome = { sent: 0, failed: 0 };
+export async function deliverQueuedMail(
+  options: { ids?: number[]; limit?: number } = {},
+): Promise<{ sent: number; failed: number; discarded: number }> {
+  const outcome = { sent: 0, failed: 0, discarded: 0 };
   const claim = await claimDueMail(options);
   for (const [index, row] of claim.rows.entries()) {
     if (Date.now() + LONGEST_SEND_MS > claim.until.getTime()) {
@@ -225,8 +244,7 @@ export async function deliverQueuedMail(options: { ids?: number[]; limit?: numbe
       );
       break;
     }
-    if (await sendOne(row, claim.token)) outcome.sent += 1;
-    else outcome.failed += 1;
+    outcome[await sendOne(row, claim.token)] += 1;
   }
   return outcome;
 }
@@ -252,8 +270,8 @@ export function startMailQueueWorker(intervalMs = getConfig().mailWorkerInterval
     try {
       // Drain what is due, a batch at a time.
       for (let pass = 0; pass < 20; pass += 1) {
-        const { sent, failed } = await deliverQueuedMail();
-        if (sent + failed < BATCH_SIZE) break;
+        const { sent, failed, discarded } = await deliverQueuedMail();
+        if (sent + failed + discarded < BATCH_SIZE) break;
       }
     } catch (err) {
       logger.warn({ err }, 'mail queue pass failed');

@@ -1,4 +1,4 @@
-import { Op, UniqueConstraintError, type WhereOptions } from 'sequelize';
+import { Op, UniqueConstraintError, type Transaction, type WhereOptions } from 'sequelize';
 import { AppError, notFound, validationError } from '../errors';
 import { getSequelize } from '../db';
 import { Part, type PartKind } from '../models';
@@ -90,10 +90,10 @@ function nameTaken(kind: PartKind, name: string): AppError {
   });
 }
 
-async function assertNameFree(kind: PartKind, name: string, exceptId?: number): Promise<void> {
+async function assertNameFree(kind: PartKind, name: string, exceptId?: number, transaction?: Transaction): Promise<void> {
   const where: WhereOptions = { kind, name };
   if (exceptId !== undefined) Object.assign(where, { id: { [Op.ne]: exceptId } });
-  if (await Part.findOne({ where, attributes: ['id'] })) throw nameTaken(kind, name);
+  if (await Part.findOne({ where, attributes: ['id'], transaction })) throw nameTaken(kind, name);
 }
 
 /** Escapes % and _ so a search term matches literally inside LIKE. */
@@ -167,7 +167,7 @@ export async function updatePart(actor: PublicUser, kind: PartKind, id: number, 
       });
       if (!merged.success) throw validationError(zodDetails(merged.error));
       const next = splitInput(kind, merged.data as Record<string, unknown>);
-      if (next.name !== row.name) await assertNameFree(kind, next.name, row.id);
+      if (next.name !== row.name) await assertNameFree(kind, next.name, row.id, transaction);
 
       const wasRetired = Boolean(row.retired);
       row.name = next.name;

@@ -1,9 +1,10 @@
+import type { Transaction } from 'sequelize';
 import type { DesignInput, DesignResult } from '@/engine';
 import { isUnitSystem, plural } from '@/format';
 import { getSequelize } from '../db';
 import { conflict, forbidden, notFound, validationError } from '../errors';
-import { Revision, RevisionComment, User } from '../models';
-import { storeWithRows } from './attachments.service';
+import { Design, Revision, RevisionComment, User } from '../models';
+import { storeWithRowsMaking } from './attachments.service';
 import { recordAudit } from './audit.service';
 import { approvedMail, deliverSoon, queueMail, returnedMail, sheetPublishedMail, type Recipient } from './notify.service';
 import {
@@ -93,7 +94,11 @@ export async function addComment(
   return toComment(created);
 }
 
-function assertMayDecide(actor: PublicUser, revision: Awaited<ReturnType<typeof findRevision>>, verb: 'approve' | 'return'): void {
+function assertMayDecide(
+  actor: PublicUser,
+  revision: Pick<Revision, 'authorId'> & { design: Pick<Design, 'ownerId'> },
+  verb: 'approve' | 'return',
+): void {
   if (!isReviewer(actor)) throw forbidden(`Only reviewers and admins can ${verb} a revision.`);
   if (isOwnWork(actor, revision, revision.design)) {
     throw forbidden(verb === 'approve' ? 'You cannot approve your own work.' : 'You cannot return your own work; withdraw it instead.');
@@ -119,65 +124,81 @@ async function lockForDecision(
   return { design, revision };
 }
 
-/** The designer(s) to tell about a decision: the design's owner and the revision's author. */
-async function designersOf(revision: { authorId: number }, ownerId: number): Promise<Recipient[]> {
+/** The designer(s) to tell about a decision: the design's owner and the revision's author (read in `transaction`). */
+async function designersOf(revision: { authorId: number }, ownerId: number, transaction: Transaction): Promise<Recipient[]> {
   const users = await User.findAll({
     where: { id: [...new Set([ownerId, revision.authorId])], disabled: false },
     attributes: ['email', 'name'],
+    transaction,
   });
   return users.map((u) => ({ email: u.email, name: u.name }));
 }
 
 /**
- * Approves a revision in review: renders the design sheet (A4 and US Letter) from the frozen revision, then in one
- * transaction marks the revision and design approved and stores the sheet; logs it and mails the designer and
- * every maker. Reviewers and admins, never on their own work.
- * Rendering happens before the transaction (it takes seconds); if someone decided meanwhile, the render is dropped
- * and the answer is 409.
- * @throws 403 (role, own work), 409 (not in review)
+ * Approves a revision in review: in one transaction renders the design sheet (A4 and US Letter) from the frozen
+ * revision, marks the revision and design approved and stores the sheet (its row; the PDFs go to the content store
+ * before the commit, see storeWithRowsMaking); logs it and mails the designer and every maker. Reviewers and
+ * admins, never on their own work.
+ * The design row is locked first, without waiting, and held while the sheet renders (in the PDF worker pool, so the
+ * event loop keeps serving): of concurrent approvals one renders and wins, the others get 409 `busy` at once
+ * (before, each rendered a sheet of its own and queued for the lock while holding a pooled connection). Every query
+ * runs in that transaction (issue 12, item 2). On a database cluster a write conflict runs it all again; the retry
+ * then finds the revision decided and answers 409.
+ * A revision with a failed check is approved only with a written `justification` (checked under the lock, where the
+ * frozen result is read); it goes into the audit log, the designer's mail and onto the sheet.
+ * @throws 403 (role, own work), 400 (failed checks without a justification), 409 (not in review, or being decided
+ * right now)
  */
 export async function approveRevision(
   actor: PublicUser,
   revisionId: number,
   input: { comment: string; justification?: string },
 ): Promise<{ revision: RevisionDetail; sheet: SheetDetail }> {
-  const revision = await findRevision(revisionId, { withResult: true });
-  assertMayDecide(actor, revision, 'approve');
+  // Who and what state only (no inputs or result): most concurrent approvals end at the lock below, cheaply.
+  const revision = await Revision.findByPk(revisionId, {
+    attributes: ['id', 'designId', 'number', 'status', 'authorId'],
+    include: [{ model: Design, as: 'design', attributes: ['id', 'ownerId'] }],
+  });
+  if (!revision) throw notFound('Revision');
+  assertMayDecide(actor, revision as Revision & { design: Design }, 'approve');
   if (revision.status !== 'in_review') throw wrongState(revision.number, revision.status, 'approved');
 
-  const result = parseJson<DesignResult>(revision.result);
-  const failed = result.checks.filter((c) => c.severity === 'fail');
-  const justification = failed.length ? (input.justification ?? '').trim() : '';
-  if (failed.length && !justification) {
-    throw validationError(
-      [
-        {
-          path: 'justification',
-          message: `is required: ${plural(failed.length, 'check')} of this revision failed; say why it may be built anyway`,
-        },
-      ],
-      `Revision ${revision.number} has ${plural(failed.length, 'failed check')}: approving it needs a written justification.`,
-    );
-  }
-
   const approvedAt = new Date();
-  const inputs = parseJson<DesignInput>(revision.inputs);
-  const author = await User.findByPk(revision.authorId, { attributes: ['name', 'email'] });
-  const rendered = await renderSheetFilesOffThread({
-    designName: inputs.name,
-    revisionNumber: revision.number,
-    mechanism: inputs.mechanism,
-    designer: { name: author?.name ?? '', email: author?.email ?? '' },
-    approval: { reviewerName: actor.name, approvedAt, comment: input.comment, justification: justification || null },
-    inputs,
-    result,
-    fingerprint: revision.fingerprint,
-    units: isUnitSystem(revision.sheetUnits) ? revision.sheetUnits : 'metric',
-  });
 
   // The sheet's rows and its PDF bytes (content store) are saved together: if the transaction fails, the bytes go again.
-  const { sheetId, mailIds } = await storeWithRows([rendered.a4, rendered.letter], async (transaction) => {
+  const { sheetId, mailIds } = await storeWithRowsMaking(async (transaction) => {
     const { design, revision: locked } = await lockForDecision(revisionId, revision.designId, 'approved', transaction);
+    // Only the request holding the lock reads the frozen inputs and result (~100 kB) and renders: the others are gone.
+    const inputs = parseJson<DesignInput>(locked.inputs);
+    const frozen = await Revision.findByPk(revisionId, { attributes: ['result'], transaction });
+    const result = parseJson<DesignResult>(frozen!.result);
+    // A failed check may be overruled only with a written reason; it goes into the audit log, the mail and the sheet.
+    const failed = result.checks.filter((c) => c.severity === 'fail');
+    const justification = failed.length ? (input.justification ?? '').trim() : '';
+    if (failed.length && !justification) {
+      throw validationError(
+        [
+          {
+            path: 'justification',
+            message: `is required: ${plural(failed.length, 'check')} of this revision failed; say why it may be built anyway`,
+          },
+        ],
+        `Revision ${locked.number} has ${plural(failed.length, 'failed check')}: approving it needs a written justification.`,
+      );
+    }
+    const author = await User.findByPk(locked.authorId, { attributes: ['name', 'email'], transaction });
+    // In the PDF worker pool: the lock is held meanwhile, but the event loop keeps serving everyone else.
+    const rendered = await renderSheetFilesOffThread({
+      designName: inputs.name,
+      revisionNumber: locked.number,
+      mechanism: inputs.mechanism,
+      designer: { name: author?.name ?? '', email: author?.email ?? '' },
+      approval: { reviewerName: actor.name, approvedAt, comment: input.comment, justification: justification || null },
+      inputs,
+      result,
+      fingerprint: locked.fingerprint,
+      units: isUnitSystem(locked.sheetUnits) ? locked.sheetUnits : 'metric',
+    });
     await locked.update(
       {
         status: 'approved',
@@ -236,8 +257,8 @@ export async function approveRevision(
     );
 
     const ref = { revisionId, number: locked.number, designId: design.id, designName: inputs.name };
-    const designers = await designersOf(locked, design.ownerId);
-    const makers = (await findActiveUsersByRole('maker')).filter((u) => u.id !== actor.id);
+    const designers = await designersOf(locked, design.ownerId, transaction);
+    const makers = (await findActiveUsersByRole('maker', transaction)).filter((u) => u.id !== actor.id);
     const ids = [
       ...(await queueMail(
         'revision.approved',
@@ -253,7 +274,7 @@ export async function approveRevision(
         transaction,
       )),
     ];
-    return { sheetId: id, mailIds: ids };
+    return { result: { sheetId: id, mailIds: ids }, bytes: [rendered.a4, rendered.letter] };
   });
   deliverSoon(mailIds);
   return { revision: await getRevision(actor, revisionId), sheet: await getSheet(actor, sheetId) };
@@ -298,7 +319,7 @@ export async function returnRevision(actor: PublicUser, revisionId: number, inpu
       transaction,
     );
     const designName = parseJson<{ name: string }>(locked.inputs).name;
-    const designers = await designersOf(locked, design.ownerId);
+    const designers = await designersOf(locked, design.ownerId, transaction);
     return queueMail(
       'revision.returned',
       designers,

@@ -268,7 +268,7 @@ export async function listRevisions(
 
 /**
  * The revision history of one design, newest first: each revision's status, return reason or approval comment
- * and sheet. Everyone signed in may ask; revisions they may not read yet are left out.
+ * and sheet. Every team member may ask; revisions they may not read yet are left out.
  */
 export async function listDesignRevisions(actor: PublicUser, designId: number): Promise<Page<RevisionListItem>> {
   const design = await Design.findByPk(designId, { attributes: ['id', 'ownerId'] });
@@ -529,8 +529,27 @@ export async function getRevisionDiff(actor: PublicUser, id: number): Promise<Re
 // ---------------------------------------------------------------------------------------------------------
 // Transitions started by the designer: submit, withdraw, reopen.
 
+/** MariaDB's answer to `FOR UPDATE NOWAIT` when another transaction holds the row. */
+const ER_LOCK_WAIT_TIMEOUT = 1205;
+
+/**
+ * Locks a design row for a transition, without waiting: when another request holds it (a concurrent submit,
+ * approval, withdrawal …) this one is refused at once with 409 `busy` instead of queueing behind it while holding a
+ * pooled connection (issue 12, item 2: 12 concurrent submits of one draft stalled the whole app for 20 s).
+ * @throws 404 when the design does not exist, 409 `busy` when it is locked
+ */
 async function lockDesign(id: number, transaction: Transaction): Promise<Design> {
-  const design = await Design.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+  try {
+    await getSequelize().query('SELECT id FROM designs WHERE id = ? FOR UPDATE NOWAIT', { replacements: [id], transaction });
+  } catch (err) {
+    const errno = (err as { parent?: { errno?: number } }).parent?.errno;
+    if (errno === ER_LOCK_WAIT_TIMEOUT) {
+      throw conflict('Someone else is changing this design right now. Reload it to see what changed, then try again.', 'busy');
+    }
+    throw err;
+  }
+  // The row is ours now: this read sees its latest committed state.
+  const design = await Design.findByPk(id, { transaction });
   if (!design) throw notFound('Design');
   return design;
 }
@@ -575,7 +594,9 @@ export function freezeDesign(storedInputs: unknown): {
  * Submits a design for review: freezes a new revision (numbered 1, 2, … per design) of the stored inputs with the
  * full engine result, moves the design to In review, logs both and e-mails every reviewer except the author.
  * Owner (designer) or admin; the design must be a draft or returned; `version`, when given, must be the stored one.
- * @throws 403 for others, 409 `invalid_state` / `version_conflict`, 400 when the inputs do not validate
+ * The design row is locked first without waiting and every query runs in that one transaction, so concurrent submits
+ * of one design get 409 `busy` at once instead of stalling the connection pool.
+ * @throws 403 for others, 409 `invalid_state` / `version_conflict` / `busy`, 400 when the inputs do not validate
  */
 export async function submitDesign(
   actor: PublicUser,
@@ -643,7 +664,7 @@ export async function submitDesign(
       transaction,
     );
 
-    const reviewers = (await findActiveUsersByRole('reviewer')).filter((u) => u.id !== actor.id && u.id !== design.ownerId);
+    const reviewers = (await findActiveUsersByRole('reviewer', transaction)).filter((u) => u.id !== actor.id && u.id !== design.ownerId);
     const ref = {
       revisionId: revision.id,
       number: revision.number,

@@ -9,6 +9,7 @@ import { renderSheet } from '../sheet/renderSheet';
 import { getContentStore } from '../storage';
 import { ContentStoreError } from '../uploads';
 import { renderSheetsInPool } from '../workers/pool';
+import { recordAudit } from './audit.service';
 import { parseJson, type PersonRef } from './revisions.service';
 import type { Page, PublicUser } from './users.service';
 
@@ -126,7 +127,7 @@ export async function renderSheetFilesOffThread(source: SheetSource): Promise<Re
 
 /**
  * Writes the row of a rendered sheet for an approved revision (inside the approval's transaction). The PDF bytes go
- * to the content store under their SHA-256 in the same transaction: run it through `storeWithRows([a4, letter], …)`
+ * to the content store under their SHA-256 in the same transaction: run it through `storeWithRowsMaking()`
  * (attachments.service), which registers and puts them. @returns the sheet id
  */
 export async function storeSheet(
@@ -177,7 +178,7 @@ const includes = (withResult: boolean) => [
 ];
 
 /** The newest approved revision (number, sheet id) of each design among `designIds`. */
-async function latestSheets(designIds: number[]): Promise<Map<number, { sheetId: number; revisionNumber: number }>> {
+export async function latestSheets(designIds: number[]): Promise<Map<number, { sheetId: number; revisionNumber: number }>> {
   const latest = new Map<number, { sheetId: number; revisionNumber: number }>();
   if (!designIds.length) return latest;
   const rows = (await Sheet.findAll({
@@ -290,10 +291,17 @@ export async function getSheet(_actor: PublicUser, id: number): Promise<SheetDet
 
 /**
  * The stored PDF bytes of a sheet in one paper size, with their stored SHA-256 and download name. Bytes come from the
- * content store (re-hashed on the way out) or, for sheets published before sheets moved there, from the row.
- * @throws 404 for an unknown sheet; 500 `sheet_missing` when the bytes are gone or no longer match their hash
+ * content store or, for sheets published before sheets moved there, from the row. Either way they are hashed again
+ * on every read: bytes that no longer match the SHA-256 recorded at approval are never served — the answer is a 500
+ * and the audit log records the mismatch (issue 12, item 7).
+ * @throws 404 for an unknown sheet; 500 `sheet_missing` when the bytes are gone; 500 `sheet_integrity_failed` when
+ *   they no longer match their hash
  */
-export async function getSheetPdf(id: number, paper: SheetPaper): Promise<{ bytes: Buffer; sha256: string; fileName: string }> {
+export async function getSheetPdf(
+  actor: PublicUser,
+  id: number,
+  paper: SheetPaper,
+): Promise<{ bytes: Buffer; sha256: string; fileName: string }> {
   const column = paper === 'A4' ? 'a4Pdf' : 'letterPdf';
   const hash = paper === 'A4' ? 'a4Sha256' : 'letterSha256';
   const row = (await Sheet.findByPk(id, {
@@ -305,13 +313,30 @@ export async function getSheetPdf(id: number, paper: SheetPaper): Promise<{ byte
   let bytes = row[column];
   if (!Buffer.isBuffer(bytes)) {
     try {
-      bytes = await getContentStore().get(sha256, { verify: true });
+      // Not the store's own check: a mismatch must reach the audit below, from either source alike.
+      bytes = await getContentStore().get(sha256, { verify: false });
     } catch (err) {
       if (err instanceof ContentStoreError) {
         throw new AppError('sheet_missing', 'The stored sheet could not be read.', 500, { isOperational: false, cause: err });
       }
       throw err;
     }
+  }
+  const actual = sha256Hex(bytes);
+  if (actual !== sha256) {
+    await recordAudit({
+      actorId: actor.id,
+      action: 'sheet.integrity_failed',
+      entity: 'sheet',
+      entityId: id,
+      reason: `${paper} PDF: recorded SHA-256 ${sha256}, stored bytes hash to ${actual}; not served`,
+    });
+    throw new AppError(
+      'sheet_integrity_failed',
+      'The stored design sheet does not match the SHA-256 recorded when it was approved, so it is not served. An admin has been told through the audit log.',
+      500,
+      { isOperational: false },
+    );
   }
   const { name } = parseJson<{ name: string }>(row.revision.inputs);
   return { bytes, sha256, fileName: sheetFileName(name, row.revision.number, paper) };

@@ -188,7 +188,7 @@ export async function uploadTorqueCurve(
   return { motor: toPublicPart(part), file: source ? toPublicAttachment(source, actor, null) : null, sourceUnits: table.sourceUnits };
 }
 
-/** A motor with its torque table and the newest uploaded source file (everyone signed in). */
+/** A motor with its torque table and the newest uploaded source file (every team member). */
 export async function getTorqueCurve(actor: PublicUser, motorId: number): Promise<TorqueCurveInfo> {
   const row = await Part.findOne({ where: { id: motorId, kind: 'motor' } });
   if (!row) throw notFound('Motor');

@@ -7,6 +7,7 @@ import { createPasswordToken } from './passwordToken.service';
 import { sendMail } from './mail.service';
 import { inviteMail } from './mailTemplates';
 import { getConfig } from '../config';
+import { revokeAllSessions } from './session.service';
 
 /** A user as the API shows it: never the password hash. */
 export type PublicUser = {
@@ -69,12 +70,14 @@ export async function getUserById(id: number): Promise<PublicUser> {
 /**
  * Active (not disabled) users who hold `role`, for notifications. Admins are not included
  * unless they hold the role themselves.
+ * @param transaction - the transaction of the change being announced (never query beside it: issue 12)
  */
-export async function findActiveUsersByRole(role: Role): Promise<PublicUser[]> {
+export async function findActiveUsersByRole(role: Role, transaction?: Transaction): Promise<PublicUser[]> {
   const sequelize = getSequelize();
   const users = await User.findAll({
     where: { disabled: false, [Op.and]: [sequelize.literal(`JSON_CONTAINS(roles, ${sequelize.escape(JSON.stringify(role))})`)] },
     order: [['id', 'ASC']],
+    transaction,
   });
   return users.map(toPublicUser);
 }
@@ -131,6 +134,9 @@ export async function updateUser(
       await Design.update({ ownerName: after.name }, { where: { ownerId: user.id }, transaction, hooks: false });
 
     if (before.disabled !== after.disabled) {
+      // A disabled account is signed out everywhere at once (requests read the session row anyway; this also
+      // keeps a later re-enable from reviving the old cookies).
+      if (after.disabled) await revokeAllSessions(user.id, 'disabled', transaction);
       await recordAudit(
         {
           actorId: actor.id,

@@ -1,4 +1,4 @@
-import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import os from 'node:os';
 import path from 'node:path';
@@ -124,29 +124,25 @@ export function woffToSfnt(woff: Buffer): Buffer {
 let unwrapped: { dir: string; fonts: FontFamilies } | null = null;
 
 /**
- * The sheet fonts as plain TrueType files, unwrapped once per process from the .woff files into a folder under the
- * system temp folder (pdfkit opens SVG text fonts by path, so an in-memory copy would not reach the plots). A file
- * already there is rewritten unless its bytes are exactly the unwrapped font. If the folder cannot be written, the
- * .woff files themselves are used: slower, same glyphs.
+ * The sheet fonts as plain TrueType files, unwrapped once per process from the .woff files into a private folder of
+ * its own: created under the system temp folder with a random name and mode 0700, so no other account can read,
+ * replace or plant a file there (a predictable /tmp path let anyone prepare a font for the next process; issue 12,
+ * item 10). pdfkit opens SVG text fonts by path, so an in-memory copy would not reach the plots. The folder is
+ * removed when the process exits. If it cannot be written, the .woff files themselves are used: slower, same glyphs.
  * @returns the folder pdfmake may read and the family → style → file table for pdfmake.setFonts
  */
 export function sheetFontFiles(): { dir: string; fonts: FontFamilies } {
   if (unwrapped) return unwrapped;
   try {
-    const version = (require('@fontsource/inter/package.json') as { version: string }).version;
-    const dir = path.join(os.tmpdir(), `gantrywright-sheet-fonts-${version}`);
-    mkdirSync(dir, { recursive: true });
+    const dir = mkdtempSync(path.join(os.tmpdir(), 'gantrywright-sheet-fonts-'));
+    process.once('exit', () => rmSync(dir, { recursive: true, force: true }));
     const fonts: FontFamilies = {};
     for (const [family, styles] of Object.entries(SHEET_FONTS)) {
       const entry = {} as Record<FontStyle, string>;
       for (const [style, file] of Object.entries(styles) as [FontStyle, string][]) {
         const target = path.join(dir, `${path.basename(file, '.woff')}.ttf`);
-        const bytes = woffToSfnt(readFileSync(file));
-        if (!existsSync(target) || !readFileSync(target).equals(bytes)) {
-          const tmp = `${target}.${process.pid}.tmp`;
-          writeFileSync(tmp, bytes);
-          renameSync(tmp, target);
-        }
+        // 'wx': the folder is new and ours, so the file must not exist yet.
+        writeFileSync(target, woffToSfnt(readFileSync(file)), { mode: 0o600, flag: 'wx' });
         entry[style] = target;
       }
       fonts[family] = entry;

@@ -70,6 +70,34 @@ function describeFormat(code: number, bits: number): string {
   return `format code ${code}`;
 }
 
+/** "4.0 GB", "96 kB". */
+function sizeWords(bytes: number): string {
+  if (bytes >= 1024 ** 3) return `${(bytes / 1024 ** 3).toFixed(1)} GB`;
+  if (bytes >= 1024 ** 2) return `${(bytes / 1024 ** 2).toFixed(1)} MB`;
+  return `${Math.max(1, Math.round(bytes / 1024))} kB`;
+}
+
+/**
+ * Refuses a header that claims more bytes than the file holds (issue 12, item 10: a header claiming 4 GB was
+ * accepted when its data chunk happened to be consistent). RIFF/RIFX state the size after the first 8 bytes; RF64
+ * states 0xFFFFFFFF there and the real 64-bit sizes in its ds64 chunk. One pad byte is allowed.
+ */
+function assertDeclaredSizeFits(u8: Uint8Array, riffId: string): void {
+  const view = new DataView(u8.buffer, u8.byteOffset, u8.byteLength);
+  const isBigEndian = riffId === 'RIFX';
+  let declared = view.getUint32(4, !isBigEndian) + 8;
+  if (riffId === 'RF64') {
+    if (u8.length < 28 || ascii(u8, 12, 4) !== 'ds64') throw new PluckError('corrupt', DAMAGED);
+    declared = Number(view.getBigUint64(20, true)) + 8;
+  }
+  if (declared > u8.length + 1) {
+    throw new PluckError(
+      'corrupt',
+      `The WAV header says the file holds ${sizeWords(declared)}, but it holds ${sizeWords(u8.length)}: it is damaged or was cut off — record the pluck again.`,
+    );
+  }
+}
+
 /**
  * Decodes a WAV recording (RIFF/RIFX, PCM 8/16/24/32-bit integer or 32-bit float, mono or stereo)
  * with wavefile, checks it against the limits and mixes it down to one channel at full scale ±1.
@@ -95,6 +123,7 @@ export function decodeWav(bytes: Uint8Array, limits: DecodeWavLimits = PLUCK_WAV
   if (ascii(u8, 8, 4) !== 'WAVE') {
     throw new PluckError('unsupported_format', 'This RIFF file holds no WAVE audio — save or export the recording as WAV.');
   }
+  assertDeclaredSizeFits(u8, riffId);
 
   let wav: InstanceType<typeof wavefile.WaveFile>;
   try {

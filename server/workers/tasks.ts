@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import { Piscina } from 'piscina';
 import { ENGINE_VERSION, EngineInputError, type DesignInput } from '@/engine';
 import { AppError } from '../errors';
-import { zodDetails } from '../middleware/validate';
+import { parsePart } from '../middleware/validate';
 import * as schemas from '../schemas/calc.schema';
 import * as service from '../services/calc.service';
 import type { SheetInput } from '../sheet/types';
@@ -82,11 +82,10 @@ export async function calc(task: CalcTask): Promise<Uint8Array | TaskFailure> {
   const json = parseBody(task.body);
   if (!json.ok) return INVALID_JSON;
   const schema = task.kind === 'compare' ? schemas.compareSchema : task.kind === 'sweep' ? schemas.sweepSchema : schemas.calcSchema;
-  const parsed = schema.safeParse(json.value);
-  if (!parsed.success) {
-    return {
-      failure: { code: 'validation_failed', message: 'The request is not valid.', status: 400, details: zodDetails(parsed.error, 'body') },
-    };
+  // The same checks as the validate middleware, lone surrogates included (they name the field, never a 500).
+  const parsed = parsePart(schema, json.value, 'body');
+  if (!parsed.ok) {
+    return { failure: { code: 'validation_failed', message: 'The request is not valid.', status: 400, details: parsed.details } };
   }
   const body = parsed.data as { design: DesignInput; sections?: ResultSection[]; path?: string; values?: number[] };
   let out: TaskAnswer<unknown>;

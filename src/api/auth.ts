@@ -1,5 +1,5 @@
-import { get, post } from './http';
-import type { User } from './types';
+import { del, get, post } from './http';
+import type { Page, SessionInfo, User } from './types';
 
 /** Signs in with e-mail and password; the server sets the session cookie. */
 export const login = (email: string, password: string): Promise<{ user: User }> => post('/auth/login', { email, password });
@@ -15,3 +15,12 @@ export const requestPasswordReset = (email: string): Promise<void> => post('/aut
 
 /** Sets a new password with a reset or invitation token; signs the user in. */
 export const resetPassword = (token: string, password: string): Promise<{ user: User }> => post('/auth/reset', { token, password });
+
+/** The signed-in user's open sessions (this browser's is marked `isCurrent`). */
+export const listSessions = (): Promise<Page<SessionInfo>> => get('/auth/sessions');
+
+/** Ends one of the signed-in user's sessions (another device, or this one). */
+export const endSession = (id: number): Promise<void> => del(`/auth/sessions/${id}`);
+
+/** Ends every session of the signed-in user, this one too ("sign out everywhere"). */
+export const signOutEverywhere = (): Promise<void> => del('/auth/sessions');

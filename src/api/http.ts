@@ -50,7 +50,7 @@ export class ApiError extends Error {
 
   /**
    * The message plus each field problem, for places without a field to show them beside:
-   * "The request is not valid. Password must be at least 10 characters."
+   * "The request is not valid. Password must be at least 12 characters."
    */
   describe(): string {
     if (this.details.length === 0) return this.message;

@@ -17,6 +17,20 @@ export interface User {
   createdAt: string;
 }
 
+/** One open session of the signed-in user (GET /api/auth/sessions). */
+export interface SessionInfo {
+  id: number;
+  /** ISO 8601 timestamps: signed in, last request (to within a few minutes), ends. */
+  createdAt: string;
+  lastSeenAt: string;
+  expiresAt: string;
+  /** "Firefox on Linux", "curl", "Unknown client". */
+  userAgent: string;
+  ip: string;
+  /** The session of this browser. */
+  isCurrent: boolean;
+}
+
 /** One page of a list endpoint: `{ items, total, page, pageSize }`. */
 export interface Page<T> {
   items: T[];

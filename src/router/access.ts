@@ -13,6 +13,8 @@ export const REVIEW_ROLES: readonly Role[] = ['reviewer', 'admin'];
 export const SHEET_ROLES: readonly Role[] = ['maker', 'designer', 'reviewer', 'admin'];
 /** Team and Outbox. */
 export const ADMIN_ROLES: readonly Role[] = ['admin'];
+/** The Parts shelf: every team member. An account without any role sees only its own account page. */
+export const MEMBER_ROLES: readonly Role[] = ['designer', 'reviewer', 'maker', 'admin'];
 
 /**
  * Whether someone holding `roles` may open a screen limited to `allowed`.
@@ -26,7 +28,8 @@ export function canAccess(allowed: readonly Role[] | undefined, roles: readonly 
 
 /**
  * The first screen to show after signing in: the Review desk for reviewers (their work waits there), Designs for
- * the others who may see designs, otherwise Sheets, otherwise the Parts shelf (open to everyone).
+ * the others who may see designs, otherwise Sheets, otherwise the Parts shelf; an account without a role gets its
+ * account page (the server shows it nothing else).
  * @param roles - roles the user holds
  * @returns a path
  */
@@ -34,7 +37,8 @@ export function homePathFor(roles: readonly Role[]): string {
   if (roles.includes('reviewer')) return '/review';
   if (canAccess(DESIGN_ROLES, roles)) return '/designs';
   if (canAccess(SHEET_ROLES, roles)) return '/sheets';
-  return '/parts';
+  if (canAccess(MEMBER_ROLES, roles)) return '/parts';
+  return '/account';
 }
 
 /**

@@ -1,7 +1,7 @@
 import { createRouter, createWebHistory, type RouteRecordRaw, type Router, type RouterHistory } from 'vue-router';
 import type { Role } from '@/api/types';
 import { useAuthStore } from '@/stores/auth';
-import { ADMIN_ROLES, DESIGN_ROLES, REVIEW_ROLES, SHEET_ROLES, canAccess, homePathFor, safeNextPath } from './access';
+import { ADMIN_ROLES, DESIGN_ROLES, MEMBER_ROLES, REVIEW_ROLES, SHEET_ROLES, canAccess, homePathFor, safeNextPath } from './access';
 
 declare module 'vue-router' {
   interface RouteMeta {
@@ -80,7 +80,13 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('@/views/sheets/SheetView.vue'),
     meta: { title: 'Design sheet', section: 'Sheets', roles: SHEET_ROLES },
   },
-  { path: '/parts', name: 'parts', component: () => import('@/views/parts/PartsShelfView.vue'), meta: { title: 'Parts shelf' } },
+  {
+    path: '/parts',
+    name: 'parts',
+    component: () => import('@/views/parts/PartsShelfView.vue'),
+    meta: { title: 'Parts shelf', roles: MEMBER_ROLES },
+  },
+  { path: '/account', name: 'account', component: () => import('@/views/account/AccountView.vue'), meta: { title: 'Your account' } },
   { path: '/team', name: 'team', component: () => import('@/views/team/TeamView.vue'), meta: { title: 'Team', roles: ADMIN_ROLES } },
   {
     path: '/outbox',

@@ -1,7 +1,7 @@
 import type { Component } from 'vue';
 import { Box, EditPen, Message, Stamp, Tickets, User as UserIcon } from '@element-plus/icons-vue';
 import type { Role } from '@/api/types';
-import { ADMIN_ROLES, DESIGN_ROLES, REVIEW_ROLES, SHEET_ROLES, canAccess } from './access';
+import { ADMIN_ROLES, DESIGN_ROLES, MEMBER_ROLES, REVIEW_ROLES, SHEET_ROLES, canAccess } from './access';
 
 /** One entry of the main navigation. */
 export interface NavItem {
@@ -21,7 +21,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { key: 'designs', label: 'Designs', to: '/designs', icon: EditPen, roles: DESIGN_ROLES },
   { key: 'review', label: 'Review desk', to: '/review', icon: Stamp, roles: REVIEW_ROLES },
   { key: 'sheets', label: 'Sheets', to: '/sheets', icon: Tickets, roles: SHEET_ROLES },
-  { key: 'parts', label: 'Parts shelf', to: '/parts', icon: Box },
+  { key: 'parts', label: 'Parts shelf', to: '/parts', icon: Box, roles: MEMBER_ROLES },
   { key: 'team', label: 'Team', to: '/team', icon: UserIcon, roles: ADMIN_ROLES },
   { key: 'outbox', label: 'Outbox', to: '/outbox', icon: Message, roles: ADMIN_ROLES, needsOutbox: true },
 ];

@@ -85,6 +85,15 @@ export const useAuthStore = defineStore('auth', () => {
     }
   }
 
+  /** Ends every session of the user on the server ("sign out everywhere"), then forgets the user here, even if the call fails. */
+  async function signOutEverywhere(): Promise<void> {
+    try {
+      await authApi.signOutEverywhere();
+    } finally {
+      clear();
+    }
+  }
+
   /**
    * Takes a user the server returned from another call that signs in (password reset, invitation).
    * @param me - the user now signed in
@@ -100,5 +109,5 @@ export const useAuthStore = defineStore('auth', () => {
     isLoaded.value = true;
   }
 
-  return { user, isLoaded, isSignedIn, roles, hasRole, hasAnyRole, fetchMe, signIn, signOut, setUser, clear };
+  return { user, isLoaded, isSignedIn, roles, hasRole, hasAnyRole, fetchMe, signIn, signOut, signOutEverywhere, setUser, clear };
 });

@@ -23,7 +23,7 @@ function sessionCookie(res: request.Response): string {
 }
 
 describe('POST /api/auth/login', () => {
-  it('when e-mail and password match, then 200 with the user and an httpOnly SameSite=Lax session cookie with Max-Age', async () => {
+  it('when e-mail and password match, then 200 with the user and an httpOnly SameSite=Strict session cookie with Max-Age', async () => {
     const { user, email, password } = await createUser({ roles: ['designer', 'reviewer'] });
 
     const res = await request(app).post('/api/auth/login').send({ email, password });
@@ -43,7 +43,7 @@ describe('POST /api/auth/login', () => {
     expect(res.body.user).not.toHaveProperty('passwordHash');
     const cookie = sessionCookie(res);
     expect(cookie).toMatch(/HttpOnly/);
-    expect(cookie).toMatch(/SameSite=Lax/);
+    expect(cookie).toMatch(/SameSite=Strict/);
     expect(cookie).toMatch(/Path=\//);
     expect(cookie).toMatch(new RegExp(`Max-Age=${getConfig().sessionHours * 3600}`));
   });
@@ -269,12 +269,55 @@ describe('password reset', () => {
     expect(unknown.status).toBe(400);
     expect(unknown.body.error.code).toBe('invalid_token');
     expect(short.status).toBe(400);
-    expect(short.body.error.details).toEqual([{ path: 'password', message: 'must be at least 10 characters' }]);
+    expect(short.body.error.details).toEqual([{ path: 'password', message: 'must be at least 12 characters' }]);
   });
 
   it('when a forgot request has no valid e-mail, then 400 with path email', async () => {
     const res = await request(app).post('/api/auth/forgot').send({ email: 'nope' });
     expect(res.status).toBe(400);
     expect(res.body.error.details).toEqual([{ path: 'email', message: 'must be an e-mail address' }]);
+  });
+});
+
+describe('password policy on reset and invitation links', () => {
+  async function resetLinkFor(roles: ('maker' | 'designer')[] = ['maker'], name?: string) {
+    const created = await createUser({ roles, name });
+    await request(app).post('/api/auth/forgot').send({ email: created.email });
+    return { ...created, token: tokenFromMail(await waitForMail(created.email, 'Reset')) };
+  }
+
+  // fix: #12 — a 10-character common password, or one made of the user's own name, was accepted.
+  it.each([
+    ['a common password', 'qwerty123456', 'is one of the most common passwords; choose another (a short sentence of your own works well)'],
+    ['eleven characters', 'larch-gantr', 'must be at least 12 characters'],
+    ['more than 72 bytes', 'ü'.repeat(40), 'must be at most 72 bytes (bcrypt reads no further); use fewer or plainer characters'],
+  ])('when the new password is %s, then 400 names the password and says why', async (_label, password, message) => {
+    const { token } = await resetLinkFor();
+    const res = await request(app).post('/api/auth/reset').send({ token, password });
+    expect(res.status).toBe(400);
+    expect(res.body.error.details).toEqual([{ path: 'password', message }]);
+  });
+
+  it('when the new password contains the user’s name or e-mail, then 400, and the link still works for a better one', async () => {
+    // Arrange
+    const { email, token } = await resetLinkFor(['maker'], 'Oskar Brightwater');
+    const local = email.split('@')[0];
+    // Act
+    const withName = await request(app).post('/api/auth/reset').send({ token, password: 'brightwater builds gantries' });
+    const withEmail = await request(app)
+      .post('/api/auth/reset')
+      .send({ token, password: `my ${local} password` });
+    const good = await request(app).post('/api/auth/reset').send({ token, password: 'larch gantry pulley seventy' });
+    // Assert
+    expect(withName.status).toBe(400);
+    expect(withName.body.error.details).toEqual([{ path: 'password', message: 'must not contain your name' }]);
+    expect(withEmail.status).toBe(400);
+    expect(withEmail.body.error.details).toContainEqual({ path: 'password', message: 'must not contain your e-mail address' });
+    expect(good.status).toBe(200);
+  });
+
+  it('when a demo-style password shorter than 12 is already stored, then it still signs in (the policy applies when a password is set)', async () => {
+    const { email } = await createUser({ password: 'gantry-demo' });
+    expect((await request(app).post('/api/auth/login').send({ email, password: 'gantry-demo' })).status).toBe(200);
   });
 });

@@ -4,9 +4,10 @@ import { createApp } from '../../server/app';
 import { closeSequelize } from '../../server/db';
 import { defaultDesign } from '@/engine';
 import { createApprovedSheet, createDesign, createUser, signIn, type Agent } from '../helpers/factories';
+import { routeLabel, walkRoutes } from '../helpers/routeTable';
 
 /**
- * Sweep of every API route (server/routes/*.ts) with malformed input. The rule under test: bad input always gets
+ * Sweep of every API route — read from the real router, not from a list kept by hand — with malformed input. The rule under test: bad input always gets
  * a clear error (4xx with `{error: {code, message}}`, field `details` with a `path` for validation errors), never
  * a 5xx, and never changes saved data.
  */
@@ -43,8 +44,27 @@ type Route = {
 
 const designDoc = { name: 'x', mechanism: 'corexy' };
 
-/** Every route of server/routes/*.ts. */
-const ROUTES: Route[] = [
+/** Bad values for each query parameter a list route may take. */
+const BAD_QUERY_VALUES: Record<string, string[]> = {
+  page: ['0', '-1', 'abc', '1.5', '99999999999999999999999'],
+  pageSize: ['0', '1000', 'abc'],
+  sort: ['bogus', '--name', 'name;drop'],
+  status: ['bogus', ','],
+  mechanism: ['bogus'],
+  owner: ['someone', '-1'],
+  entityId: ['abc', '-1'],
+  designId: ['abc', '0', '99999999999999999999'],
+  current: ['maybe'],
+  includeRetired: ['yes'],
+  paper: ['A3', 'bogus'],
+};
+
+/**
+ * What the sweep needs to know beyond what the router says (a valid body, the type of each field, …), keyed by
+ * route. The routes themselves come from the router: a route without hints is still swept with what its middleware
+ * tells (sign-in, upload, schemas), and a hint for a route that no longer exists fails the first test below.
+ */
+const HINTS: Route[] = [
   // health.routes.ts
   { method: 'get', path: '/api/health', isPublic: true },
   // auth.routes.ts
@@ -160,6 +180,28 @@ const ROUTES: Route[] = [
   { method: 'get', path: '/api/sheets/:id/measurements/:measurementId/recording' },
 ];
 
+/** The zod object fields a schema knows (through .extend, .optional, pipes), for the query sweep. */
+function fieldsOf(schema: unknown): string[] {
+  const s = schema as { shape?: Record<string, unknown>; def?: { in?: unknown; innerType?: unknown; schema?: unknown } } | undefined;
+  if (s?.shape && typeof s.shape === 'object') return Object.keys(s.shape);
+  return s?.def ? fieldsOf(s.def.in ?? s.def.innerType ?? s.def.schema) : [];
+}
+
+const WALKED = walkRoutes();
+const hintFor = new Map(HINTS.map((h) => [`${h.method.toUpperCase()} ${h.path}`, h]));
+const ROUTES: Route[] = WALKED.map((r) => {
+  const hint = hintFor.get(routeLabel(r));
+  const queryKeys = fieldsOf(r.schemas.query).filter((k) => k in BAD_QUERY_VALUES);
+  return {
+    ...hint,
+    method: r.method as Route['method'],
+    path: r.path,
+    isPublic: !r.isSignedIn,
+    body: r.isUpload ? (hint?.body ?? 'multipart') : r.schemas.body ? (hint?.body ?? 'json') : undefined,
+    query: r.schemas.query && queryKeys.length ? queryKeys : undefined,
+  };
+});
+
 const withIds = (path: string, id: string, measurementId = id) => path.replace(':measurementId', measurementId).replace(':id', id);
 const label = (r: Route) => `${r.method.toUpperCase()} ${r.path}`;
 
@@ -227,6 +269,15 @@ beforeAll(async () => {
   ({ sheetId } = await createApprovedSheet({ owner: designer.user, approver: created.user }));
 });
 afterAll(() => closeSequelize());
+
+describe('the route list', () => {
+  it('when the router is walked, then every route is swept and every hint names a route that exists', () => {
+    const labels = new Set(WALKED.map(routeLabel));
+    expect(WALKED.length).toBeGreaterThan(60);
+    expect([...hintFor.keys()].filter((l) => !labels.has(l))).toEqual([]);
+    expect(ROUTES.map(label)).toEqual(WALKED.map(routeLabel));
+  });
+});
 
 const idRoutes = ROUTES.filter((r) => r.path.includes(':id'));
 const bodyRoutes = ROUTES.filter((r) => r.body === 'json' || r.body === 'both');
@@ -436,21 +487,8 @@ describe('multipart routes', () => {
 describe('query parameters', () => {
   const lists = ROUTES.filter((r) => r.query);
   const listPath = (r: Route) => withIds(r.path, String(r.path.startsWith('/api/sheets') ? sheetId : designId));
-  const BAD: Record<string, string[]> = {
-    page: ['0', '-1', 'abc', '1.5', '99999999999999999999999'],
-    pageSize: ['0', '1000', 'abc'],
-    sort: ['bogus', '--name', 'name;drop'],
-    status: ['bogus', ','],
-    mechanism: ['bogus'],
-    owner: ['someone', '-1'],
-    entityId: ['abc', '-1'],
-    designId: ['abc', '0', '99999999999999999999'],
-    current: ['maybe'],
-    includeRetired: ['yes'],
-    paper: ['A3', 'bogus'],
-  };
 
-  it.each(lists.flatMap((r) => r.query!.flatMap((q) => (BAD[q] ?? []).map((v) => [label(r), q, v, r] as const))))(
+  it.each(lists.flatMap((r) => r.query!.flatMap((q) => (BAD_QUERY_VALUES[q] ?? []).map((v) => [label(r), q, v, r] as const))))(
     'when %s gets %s=%s, then 400 names the parameter',
     async (_l, q, v, r) => {
       const res = await admin.get(`${listPath(r)}?${q}=${encodeURIComponent(v)}`);

@@ -26,7 +26,7 @@ function design(edit: (d: DesignInput) => DesignInput = (d) => d): DesignInput {
 }
 
 describe('POST /api/calc', () => {
-  it.each(['admin', 'designer', 'reviewer', 'maker', 'none'] as Who[])(
+  it.each(['admin', 'designer', 'reviewer', 'maker'] as Who[])(
     'when a signed-in %s user posts a design, then 200 with the engine result',
     async (who) => {
       const doc = design((d) => ({ ...d, frame: { ...d.frame, outerXMm: 520 } }));
@@ -66,6 +66,13 @@ describe('POST /api/calc', () => {
     const res = await agents.designer.post('/api/calc').send({ design: doc });
     expect(res.status).toBe(400);
     expect(res.body.error.details.map((x: { path: string }) => x.path)).toContain('design.job.points.0.dwellS');
+  });
+
+  // fix: #12 — an account without a role could use the engine.
+  it('when an account without a role posts a design, then 403', async () => {
+    const res = await agents.none.post('/api/calc').send({ design: design() });
+    expect(res.status).toBe(403);
+    expect(res.body.error.code).toBe('forbidden');
   });
 
   it('when the inputs change, then the result changes with them (not a cached answer)', async () => {

@@ -80,9 +80,9 @@ describe('mail queue', () => {
 
     // Assert
     expect(crashed.rows.map((r) => r.id)).toEqual(ids);
-    expect(heldMeanwhile).toEqual({ sent: 0, failed: 0 });
-    expect(afterLease).toEqual({ sent: 1, failed: 0 });
-    expect(again).toEqual({ sent: 0, failed: 0 });
+    expect(heldMeanwhile).toEqual({ sent: 0, failed: 0, discarded: 0 });
+    expect(afterLease).toEqual({ sent: 1, failed: 0, discarded: 0 });
+    expect(again).toEqual({ sent: 0, failed: 0, discarded: 0 });
     const row = await Notification.findByPk(ids[0]);
     expect(row).toMatchObject({ status: 'sent', attempts: 1 });
     expect(row!.claimToken).not.toBe(crashed.token);

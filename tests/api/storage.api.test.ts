@@ -8,7 +8,7 @@ import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
 import { closeSequelize, getSequelize } from '../../server/db';
-import { Attachment } from '../../server/models';
+import { Attachment, AuditLog, Sheet } from '../../server/models';
 import { storeWithRows } from '../../server/services/attachments.service';
 import {
   LocalContentStore,
@@ -20,7 +20,7 @@ import {
 } from '../../server/storage';
 import { contentPath, ContentStoreError } from '../../server/uploads';
 import { FAKE_S3_CREDENTIALS, startFakeS3, type FakeS3 } from '../../scripts/fakeS3';
-import { createDesign, signedInAs, type Agent } from '../helpers/factories';
+import { createApprovedSheet, createDesign, createUser, signedInAs, type Agent } from '../helpers/factories';
 
 // One suite, run against each back end of the content store: the local folder (the default) and an S3 bucket (a fake
 // S3 service from the npm registry, started here). Content addressing, SHA-256 checks, size limits and "nothing saved
@@ -113,6 +113,7 @@ describe.each(BACKENDS)('content store: $name', ({ open }) => {
   let backend: Backend;
   let restore: () => void;
   let owner: Agent;
+  let ownerUser: Awaited<ReturnType<typeof signedInAs>>['user'];
   let designId: number;
 
   beforeAll(async () => {
@@ -120,6 +121,7 @@ describe.each(BACKENDS)('content store: $name', ({ open }) => {
     restore = useContentStore(backend.store);
     const signed = await signedInAs(app, ['designer']);
     owner = signed.agent;
+    ownerUser = signed.user;
     designId = (await createDesign({ owner: signed.user })).id;
   });
 
@@ -183,6 +185,27 @@ describe.each(BACKENDS)('content store: $name', ({ open }) => {
     // Assert
     expect(read).toMatchObject({ code: 'corrupt' });
     expect(download.status).toBe(500);
+  });
+
+  // The sheet's SHA-256 check on read (issue 12, item 7) holds for PDFs in the store as for those in the row.
+  it('when the stored PDF of a published sheet was altered, then it is not served: 500 sheet_integrity_failed and an audit entry', async () => {
+    // Arrange
+    const approver = await createUser({ roles: ['reviewer'] });
+    const { agent: maker } = await signedInAs(app, ['maker']);
+    const { sheetId } = await createApprovedSheet({ owner: ownerUser, approver: approver.user, inContentStore: true });
+    const row = await Sheet.findByPk(sheetId);
+    const intact = await binary(maker.get(`/api/sheets/${sheetId}/pdf`));
+    // Act
+    await backend.tamper(row!.a4Sha256, Buffer.from('%PDF-1.7\nswapped behind the store\n%%EOF\n'));
+    const altered = await maker.get(`/api/sheets/${sheetId}/pdf`);
+    // Assert
+    expect(row!.a4Pdf).toBeNull();
+    expect(intact.status).toBe(200);
+    expect(sha256(intact.body as Buffer)).toBe(row!.a4Sha256);
+    expect(altered.status).toBe(500);
+    expect(altered.body.error.code).toBe('sheet_integrity_failed');
+    const audit = await AuditLog.findOne({ where: { action: 'sheet.integrity_failed', entityId: sheetId } });
+    expect(audit?.reason).toContain(row!.a4Sha256);
   });
 
   it('when content is missing, then a read says not_found and removing it says there was nothing', async () => {

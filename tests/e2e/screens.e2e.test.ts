@@ -98,6 +98,14 @@ function signedInScreens(ids: Ids, isPhone: boolean, isDark: boolean): Screen[] 
     },
     { name: 'Team', path: '/team', ready: '[data-test="team-row"]' },
     { name: 'Outbox', path: '/outbox', ready: '[data-test="outbox-refresh"]' },
+    { name: 'Your account', path: '/account', ready: '[data-test="account"]' },
+    {
+      name: 'Active sessions dialog',
+      path: '/account',
+      ready: '[data-test="account"]',
+      click: '[data-test="account-sessions"]',
+      then: '[data-test="session-row"]',
+    },
     { name: 'Not found', path: '/no-such-screen', ready: '[data-test="not-found"]' },
   ];
   if (!isPhone) return all;
@@ -124,6 +132,8 @@ function signedInScreens(ids: Ids, isPhone: boolean, isDark: boolean): Screen[] 
         'Parts shelf: motors',
         'Team',
         'Outbox',
+        'Your account',
+        'Active sessions dialog',
       ];
   return all.filter((s) => onPhone.includes(s.name));
 }

@@ -14,12 +14,26 @@ export interface A11yViolation {
 }
 
 /**
+ * Waits until the page's finite CSS transitions and animations have ended (at most 2 s): a control just clicked or a
+ * dialog just opened fades between colours for a few hundred ms, and axe measuring the contrast of a half-faded
+ * colour reports a violation the settled screen does not have. Endless ones (spinners) are not waited for.
+ */
+async function settleTransitions(page: Page): Promise<void> {
+  await page.evaluate(async () => {
+    const finite = document.getAnimations().filter((a) => a.effect?.getComputedTiming().iterations !== Infinity);
+    const ended = Promise.all(finite.map((a) => a.finished.catch(() => undefined)));
+    await Promise.race([ended, new Promise((resolve) => setTimeout(resolve, 2000))]);
+  });
+}
+
+/**
  * Runs axe-core in the page (WCAG 2.x A and AA rules plus best practices) and returns the serious and critical
  * violations; minor and moderate findings are left to review. The page keeps the script between calls.
  * @param page - a page showing the screen to check
  * @param options.exclude - CSS selectors to leave out (third-party widgets only; say why at the call)
  */
 export async function seriousViolations(page: Page, options: { exclude?: string[] } = {}): Promise<A11yViolation[]> {
+  await settleTransitions(page);
   const hasAxe = await page.evaluate(() => typeof (window as unknown as { axe?: unknown }).axe !== 'undefined');
   if (!hasAxe) await page.addScriptTag({ path: AXE_PATH });
   const violations = await page.evaluate(async (exclude) => {

@@ -1,7 +1,7 @@
 import type { Sequelize } from 'sequelize';
 import { getConfig } from '../../server/config';
 import { createSequelize } from '../../server/db';
-import { runMigrations, runSeeders } from '../../server/migrator';
+import { runMigrations, runSeeders, withSchemaOwner } from '../../server/migrator';
 
 /**
  * Refuses to run unless scripts/test.ts prepared the environment (NODE_ENV=test, a throw-away
@@ -26,22 +26,16 @@ export function connectTo(databaseName: string): Sequelize {
   return createSequelize({ ...getConfig().db, name: databaseName, poolMax: 2 });
 }
 
-/** Applies every migration to `databaseName` (the same migrations production uses; never sync()). */
+/**
+ * Applies every migration to `databaseName` as the schema owner, as npm start does (the same migrations production
+ * uses; never sync()). The tests themselves then connect as the application's account, which may only read and
+ * write rows.
+ */
 export async function migrateDatabase(databaseName: string): Promise<string[]> {
-  const sequelize = connectTo(databaseName);
-  try {
-    return await runMigrations(sequelize);
-  } finally {
-    await sequelize.close();
-  }
+  return withSchemaOwner(getConfig(), runMigrations, databaseName);
 }
 
-/** Runs the demo seeders on `databaseName` (e2e only: API tests never depend on seeds). */
+/** Runs the demo seeders on `databaseName` as the schema owner (e2e only: API tests never depend on seeds). */
 export async function seedDatabase(databaseName: string): Promise<string[]> {
-  const sequelize = connectTo(databaseName);
-  try {
-    return await runSeeders(sequelize);
-  } finally {
-    await sequelize.close();
-  }
+  return withSchemaOwner(getConfig(), runSeeders, databaseName);
 }

@@ -9,6 +9,7 @@ import { toPublicUser, type PublicUser } from '../../server/services/users.servi
 import type { CaughtMessage } from '../../scripts/mailcatcher';
 import { defaultDesign, parseDesign, type DesignInput, type DesignResult, type Mechanism } from '@/engine';
 import { Design, Part, Revision, Sheet, type DesignStatus, type PartKind } from '../../server/models';
+import { storeWithRows } from '../../server/services/attachments.service';
 import { computeStoredResults } from '../../server/services/designs.service';
 import { freezeDesign } from '../../server/services/revisions.service';
 
@@ -172,6 +173,13 @@ export async function createApprovedSheet(options: {
   approver: PublicUser;
   mechanism?: Mechanism;
   edit?: (doc: DesignInput) => DesignInput;
+  /** The SHA-256 recorded for the A4 file instead of the real one (a sheet whose bytes were swapped later). */
+  recordedA4Sha256?: string;
+  /**
+   * Keep the PDFs in the content store, as approvals do now (bytes unique to this sheet); by default they stay in the
+   * row, as for sheets published before sheets moved to the store.
+   */
+  inContentStore?: boolean;
 }): Promise<{ sheetId: number; designId: number; revisionId: number; inputs: DesignInput; result: DesignResult }> {
   getSequelize();
   const design = await createDesign({ owner: options.owner, mechanism: options.mechanism, status: 'approved', edit: options.edit });
@@ -192,20 +200,25 @@ export async function createApprovedSheet(options: {
     decidedAt: now,
     decisionNote: 'Approved in a test.',
   });
-  const placeholder = Buffer.from('%PDF-1.4\n% placeholder sheet of an API test\n%%EOF\n');
+  const placeholder = options.inContentStore
+    ? Buffer.from(`%PDF-1.4\n% placeholder sheet of an API test ${randomBytes(8).toString('hex')}\n%%EOF\n`)
+    : Buffer.from('%PDF-1.4\n% placeholder sheet of an API test\n%%EOF\n');
   const hash = createHash('sha256').update(placeholder).digest('hex');
-  const sheet = await Sheet.create({
+  const row = {
     revisionId: revision.id,
     designId: design.id,
     approvedById: options.approver.id,
     approvedAt: now,
     comment: 'Approved in a test.',
-    a4Pdf: placeholder,
-    a4Sha256: hash,
+    a4Pdf: options.inContentStore ? null : placeholder,
+    a4Sha256: options.recordedA4Sha256 ?? hash,
     a4Size: placeholder.length,
-    letterPdf: placeholder,
+    letterPdf: options.inContentStore ? null : placeholder,
     letterSha256: hash,
     letterSize: placeholder.length,
-  });
+  };
+  const sheet = options.inContentStore
+    ? await storeWithRows(placeholder, (transaction) => Sheet.create(row, { transaction }))
+    : await Sheet.create(row);
   return { sheetId: sheet.id, designId: design.id, revisionId: revision.id, inputs: frozen.inputs, result: frozen.result };
 }

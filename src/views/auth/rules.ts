@@ -5,8 +5,10 @@ import type { FormItemRule, FormRules } from 'element-plus';
  * checks everything again and its messages are shown as they come.
  */
 
-/** Shortest password the server accepts. */
-export const PASSWORD_MIN_LENGTH = 10;
+/** Shortest password the server accepts (its policy: server/security/passwordPolicy.ts). */
+export const PASSWORD_MIN_LENGTH = 12;
+/** The rest of the policy, which only the server can check (it holds the list of common passwords). */
+export const PASSWORD_POLICY_HINT = 'Not a common password, and not your name or e-mail address.';
 /** Longest password the server accepts, in UTF-8 bytes (longer ones would not fully count). */
 export const PASSWORD_MAX_BYTES = 72;
 
@@ -34,7 +36,13 @@ export function resetRules(getPassword: () => string): FormRules {
   return {
     password: [
       { required: true, message: 'Choose a password.', trigger: 'blur' },
-      { min: PASSWORD_MIN_LENGTH, message: `Use at least ${PASSWORD_MIN_LENGTH} characters.`, trigger: 'blur' },
+      {
+        validator: (_rule, value: string, callback) => {
+          if ([...(value ?? '')].length < PASSWORD_MIN_LENGTH) callback(new Error(`Use at least ${PASSWORD_MIN_LENGTH} characters.`));
+          else callback();
+        },
+        trigger: 'blur',
+      },
       {
         validator: (_rule, value: string, callback) => {
           if (new TextEncoder().encode(value ?? '').length > PASSWORD_MAX_BYTES)

@@ -1,9 +1,13 @@
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { randomBytes } from 'node:crypto';
 import { ConfigError, loadConfig } from '../../../server/config';
 import { ROOT_DIR } from '../../../server/paths';
+import { exampleEnvValues } from '../../../server/security/secretStrength';
 
-const VALID = { DB_PASSWORD: 'a-db-password', JWT_SECRET: 'j'.repeat(32) };
+/** 32 random bytes, as npm start writes them. */
+const SECRET = randomBytes(32).toString('base64url');
+const VALID = { DB_PASSWORD: 'a-db-password', JWT_SECRET: SECRET };
 
 describe('loadConfig', () => {
   it('when only the two secrets are given, then every other setting takes the documented default', () => {
@@ -54,7 +58,7 @@ describe('loadConfig', () => {
   });
 
   it.each([
-    [{ JWT_SECRET: 'short' }, 'JWT_SECRET: must be at least 32 characters'],
+    [{ JWT_SECRET: 'short' }, 'JWT_SECRET: must carry at least 32 random bytes: at least 43 characters (got 5)'],
     [{ JWT_SECRET: undefined }, 'JWT_SECRET: is required'],
     [{ DB_PASSWORD: undefined }, 'DB_PASSWORD: is required'],
     [{ PORT: 'eighty' }, 'PORT:'],
@@ -81,13 +85,50 @@ describe('loadConfig', () => {
     }
   });
 
-  it('when production still uses the .env.example placeholders, then it refuses to start', () => {
-    expect(() =>
-      loadConfig({
-        NODE_ENV: 'production',
-        DB_PASSWORD: 'change-me-dev-password',
-        JWT_SECRET: 'change-me-to-a-random-string-of-32-or-more-characters',
-      }),
-    ).toThrow(/JWT_SECRET: still the placeholder[\s\S]*DB_PASSWORD: still the placeholder/);
+  // fix: #12 — development and test accepted the placeholder, so a token signed with the public value was an admin.
+  it.each(['development', 'test', 'production'])(
+    'when NODE_ENV is %s and the secrets are still the .env.example placeholders, then it refuses to start naming each',
+    (nodeEnv) => {
+      const example = exampleEnvValues();
+      expect(example.JWT_SECRET).toMatch(/^change-me/);
+      const env = {
+        NODE_ENV: nodeEnv,
+        DB_PASSWORD: example.DB_PASSWORD,
+        JWT_SECRET: example.JWT_SECRET,
+        DB_OWNER_PASSWORD: example.DB_OWNER_PASSWORD,
+      };
+      expect(() => loadConfig(env)).toThrow(ConfigError);
+      expect(() => loadConfig(env)).toThrow(
+        /DB_PASSWORD: is a placeholder[\s\S]*DB_OWNER_PASSWORD: is a placeholder[\s\S]*JWT_SECRET: is a placeholder/,
+      );
+    },
+  );
+
+  it.each([
+    ['any other "change-me" value', `change-me-${'x'.repeat(60)}`, 'is a placeholder'],
+    ['42 base64url characters (31 bytes)', randomBytes(32).toString('base64url').slice(0, 42), 'at least 43 characters'],
+    ['63 hex digits', randomBytes(32).toString('hex').slice(0, 63), 'at least 64 characters of hex'],
+    ['one character repeated', 'j'.repeat(64), 'does not look random'],
+    ['a short piece repeated', 'abcdefghijk'.repeat(5), 'does not look random'],
+  ])('when JWT_SECRET is %s, then ConfigError says why in every mode', (_label, secret, expected) => {
+    for (const NODE_ENV of ['development', 'test', 'production']) {
+      expect(() => loadConfig({ ...VALID, NODE_ENV, JWT_SECRET: secret })).toThrow(new RegExp(`JWT_SECRET: [^\\n]*${expected}`));
+    }
+  });
+
+  it.each([
+    ['32 random bytes in base64url', randomBytes(32).toString('base64url')],
+    ['32 random bytes in base64 (openssl rand -base64 32)', randomBytes(32).toString('base64')],
+    ['32 random bytes in hex', randomBytes(32).toString('hex')],
+  ])('when JWT_SECRET is %s, then it is accepted', (_label, secret) => {
+    expect(loadConfig({ ...VALID, JWT_SECRET: secret }).jwtSecret).toBe(secret);
+  });
+
+  it('when DB_OWNER_PASSWORD is set, then migrations get the owner account; without it, none', () => {
+    expect(loadConfig({ ...VALID, DB_OWNER_PASSWORD: 'owner-secret-1' }).dbOwner).toEqual({
+      user: 'gantry_owner',
+      password: 'owner-secret-1',
+    });
+    expect(loadConfig(VALID).dbOwner).toBeNull();
   });
 });

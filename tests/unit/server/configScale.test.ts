@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { ConfigError, loadConfig, parseNodeList } from '../../../server/config';
 
-const VALID = { DB_PASSWORD: 'a-db-password', JWT_SECRET: 'j'.repeat(32) };
+// A secret that passes the signing-secret rule (32 random bytes written out; server/security/secretStrength.ts).
+const VALID = { DB_PASSWORD: 'a-db-password', JWT_SECRET: 'Xq3vR9tLm2Wp7sKd4Hf8Jc1Bn6Yg0Za5Ue2Io9Pr3Tw' };
 
 describe('loadConfig (past one machine)', () => {
   it('when nothing about scaling is set, then one database server, the local folder store and the default mail queue timings apply', () => {

@@ -5,13 +5,15 @@ import {
   createSequelize,
   DbOutcomeUnknownError,
   DbUnavailableError,
+  guardTransactions,
   installRetries,
   RetryTransactionError,
+  TransactionMisuseError,
   WriteConflictError,
 } from '../../../server/db';
 
 process.env.DB_PASSWORD ??= 'unit-test-password';
-process.env.JWT_SECRET ??= 'u'.repeat(40);
+process.env.JWT_SECRET ??= 'Xq3vR9tLm2Wp7sKd4Hf8Jc1Bn6Yg0Za5Ue2Io9Pr3Tw';
 process.env.LOG_LEVEL ??= 'silent';
 
 /** A driver error as the mariadb package raises it, wrapped the way Sequelize wraps query errors. */
@@ -175,6 +177,46 @@ describe('installRetries (managed transactions)', () => {
       .catch((err: unknown) => err);
     expect(runs).toBe(1);
     expect((outcome as Error).message).toBe('validation');
+  });
+});
+
+describe('guardTransactions around installRetries (as getSequelize wires them)', () => {
+  it('when a guarded transaction meets a write conflict, then the whole transaction runs again inside the guard', async () => {
+    // Arrange
+    const { db, log } = fakeSequelize({});
+    guardTransactions(db, 'throw');
+    let runs = 0;
+    // Act
+    const result = await db.transaction(async (transaction) => {
+      runs += 1;
+      await db.query('UPDATE designs', { transaction });
+      if (runs === 1) throw DEADLOCK();
+      return 'saved';
+    });
+    // Assert
+    expect(result).toBe('saved');
+    expect(log).toEqual(['begin', 'query UPDATE designs', 'rollback', 'begin', 'query UPDATE designs', 'commit']);
+  });
+
+  it('when the attempt after a conflict queries beside its transaction, then the guard still refuses it, and afterwards a query on its own is fine', async () => {
+    // Arrange
+    const { db, log } = fakeSequelize({});
+    guardTransactions(db, 'throw');
+    let runs = 0;
+    // Act
+    const outcome = await db
+      .transaction(async () => {
+        runs += 1;
+        if (runs === 1) throw DEADLOCK();
+        return db.query('SELECT stray');
+      })
+      .catch((err: unknown) => err);
+    const after = await db.query('SELECT after');
+    // Assert
+    expect(runs).toBe(2);
+    expect(outcome).toBeInstanceOf(TransactionMisuseError);
+    expect(log).toEqual(['begin', 'rollback', 'begin', 'rollback', 'query SELECT after']);
+    expect(after).toEqual([[{ ok: 1 }], 1]);
   });
 });
 

@@ -10,7 +10,7 @@ import { validate } from '../../../server/middleware/validate';
 import { getLogger } from '../../../server/logger';
 
 process.env.DB_PASSWORD ??= 'unit-test-password';
-process.env.JWT_SECRET ??= 'u'.repeat(40);
+process.env.JWT_SECRET ??= 'Xq3vR9tLm2Wp7sKd4Hf8Jc1Bn6Yg0Za5Ue2Io9Pr3Tw';
 
 /** A tiny app whose only route throws `err`, wired like the real one. */
 function appThrowing(err: unknown) {

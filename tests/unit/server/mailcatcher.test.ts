@@ -1,10 +1,18 @@
 import fs from 'node:fs';
+import http from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
 import nodemailer from 'nodemailer';
 import MailComposer from 'nodemailer/lib/mail-composer';
 import { afterEach, describe, expect, it } from 'vitest';
-import { decodeEncodedWords, parseHeaderParams, parseMessage, startMailCatcher, type MailCatcher } from '../../../scripts/mailcatcher';
+import {
+  decodeEncodedWords,
+  isAllowedHost,
+  parseHeaderParams,
+  parseMessage,
+  startMailCatcher,
+  type MailCatcher,
+} from '../../../scripts/mailcatcher';
 
 function compose(options: ConstructorParameters<typeof MailComposer>[0]): Promise<Buffer> {
   return new MailComposer(options).compile().build();
@@ -125,5 +133,48 @@ describe('startMailCatcher', () => {
     await expect(startMailCatcher({ smtpPort: catcher.smtpPort, httpPort: 0, dir, log: () => undefined })).rejects.toThrow(
       `SMTP port ${catcher.smtpPort} on 127.0.0.1 is already in use`,
     );
+  });
+
+  // fix: #12 — the list answered any Host header, so a page on a name resolving to 127.0.0.1 (DNS rebinding) could read every caught mail.
+  it('when a request names another host, then 403 and no mail; the loopback names with the port still work', async () => {
+    // Arrange
+    catcher = await startMailCatcher({ smtpPort: 0, httpPort: 0, dir, log: () => undefined });
+    const get = (host: string) =>
+      new Promise<{ status: number; body: string }>((resolve, reject) => {
+        const req = http.get({ host: '127.0.0.1', port: catcher!.httpPort, path: '/messages', headers: { Host: host } }, (res) => {
+          let body = '';
+          res.on('data', (c: Buffer) => (body += c.toString()));
+          res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
+        });
+        req.on('error', reject);
+      });
+    const port = catcher.httpPort;
+    // Act
+    const rebound = await get(`attacker.example:${port}`);
+    const otherPort = await get(`127.0.0.1:${port + 1}`);
+    const loopback = await get(`127.0.0.1:${port}`);
+    const localhost = await get(`localhost:${port}`);
+    // Assert
+    expect(rebound.status).toBe(403);
+    expect(JSON.parse(rebound.body).error.code).toBe('forbidden_host');
+    expect(rebound.body).not.toContain('subject');
+    expect(otherPort.status).toBe(403);
+    expect(loopback.status).toBe(200);
+    expect(localhost.status).toBe(200);
+  });
+});
+
+describe('isAllowedHost', () => {
+  it.each([
+    ['127.0.0.1:2527', true],
+    ['localhost:2527', true],
+    ['LOCALHOST:2527', true],
+    ['[::1]:2527', true],
+    ['127.0.0.1', false],
+    ['evil.example:2527', false],
+    ['127.0.0.1.nip.example:2527', false],
+    [undefined, false],
+  ])('when Host is %s, then %s', (host, expected) => {
+    expect(isAllowedHost(host, '127.0.0.1', 2527)).toBe(expected);
   });
 });

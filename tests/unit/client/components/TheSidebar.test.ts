@@ -36,7 +36,8 @@ describe('TheSidebar', () => {
     ['reviewer', ['reviewer'], true, ['designs', 'review', 'sheets', 'parts']],
     ['maker', ['maker'], true, ['sheets', 'parts']],
     ['designer who also builds', ['designer', 'maker'], true, ['designs', 'sheets', 'parts']],
-    ['user without any role', [], true, ['parts']],
+    // fix: #12 — an account without a role sees nothing of the team (the server refuses it all).
+    ['user without any role', [], true, []],
   ])('when the user is %s, then shows exactly the allowed navigation items', (_who, roles, outbox, expected) => {
     // Arrange + Act
     const wrapper = mountSidebar(roles, outbox);

@@ -23,7 +23,7 @@ describe('homePathFor', () => {
     [['designer'], '/designs'],
     [['reviewer'], '/review'], // fix: #13 reviewers land on the Review desk
     [['maker'], '/sheets'],
-    [[], '/parts'],
+    [[], '/account'],
   ])('when the user holds %o, then starts at %s', (roles, expected) => {
     expect(homePathFor(roles)).toBe(expected);
   });

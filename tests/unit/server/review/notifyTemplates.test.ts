@@ -2,7 +2,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { resetConfigCache } from '../../../../server/config';
 import { approvedMail, returnedMail, sheetPublishedMail, submittedMail } from '../../../../server/services/notify.service';
 
-const ENV = { DB_PASSWORD: 'unit-test-password', JWT_SECRET: 'u'.repeat(32), APP_URL: 'http://gw.example.test:5180' };
+const ENV = {
+  DB_PASSWORD: 'unit-test-password',
+  JWT_SECRET: 'Xq3vR9tLm2Wp7sKd4Hf8Jc1Bn6Yg0Za5Ue2Io9Pr3Tw',
+  APP_URL: 'http://gw.example.test:5180',
+};
 const saved: Record<string, string | undefined> = {};
 
 beforeAll(() => {

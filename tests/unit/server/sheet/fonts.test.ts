@@ -1,5 +1,6 @@
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, readFileSync, statSync } from 'node:fs';
 import { createRequire } from 'node:module';
+import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { SHEET_FONTS, sheetFontFiles, woffToSfnt } from '../../../../server/sheet/fonts';
@@ -46,5 +47,18 @@ describe('sheetFontFiles', () => {
         expect(path.dirname(file)).toBe(first.dir);
       }
     }
+  });
+
+  // fix: #12 — the fonts went to a predictable /tmp path that any local account could prepare in advance.
+  it('when the fonts are unwrapped, then they go to a fresh folder only this account can enter, not a predictable path', () => {
+    // Act
+    const { dir } = sheetFontFiles();
+    // Assert
+    const version = (createRequire(import.meta.url)('@fontsource/inter/package.json') as { version: string }).version;
+    expect(dir).not.toBe(path.join(os.tmpdir(), `gantrywright-sheet-fonts-${version}`));
+    expect(path.basename(dir)).toMatch(/^gantrywright-sheet-fonts-[A-Za-z0-9]{6}$/);
+    const stat = statSync(dir);
+    expect(stat.mode & 0o777).toBe(0o700);
+    expect(stat.uid).toBe(process.getuid!());
   });
 });

@@ -152,3 +152,44 @@ describe('decodeWav', () => {
     expect(error.message).toMatch(/10\.0 s long; keep it to 10 s or less/);
   });
 });
+
+describe('decodeWav — declared sizes', () => {
+  const oneSecond = () =>
+    buildWav({
+      formatTag: 1,
+      channels: 1,
+      sampleRateHz: 8000,
+      bitsPerSample: 16,
+      data: int16Bytes(Array.from({ length: 8000 }, (_, i) => Math.round(8000 * Math.sin(i / 5)))),
+    });
+
+  // fix: #12 — a header claiming 4 GB was accepted when its data chunk happened to be consistent.
+  it('when the RIFF header claims 4 GB for a small file, then it throws corrupt, naming both sizes', () => {
+    // Arrange
+    const wav = oneSecond();
+    wav.writeUInt32LE(0xfffffff8, 4);
+    // Act
+    const error = decodeError(wav);
+    // Assert
+    expect(error.code).toBe('corrupt');
+    expect(error.message).toBe(
+      'The WAV header says the file holds 4.0 GB, but it holds 16 kB: it is damaged or was cut off — record the pluck again.',
+    );
+  });
+
+  it('when an RF64 file has no ds64 chunk, or its ds64 claims more than the file holds, then it throws corrupt', () => {
+    // Arrange
+    const wav = oneSecond();
+    wav.write('RF64', 0, 'ascii');
+    wav.writeUInt32LE(0xffffffff, 4);
+    // Assert
+    expect(decodeError(wav).code).toBe('corrupt');
+  });
+
+  it('when the RIFF size is exact (or one pad byte over), then the file decodes', () => {
+    const wav = oneSecond();
+    expect(decodeWav(wav).durationS).toBeCloseTo(1, 9);
+    wav.writeUInt32LE(wav.length - 7, 4);
+    expect(decodeWav(wav).durationS).toBeCloseTo(1, 9);
+  });
+});

@@ -6,7 +6,7 @@ import { freezeDesign } from '../../../../server/services/revisions.service';
 import { pickSections, RESULT_SECTIONS } from '../../../../server/workers/sections';
 
 process.env.DB_PASSWORD ??= 'unit-test-password';
-process.env.JWT_SECRET ??= 'u'.repeat(40);
+process.env.JWT_SECRET ??= 'Xq3vR9tLm2Wp7sKd4Hf8Jc1Bn6Yg0Za5Ue2Io9Pr3Tw';
 
 afterAll(() => closePools());
 
