@@ -1,10 +1,12 @@
-// Calculation CLI: `npm run calc -- design.json` prints the engine's result for a design file as JSON.
+// Calculation CLI: `npm run calc -- design.json` prints the engine's result for a design file as JSON;
+// `--job points.csv` times that job on the design (x, y and an optional dwell; docs/models/job-timing.md).
 // Exit codes: 0 result printed; 2 the user's input is at fault (no file given, unreadable file, not JSON,
 // invalid design — each field path on stderr); 1 only for a fault of the engine itself.
 import { readFileSync } from 'node:fs';
 import { EngineInputError, evaluateDesign } from '@/engine';
+import { CsvError, parseJobCsv } from '../server/uploads';
 
-const USAGE = 'usage: npm run calc -- <design.json> [--compact]';
+const USAGE = 'usage: npm run calc -- <design.json> [--job <points.csv>] [--compact]';
 
 // A reader that stops early (`| head`) closes the pipe; that is not an error of the calculation.
 process.stdout.on('error', (err: NodeJS.ErrnoException) => {
@@ -17,8 +19,32 @@ function fail(message: string): never {
   process.exit(2);
 }
 
+/** The job points of a CSV file (exit 2 naming line and column when it cannot be used). */
+function readJob(file: string): { xMm: number; yMm: number; dwellS: number }[] {
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (err) {
+    fail(`cannot read ${file}: ${(err as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (err as Error).message}`);
+  }
+  try {
+    return parseJobCsv(text).points;
+  } catch (err) {
+    if (err instanceof CsvError) {
+      const lines = err.details.map(
+        (d) => `  ${[d.line !== null ? `line ${d.line}` : null, d.column].filter(Boolean).join(', ') || '(file)'}: ${d.message}`,
+      );
+      fail(`${file} is not a usable job file:\n${lines.join('\n')}`);
+    }
+    throw err;
+  }
+}
+
 function main(argv: string[]): void {
-  const args = argv.filter((a) => !a.startsWith('--'));
+  const jobAt = argv.indexOf('--job');
+  const jobFile = jobAt >= 0 ? argv[jobAt + 1] : undefined;
+  if (jobAt >= 0 && (!jobFile || jobFile.startsWith('--'))) fail(`--job needs a CSV file\n${USAGE}`);
+  const args = argv.filter((a, i) => !a.startsWith('--') && !(jobAt >= 0 && i === jobAt + 1));
   const compact = argv.includes('--compact');
   if (argv.includes('--help') || argv.includes('-h')) {
     process.stdout.write(`${USAGE}\n`);
@@ -38,6 +64,10 @@ function main(argv: string[]): void {
     json = JSON.parse(text);
   } catch (err) {
     fail(`${file} is not valid JSON: ${(err as Error).message}`);
+  }
+  if (jobFile) {
+    if (json === null || typeof json !== 'object' || Array.isArray(json)) fail(`${file} is not a design document`);
+    json = { ...(json as Record<string, unknown>), job: { points: readJob(jobFile) } };
   }
   try {
     const result = evaluateDesign(json);

@@ -7,6 +7,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
+import type { UnitSystem } from '@/format';
 import type { Design } from './design.model';
 import type { User } from './user.model';
 
@@ -45,6 +46,10 @@ export class Revision extends Model<InferAttributes<Revision>, InferCreationAttr
   declare decidedById: ForeignKey<User['id']> | null;
   declare decidedAt: Date | null;
   declare decisionNote: string | null;
+  /** Why the reviewer approved although a check failed (null otherwise). */
+  declare approvalJustification: CreationOptional<string | null>;
+  /** Unit system the design sheet is printed in, chosen by the designer at submission. */
+  declare sheetUnits: CreationOptional<UnitSystem>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -64,6 +69,8 @@ export function initRevisionModel(sequelize: Sequelize): typeof Revision {
       submittedAt: { type: DataTypes.DATE(3), allowNull: false },
       decidedAt: { type: DataTypes.DATE(3), allowNull: true },
       decisionNote: { type: DataTypes.TEXT, allowNull: true },
+      approvalJustification: { type: DataTypes.TEXT, allowNull: true, defaultValue: null },
+      sheetUnits: { type: DataTypes.STRING(8), allowNull: false, defaultValue: 'metric' },
       createdAt: DataTypes.DATE(3),
       updatedAt: DataTypes.DATE(3),
     },

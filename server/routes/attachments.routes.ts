@@ -1,10 +1,10 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { requireMember, requireRole } from '../middleware/requireRole';
 import { uploadedFile, uploadMiddleware } from '../middleware/upload';
 import { validate } from '../middleware/validate';
 import { signedInUser } from '../middleware/requireAuth';
-import { idParamsSchema, paginationSchema } from '../schemas/common.schema';
+import { idParamsSchema } from '../schemas/common.schema';
+import { attachmentListQuerySchema, attachmentUploadBodySchema } from '../schemas/attachments.schema';
 import {
   assertMayAttach,
   ATTACHMENT_MAX_BYTES,
@@ -13,12 +13,6 @@ import {
   listDesignAttachments,
   uploadDesignAttachment,
 } from '../services/attachments.service';
-
-/** The multipart form of an attachment upload: the file and nothing else. */
-const uploadBodySchema = z.strictObject({}).optional();
-
-/** `?page&pageSize`: 100 per page by default (a design has a handful of files). */
-const listQuerySchema = paginationSchema.extend({ pageSize: paginationSchema.shape.pageSize.unwrap().default(100) });
 
 /**
  * Design attachments, mounted at /api/designs (beside the designs router; Express falls through to it):
@@ -37,7 +31,7 @@ export function createDesignAttachmentsRouter(): Router {
       next();
     },
     uploadMiddleware({ maxBytes: ATTACHMENT_MAX_BYTES, what: 'attachment' }),
-    validate({ body: uploadBodySchema }),
+    validate({ body: attachmentUploadBodySchema }),
     async function create(req, res) {
       res.status(201).json(await uploadDesignAttachment(signedInUser(req), req.params.id, uploadedFile(req.file)));
     },
@@ -46,7 +40,7 @@ export function createDesignAttachmentsRouter(): Router {
   router.get(
     '/:id/attachments',
     requireMember,
-    validate({ params: idParamsSchema, query: listQuerySchema }),
+    validate({ params: idParamsSchema, query: attachmentListQuerySchema }),
     async function list(req, res) {
       res.status(200).json(await listDesignAttachments(signedInUser(req), req.params.id, req.query));
     },

@@ -15,6 +15,7 @@ import { createSheetsRouter } from './sheets.routes';
 import { createAttachmentsRouter, createDesignAttachmentsRouter } from './attachments.routes';
 import { createMeasurementsRouter } from './measurements.routes';
 import { createTorqueCurvesRouter } from './torqueCurves.routes';
+import { createDesignJobRouter } from './designJob.routes';
 
 /**
  * The API router, mounted at /api. This is the one registration point: each feature adds one
@@ -39,6 +40,7 @@ export function createApiRouter(): Router {
   apiRouter.use('/attachments', createAttachmentsRouter());
   apiRouter.use('/parts', createTorqueCurvesRouter());
   apiRouter.use('/sheets', createMeasurementsRouter());
+  apiRouter.use('/designs', createDesignJobRouter());
 
   apiRouter.use(notFoundMiddleware());
   return apiRouter;

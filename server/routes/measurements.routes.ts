@@ -1,10 +1,14 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import { requireRole } from '../middleware/requireRole';
 import { uploadedFile, uploadMiddleware } from '../middleware/upload';
 import { validate } from '../middleware/validate';
 import { signedInUser } from '../middleware/requireAuth';
-import { idSchema, paginationSchema } from '../schemas/common.schema';
+import {
+  measurementListQuerySchema,
+  measurementParamsSchema,
+  measurementRecordBodySchema,
+  sheetParamsSchema,
+} from '../schemas/measurements.schema';
 import {
   assertSheetTakesMeasurements,
   getMeasurement,
@@ -12,35 +16,10 @@ import {
   listMeasurements,
   recordMeasurement,
   RECORDING_MAX_BYTES,
-  TYPED_FREQUENCY_RANGE_HZ,
 } from '../services/measurements.service';
 
 /** Everyone with a role may read a sheet's measurements; makers (and admins) record them. */
 const SHEET_READERS = ['maker', 'designer', 'reviewer'] as const;
-
-const sheetParamsSchema = z.object({ id: idSchema });
-const measurementParamsSchema = z.object({ id: idSchema, measurementId: idSchema });
-const listQuerySchema = paginationSchema.extend({ pageSize: paginationSchema.shape.pageSize.unwrap().default(100) });
-
-/**
- * POST body: JSON `{spanId, frequencyHz}`, or the text fields of a multipart form (`spanId` plus the `file`), where
- * numbers arrive as text. An empty `frequencyHz` field counts as not given.
- */
-const recordBodySchema = z.strictObject(
-  {
-    spanId: z.string({ message: 'is required' }).trim().min(1, 'is required').max(120, 'must be at most 120 characters'),
-    frequencyHz: z.preprocess(
-      (v) => (v === '' || v === null ? undefined : typeof v === 'string' ? Number(v.trim().replace(',', '.')) : v),
-      z
-        .number({ message: 'must be a number [Hz]' })
-        .refine(Number.isFinite, 'must be a finite number [Hz]')
-        .min(TYPED_FREQUENCY_RANGE_HZ.min, `must be at least ${TYPED_FREQUENCY_RANGE_HZ.min} Hz`)
-        .max(TYPED_FREQUENCY_RANGE_HZ.max, `must be at most ${TYPED_FREQUENCY_RANGE_HZ.max} Hz`)
-        .optional(),
-    ),
-  },
-  { message: 'must be a JSON object or a form with spanId and frequencyHz or file' },
-);
 
 /**
  * Belt tension measurements of a sheet, mounted at /api/sheets (beside the sheets router):
@@ -62,7 +41,7 @@ export function createMeasurementsRouter(): Router {
       next();
     },
     uploadMiddleware({ maxBytes: RECORDING_MAX_BYTES, what: 'recording' }),
-    validate({ body: recordBodySchema }),
+    validate({ body: measurementRecordBodySchema }),
     async function create(req, res) {
       const { id } = req.params;
       res.status(201).json(await recordMeasurement(signedInUser(req), id, req.body, uploadedFile(req.file)));
@@ -72,7 +51,7 @@ export function createMeasurementsRouter(): Router {
   router.get(
     '/:id/measurements',
     requireRole(...SHEET_READERS),
-    validate({ params: sheetParamsSchema, query: listQuerySchema }),
+    validate({ params: sheetParamsSchema, query: measurementListQuerySchema }),
     async function list(req, res) {
       const { id } = req.params;
       res.status(200).json(await listMeasurements(signedInUser(req), id, req.query));

@@ -36,6 +36,21 @@ export const torqueCurveSchema = z
     }
   });
 
+/** Supply voltage and driver RMS current a torque table was measured at. */
+export const torqueConditionsSchema = z.strictObject({
+  supplyV: positive(1000),
+  currentRmsA: positive(50),
+});
+
+/**
+ * The text fields of POST /api/parts/motors/:id/torque-curve (multipart, beside `file`): what the table was measured
+ * at. Both are required, so every table on the shelf says which drive it describes.
+ */
+export const torqueUploadBodySchema = z.strictObject({
+  supplyV: z.coerce.number({ message: 'is required: the supply voltage the table was measured at' }).pipe(positive(1000)),
+  currentRmsA: z.coerce.number({ message: 'is required: the driver current (RMS) the table was measured at' }).pipe(positive(50)),
+});
+
 const beltShape = {
   name: nameSchema,
   profile: z.string({ message: 'is required' }).trim().min(1, 'is required').max(40, 'must be at most 40 characters'),
@@ -72,6 +87,7 @@ const motorShape = {
   rotorInertiaKgM2: between(0, 1),
   massKg: between(0, 100),
   torqueCurve: torqueCurveSchema.nullable().default(null),
+  torqueCurveConditions: torqueConditionsSchema.nullable().default(null),
   note: noteSchema,
 };
 
@@ -124,4 +140,4 @@ export type MotorPartInput = z.output<typeof motorPartSchema>;
 export type PartInput = BeltPartInput | PulleyPartInput | MotorPartInput;
 export type PartPatch = Partial<PartInput> & { retired?: boolean };
 export type ListPartsQuery = z.output<typeof listPartsQuerySchema>;
-export type TorquePoint = z.output<typeof torquePointSchema>;
+export type TorqueConditions = z.output<typeof torqueConditionsSchema>;

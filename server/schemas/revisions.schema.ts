@@ -1,8 +1,12 @@
 import { z } from 'zod';
 import { REVISION_STATUSES, type RevisionStatus } from '../models';
+import { UNIT_SYSTEMS } from '@/format';
 import { idSchema, paginationSchema } from './common.schema';
 
-/** POST /api/designs/:id/submit {version?}: `version`, when given, must be the design version the designer sees. */
+/**
+ * POST /api/designs/:id/submit {version?, sheetUnits?}: `version`, when given, must be the design version the designer
+ * sees; `sheetUnits` is the unit system the design sheet will be printed in (metric by default).
+ */
 export const submitDesignSchema = z
   .strictObject({
     version: z
@@ -10,6 +14,7 @@ export const submitDesignSchema = z
       .int('must be a whole number')
       .min(1, 'must be 1 or more')
       .optional(),
+    sheetUnits: z.enum(UNIT_SYSTEMS, { message: `must be one of ${UNIT_SYSTEMS.join(', ')}` }).optional(),
   })
   .optional()
   .transform((v) => v ?? {});
@@ -56,11 +61,17 @@ export const createCommentSchema = z.strictObject({
     .optional(),
 });
 
-/** POST /api/revisions/:id/approve {comment?}: the comment is printed on the sheet (may be empty). */
+/**
+ * POST /api/revisions/:id/approve {comment?, justification?}: the comment is printed on the sheet (may be empty). The
+ * justification is required when a check of the revision failed (the service checks that, knowing the result).
+ */
 export const approveSchema = z
-  .strictObject({ comment: z.string({ message: 'must be text' }).trim().max(2000, 'must be at most 2000 characters').default('') })
+  .strictObject({
+    comment: z.string({ message: 'must be text' }).trim().max(2000, 'must be at most 2000 characters').default(''),
+    justification: z.string({ message: 'must be text' }).trim().max(4000, 'must be at most 4000 characters').default(''),
+  })
   .optional()
-  .transform((v) => v ?? { comment: '' });
+  .transform((v) => v ?? { comment: '', justification: '' });
 
 /** POST /api/revisions/:id/return {reason}: required, so the designer knows what to change. */
 export const returnSchema = z.strictObject({

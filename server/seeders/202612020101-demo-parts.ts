@@ -6,14 +6,19 @@ import type { BeltPartInput, MotorPartInput, PulleyPartInput } from '../schemas/
 import { PART_FIELDS } from '../services/parts.service';
 
 // The starter parts shelf. Pitches are the nominal pitches of the named standards; every other number is a
-// typical value from memory and says so in its note — the shelf is a starting point, not a datasheet.
+// typical value (remembered, not read from a datasheet) and its note says so in words people read: "typical
+// value" and where it comes from — the shelf is a starting point, not a datasheet.
 
-const BELT_NOTE = "Typical values from memory — replace with the belt maker's data.";
-const MOTOR_NOTE = 'Typical values from memory — replace with your datasheet.';
+export const BELT_NOTE =
+  "Typical values for this belt size (common practice on desktop machines), not a datasheet — replace with the belt maker's data.";
+export const MOTOR_NOTE = 'Typical values for this motor size (common practice), not a datasheet — replace with your motor’s datasheet.';
 
 type BeltSeed = Omit<BeltPartInput, 'note'> & { note?: string };
 type PulleySeed = Omit<PulleyPartInput, 'note'> & { note?: string };
-type MotorSeed = Omit<MotorPartInput, 'note'> & { note?: string };
+type MotorSeed = Omit<MotorPartInput, 'note' | 'torqueCurveConditions'> & {
+  note?: string;
+  torqueCurveConditions?: MotorPartInput['torqueCurveConditions'];
+};
 
 /** Belt profiles: pitch from the standard named in `standard`; mass, EA, allowable tension and minimum teeth typical. */
 export const DEMO_BELTS: readonly BeltSeed[] = [
@@ -27,7 +32,7 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 30000,
     allowableTensionN: 60,
     minPulleyTeeth: 10,
-    source: 'Pitch: ISO 5296 (MXL = 0.080 in). Other values: typical, from memory.',
+    source: 'Pitch: ISO 5296 (MXL = 0.080 in). Other values: typical for this size (common practice), not from a datasheet.',
   },
   {
     name: 'XL 9.5 mm',
@@ -39,7 +44,7 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 90000,
     allowableTensionN: 180,
     minPulleyTeeth: 10,
-    source: 'Pitch: ISO 5296 (XL = 0.200 in). Other values: typical, from memory.',
+    source: 'Pitch: ISO 5296 (XL = 0.200 in). Other values: typical for this size (common practice), not from a datasheet.',
   },
   {
     name: 'L 12.7 mm',
@@ -51,7 +56,7 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 200000,
     allowableTensionN: 450,
     minPulleyTeeth: 12,
-    source: 'Pitch: ISO 5296 (L = 0.375 in). Other values: typical, from memory.',
+    source: 'Pitch: ISO 5296 (L = 0.375 in). Other values: typical for this size (common practice), not from a datasheet.',
   },
   {
     name: 'T2.5 6 mm',
@@ -63,7 +68,7 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 40000,
     allowableTensionN: 100,
     minPulleyTeeth: 10,
-    source: 'Pitch: DIN 7721. Other values: typical, from memory.',
+    source: 'Pitch: DIN 7721. Other values: typical for this size (common practice), not from a datasheet.',
   },
   {
     name: 'T5 10 mm',
@@ -75,7 +80,7 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 120000,
     allowableTensionN: 400,
     minPulleyTeeth: 10,
-    source: 'Pitch: DIN 7721. Other values: typical, from memory.',
+    source: 'Pitch: DIN 7721. Other values: typical for this size (common practice), not from a datasheet.',
   },
   {
     name: 'T10 16 mm',
@@ -87,7 +92,7 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 350000,
     allowableTensionN: 1200,
     minPulleyTeeth: 12,
-    source: 'Pitch: DIN 7721. Other values: typical, from memory.',
+    source: 'Pitch: DIN 7721. Other values: typical for this size (common practice), not from a datasheet.',
   },
   {
     name: '3M 9 mm',
@@ -99,7 +104,8 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 80000,
     allowableTensionN: 250,
     minPulleyTeeth: 12,
-    source: 'Pitch: ISO 13050 (curvilinear profiles, 2014 and 2022 editions). Other values: typical, from memory.',
+    source:
+      'Pitch: ISO 13050 (curvilinear profiles, 2014 and 2022 editions). Other values: typical for this size (common practice), not from a datasheet.',
   },
   {
     name: '5M 15 mm',
@@ -111,7 +117,8 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 220000,
     allowableTensionN: 600,
     minPulleyTeeth: 14,
-    source: 'Pitch: ISO 13050 (curvilinear profiles, 2014 and 2022 editions). Other values: typical, from memory.',
+    source:
+      'Pitch: ISO 13050 (curvilinear profiles, 2014 and 2022 editions). Other values: typical for this size (common practice), not from a datasheet.',
   },
   {
     name: '2 mm round tooth 6 mm',
@@ -123,7 +130,7 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 40000,
     allowableTensionN: 250,
     minPulleyTeeth: 12,
-    source: 'Common practice on desktop machines (glass-fibre cords). Values: typical, from memory.',
+    source: 'Common practice on desktop machines (glass-fibre cords). Values: typical for this size, not from a datasheet.',
   },
   {
     name: '2 mm round tooth 10 mm',
@@ -135,7 +142,7 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 65000,
     allowableTensionN: 420,
     minPulleyTeeth: 12,
-    source: 'Common practice on desktop machines (glass-fibre cords). Values: typical, from memory.',
+    source: 'Common practice on desktop machines (glass-fibre cords). Values: typical for this size, not from a datasheet.',
   },
   {
     name: '3 mm round tooth 9 mm',
@@ -147,7 +154,7 @@ export const DEMO_BELTS: readonly BeltSeed[] = [
     axialStiffnessN: 80000,
     allowableTensionN: 450,
     minPulleyTeeth: 14,
-    source: 'Common practice on desktop machines. Values: typical, from memory.',
+    source: 'Common practice on desktop machines. Values: typical for this size, not from a datasheet.',
   },
 ];
 

@@ -20,12 +20,12 @@ import { analysePluck, parseTorqueCsv, sha256Of } from '../uploads';
 
 const DAY = 24 * 3_600_000;
 const BENCH = 'Bench dispensing stage';
-const TORQUE_MOTOR = '42 mm 1.8° long stack (48 mm body)';
+export const TORQUE_MOTOR = '42 mm 1.8° long stack (48 mm body)';
 
 /** Illustrative pull-out curve of a generic 42 mm long-stack motor at 24 V: a typical shape from memory, not a datasheet. */
 export const DEMO_TORQUE_CSV = [
   '# Illustrative pull-out torque, generic 42 mm long-stack stepper at 24 V and 1.7 A',
-  '# (typical shape from memory; replace with your datasheet)',
+  '# (typical shape, not a datasheet; replace with your motor’s datasheet)',
   'speed_rpm,torque_Ncm',
   '0,50',
   '60,50',

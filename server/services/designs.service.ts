@@ -371,6 +371,62 @@ export async function updateDesign(actor: PublicUser, id: number, patch: UpdateD
   return toDetail(saved, actor);
 }
 
+/**
+ * The checks every change of a design's inputs passes before anything is read or written: it exists (404), the
+ * actor may change it (403), it is still a draft or returned (409 `not_editable`) and the client's version is
+ * current (409 `version_conflict`). Used by uploads that change the inputs (the job file).
+ * @param version - the version the client holds; omit to skip the version check (before the upload is read)
+ * @returns the design's current inputs
+ */
+export async function assertInputsChangeable(actor: PublicUser, id: number, version?: number): Promise<DesignInput> {
+  const row = await findDesign(id);
+  assertMayChange(actor, row, 'change');
+  if (!EDITABLE_DESIGN_STATUSES.includes(row.status as DesignStatus)) throw notEditable(row);
+  if (version !== undefined && row.version !== version) throw versionConflict(row);
+  return normalise(parseJson(row.inputs), 'inputs');
+}
+
+/**
+ * Writes new inputs under the optimistic lock inside a caller's transaction (so an upload can store its file and
+ * audit row together with the change): 409 when the version moved on or the design left draft meanwhile.
+ * @param document - the validated new inputs
+ * @param stored - its stored results, computed before the transaction (`storedResultsInPool`)
+ * @param version - the version the change is based on
+ */
+export async function writeInputsLocked(
+  actor: PublicUser,
+  id: number,
+  version: number,
+  document: DesignInput,
+  stored: Awaited<ReturnType<typeof storedResultsInPool>>,
+  transaction: Transaction,
+): Promise<void> {
+  const [affected] = await Design.update(
+    {
+      name: document.name,
+      mechanism: document.mechanism,
+      inputs: document as unknown as Record<string, unknown>,
+      ...stored,
+      updatedById: actor.id,
+      version: version + 1,
+    },
+    { where: { id, version, status: { [Op.in]: [...EDITABLE_DESIGN_STATUSES] } }, transaction },
+  );
+  if (affected === 0) {
+    const now = await findDesign(id);
+    if (!EDITABLE_DESIGN_STATUSES.includes(now.status as DesignStatus)) throw notEditable(now);
+    throw versionConflict(now);
+  }
+}
+
+/**
+ * Validates a document built by the server (e.g. stored inputs with uploaded job points) and answers 400 naming
+ * each bad field, prefixed as the client would send it.
+ */
+export function validDocument(document: unknown, pathPrefix = 'inputs'): DesignInput {
+  return normalise(document, pathPrefix);
+}
+
 /** Deletes a draft (or returned) design: designers their own, admins any. 409 once it is in review or approved. */
 export async function deleteDesign(actor: PublicUser, id: number): Promise<void> {
   const row = await findDesign(id);

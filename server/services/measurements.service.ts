@@ -1,5 +1,5 @@
 import type { Transaction } from 'sequelize';
-import { tensionFromFrequencyN, type DesignInput, type DesignResult, type Mechanism } from '@/engine';
+import { PLUCK_TENSION_TOLERANCE, pluckBandHz, tensionFromFrequencyN, type DesignInput, type DesignResult, type Mechanism } from '@/engine';
 import { getSequelize } from '../db';
 import { AppError, notFound } from '../errors';
 import type { UploadedFile } from '../uploads/uploadedFile';
@@ -23,10 +23,10 @@ export const RECORDING_MAX_BYTES = 2 * 1024 * 1024;
 export const CROSSED_BELT_TOLERANCE_PCT = 5;
 
 /**
- * Tension within this share of the target counts as "on target" [%]. Common practice (from memory): belt makers'
- * installation guides commonly allow roughly ±10 % on the set tension.
+ * Tension within this share of the target counts as "on target" [%]: the engine's pluck tolerance, the same band the
+ * design sheet prints beside each target (engine `PLUCK_TENSION_TOLERANCE`).
  */
-export const TARGET_TOLERANCE_PCT = 10;
+export const TARGET_TOLERANCE_PCT = PLUCK_TENSION_TOLERANCE * 100;
 
 /** Typed frequencies outside this range are refused [Hz]. */
 export const TYPED_FREQUENCY_RANGE_HZ = { min: 1, max: 5000 } as const;
@@ -71,6 +71,8 @@ export type SpanSummary = {
   /** The span the sheet names for setting the belt's tension. */
   isReference: boolean;
   targetFrequencyHz: number;
+  /** Pluck frequencies that count as on target (tension within ±{@link TARGET_TOLERANCE_PCT} %) [Hz]. */
+  targetBandHz: { low: number; high: number };
   targetTensionN: number;
   latest: PublicMeasurement | null;
   count: number;
@@ -95,6 +97,8 @@ export type SheetMeasurements = Page<PublicMeasurement> & {
   spans: SpanSummary[];
   pairs: CrossedPair[];
   tolerances: { crossedBeltPct: number; targetPct: number; source: string };
+  /** The belt's allowable tight-side tension from the frozen inputs: a pluck reading above it needs attention [N]. */
+  allowableTensionN: number;
   canRecord: boolean;
 };
 
@@ -105,7 +109,9 @@ type MeasurementRow = Measurement & { measuredBy?: User | null };
 type FrozenSheet = { sheet: Sheet; revision: Revision; inputs: DesignInput; result: DesignResult };
 type SpanInfo = { span: DesignResult['belts'][number]['spans'][number]; belt: DesignResult['belts'][number] };
 
-const TOLERANCE_SOURCE = 'common practice (from memory)';
+/** Where the two tolerances come from, in the words the maker reads beside them. */
+const TOLERANCE_SOURCE =
+  'typical values: belt makers’ installation guides allow about ±10 % on the set tension, and builders match crossed belts within about 5 %';
 
 const mayRecord = (actor: PublicUser) => actor.roles.includes('maker') || actor.roles.includes('admin');
 const round = (v: number, digits: number) => Number(v.toFixed(digits));
@@ -331,6 +337,11 @@ export async function getRecording(sheetId: number, id: number): Promise<{ bytes
   return { bytes, fileName: row.recordingName ?? 'recording.wav', sha256 };
 }
 
+function band(targetHz: number): { low: number; high: number } {
+  const { lowHz, highHz } = pluckBandHz({ targetHz });
+  return { low: lowHz, high: highHz };
+}
+
 function spanStatus(latest: PublicMeasurement | null): SpanStatus {
   if (!latest) return 'unmeasured';
   if (latest.deviationPct < -TARGET_TOLERANCE_PCT) return 'low';
@@ -407,6 +418,7 @@ export async function listMeasurements(
         fixedLength: span.fixedLength,
         isReference: belt.referenceSpanId === span.id,
         targetFrequencyHz: span.targetFrequencyHz,
+        targetBandHz: band(span.targetFrequencyHz),
         targetTensionN: targetTensionN(span, mu),
         latest: last,
         count: counts.get(span.id) ?? 0,
@@ -425,6 +437,7 @@ export async function listMeasurements(
     spans,
     pairs: crossedPairs(frozen.inputs.mechanism, frozen.result, spans),
     tolerances: { crossedBeltPct: CROSSED_BELT_TOLERANCE_PCT, targetPct: TARGET_TOLERANCE_PCT, source: TOLERANCE_SOURCE },
+    allowableTensionN: frozen.inputs.belt.allowableTensionN,
     canRecord: mayRecord(actor),
   };
 }

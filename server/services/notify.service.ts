@@ -1,4 +1,5 @@
 import { randomBytes } from 'node:crypto';
+import { plural } from '@/format';
 import { Op, QueryTypes, type Transaction } from 'sequelize';
 import { getConfig } from '../config';
 import { logger } from '../logger';
@@ -297,22 +298,28 @@ function mail(input: {
   greeting: string;
   paragraphs: string[];
   quote?: { label: string; text: string };
+  /** Further quoted texts after `quote` (e.g. the justification of an approval with a failed check). */
+  quotes?: { label: string; text: string }[];
   link: { path: string; label: string };
 }): MailContent {
   const href = appLink(input.link.path);
   const textParts = [input.greeting, ...input.paragraphs];
-  if (input.quote)
+  const quotes = [...(input.quote ? [input.quote] : []), ...(input.quotes ?? [])];
+  for (const quote of quotes)
     textParts.push(
-      `${input.quote.label}:\n${input.quote.text
+      `${quote.label}:\n${quote.text
         .split('\n')
         .map((l) => `  > ${l}`)
         .join('\n')}`,
     );
   textParts.push(`${input.link.label}: ${href}`);
-  const quoteHtml = input.quote
-    ? `<p style="margin:0 0 6px;font-weight:600">${escapeHtml(input.quote.label)}</p>` +
-      `<blockquote style="margin:0 0 14px;padding:8px 12px;border-left:3px solid #b7791f;background:#f6ead6;white-space:pre-wrap">${escapeHtml(input.quote.text)}</blockquote>`
-    : '';
+  const quoteHtml = quotes
+    .map(
+      (quote) =>
+        `<p style="margin:0 0 6px;font-weight:600">${escapeHtml(quote.label)}</p>` +
+        `<blockquote style="margin:0 0 14px;padding:8px 12px;border-left:3px solid #b7791f;background:#f6ead6;white-space:pre-wrap">${escapeHtml(quote.text)}</blockquote>`,
+    )
+    .join('');
   const html =
     '<!doctype html><html><body style="font-family:Inter,Arial,sans-serif;color:#1d2624;line-height:1.5">' +
     `<h2 style="margin:0 0 16px;color:#146c66">${escapeHtml(input.title)}</h2>` +
@@ -327,14 +334,30 @@ function mail(input: {
 /** What every review notice names. */
 export type RevisionRef = { revisionId: number; number: number; designId: number; designName: string };
 
-/** To each reviewer: a revision waits for review. */
-export function submittedMail(to: Recipient, rev: RevisionRef & { authorName: string }): MailContent {
+/** "1 failed check and 2 warnings", "no failed check and no warning". */
+function checkCounts(checks: { fail: number; warn: number }): string {
+  const fail = checks.fail ? plural(checks.fail, 'failed check') : 'no failed check';
+  const warn = checks.warn ? plural(checks.warn, 'warning') : 'no warning';
+  return `${fail} and ${warn}`;
+}
+
+/** To each reviewer: a revision waits for review, with its check counts. */
+export function submittedMail(
+  to: Recipient,
+  rev: RevisionRef & { authorName: string; checks?: { ok: number; warn: number; fail: number } },
+): MailContent {
   return mail({
-    subject: `Review requested: ${rev.designName}, revision ${rev.number}`,
+    subject: `Review requested: ${rev.designName}, revision ${rev.number}${rev.checks?.fail ? ` (${plural(rev.checks.fail, 'failed check')})` : ''}`,
     title: 'A revision waits for review',
     greeting: `Hello ${to.name},`,
     paragraphs: [
       `${rev.authorName} submitted revision ${rev.number} of "${rev.designName}" for review. Its inputs and results are frozen.`,
+      ...(rev.checks
+        ? [
+            `The engine reports ${checkCounts(rev.checks)}.` +
+              (rev.checks.fail ? ' Approving it needs a written justification, which is printed on the design sheet.' : ''),
+          ]
+        : []),
     ],
     link: { path: `/review/${rev.revisionId}`, label: 'Open the review' },
   });
@@ -354,8 +377,11 @@ export function returnedMail(to: Recipient, rev: RevisionRef & { reviewerName: s
   });
 }
 
-/** To the designer: the revision was approved and its sheet published. */
-export function approvedMail(to: Recipient, rev: RevisionRef & { reviewerName: string; comment: string; sheetId: number }): MailContent {
+/** To the designer: the revision was approved and its sheet published (with the justification of failed checks). */
+export function approvedMail(
+  to: Recipient,
+  rev: RevisionRef & { reviewerName: string; comment: string; sheetId: number; justification?: string | null },
+): MailContent {
   return mail({
     subject: `Approved: ${rev.designName}, revision ${rev.number}`,
     title: 'Your revision was approved',
@@ -364,6 +390,7 @@ export function approvedMail(to: Recipient, rev: RevisionRef & { reviewerName: s
       `${rev.reviewerName} approved revision ${rev.number} of "${rev.designName}". Its design sheet is published for the makers.`,
     ],
     quote: rev.comment ? { label: 'Comment', text: rev.comment } : undefined,
+    quotes: rev.justification ? [{ label: 'Approved although a check failed, because', text: rev.justification }] : [],
     link: { path: `/sheets/${rev.sheetId}`, label: 'Open the design sheet' },
   });
 }

@@ -40,6 +40,7 @@ export const PART_FIELDS: Record<PartKind, readonly string[]> = {
     'rotorInertiaKgM2',
     'massKg',
     'torqueCurve',
+    'torqueCurveConditions',
   ],
 };
 

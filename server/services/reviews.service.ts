@@ -1,5 +1,6 @@
 import type { Transaction } from 'sequelize';
 import type { DesignInput, DesignResult } from '@/engine';
+import { isUnitSystem, plural } from '@/format';
 import { getSequelize } from '../db';
 import { conflict, forbidden, notFound, validationError } from '../errors';
 import { Design, Revision, RevisionComment, User } from '../models';
@@ -143,12 +144,15 @@ async function designersOf(revision: { authorId: number }, ownerId: number, tran
  * (before, each rendered a sheet of its own and queued for the lock while holding a pooled connection). Every query
  * runs in that transaction (issue 12, item 2). On a database cluster a write conflict runs it all again; the retry
  * then finds the revision decided and answers 409.
- * @throws 403 (role, own work), 409 (not in review, or being decided right now)
+ * A revision with a failed check is approved only with a written `justification` (checked under the lock, where the
+ * frozen result is read); it goes into the audit log, the designer's mail and onto the sheet.
+ * @throws 403 (role, own work), 400 (failed checks without a justification), 409 (not in review, or being decided
+ * right now)
  */
 export async function approveRevision(
   actor: PublicUser,
   revisionId: number,
-  input: { comment: string },
+  input: { comment: string; justification?: string },
 ): Promise<{ revision: RevisionDetail; sheet: SheetDetail }> {
   // Who and what state only (no inputs or result): most concurrent approvals end at the lock below, cheaply.
   const revision = await Revision.findByPk(revisionId, {
@@ -167,6 +171,21 @@ export async function approveRevision(
     // Only the request holding the lock reads the frozen inputs and result (~100 kB) and renders: the others are gone.
     const inputs = parseJson<DesignInput>(locked.inputs);
     const frozen = await Revision.findByPk(revisionId, { attributes: ['result'], transaction });
+    const result = parseJson<DesignResult>(frozen!.result);
+    // A failed check may be overruled only with a written reason; it goes into the audit log, the mail and the sheet.
+    const failed = result.checks.filter((c) => c.severity === 'fail');
+    const justification = failed.length ? (input.justification ?? '').trim() : '';
+    if (failed.length && !justification) {
+      throw validationError(
+        [
+          {
+            path: 'justification',
+            message: `is required: ${plural(failed.length, 'check')} of this revision failed; say why it may be built anyway`,
+          },
+        ],
+        `Revision ${locked.number} has ${plural(failed.length, 'failed check')}: approving it needs a written justification.`,
+      );
+    }
     const author = await User.findByPk(locked.authorId, { attributes: ['name', 'email'], transaction });
     // In the PDF worker pool: the lock is held meanwhile, but the event loop keeps serving everyone else.
     const rendered = await renderSheetFilesOffThread({
@@ -174,18 +193,32 @@ export async function approveRevision(
       revisionNumber: locked.number,
       mechanism: inputs.mechanism,
       designer: { name: author?.name ?? '', email: author?.email ?? '' },
-      approval: { reviewerName: actor.name, approvedAt, comment: input.comment },
+      approval: { reviewerName: actor.name, approvedAt, comment: input.comment, justification: justification || null },
       inputs,
-      result: parseJson<DesignResult>(frozen!.result),
+      result,
       fingerprint: locked.fingerprint,
+      units: isUnitSystem(locked.sheetUnits) ? locked.sheetUnits : 'metric',
     });
-    await locked.update({ status: 'approved', decidedById: actor.id, decidedAt: approvedAt, decisionNote: input.comment }, { transaction });
+    await locked.update(
+      {
+        status: 'approved',
+        decidedById: actor.id,
+        decidedAt: approvedAt,
+        decisionNote: input.comment,
+        approvalJustification: justification || null,
+      },
+      { transaction },
+    );
     await design.update({ status: 'approved' }, { transaction });
     const id = await storeSheet(
       { revisionId, designId: design.id, approvedById: actor.id, approvedAt, comment: input.comment, rendered },
       transaction,
     );
-    const note = input.comment || null;
+    // An approval over failed checks names them and carries the reviewer's justification in the audit log.
+    const overruled = failed.length
+      ? `Approved with ${plural(failed.length, 'failed check')} (${failed.map((c) => c.subject ?? c.id).join(', ')}). Justification: ${justification}`
+      : null;
+    const note = [input.comment || null, overruled].filter(Boolean).join('\n') || null;
     await recordAudit(
       {
         actorId: actor.id,
@@ -230,7 +263,8 @@ export async function approveRevision(
       ...(await queueMail(
         'revision.approved',
         designers,
-        (to) => approvedMail(to, { ...ref, reviewerName: actor.name, comment: input.comment, sheetId: id }),
+        (to) =>
+          approvedMail(to, { ...ref, reviewerName: actor.name, comment: input.comment, sheetId: id, justification: justification || null }),
         transaction,
       )),
       ...(await queueMail(

@@ -14,6 +14,7 @@ import {
   type RevisionSummaryFigures,
 } from '../models';
 import { freezeInPool } from '../workers/pool';
+import { isUnitSystem, type QuantityKey, type UnitSystem } from '@/format';
 import { recordAudit } from './audit.service';
 import { deliverSoon, queueMail, submittedMail } from './notify.service';
 import { findActiveUsersByRole, type Page, type PublicUser } from './users.service';
@@ -48,6 +49,10 @@ export type RevisionListItem = {
   returnReason: string | null;
   /** The reviewer's comment on approval (status `approved`), else null. */
   approvalComment: string | null;
+  /** Why the reviewer approved although a check failed (approved with failures only), else null. */
+  approvalJustification: string | null;
+  /** Unit system the design sheet is printed in (chosen by the designer at submission). */
+  sheetUnits: UnitSystem;
   sheetId: number | null;
   engineVersion: string;
   fingerprint: string;
@@ -179,6 +184,8 @@ function toListItem(row: RevisionRow, actor: PublicUser): RevisionListItem {
     decidedAt: row.decidedAt ? new Date(row.decidedAt).toISOString() : null,
     returnReason: row.status === 'returned' ? row.decisionNote : null,
     approvalComment: row.status === 'approved' ? (row.decisionNote ?? '') : null,
+    approvalJustification: row.status === 'approved' ? (row.approvalJustification ?? null) : null,
+    sheetUnits: isUnitSystem(row.sheetUnits) ? row.sheetUnits : 'metric',
     sheetId: row.sheet?.id ?? null,
     engineVersion: row.engineVersion,
     fingerprint: row.fingerprint,
@@ -281,8 +288,20 @@ export async function listDesignRevisions(actor: PublicUser, designId: number): 
 
 /** One input that differs; `old` is null for a new path (and for every path of a first revision). */
 export type InputChange = { path: string; change: 'added' | 'removed' | 'changed'; old: unknown; new: unknown };
-/** One key result, old and new. */
-export type ResultChange = { key: string; label: string; unit: string; old: number | null; new: number | null; isChanged: boolean };
+/**
+ * One key result, old and new. `unit` names the stored unit for programs; `quantity` and `stored` let a reader's
+ * client show the numbers in their unit system (format layer, `@/format`).
+ */
+export type ResultChange = {
+  key: string;
+  label: string;
+  unit: string;
+  quantity: QuantityKey | null;
+  stored: string;
+  old: number | null;
+  new: number | null;
+  isChanged: boolean;
+};
 /** The answer of GET /api/revisions/:id/diff. */
 export type RevisionDiff = {
   revisionId: number;
@@ -318,62 +337,112 @@ export function diffInputs(before: unknown, after: unknown): InputChange[] {
     else if (canonicalJson(a.get(path)) !== canonicalJson(value)) changes.push({ path, change: 'changed', old: a.get(path), new: value });
   }
   for (const [path, value] of a) if (!b.has(path)) changes.push({ path, change: 'removed', old: value, new: null });
-  return changes.sort((x, y) => x.path.localeCompare(y.path));
+  return changes.map(summariseJobPoints).sort((x, y) => x.path.localeCompare(y.path));
 }
 
-type KeyResult = { key: string; label: string; unit: string; get: (r: DesignResult) => number | null | undefined };
+/** A job's point list (up to 1000 points) is compared whole but shown as its size, so the diff stays readable. */
+function summariseJobPoints(c: InputChange): InputChange {
+  if (c.path !== 'job.points') return c;
+  const words = (v: unknown) => (Array.isArray(v) ? `${v.length} point${v.length === 1 ? '' : 's'}` : v);
+  const same = Array.isArray(c.old) && Array.isArray(c.new) && c.old.length === c.new.length;
+  return { ...c, old: words(c.old), new: same ? `${words(c.new)}, moved` : words(c.new) };
+}
+
+type KeyResult = {
+  key: string;
+  label: string;
+  unit: string;
+  quantity: QuantityKey | null;
+  stored: string;
+  get: (r: DesignResult) => number | null | undefined;
+};
+
+/** Display quantity and stored (mathjs) unit of each unit string the key results use. */
+const UNIT_DISPLAY: Record<string, { quantity: QuantityKey | null; stored: string }> = {
+  'steps/mm': { quantity: 'perLength', stored: 'mm^-1' },
+  mm: { quantity: 'length', stored: 'mm' },
+  kg: { quantity: 'mass', stored: 'kg' },
+  'm/s²': { quantity: 'accel', stored: 'm/s^2' },
+  'm/s': { quantity: 'speed', stored: 'm/s' },
+  Hz: { quantity: 'frequency', stored: 'Hz' },
+  'N·m': { quantity: 'moment', stored: 'N m' },
+  N: { quantity: 'force', stored: 'N' },
+  W: { quantity: 'power', stored: 'W' },
+  s: { quantity: 'time', stored: 's' },
+  '': { quantity: null, stored: '' },
+};
+
+/**
+ * A key result row: label, stored unit and how people read it. `shownAs` overrides the quantity the unit implies:
+ * fine lengths (microsteps, ringing, error budget) read in µm / thou, shaper delays in ms.
+ */
+function keyResult(key: string, label: string, unit: string, get: KeyResult['get'], shownAs?: QuantityKey): KeyResult {
+  const display = UNIT_DISPLAY[unit] ?? { quantity: null, stored: '' };
+  return { key, label, unit, ...display, ...(shownAs ? { quantity: shownAs } : {}), get };
+}
 
 const KEY_RESULTS: KeyResult[] = [
-  { key: 'drive.stepsPerMm', label: 'Steps per mm of belt', unit: 'steps/mm', get: (r) => r.drive.stepsPerMm },
-  { key: 'drive.travelPerRevMm', label: 'Belt travel per motor revolution', unit: 'mm', get: (r) => r.drive.travelPerRevMm },
-  {
-    key: 'drive.microstep.oneMotorMm',
-    label: 'Carriage move, one motor one microstep',
-    unit: 'mm',
-    get: (r) => r.drive.microstep.oneMotorMm,
-  },
-  { key: 'drive.microstep.axisMm', label: 'Smallest pure X or Y move', unit: 'mm', get: (r) => r.drive.microstep.axisMm },
-  { key: 'drive.microstep.diagonalMm', label: 'Smallest pure diagonal move', unit: 'mm', get: (r) => r.drive.microstep.diagonalMm },
-  { key: 'travel.xMm', label: 'Usable travel X', unit: 'mm', get: (r) => r.travel.xMm },
-  { key: 'travel.yMm', label: 'Usable travel Y', unit: 'mm', get: (r) => r.travel.yMm },
-  { key: 'mass.xKg', label: 'Moving mass along X', unit: 'kg', get: (r) => r.mass.xKg },
-  { key: 'mass.yKg', label: 'Moving mass along Y', unit: 'kg', get: (r) => r.mass.yKg },
-  { key: 'envelope.axes.x.accelMaxMPerS2', label: 'Peak acceleration along X', unit: 'm/s²', get: (r) => r.envelope.axes.x.accelMaxMPerS2 },
-  { key: 'envelope.axes.y.accelMaxMPerS2', label: 'Peak acceleration along Y', unit: 'm/s²', get: (r) => r.envelope.axes.y.accelMaxMPerS2 },
-  {
-    key: 'envelope.axes.diagonal.accelMaxMPerS2',
-    label: 'Peak acceleration on the diagonal',
-    unit: 'm/s²',
-    get: (r) => r.envelope.axes.diagonal.accelMaxMPerS2,
-  },
-  {
-    key: 'envelope.axes.worst.accelMaxMPerS2',
-    label: 'Peak acceleration, worst direction',
-    unit: 'm/s²',
-    get: (r) => r.envelope.axes.worst.accelMaxMPerS2,
-  },
-  {
-    key: 'envelope.axes.worst.accelAtCruiseMPerS2',
-    label: 'Acceleration at cruise speed, worst direction',
-    unit: 'm/s²',
-    get: (r) => r.envelope.axes.worst.accelAtCruiseMPerS2,
-  },
-  {
-    key: 'envelope.axes.worst.speedMaxMPerS',
-    label: 'Top speed, worst direction',
-    unit: 'm/s',
-    get: (r) => r.envelope.axes.worst.speedMaxMPerS,
-  },
-  { key: 'stiffness.min.frequencyHz', label: 'Lowest resonance', unit: 'Hz', get: (r) => r.stiffness.min.frequencyHz },
-  {
-    key: 'stiffness.ringing.planned.amplitudeMm',
-    label: 'Ringing at the planned acceleration',
-    unit: 'mm',
-    get: (r) => r.stiffness.ringing.planned.amplitudeMm,
-  },
-  { key: 'racking.peakMomentNm', label: 'Gantry racking moment (H loop)', unit: 'N·m', get: (r) => r.racking.peakMomentNm },
-  { key: 'checks.fail', label: 'Failed checks', unit: '', get: (r) => r.checks.filter((c) => c.severity === 'fail').length },
-  { key: 'checks.warn', label: 'Warnings', unit: '', get: (r) => r.checks.filter((c) => c.severity === 'warn').length },
+  keyResult('drive.stepsPerMm', 'Steps per mm of belt', 'steps/mm', (r) => r.drive.stepsPerMm),
+  keyResult('drive.travelPerRevMm', 'Belt travel per motor revolution', 'mm', (r) => r.drive.travelPerRevMm),
+  keyResult(
+    'drive.microstep.oneMotorMm',
+    'Carriage move, one motor one microstep',
+    'mm',
+    (r) => r.drive.microstep.oneMotorMm,
+    'lengthFine',
+  ),
+  keyResult('drive.microstep.axisMm', 'Smallest pure X or Y move', 'mm', (r) => r.drive.microstep.axisMm, 'lengthFine'),
+  keyResult('drive.microstep.diagonalMm', 'Smallest pure diagonal move', 'mm', (r) => r.drive.microstep.diagonalMm, 'lengthFine'),
+  keyResult('travel.xMm', 'Usable travel X', 'mm', (r) => r.travel.xMm),
+  keyResult('travel.yMm', 'Usable travel Y', 'mm', (r) => r.travel.yMm),
+  keyResult('mass.xKg', 'Moving mass along X', 'kg', (r) => r.mass.xKg),
+  keyResult('mass.yKg', 'Moving mass along Y', 'kg', (r) => r.mass.yKg),
+  keyResult('envelope.axes.x.accelMaxMPerS2', 'Peak acceleration along X', 'm/s²', (r) => r.envelope.axes.x.accelMaxMPerS2),
+  keyResult('envelope.axes.y.accelMaxMPerS2', 'Peak acceleration along Y', 'm/s²', (r) => r.envelope.axes.y.accelMaxMPerS2),
+  keyResult(
+    'envelope.axes.diagonal.accelMaxMPerS2',
+    'Peak acceleration on the diagonal',
+    'm/s²',
+    (r) => r.envelope.axes.diagonal.accelMaxMPerS2,
+  ),
+  keyResult(
+    'envelope.axes.worst.accelMaxMPerS2',
+    'Peak acceleration, worst direction',
+    'm/s²',
+    (r) => r.envelope.axes.worst.accelMaxMPerS2,
+  ),
+  keyResult(
+    'envelope.axes.worst.accelAtCruiseMPerS2',
+    'Acceleration at cruise speed, worst direction',
+    'm/s²',
+    (r) => r.envelope.axes.worst.accelAtCruiseMPerS2,
+  ),
+  keyResult('envelope.axes.worst.speedMaxMPerS', 'Top speed, worst direction', 'm/s', (r) => r.envelope.axes.worst.speedMaxMPerS),
+  keyResult('stiffness.min.frequencyHz', 'Lowest resonance', 'Hz', (r) => r.stiffness.min.frequencyHz),
+  keyResult(
+    'stiffness.ringing.planned.amplitudeMm',
+    'Ringing at the planned acceleration',
+    'mm',
+    (r) => r.stiffness.ringing.planned.amplitudeMm,
+    'lengthFine',
+  ),
+  keyResult('racking.peakMomentNm', 'Gantry racking moment (H loop)', 'N·m', (r) => r.racking.peakMomentNm),
+  // The second layer (docs/models/); older revisions have none of these and show them as new.
+  keyResult('errorBudget.worst.totalMm', 'Worst positioning error', 'mm', (r) => r.errorBudget.worst.totalMm, 'lengthFine'),
+  keyResult('stiffness.lowest.frequencyHz', 'Lowest of all modes', 'Hz', (r) => r.stiffness.lowest.frequencyHz),
+  keyResult('shaping.zvDurationS', 'Time a ZV shaper adds per move', 's', (r) => r.shaping.zvDurationS, 'timeShort'),
+  keyResult(
+    'excitation.microstepRateHzAtCruise',
+    'Microstep rate at cruise, fastest motor',
+    'Hz',
+    (r) => r.excitation.microstepRateHzAtCruise,
+  ),
+  keyResult('heat.totalCopperLossW', 'Copper loss, all motors', 'W', (r) => r.heat.totalCopperLossW),
+  keyResult('heat.supply.powerW', 'Supply power', 'W', (r) => r.heat.supply.powerW),
+  keyResult('loads.motorShaftRadialN.atPeak', 'Motor shaft load at peak pull', 'N', (r) => r.loads.motorShaftRadialN.atPeak),
+  keyResult('job.totalS', 'Job cycle time', 's', (r) => r.job?.totalS),
+  keyResult('checks.fail', 'Failed checks', '', (r) => r.checks.filter((c) => c.severity === 'fail').length),
+  keyResult('checks.warn', 'Warnings', '', (r) => r.checks.filter((c) => c.severity === 'warn').length),
 ];
 
 /** Key results of two revisions side by side (belts matched by id; a belt only in one side shows null on the other). */
@@ -392,7 +461,16 @@ export function diffKeyResults(before: DesignResult | null, after: DesignResult)
   for (const k of KEY_RESULTS) {
     const old = before ? safe(() => k.get(before)) : null;
     const now = safe(() => k.get(after));
-    rows.push({ key: k.key, label: k.label, unit: k.unit, old, new: now, isChanged: before === null || differs(old, now) });
+    rows.push({
+      key: k.key,
+      label: k.label,
+      unit: k.unit,
+      quantity: k.quantity,
+      stored: k.stored,
+      old,
+      new: now,
+      isChanged: before === null || differs(old, now),
+    });
   }
   const beltIds = [...new Set([...(before?.belts ?? []).map((b) => b.id), ...after.belts.map((b) => b.id)])];
   for (const id of beltIds) {
@@ -413,6 +491,7 @@ export function diffKeyResults(before: DesignResult | null, after: DesignResult)
         key: `belts.${id}.${field}`,
         label: `${label}: ${text}`,
         unit,
+        ...(UNIT_DISPLAY[unit] ?? { quantity: null, stored: '' }),
         old,
         new: now,
         isChanged: before === null || differs(old, now),
@@ -519,7 +598,11 @@ export function freezeDesign(storedInputs: unknown): {
  * of one design get 409 `busy` at once instead of stalling the connection pool.
  * @throws 403 for others, 409 `invalid_state` / `version_conflict` / `busy`, 400 when the inputs do not validate
  */
-export async function submitDesign(actor: PublicUser, designId: number, body: { version?: number } = {}): Promise<RevisionDetail> {
+export async function submitDesign(
+  actor: PublicUser,
+  designId: number,
+  body: { version?: number; sheetUnits?: UnitSystem } = {},
+): Promise<RevisionDetail> {
   const { revisionId, mailIds } = await getSequelize().transaction(async (transaction) => {
     const design = await lockDesign(designId, transaction);
     assertOwnerOrAdmin(actor, design, 'submit');
@@ -550,6 +633,7 @@ export async function submitDesign(actor: PublicUser, designId: number, body: { 
         decidedById: null,
         decidedAt: null,
         decisionNote: null,
+        sheetUnits: body.sheetUnits ?? 'metric',
       },
       { transaction },
     );
@@ -581,7 +665,14 @@ export async function submitDesign(actor: PublicUser, designId: number, body: { 
     );
 
     const reviewers = (await findActiveUsersByRole('reviewer', transaction)).filter((u) => u.id !== actor.id && u.id !== design.ownerId);
-    const ref = { revisionId: revision.id, number: revision.number, designId, designName: frozen.inputs.name, authorName: actor.name };
+    const ref = {
+      revisionId: revision.id,
+      number: revision.number,
+      designId,
+      designName: frozen.inputs.name,
+      authorName: actor.name,
+      checks: frozen.summary.checks,
+    };
     const ids = await queueMail('revision.submitted', reviewers, (to) => submittedMail(to, ref), transaction);
     return { revisionId: revision.id, mailIds: ids };
   });

@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
 import type { DesignInput, DesignResult, Mechanism } from '@/engine';
+import { isUnitSystem, type UnitSystem } from '@/format';
 import { getConfig } from '../config';
 import { AppError, notFound } from '../errors';
 import { Revision, Sheet, User, type SheetPaper } from '../models';
@@ -33,6 +34,12 @@ export type SheetListItem = {
   approvedBy: PersonRef;
   approvedAt: string;
   comment: string;
+  /** Why the reviewer approved although a check failed (null when nothing failed). */
+  justification: string | null;
+  /** Unit system the sheet is printed in. */
+  units: UnitSystem;
+  /** The frozen revision's check counts. */
+  checks: { ok: number; warn: number; fail: number };
   /** SHA-256 of the A4 PDF (the default download). */
   sha256: string;
   files: SheetFile[];
@@ -64,10 +71,12 @@ export type SheetSource = {
   revisionNumber: number;
   mechanism: Mechanism;
   designer: { name: string; email: string };
-  approval: { reviewerName: string; approvedAt: Date; comment: string };
+  approval: { reviewerName: string; approvedAt: Date; comment: string; justification?: string | null };
   inputs: DesignInput;
   result: DesignResult;
   fingerprint: string;
+  /** Unit system the sheet prints in (chosen by the designer at submission). */
+  units?: UnitSystem;
 };
 
 /** Rendered bytes and their hashes, ready to store. */
@@ -151,7 +160,18 @@ const includes = (withResult: boolean) => [
   {
     model: Revision,
     as: 'revision',
-    attributes: ['id', 'number', 'inputs', 'fingerprint', 'engineVersion', 'authorId', ...(withResult ? ['result'] : [])],
+    attributes: [
+      'id',
+      'number',
+      'inputs',
+      'summary',
+      'fingerprint',
+      'engineVersion',
+      'authorId',
+      'approvalJustification',
+      'sheetUnits',
+      ...(withResult ? ['result'] : []),
+    ],
     include: [{ model: User, as: 'author', attributes: ['id', 'name'] }],
   },
   { model: User, as: 'approvedBy', attributes: ['id', 'name'] },
@@ -188,6 +208,9 @@ function toListItem(row: SheetRow, latest: Map<number, { sheetId: number; revisi
     approvedBy: { id: row.approvedById, name: row.approvedBy?.name ?? '' },
     approvedAt: new Date(row.approvedAt).toISOString(),
     comment: row.comment,
+    justification: revision.approvalJustification ?? null,
+    units: isUnitSystem(revision.sheetUnits) ? revision.sheetUnits : 'metric',
+    checks: parseJson<{ checks?: { ok: number; warn: number; fail: number } }>(revision.summary)?.checks ?? { ok: 0, warn: 0, fail: 0 },
     sha256: row.a4Sha256,
     files: [
       { paper: 'A4', sha256: row.a4Sha256, size: row.a4Size, fileName: sheetFileName(inputs.name, revision.number, 'A4') },

@@ -1,7 +1,7 @@
 import { AppError, notFound } from '../errors';
 import type { UploadedFile } from '../uploads/uploadedFile';
 import { Attachment, Part } from '../models';
-import { torqueCurveSchema } from '../schemas/parts.schema';
+import { torqueCurveSchema, type TorqueConditions } from '../schemas/parts.schema';
 import { CsvError, parseTorqueCsv, assertTypeMatches, type CsvErrorDetail, type TorquePoint, type TorqueTable } from '../uploads';
 import {
   latestPartAttachment,
@@ -109,12 +109,18 @@ export async function assertMotorExists(motorId: number): Promise<void> {
 }
 
 /**
- * Replaces a shelf motor's torque–speed table with an uploaded CSV (admin). The file must be text/CSV by content
- * (415 otherwise); it is parsed and validated (400 `invalid_csv` with `details[{line, column, message}]`), then, in
- * one transaction, the motor's `torqueCurve` is set (in rev/s and N·m), the file is kept as an attachment of the
- * motor (content-addressed), and the change is audited. Designs copy the points when they pick the motor.
+ * Replaces a shelf motor's torque–speed table with an uploaded CSV (admin), with the supply voltage and driver current
+ * it was measured at. The file must be text/CSV by content (415 otherwise); it is parsed and validated (400
+ * `invalid_csv` with `details[{line, column, message}]`), then, in one transaction, the motor's `torqueCurve` and
+ * `torqueCurveConditions` are set (rev/s, N·m, V, A), the file is kept as an attachment of the motor
+ * (content-addressed), and the change is audited. Designs copy both when they pick the motor.
  */
-export async function uploadTorqueCurve(actor: PublicUser, motorId: number, file: UploadedFile | null): Promise<TorqueCurveInfo> {
+export async function uploadTorqueCurve(
+  actor: PublicUser,
+  motorId: number,
+  file: UploadedFile | null,
+  conditions: TorqueConditions,
+): Promise<TorqueCurveInfo> {
   await assertMotorExists(motorId);
   if (!file)
     throw new AppError('validation_failed', 'Choose a CSV file with the torque table.', 400, {
@@ -143,7 +149,11 @@ export async function uploadTorqueCurve(actor: PublicUser, motorId: number, file
     if (!row) throw notFound('Motor');
     const data = (typeof row.data === 'string' ? JSON.parse(row.data) : row.data) as Record<string, unknown>;
     const hadTable = Array.isArray(data.torqueCurve) && data.torqueCurve.length > 0;
-    row.data = { ...data, torqueCurve: checked.data };
+    row.data = {
+      ...data,
+      torqueCurve: checked.data,
+      torqueCurveConditions: { supplyV: conditions.supplyV, currentRmsA: conditions.currentRmsA },
+    };
     row.changed('data', true);
     row.updatedById = actor.id;
     await row.save({ transaction });
@@ -167,7 +177,7 @@ export async function uploadTorqueCurve(actor: PublicUser, motorId: number, file
         entityId: motorId,
         fromState: hadTable ? 'table' : 'model',
         toState: 'table',
-        reason: `${fileName}: ${points.length} points (${table.sourceUnits.speed}, ${table.sourceUnits.torque}), SHA-256 ${sha256}`,
+        reason: `${fileName}: ${points.length} points (${table.sourceUnits.speed}, ${table.sourceUnits.torque}) measured at ${conditions.supplyV} V, ${conditions.currentRmsA} A, SHA-256 ${sha256}`,
       },
       transaction,
     );

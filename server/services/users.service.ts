@@ -16,6 +16,8 @@ export type PublicUser = {
   name: string;
   roles: Role[];
   disabled: boolean;
+  /** Invited and has not set a password yet: cannot sign in until they follow the invitation. */
+  isInvited: boolean;
   createdAt: string;
 };
 
@@ -36,6 +38,7 @@ export function toPublicUser(user: User): PublicUser {
     name: user.name,
     roles: normaliseRoles(user.roles),
     disabled: Boolean(user.disabled),
+    isInvited: user.passwordHash === null || user.passwordHash === undefined,
     createdAt: new Date(user.createdAt).toISOString(),
   };
 }

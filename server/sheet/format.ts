@@ -11,23 +11,6 @@ export function fixed(value: number | null | undefined, decimals: number): strin
   return s.startsWith('-') ? MINUS + s.slice(1) : s;
 }
 
-/** A number with about `digits` significant figures, no exponent for the sheet's ranges. */
-export function sig(value: number | null | undefined, digits = 4): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return DASH;
-  if (value === 0) return '0';
-  const magnitude = Math.floor(Math.log10(Math.abs(value)));
-  const decimals = Math.max(0, Math.min(8, digits - 1 - magnitude));
-  return fixed(value, decimals);
-}
-
-/** Thousands separated by a thin space for long integers (e.g. belt lengths), otherwise `fixed`. */
-export function grouped(value: number, decimals = 0): string {
-  const s = fixed(value, decimals);
-  const [int, frac] = s.split('.');
-  const withSep = int.replace(/\B(?=(\d{3})+(?!\d))/g, '\u2009');
-  return frac !== undefined ? `${withSep}.${frac}` : withSep;
-}
-
 /** Approval time as an unambiguous UTC stamp, e.g. "2025-03-14 09:30 UTC". */
 export function utcStamp(at: Date | string): string {
   const date = at instanceof Date ? at : new Date(at);
@@ -50,6 +33,8 @@ const SUBSTITUTES: [RegExp, string][] = [
   [/\u2248/g, '~'],
   [/\u221a/g, 'sqrt '],
   [/\u221e/g, 'infinity'],
+  // Second moments of area (mm⁴, in⁴): the superscript four is in no subset the sheet embeds.
+  [/\u2074/g, '^4'],
 ];
 
 /** Replace symbols the sheet fonts lack by words or ASCII. */

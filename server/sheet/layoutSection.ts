@@ -1,8 +1,7 @@
 import { beltLegend } from '@/drawing/layoutPlan';
-import { fixed } from './format';
 import { block, COLOR, type Content, type ContentObject } from './layout';
 import { BELT_COLOURS, beltPathSvg, layoutPlanSvg, originPlanSvg } from './plots/layoutPlan';
-import { safe } from './sections';
+import { safe, unitsOf } from './sections';
 import type { SheetData } from './types';
 
 function legendRow(data: SheetData): ContentObject {
@@ -93,23 +92,26 @@ export function layoutSection(data: SheetData, width: number): Content[] {
     ),
   );
   const park = r.parking;
+  const u = unitsOf(data);
+  const len = (mm: number) => u.q(mm, 'length', 'mm');
+  const position = (xMm: number, yMm: number) => `X ${u.n(xMm, 'length', 'mm')}, Y ${u.n(yMm, 'length', 'mm')} ${u.label('length')}`;
   content.push(
     block(
       { text: 'Origin and parking position', style: 'h2', margin: [0, 8, 0, 2] },
       {
         columns: [
-          { width: width * 0.45, svg: originPlanSvg(dr, r.travel, park, width * 0.45, 200) },
+          { width: width * 0.45, svg: originPlanSvg(dr, r.travel, park, width * 0.45, 200, position) },
           {
             width: '*',
             stack: [
               {
                 text:
                   `Travel (0, 0) is the carriage centre at its front-left limit; +X runs to the right and +Y toward the back, seen from above. ` +
-                  `The carriage centre can travel ${fixed(r.travel.xMm, 1)} mm in X and ${fixed(r.travel.yMm, 1)} mm in Y.`,
+                  `The carriage centre can travel ${len(r.travel.xMm)} in X and ${len(r.travel.yMm)} in Y.`,
                 fontSize: 7.5,
               },
               {
-                text: `Park the carriage at X ${fixed(park.xMm, 1)} mm, Y ${fixed(park.yMm, 1)} mm from the origin (the centre of travel) to pluck the spans.`,
+                text: `Park the carriage at ${position(park.xMm, park.yMm)} from the origin (the centre of travel) to pluck the spans.`,
                 fontSize: 7.5,
                 bold: true,
                 margin: [0, 4, 0, 0],

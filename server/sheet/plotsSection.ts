@@ -4,7 +4,7 @@ import { heatmap } from './plots/heatmap';
 import { type ChartPoint, lineChart } from './plots/lineChart';
 import { polarPlot } from './plots/polar';
 import { PALETTE } from './plots/svg';
-import { motorNames } from './sections';
+import { motorNames, unitsOf } from './sections';
 import type { SheetData } from './types';
 
 /** An SVG drawn `size` points wide, centred in a column `columnWidth` wide. */
@@ -53,16 +53,18 @@ function couplingPlots(data: SheetData, half: number, polar: number): Content {
 function envelopePlot(data: SheetData, polar: number): string {
   const env = data.result.envelope;
   const worst = env.axes.worst;
+  const u = unitsOf(data);
+  const k = u.factor('accel', 'm/s^2');
   return polarPlot({
     width: polar,
     title: 'Acceleration envelope',
-    radiusTitle: 'radius: largest acceleration in that direction [m/s²]',
+    radiusTitle: `radius: largest acceleration in that direction [${u.label('accel')}]`,
     directionsDeg: env.directionsDeg,
     series: [
-      { label: 'At rest (speed going to zero)', values: env.accelMaxMPerS2, color: PALETTE.blue },
+      { label: 'At rest (speed going to zero)', values: env.accelMaxMPerS2.map((v) => v * k), color: PALETTE.blue },
       {
-        label: `At cruise speed ${fixed(data.design.cruiseSpeedMmPerS, 0)} mm/s`,
-        values: env.accelAtCruiseMPerS2,
+        label: `At cruise speed ${u.q(data.design.cruiseSpeedMmPerS, 'speed', 'mm/s', 3)}`,
+        values: env.accelAtCruiseMPerS2.map((v) => v * k),
         color: PALETTE.vermillion,
         dash: '4 2',
       },
@@ -70,8 +72,8 @@ function envelopePlot(data: SheetData, polar: number): string {
     markers: [
       {
         directionDeg: worst.directionDeg,
-        value: worst.accelMaxMPerS2,
-        label: `Worst direction ${fixed(worst.directionDeg, 0)}°: ${fixed(worst.accelMaxMPerS2, 1)} m/s² at rest`,
+        value: worst.accelMaxMPerS2 * k,
+        label: `Worst direction ${fixed(worst.directionDeg, 0)}°: ${u.q(worst.accelMaxMPerS2, 'accel', 'm/s^2', 3)} at rest`,
       },
     ],
   });
@@ -99,30 +101,34 @@ export function operatingMarkers(data: SheetData): ChartPoint[] {
     if (same) same.moves.push(g.move);
     else merged.push({ moves: [g.move], when: g.when, x: g.x, y: g.y });
   }
-  const cruise = fixed(data.design.cruiseSpeedMmPerS, 0);
+  const u = unitsOf(data);
+  const k = u.factor('torque', 'N m');
+  const cruise = u.q(data.design.cruiseSpeedMmPerS, 'speed', 'mm/s', 3);
   return merged.map((m) => ({
     x: m.x,
-    y: m.y,
+    y: m.y * k,
     shape: SHAPE_OF_MOVE[m.moves[0]] ?? 'triangle',
     filled: m.when === 'at cruise',
-    label: `${m.moves.join(' or ')} move ${m.when === 'at cruise' ? `at ${cruise} mm/s` : 'from rest'}: ${fixed(m.y, 3)} N·m at ${fixed(m.x, 2)} rev/s`,
+    label: `${m.moves.join(' or ')} move ${m.when === 'at cruise' ? `at ${cruise}` : 'from rest'}: ${u.q(m.y, 'torque', 'N m', 3)} at ${fixed(m.x, 2)} rev/s`,
   }));
 }
 
 function torqueSpeedPlot(data: SheetData, width: number, height: number): string {
   const ts = data.result.torqueSpeed;
+  const u = unitsOf(data);
+  const k = u.factor('torque', 'N m');
   return lineChart({
     width,
     height,
     title: `Motor torque against speed (${ts.source === 'table' ? 'uploaded table' : 'motor model'})`,
     xTitle: 'Motor speed [rev/s]',
-    yTitle: 'Torque [N·m]',
+    yTitle: `Torque [${u.label('torque')}]`,
     series: [
-      { label: 'Available torque', x: ts.speedRevPerS, y: ts.torqueNm, color: PALETTE.blue },
+      { label: 'Available torque', x: ts.speedRevPerS, y: ts.torqueNm.map((v) => v * k), color: PALETTE.blue },
       {
-        label: `Usable torque (× ${fixed(data.design.torqueMargin, 2)} margin)`,
+        label: `Usable torque (${fixed(data.design.torqueMargin * 100, 0)} % of it)`,
         x: ts.speedRevPerS,
-        y: ts.usableTorqueNm,
+        y: ts.usableTorqueNm.map((v) => v * k),
         color: PALETTE.vermillion,
         dash: '4 2',
       },
@@ -137,6 +143,9 @@ export function plotsSection(data: SheetData, width: number): Content[] {
   // Polar plots stay small enough that the coupling map and the envelope share a US Letter page.
   const polar = Math.min(half, 214);
   const s = data.result.stiffness;
+  const u = unitsOf(data);
+  const kL = u.factor('length', 'mm');
+  const L = u.label('length');
   return [
     block(
       heading('7', 'Plots'),
@@ -170,17 +179,17 @@ export function plotsSection(data: SheetData, width: number): Content[] {
           width,
           maxPlotHeight: 300,
           title: 'Lowest natural frequency over the travel',
-          xTitle: 'Carriage X from the travel origin [mm]',
-          yTitle: 'Carriage Y [mm]',
+          xTitle: `Carriage X from the travel origin [${L}]`,
+          yTitle: `Carriage Y [${L}]`,
           barTitle: 'Lowest frequency [Hz]',
-          xMm: s.xMm,
-          yMm: s.yMm,
+          xMm: s.xMm.map((v) => v * kL),
+          yMm: s.yMm.map((v) => v * kL),
           values: s.lowestFrequencyHz,
           min: {
             value: s.min.frequencyHz,
-            xMm: s.min.xMm,
-            yMm: s.min.yMm,
-            label: `lowest ${fixed(s.min.frequencyHz, 1)} Hz at X ${fixed(s.min.xMm, 1)} mm, Y ${fixed(s.min.yMm, 1)} mm`,
+            xMm: s.min.xMm * kL,
+            yMm: s.min.yMm * kL,
+            label: `lowest ${fixed(s.min.frequencyHz, 1)} Hz at X ${u.q(s.min.xMm, 'length', 'mm', 4)}, Y ${u.q(s.min.yMm, 'length', 'mm', 4)}`,
           },
         }),
         width,

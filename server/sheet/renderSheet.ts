@@ -5,6 +5,7 @@ import { BASE_FONT, sheetFontFiles } from './fonts';
 import { userTextRuns, utcStamp } from './format';
 import { COLOR, type Content, type ContentObject, contentWidth, PAGE_MARGINS, STYLES } from './layout';
 import { wordmarkGlyph } from './plots/glyphs';
+import { jobSection, secondLayerSection } from './secondLayerSections';
 import { layoutSection } from './layoutSection';
 import { plotsSection } from './plotsSection';
 import {
@@ -119,7 +120,7 @@ function footer(input: SheetInput, width: number): (currentPage: number, pageCou
 export function buildSheetDoc(input: SheetInput): SheetDocDefinition {
   assertSheetInput(input);
   // The frozen document may leave optional fields out; the engine's schema fills the same defaults it computed with.
-  const data: SheetData = { ...input, design: parseDesign(input.inputs) };
+  const data: SheetData = { ...input, design: parseDesign(input.inputs), units: input.units ?? 'metric' };
   const width = contentWidth(input.paper);
   const approvedAt = new Date(input.approval.approvedAt);
   return {
@@ -142,19 +143,23 @@ export function buildSheetDoc(input: SheetInput): SheetDocDefinition {
     pageBreakBefore: (node: { headlineLevel?: number; startPosition?: { verticalRatio?: number } }) =>
       (node.headlineLevel === 1 && (node.startPosition?.verticalRatio ?? 0) > 0.8) ||
       (node.headlineLevel === 2 && (node.startPosition?.verticalRatio ?? 0) > 0.88),
+    // The maker's order: what to order, how to cut and tension the belts, the controller numbers; then the checks
+    // and the engineering behind them for whoever wants to know why.
     content: [
       titleBlock(data, width),
       cautionsBox(data.result, width),
-      keyFigures(data.result, width),
-      ...checksTable(data.result),
-      ...inputsSection(data),
-      ...driveSection(data),
+      keyFigures(data, width),
+      ...partsSection(data),
       ...beltsSection(data),
       ...layoutSection(data, width),
+      ...driveSection(data),
+      ...checksTable(data),
       ...limitsSection(data),
       ...stiffnessSection(data),
       ...plotsSection(data, width),
-      ...partsSection(data.result),
+      ...inputsSection(data),
+      ...secondLayerSection(data, width, '9'),
+      ...jobSection(data, width, '10'),
     ],
   };
 }

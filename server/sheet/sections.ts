@@ -1,8 +1,19 @@
-import { fixed, grouped, sig, userTextRuns, utcStamp } from './format';
+import { pluckBandHz, PLUCK_TENSION_TOLERANCE } from '@/engine';
+import { checkText, fieldLabel, formatInputValue, plural, type QuantityKey } from '@/format';
+import { fixed, userTextRuns, utcStamp } from './format';
 import { block, COLOR, type Content, type ContentObject, groupRow, heading, numCell, table, th } from './layout';
 import { cautionIcon, SEVERITY_WORD, severityIcon } from './plots/glyphs';
 import { legacyBelt, legacyMicrostep } from './legacy';
 import type { DesignResult, Mechanism, SheetData } from './types';
+import { sheetUnits, type SheetUnits } from './units';
+
+/** The sheet's unit helper for this sheet's unit system. */
+export function unitsOf(data: Pick<SheetData, 'units'>): SheetUnits {
+  return sheetUnits(data.units);
+}
+
+/** "[mm]" for a table header. */
+const bracket = (label: string): string => (label ? ` [${label}]` : '');
 
 export const MECHANISM_NAME: Record<Mechanism, string> = {
   corexy: 'CoreXY (two stationary motors, crossed belt loops)',
@@ -45,6 +56,8 @@ export function titleBlock(data: SheetData, width: number): Content {
     margin: [0, 1, 0, 1],
   });
   const comment = data.approval.comment.trim();
+  const justification = (data.approval.justification ?? '').trim();
+  const failed = result.checks.filter((c) => c.severity === 'fail').length;
   const description = design.description.trim();
   return {
     stack: [
@@ -65,7 +78,7 @@ export function titleBlock(data: SheetData, width: number): Content {
             ],
             [
               field('Mechanism', MECHANISM_SHORT[data.mechanism]),
-              field('Engine version', result.engineVersion),
+              field('Units on this sheet', data.units === 'imperial' ? 'Imperial (in, lbf, oz·in)' : 'Metric (mm, N, N·m)'),
               field('Approved on', utcStamp(data.approval.approvedAt)),
             ],
             [
@@ -76,10 +89,25 @@ export function titleBlock(data: SheetData, width: number): Content {
               {},
               {},
             ],
+            ...(failed && justification
+              ? [
+                  [
+                    {
+                      colSpan: 3,
+                      ...field(
+                        `Approved although ${plural(failed, 'check')} failed — the reviewer's justification`,
+                        safe(justification, { bold: true }),
+                      ),
+                    },
+                    {},
+                    {},
+                  ],
+                ]
+              : []),
           ],
         },
         layout: {
-          hLineWidth: (i: number) => (i === 0 || i === 3 ? 0.8 : 0.3),
+          hLineWidth: (i: number, node: { table: { body: unknown[] } }) => (i === 0 || i === node.table.body.length ? 0.8 : 0.3),
           vLineWidth: (i: number) => (i === 0 || i === 3 ? 0.8 : 0.3),
           hLineColor: () => COLOR.rule,
           vLineColor: () => COLOR.rule,
@@ -90,6 +118,11 @@ export function titleBlock(data: SheetData, width: number): Content {
         },
       },
       ...(description ? [safe(description, { fontSize: 7.5, margin: [0, 4, 0, 0] })] : []),
+      {
+        text: `Engine ${result.engineVersion}. Build from sections 1 to 3; the sections after them hold the checks and the engineering behind them.`,
+        style: 'note',
+        margin: [0, 3, 0, 0],
+      },
       ...(data.appUrl ? [{ text: `Sheets and tension records online: ${data.appUrl}`, style: 'note', margin: [0, 3, 0, 0] }] : []),
     ],
   };
@@ -146,19 +179,29 @@ export function cautionsBox(result: DesignResult, width: number): Content {
   };
 }
 
-/** Key figures of page 1 as a strip of labelled values. */
-export function keyFigures(result: DesignResult, width: number): Content {
+/** Key figures of page 1 as a strip of labelled values, in the sheet's units. */
+export function keyFigures(data: SheetData, width: number): Content {
+  const result = data.result;
+  const u = unitsOf(data);
   const counts = { ok: 0, warn: 0, fail: 0 };
   for (const c of result.checks) counts[c.severity] += 1;
   const worst = result.envelope.axes.worst;
   const tiles: [string, string, string][] = [
-    ['Travel X × Y', `${fixed(result.travel.xMm, 0)} × ${fixed(result.travel.yMm, 0)}`, 'mm'],
-    ['Steps per mm (per motor)', fixed(result.drive.stepsPerMm, 3), 'microsteps per mm of belt'],
-    ['Worst acceleration at rest', fixed(worst.accelMaxMPerS2, 1), `m/s² at ${fixed(worst.directionDeg, 0)}°`],
+    ['Travel X × Y', `${u.n(result.travel.xMm, 'length', 'mm', 3)} × ${u.n(result.travel.yMm, 'length', 'mm', 3)}`, u.label('length')],
+    [
+      `Steps per ${u.system === 'imperial' ? 'inch' : 'mm'} (per motor)`,
+      stepsText(data),
+      `microsteps per ${u.system === 'imperial' ? 'inch' : 'mm'} of belt`,
+    ],
+    [
+      'Worst acceleration at rest',
+      u.n(worst.accelMaxMPerS2, 'accel', 'm/s^2', 3),
+      `${u.label('accel')} at ${fixed(worst.directionDeg, 0)}°`,
+    ],
     [
       'Lowest resonance',
       fixed(result.stiffness.min.frequencyHz, 1),
-      `Hz at X ${fixed(result.stiffness.min.xMm, 0)}, Y ${fixed(result.stiffness.min.yMm, 0)} mm`,
+      `Hz at X ${u.n(result.stiffness.min.xMm, 'length', 'mm', 3)}, Y ${u.q(result.stiffness.min.yMm, 'length', 'mm', 3)}`,
     ],
     ['Checks', `${counts.ok} / ${counts.warn} / ${counts.fail}`, 'ok / warning / fail'],
   ];
@@ -195,31 +238,54 @@ export function keyFigures(result: DesignResult, width: number): Content {
   };
 }
 
-function checkValue(v: number | null): string {
-  if (v === null) return '—';
-  const s = sig(v, 4);
-  return s.includes('.') ? s.replace(/0+$/, '').replace(/\.$/, '') : s;
+/** Steps per length of belt to three decimals (a controller needs them exact), per mm or per inch. */
+function stepsText(data: SheetData): string {
+  const perMm = data.result.drive.stepsPerMm;
+  return fixed(data.units === 'imperial' ? perMm * 25.4 : perMm, data.units === 'imperial' ? 2 : 3);
 }
 
-/** Every check with its severity as a shape and a word (never colour alone). */
-export function checksTable(result: DesignResult): Content[] {
+/**
+ * Section 4: every check with its result as a shape and a word (never colour alone), worst first, its message and
+ * value and limit in the sheet's units. Internal check ids stay off the sheet. An approval over a failed check
+ * prints the reviewer's justification above the table.
+ */
+export function checksTable(data: SheetData): Content[] {
+  const result = data.result;
   const order = { fail: 0, warn: 1, ok: 2 } as const;
   const sorted = [...result.checks].sort((a, b) => order[a.severity] - order[b.severity]);
-  const rows = sorted.map((c) => [
-    {
-      columns: [
-        { svg: severityIcon(c.severity, 9), width: 9 },
-        { text: SEVERITY_WORD[c.severity], bold: true, fontSize: 7, margin: [4, 0.5, 0, 0] },
-      ],
-    },
-    c.subject ? { stack: [safe(c.message), safe(c.subject, { fontSize: 6, color: COLOR.muted })] } : safe(c.message),
-    numCell(checkValue(c.value)),
-    numCell(checkValue(c.limit)),
-    c.unit ? safe(c.unit) : { text: '—', color: COLOR.muted },
-  ]);
+  const rows = sorted.map((c) => {
+    const text = checkText(c, data.units);
+    const message = safe(text.message.replace(/\u00a0/g, ' '));
+    return [
+      {
+        columns: [
+          { svg: severityIcon(c.severity, 9), width: 9 },
+          { text: SEVERITY_WORD[c.severity], bold: true, fontSize: 7, margin: [4, 0.5, 0, 0] },
+        ],
+      },
+      c.subject ? { stack: [message, safe(c.subject, { fontSize: 6, color: COLOR.muted })] } : message,
+      numCell(text.value.replace(/\u00a0/g, ' ')),
+      numCell(text.limit.replace(/\u00a0/g, ' ')),
+    ];
+  });
+  const failed = sorted.filter((c) => c.severity === 'fail').length;
+  const justification = (data.approval.justification ?? '').trim();
   return [
-    heading('1', 'Checks'),
-    table([62, '*', 44, 44, 34], [th('Result'), th('Check'), th('Value', 'right'), th('Limit', 'right'), th('Unit')], rows),
+    heading('4', 'Checks'),
+    ...(failed && justification
+      ? [
+          {
+            text: [
+              { text: `Approved although ${plural(failed, 'check')} failed. `, bold: true },
+              { text: `${data.approval.reviewerName}'s justification: `, bold: true },
+              ...userTextRuns(justification),
+            ],
+            fontSize: 7.5,
+            margin: [0, 0, 0, 4],
+          },
+        ]
+      : []),
+    table([62, '*', 64, 64], [th('Result'), th('Check'), th('Value', 'right'), th('Limit', 'right')], rows),
     {
       text: 'Ordered: fail, then warning, then ok. The shape and the word carry the result; colour only repeats it.',
       style: 'note',
@@ -243,46 +309,52 @@ function signWord(sign: 1 | -1): string {
   return sign === -1 ? 'reversed' : 'as drawn';
 }
 
-/** The design inputs in the Design desk's four groups, with units. */
+/** Section 8: the design inputs in the Design desk's four groups, named as on the desk, in the sheet's units. */
 export function inputsSection(data: SheetData): Content[] {
   const d = data.design;
   const r = data.result;
+  const u = unitsOf(data);
   const [nameA, nameB] = motorNames(r);
-  const inertia = (v: number | null): [string, string] => (v === null ? ['estimated', ''] : [sig(v * 1e7, 3), 'g·cm²']);
+  /** One input by its path: the desk's label, the number and its unit label. */
+  const input = (path: string, value: number | null, quantity: QuantityKey, stored: string, label = fieldLabel(path)): Row =>
+    value === null ? [label, 'none', ''] : [label, u.n(value, quantity, stored), u.label(quantity)];
+  const pair = (label: string, a: number, b: number, quantity: QuantityKey, stored: string): Row => [
+    label,
+    `${u.n(a, quantity, stored)} × ${u.n(b, quantity, stored)}`,
+    u.label(quantity),
+  ];
+  const inertia = (path: string, v: number | null): Row =>
+    v === null ? [fieldLabel(path), 'estimated', ''] : input(path, v, 'inertia', 'kg m^2');
   const left: [string, Row[]][] = [
     [
       'Frame & travel',
       [
-        ['Frame outside, X × Y', `${fixed(d.frame.outerXMm, 0)} × ${fixed(d.frame.outerYMm, 0)}`, 'mm'],
-        ['Frame profile', fixed(d.frame.extrusionMm, 0), 'mm'],
-        ['Carriage footprint, X × Y', `${fixed(d.frame.carriageXMm, 0)} × ${fixed(d.frame.carriageYMm, 0)}`, 'mm'],
-        ['Gantry beam depth', fixed(d.frame.gantryYMm, 0), 'mm'],
-        ['Clearance at each end stop', fixed(d.frame.clearanceMm, 1), 'mm'],
-        ...(d.wantedTravel
-          ? [['Wanted travel, X × Y', `${fixed(d.wantedTravel.xMm, 0)} × ${fixed(d.wantedTravel.yMm, 0)}`, 'mm'] as Row]
-          : []),
-        ['Usable travel, X × Y (result)', `${fixed(r.travel.xMm, 1)} × ${fixed(r.travel.yMm, 1)}`, 'mm'],
+        pair('Frame outside, X × Y', d.frame.outerXMm, d.frame.outerYMm, 'length', 'mm'),
+        input('frame.extrusionMm', d.frame.extrusionMm, 'length', 'mm'),
+        pair('Carriage footprint, X × Y', d.frame.carriageXMm, d.frame.carriageYMm, 'length', 'mm'),
+        input('frame.gantryYMm', d.frame.gantryYMm, 'length', 'mm'),
+        input('frame.clearanceMm', d.frame.clearanceMm, 'length', 'mm'),
+        ...(d.wantedTravel ? [pair('Wanted travel, X × Y', d.wantedTravel.xMm, d.wantedTravel.yMm, 'length', 'mm')] : []),
+        pair('Usable travel, X × Y (result)', r.travel.xMm, r.travel.yMm, 'length', 'mm'),
       ],
     ],
     [
       'Belts & pulleys',
       [
-        ['Belt pitch', fixed(d.belt.pitchMm, 2), 'mm'],
-        ['Belt width', fixed(d.belt.widthMm, 1), 'mm'],
-        ['Belt mass per metre', sig(d.belt.linearMassKgPerM, 3), 'kg/m'],
-        ['Belt axial stiffness EA', grouped(d.belt.axialStiffnessN), 'N'],
-        ['Allowable tension (cords)', fixed(d.belt.allowableTensionN, 0), 'N'],
-        [
-          'Allowable load per tooth',
-          d.belt.toothAllowableN === null ? 'typical value' : fixed(d.belt.toothAllowableN, 1),
-          d.belt.toothAllowableN === null ? '' : 'N',
-        ],
-        ['Minimum pulley teeth (profile)', fixed(d.belt.minPulleyTeeth, 0), 'teeth'],
-        ['Drive pulley', fixed(d.pulley.driveTeeth, 0), 'teeth'],
-        ['Drive pulley inertia', ...inertia(d.pulley.driveInertiaKgM2)],
-        ['Idlers', fixed(d.pulley.idlerTeeth, 0), 'teeth'],
-        ['Idler inertia', ...inertia(d.pulley.idlerInertiaKgM2)],
-        ['Pretension of each span', fixed(d.pretensionN, 1), 'N'],
+        input('belt.pitchMm', d.belt.pitchMm, 'length', 'mm'),
+        input('belt.widthMm', d.belt.widthMm, 'length', 'mm'),
+        input('belt.linearMassKgPerM', d.belt.linearMassKgPerM, 'linearMass', 'kg/m'),
+        input('belt.axialStiffnessN', d.belt.axialStiffnessN, 'force', 'N'),
+        input('belt.allowableTensionN', d.belt.allowableTensionN, 'force', 'N', 'Allowable tension (cords)'),
+        d.belt.toothAllowableN === null
+          ? [fieldLabel('belt.toothAllowableN'), 'typical value', '']
+          : input('belt.toothAllowableN', d.belt.toothAllowableN, 'force', 'N'),
+        [fieldLabel('belt.minPulleyTeeth'), fixed(d.belt.minPulleyTeeth, 0), 'teeth'],
+        [fieldLabel('pulley.driveTeeth'), fixed(d.pulley.driveTeeth, 0), 'teeth'],
+        inertia('pulley.driveInertiaKgM2', d.pulley.driveInertiaKgM2),
+        [fieldLabel('pulley.idlerTeeth'), fixed(d.pulley.idlerTeeth, 0), 'teeth'],
+        inertia('pulley.idlerInertiaKgM2', d.pulley.idlerInertiaKgM2),
+        input('pretensionN', d.pretensionN, 'force', 'N', 'Pretension of each span'),
       ],
     ],
   ];
@@ -291,79 +363,81 @@ export function inputsSection(data: SheetData): Content[] {
     [
       'Motors & drivers',
       [
-        ['Step angle', fixed(d.motor.stepAngleDeg, 2), '°'],
-        ['Holding torque', fixed(d.motor.holdingTorqueNm, 3), 'N·m'],
-        ['Rated phase current', fixed(d.motor.ratedCurrentA, 2), 'A'],
-        ['Phase resistance', fixed(d.motor.phaseResistanceOhm, 2), 'ohm'],
-        ['Phase inductance', fixed(d.motor.phaseInductanceMh, 2), 'mH'],
-        ['Rotor inertia', sig(d.motor.rotorInertiaKgM2 * 1e7, 3), 'g·cm²'],
-        ['Motor mass', fixed(d.motor.massKg, 3), 'kg'],
+        [fieldLabel('motor.stepAngleDeg'), fixed(d.motor.stepAngleDeg, 2), '°'],
+        input('motor.holdingTorqueNm', d.motor.holdingTorqueNm, 'torque', 'N m'),
+        input('motor.ratedCurrentA', d.motor.ratedCurrentA, 'current', 'A'),
+        [fieldLabel('motor.phaseResistanceOhm'), u.n(d.motor.phaseResistanceOhm, 'resistance', 'ohm'), 'ohm'],
+        input('motor.phaseInductanceMh', d.motor.phaseInductanceMh, 'inductance', 'mH'),
+        input('motor.rotorInertiaKgM2', d.motor.rotorInertiaKgM2, 'inertia', 'kg m^2'),
+        input('motor.massKg', d.motor.massKg, 'massSmall', 'kg'),
         ['Torque–speed data', curve ? `table, ${d.motor.torqueCurve?.length} points` : 'motor model', ''],
         [
-          'Shaft speed limit',
+          fieldLabel('motor.maxSpeedRevPerS'),
           d.motor.maxSpeedRevPerS === null ? 'none' : fixed(d.motor.maxSpeedRevPerS, 1),
           d.motor.maxSpeedRevPerS === null ? '' : 'rev/s',
         ],
-        ...(d.mechanism === 'cartesian' ? [['Motors on Y', fixed(d.yMotors, 0), ''] as Row] : []),
+        ...(d.mechanism === 'cartesian' ? [[fieldLabel('yMotors'), formatInputValue('yMotors', d.yMotors, data.units), ''] as Row] : []),
         [`Direction of ${nameA}`, signWord(d.motorDirection.a), ''],
         [`Direction of ${nameB}`, signWord(d.motorDirection.b), ''],
-        ['Driver microsteps', fixed(d.driver.microsteps, 0), 'per step'],
-        ['Driver supply', fixed(d.driver.supplyV, 1), 'V'],
-        ['Driver phase current (RMS)', fixed(d.driver.currentRmsA, 2), 'A'],
-        ['Torque margin (share used)', fixed(d.torqueMargin * 100, 0), '%'],
+        [fieldLabel('driver.microsteps'), formatInputValue('driver.microsteps', d.driver.microsteps, data.units), ''],
+        input('driver.supplyV', d.driver.supplyV, 'voltage', 'V'),
+        input('driver.currentRmsA', d.driver.currentRmsA, 'current', 'A'),
+        [`${fieldLabel('torqueMargin')} (share used)`, fixed(d.torqueMargin * 100, 0), '%'],
       ],
     ],
     [
       'Moving masses',
       [
-        ['Carriage', fixed(d.masses.carriageKg, 3), 'kg'],
-        ['Tool', fixed(d.masses.toolKg, 3), 'kg'],
-        ['Gantry', fixed(d.masses.gantryKg, 3), 'kg'],
-        ['Moving mass in X / Y (result)', `${fixed(r.mass.xKg, 3)} / ${fixed(r.mass.yKg, 3)}`, 'kg'],
-        ['Rotor + pulley as belt mass', fixed(r.mass.reflectedPerMotorKg, 3), 'kg'],
-        ['Friction X / Y', `${fixed(d.frictionN.x, 1)} / ${fixed(d.frictionN.y, 1)}`, 'N'],
+        input('masses.carriageKg', d.masses.carriageKg, 'mass', 'kg'),
+        input('masses.toolKg', d.masses.toolKg, 'mass', 'kg'),
+        input('masses.gantryKg', d.masses.gantryKg, 'mass', 'kg'),
+        ['Moving mass in X / Y (result)', `${u.n(r.mass.xKg, 'mass', 'kg')} / ${u.n(r.mass.yKg, 'mass', 'kg')}`, u.label('mass')],
+        input('', r.mass.reflectedPerMotorKg, 'mass', 'kg', 'Rotor + pulley as belt mass'),
+        ['Friction X / Y', `${u.n(d.frictionN.x, 'force', 'N')} / ${u.n(d.frictionN.y, 'force', 'N')}`, u.label('force')],
         ...(d.mechanism === 'hbot'
           ? [
-              [
-                'Guide yaw moment rating',
-                d.guide.yawMomentRatingNm === null ? 'typical value' : fixed(d.guide.yawMomentRatingNm, 1),
-                d.guide.yawMomentRatingNm === null ? '' : 'N·m',
-              ] as Row,
+              d.guide.yawMomentRatingNm === null
+                ? ([fieldLabel('guide.yawMomentRatingNm'), 'typical value', ''] as Row)
+                : input('guide.yawMomentRatingNm', d.guide.yawMomentRatingNm, 'moment', 'N m'),
             ]
           : []),
-        ['Cruise speed', fixed(d.cruiseSpeedMmPerS, 0), 'mm/s'],
-        [
-          'Planned acceleration',
-          d.plannedAccelMmPerS2 === null ? 'worst limit' : fixed(d.plannedAccelMmPerS2 / 1000, 2),
-          d.plannedAccelMmPerS2 === null ? '' : 'm/s²',
-        ],
-        ['Tool mount lets go at', d.toolMount ? fixed(d.toolMount.holdN, 1) : 'none fitted', d.toolMount ? 'N' : ''],
-        ['Ringing tolerance', fixed(d.ringingToleranceMm, 3), 'mm'],
+        input('cruiseSpeedMmPerS', d.cruiseSpeedMmPerS, 'speed', 'mm/s'),
+        d.plannedAccelMmPerS2 === null
+          ? [fieldLabel('plannedAccelMmPerS2'), 'worst limit', '']
+          : input('plannedAccelMmPerS2', d.plannedAccelMmPerS2, 'accel', 'mm/s^2'),
+        d.toolMount
+          ? input('toolMount.holdN', d.toolMount.holdN, 'force', 'N', 'Tool mount lets go at')
+          : ['Tool mount lets go at', 'none fitted', ''],
+        input('ringingToleranceMm', d.ringingToleranceMm, 'lengthFine', 'mm'),
       ],
     ],
   ];
-  return [block(heading('2', 'Inputs'), { columns: [inputTable(left), inputTable(right)], columnGap: 14 })];
+  return [block(heading('8', 'Inputs'), { columns: [inputTable(left), inputTable(right)], columnGap: 14 })];
 }
 
-/** Drive numbers per motor and the sign convention. Plain numbers only. */
+/** Section 3: drive numbers per motor and the sign convention. Plain numbers only. */
 export function driveSection(data: SheetData): Content[] {
   const { drive } = data.result;
+  const u = unitsOf(data);
   const [nameA, nameB] = motorNames(data.result);
   const both = (value: string): Content[] => [numCell(value), numCell(value)];
-  const unit = (u: string): ContentObject => ({ text: u, color: COLOR.muted });
+  const unit = (text: string): ContentObject => ({ text, color: COLOR.muted });
+  const per = u.system === 'imperial' ? 'in' : 'mm';
+  const perWord = u.system === 'imperial' ? 'inch' : 'mm';
+  const fine = (v: number) => u.n(v, 'lengthFine', 'mm', 4);
   const rows: Content[][] = [
     ['Full steps per revolution', ...both(fixed(drive.fullStepsPerRev, 0)), unit('steps/rev')],
     ['Microsteps per full step', ...both(fixed(drive.microsteps, 0)), unit('')],
-    ['Drive pulley pitch diameter', ...both(fixed(drive.pitchDiameterMm, 3)), unit('mm')],
-    ['Belt travel per revolution', ...both(fixed(drive.travelPerRevMm, 3)), unit('mm/rev')],
+    ['Drive pulley pitch diameter', ...both(u.n(drive.pitchDiameterMm, 'length', 'mm', 5)), unit(u.label('length'))],
+    ['Belt travel per revolution', ...both(u.n(drive.travelPerRevMm, 'length', 'mm', 5)), unit(`${u.label('length')}/rev`)],
     [
-      { text: 'Steps per mm of belt', bold: true },
-      numCell(fixed(drive.stepsPerMm, 3), true),
-      numCell(fixed(drive.stepsPerMm, 3), true),
-      unit('microsteps/mm'),
+      { text: `Steps per ${perWord} of belt`, bold: true },
+      numCell(stepsText(data), true),
+      numCell(stepsText(data), true),
+      unit(`microsteps/${per}`),
     ],
-    ['Full-step length (belt)', ...both(fixed(drive.fullStepMm, 4)), unit('mm')],
-    ['Microstep length (belt)', ...both(fixed(drive.microstepBeltMm, 5)), unit('mm')],
+    ['Full-step length (belt)', ...both(fine(drive.fullStepMm)), unit(u.label('lengthFine'))],
+    ['Microstep length (belt)', ...both(fine(drive.microstepBeltMm)), unit(u.label('lengthFine'))],
   ];
   const micro = drive.microstep;
   const old = legacyMicrostep(data.result);
@@ -371,17 +445,17 @@ export function driveSection(data: SheetData): Content[] {
     ? [
         [
           'One motor steps once, the other holds',
-          numCell(`${fixed(micro.oneMotorMm, 5)} toward ${fixed(micro.oneMotorDirectionDeg, 0)}°`),
-          unit('mm'),
+          numCell(`${fine(micro.oneMotorMm)} toward ${fixed(micro.oneMotorDirectionDeg, 0)}°`),
+          unit(u.label('lengthFine')),
         ],
-        [{ text: 'Smallest pure X or pure Y move', bold: true }, numCell(fixed(micro.axisMm, 5), true), unit('mm')],
-        ['Smallest pure 45° diagonal move', numCell(fixed(micro.diagonalMm, 5)), unit('mm')],
+        [{ text: 'Smallest pure X or pure Y move', bold: true }, numCell(fine(micro.axisMm), true), unit(u.label('lengthFine'))],
+        ['Smallest pure 45° diagonal move', numCell(fine(micro.diagonalMm)), unit(u.label('lengthFine'))],
       ]
     : old
       ? [
-          [`Along X (engine ${data.result.engineVersion})`, numCell(fixed(old.x, 5)), unit('mm')],
-          [`Along Y (engine ${data.result.engineVersion})`, numCell(fixed(old.y, 5)), unit('mm')],
-          [`Along the diagonal (engine ${data.result.engineVersion})`, numCell(fixed(old.diagonal, 5)), unit('mm')],
+          [`Along X (engine ${data.result.engineVersion})`, numCell(fine(old.x)), unit(u.label('lengthFine'))],
+          [`Along Y (engine ${data.result.engineVersion})`, numCell(fine(old.y)), unit(u.label('lengthFine'))],
+          [`Along the diagonal (engine ${data.result.engineVersion})`, numCell(fine(old.diagonal)), unit(u.label('lengthFine'))],
         ]
       : [];
   const shaft =
@@ -390,7 +464,7 @@ export function driveSection(data: SheetData): Content[] {
       : '';
   return [
     block(
-      heading('3', 'Drive numbers'),
+      heading('3', 'Drive numbers for the motion controller'),
       table(['*', 80, 80, 70], [th('Per motor'), th(nameA, 'right'), th(nameB, 'right'), th('Unit')], rows),
       ...(carriage.length
         ? [
@@ -425,15 +499,24 @@ export function signConvention(data: SheetData): Content[] {
   const k = r.kinematics.matrix;
   const [nameA, nameB] = motorNames(r);
   const dir = r.signConvention.motorDirection;
+  // K is a ratio of lengths: the same numbers in any unit, for a move of one unit.
+  const one = data.units === 'imperial' ? '1 inch' : '1 mm';
   const rows: Content[][] = [
-    ['Carriage +1 mm along +X', numCell(signed(k[0][0])), numCell(signed(k[1][0]))],
-    ['Carriage +1 mm along +Y', numCell(signed(k[0][1])), numCell(signed(k[1][1]))],
+    [`Carriage moves ${one} along +X`, numCell(signed(k[0][0])), numCell(signed(k[1][0]))],
+    [`Carriage moves ${one} along +Y`, numCell(signed(k[0][1])), numCell(signed(k[1][1]))],
   ];
   return [
-    { text: 'Motor sign convention', style: 'h2', margin: [0, 10, 0, 3] },
+    { text: 'Which way each motor turns', style: 'h2', margin: [0, 10, 0, 3] },
     {
       columns: [
-        { width: 250, ...table(['*', 58, 58], [th('Belt travel at each motor [mm]'), th(nameA, 'right'), th(nameB, 'right')], rows) },
+        {
+          width: 250,
+          ...table(
+            ['*', 58, 58],
+            [th(`Belt travel at each motor${bracket(data.units === 'imperial' ? 'in' : 'mm')}`), th(nameA, 'right'), th(nameB, 'right')],
+            rows,
+          ),
+        },
         {
           width: '*',
           stack: [
@@ -458,75 +541,80 @@ export function signConvention(data: SheetData): Content[] {
   ];
 }
 
-/** Belt loops to cut, and per span the pretension and target pluck frequency at the parking position. */
+/**
+ * Section 2: belt loops to cut, then per span the target pluck frequency with its tolerance band at a stated
+ * carriage parking position — in the order a maker works: cut, fit, park, pluck.
+ */
 export function beltsSection(data: SheetData): Content[] {
   const r = data.result;
+  const u = unitsOf(data);
+  const L = u.label('length');
+  const F = u.label('force');
+  const N = (v: number) => u.n(v, 'force', 'N', 3);
   const loops = r.belts.map((b) => {
     const old = legacyBelt(b);
     return [
       safe(b.label, { bold: true }),
-      numCell(fixed(b.cutLengthMm, 0), true),
+      numCell(u.n(b.cutLengthMm, 'length', 'mm', 4), true),
       numCell(fixed(b.loopTeeth, 0), true),
-      numCell(fixed(b.loopLengthMm, 1)),
+      numCell(u.n(b.loopLengthMm, 'length', 'mm', 5)),
       numCell(`${fixed(b.teethInMesh, 1)} (${fixed(b.driveWrapDeg, 0)}°)`),
-      numCell(fixed(b.peakPullN, 1)),
+      numCell(N(b.peakPullN)),
       numCell(
-        old
-          ? `${fixed(old.tightSideN, 1)} / ${fixed(old.allowableTensionN, 0)}`
-          : `${fixed(b.tension.worstTightN, 1)} / ${fixed(b.tension.tensileAllowableN, 0)}`,
+        old ? `${N(old.tightSideN)} / ${N(old.allowableTensionN)}` : `${N(b.tension.worstTightN)} / ${N(b.tension.tensileAllowableN)}`,
       ),
-      numCell(fixed(old ? old.slackSideN : b.tension.worstSlackN, 1), !old && b.tension.worstSlackN <= 0),
-      numCell(
-        old
-          ? '—'
-          : `${fixed(b.tension.toothLoadN, 2)} / ${fixed(b.tension.toothAllowableN, 1)}${b.tension.toothAllowableIsTypical ? '*' : ''}`,
-      ),
+      numCell(N(old ? old.slackSideN : b.tension.worstSlackN), !old && b.tension.worstSlackN <= 0),
+      numCell(old ? '—' : `${N(b.tension.toothLoadN)} / ${N(b.tension.toothAllowableN)}${b.tension.toothAllowableIsTypical ? '*' : ''}`),
     ];
   });
   const where = (p: { xMm: number; yMm: number; directionDeg: number }) =>
-    `X ${fixed(p.xMm, 0)}, Y ${fixed(p.yMm, 0)} mm, moving toward ${fixed(p.directionDeg, 0)}°`;
+    `X ${u.n(p.xMm, 'length', 'mm', 3)}, Y ${u.n(p.yMm, 'length', 'mm', 3)} ${L}, moving toward ${fixed(p.directionDeg, 0)}°`;
   const worstRows = r.belts
     .filter((b) => !legacyBelt(b))
     .map((b) => [
       safe(b.label, { bold: true }),
-      numCell(fixed(b.tension.worstTightN, 1)),
+      numCell(N(b.tension.worstTightN)),
       { text: where(b.tension.worstTightAt) },
-      numCell(fixed(b.tension.worstSlackN, 1), b.tension.worstSlackN <= 0),
+      numCell(N(b.tension.worstSlackN), b.tension.worstSlackN <= 0),
       { text: where(b.tension.worstSlackAt) },
     ]);
   const typicalTooth = r.belts.some((b) => !legacyBelt(b) && b.tension.toothAllowableIsTypical);
   const isLegacy = r.belts.some((b) => legacyBelt(b));
   const spans = r.belts.flatMap((b) =>
-    b.spans.map((s) => [
-      safe(b.label),
-      safe(s.label),
-      numCell(fixed(s.lengthMm, 1)),
-      { text: s.fixedLength ? 'no' : 'yes', alignment: 'center' },
-      numCell(fixed(data.design.pretensionN, 1)),
-      numCell(fixed(s.targetFrequencyHz, 1), true),
-    ]),
+    b.spans.map((s) => {
+      const band = pluckBandHz({ targetHz: s.targetFrequencyHz });
+      return [
+        safe(b.label),
+        safe(`${s.label}${b.referenceSpanId === s.id ? ' (reference)' : ''}`),
+        numCell(u.n(s.lengthMm, 'length', 'mm', 4)),
+        { text: s.fixedLength ? 'no' : 'yes', alignment: 'center' },
+        numCell(fixed(s.targetFrequencyHz, 1), true),
+        numCell(`${fixed(band.lowHz, 1)} – ${fixed(band.highHz, 1)}`),
+      ];
+    }),
   );
   const park = r.parking;
   const centre = Math.abs(park.xMm - r.travel.xMm / 2) < 0.05 && Math.abs(park.yMm - r.travel.yMm / 2) < 0.05;
   const parking =
-    `Park the carriage at X ${fixed(park.xMm, 1)} mm, Y ${fixed(park.yMm, 1)} mm from the travel origin` +
+    `Park the carriage at X ${u.q(park.xMm, 'length', 'mm', 4)}, Y ${u.q(park.yMm, 'length', 'mm', 4)} from the travel origin` +
     `${centre ? ' (the centre of travel)' : ''} with the motors unpowered, then pluck each span at its middle.`;
+  const tolerancePct = fixed(PLUCK_TENSION_TOLERANCE * 100, 0);
   return [
     block(
-      heading('4', 'Belts'),
+      heading('2', 'Belts: cut, fit and tension'),
       { text: 'Loops to cut', style: 'h2', margin: [0, 0, 0, 3] },
       table(
         [52, 44, 34, '*', 54, 40, 62, 40, 56],
         [
           th('Belt'),
-          th('Cut length [mm]', 'right'),
+          th(`Cut length${bracket(L)}`, 'right'),
           th('Teeth', 'right'),
-          th('Pitch-line loop [mm]', 'right'),
+          th(`Pitch-line loop${bracket(L)}`, 'right'),
           th('Teeth in mesh (wrap)', 'right'),
-          th('Peak pull [N]', 'right'),
-          th(isLegacy ? 'Tight side / allowed [N]' : 'Worst tight / allowed [N]', 'right'),
-          th(isLegacy ? 'Slack side [N]' : 'Worst slack [N]', 'right'),
-          th('Tooth load / allowed [N]', 'right'),
+          th(`Peak pull${bracket(F)}`, 'right'),
+          th(`${isLegacy ? 'Tight side' : 'Worst tight'} / allowed${bracket(F)}`, 'right'),
+          th(`${isLegacy ? 'Slack side' : 'Worst slack'}${bracket(F)}`, 'right'),
+          th(`Tooth load / allowed${bracket(F)}`, 'right'),
         ],
         loops,
       ),
@@ -549,7 +637,7 @@ export function beltsSection(data: SheetData): Content[] {
             { text: 'Where the worst tensions occur', style: 'h2', margin: [0, 6, 0, 3] },
             table(
               [52, 44, '*', 44, '*'],
-              [th('Belt'), th('Tight [N]', 'right'), th('Where'), th('Slack [N]', 'right'), th('Where')],
+              [th('Belt'), th(`Tight${bracket(F)}`, 'right'), th('Where'), th(`Slack${bracket(F)}`, 'right'), th('Where')],
               worstRows,
             ),
           ]
@@ -557,36 +645,48 @@ export function beltsSection(data: SheetData): Content[] {
     ),
     {
       stack: [
-        { text: 'Span tension targets', style: 'h2', headlineLevel: 2 },
-        { text: parking, bold: true, fontSize: 7.5, margin: [0, 0, 0, 4] },
+        { text: 'Tension: pluck each span', style: 'h2', headlineLevel: 2 },
+        { text: parking, bold: true, fontSize: 7.5, margin: [0, 0, 0, 2] },
+        {
+          text:
+            `Set every span to ${u.q(data.design.pretensionN, 'force', 'N', 3)}: tighten until the pluck reads the target, ` +
+            `and stop inside the band (tension within ±${tolerancePct} % of the target).`,
+          fontSize: 7.5,
+          margin: [0, 0, 0, 4],
+        },
       ],
     },
     table(
-      [60, '*', 52, 52, 54, 64],
+      [60, '*', 56, 52, 60, 76],
       [
         th('Belt'),
         th('Span'),
-        th('Free length [mm]', 'right'),
+        th(`Free length${bracket(L)}`, 'right'),
         th('Moves with carriage', 'center'),
-        th('Pretension [N]', 'right'),
         th('Target pluck [Hz]', 'right'),
+        th('Good band [Hz]', 'right'),
       ],
       spans,
     ),
     {
       text:
-        `Pluck frequency of a span f = (1 / 2L) · sqrt(T / m), with m = ${sig(data.design.belt.linearMassKgPerM, 3)} kg/m for this belt. ` +
-        'Spans that do not move with the carriage can be checked at any position. Record measured frequencies against this sheet in the app; ' +
-        'it reports the tension and flags a mismatch between belts.',
+        `The band keeps the tension within ±${tolerancePct} % of the target, a typical value from belt makers' installation guides; ` +
+        'the pluck frequency goes with the square root of tension, so the band is about −5 % / +5 % in hertz. ' +
+        `Pluck frequency of a span f = (1 / 2L) · sqrt(T / m), with m = ${u.q(data.design.belt.linearMassKgPerM, 'linearMass', 'kg/m', 3)} for this belt. ` +
+        'Spans that do not move with the carriage can be checked at any position. Record plucks against this sheet in the app; ' +
+        'it reports the tension and flags a mismatch between belts. A reading far above the target may be the second harmonic: pluck again, softly, in the middle.',
       style: 'note',
       margin: [0, 3, 0, 0],
     },
   ];
 }
 
-/** Acceleration and speed limits along X, Y, the diagonal and the worst direction. */
+/** Section 5: acceleration and speed limits along X, Y, the diagonal and the worst direction. */
 export function limitsSection(data: SheetData): Content[] {
   const env = data.result.envelope;
+  const u = unitsOf(data);
+  const A = u.label('accel');
+  const V = u.label('speed');
   const limiting = (deg: number): string => {
     const i = env.directionsDeg.findIndex((d) => Math.abs(d - deg) < 0.5);
     return limitingName(data.result, i >= 0 ? env.limitingMotor[i] : undefined);
@@ -597,9 +697,9 @@ export function limitsSection(data: SheetData): Content[] {
     return [
       { text: name, bold: key === 'worst' },
       numCell(fixed(ax.directionDeg, 0)),
-      numCell(fixed(ax.accelMaxMPerS2, 2), key === 'worst'),
-      numCell(fixed(ax.accelAtCruiseMPerS2, 2), key === 'worst'),
-      numCell(fixed(ax.speedMaxMPerS * 1000, 0), key === 'worst'),
+      numCell(u.n(ax.accelMaxMPerS2, 'accel', 'm/s^2', 3), key === 'worst'),
+      numCell(u.n(ax.accelAtCruiseMPerS2, 'accel', 'm/s^2', 3), key === 'worst'),
+      numCell(u.n(ax.speedMaxMPerS, 'speed', 'm/s', 3), key === 'worst'),
       limiting(ax.directionDeg),
     ];
   });
@@ -611,9 +711,9 @@ export function limitsSection(data: SheetData): Content[] {
         [
           th('Direction'),
           th('Angle [°]', 'right'),
-          th('Accel. at rest [m/s²]', 'right'),
-          th(`Accel. at ${fixed(data.design.cruiseSpeedMmPerS, 0)} mm/s [m/s²]`, 'right'),
-          th('Max speed [mm/s]', 'right'),
+          th(`Accel. at rest${bracket(A)}`, 'right'),
+          th(`Accel. at ${u.q(data.design.cruiseSpeedMmPerS, 'speed', 'mm/s', 3)}${bracket(A)}`, 'right'),
+          th(`Max speed${bracket(V)}`, 'right'),
           th('Limited by'),
         ],
         rows,
@@ -643,35 +743,41 @@ function motorModelNote(data: SheetData): string {
   );
 }
 
-/** Lowest resonance and where, ringing at the weakest point, and gantry racking. */
+/** Section 6: lowest resonance and where, ringing at the weakest point, and gantry racking. */
 export function stiffnessSection(data: SheetData): Content[] {
   const r = data.result;
   const s = r.stiffness;
+  const u = unitsOf(data);
   const tol = s.toleranceMm;
+  const A = u.label('accel');
   const keys = data.design.plannedAccelMmPerS2 !== null ? (['x', 'y', 'worst', 'planned'] as const) : (['x', 'y', 'worst'] as const);
   const ringRows = keys.map((key) => {
     const f = s.ringing[key];
     const name = { x: 'Limit along X', y: 'Limit along Y', worst: 'Limit, worst direction', planned: 'Planned acceleration' }[key];
     return [
       name,
-      numCell(fixed(f.accelMPerS2, 2)),
-      numCell(fixed(f.amplitudeMm, 4), f.amplitudeMm > tol),
-      numCell(fixed(f.accelForToleranceMPerS2, 2)),
+      numCell(u.n(f.accelMPerS2, 'accel', 'm/s^2', 3)),
+      numCell(u.n(f.amplitudeMm, 'lengthFine', 'mm', 3), f.amplitudeMm > tol),
+      numCell(u.n(f.accelForToleranceMPerS2, 'accel', 'm/s^2', 3)),
     ];
   });
   const rk = r.racking;
+  const momentPer =
+    u.system === 'imperial'
+      ? `${fixed(rk.momentPerNewtonM * 39.37007874, 3)} lbf·in per lbf`
+      : `${fixed(rk.momentPerNewtonM, 3)} N·m per newton`;
   const rating =
     typeof rk.yawMomentRatingNm === 'number'
-      ? ` The guides are rated for ${fixed(rk.yawMomentRatingNm, 1)} N·m about the vertical axis${rk.yawMomentRatingIsTypical ? ' (typical value for two small profile-rail carriages; use the guide maker’s rating)' : ''}.`
+      ? ` The guides are rated for ${u.q(rk.yawMomentRatingNm, 'moment', 'N m', 3)} about the vertical axis${rk.yawMomentRatingIsTypical ? ' (typical value for two small profile-rail carriages; use the guide maker’s rating)' : ''}.`
       : '';
   const racking =
     rk.momentPerNewtonM === 0
       ? r.mechanism === 'cartesian'
         ? 'The X belt is closed on the gantry, so its pull puts no moment on the gantry.'
         : 'Not computed for crossed belts: they would cancel the moment only if each belt shared its pull equally between its arms; with unequal arms a position-dependent moment remains, which this engine does not report yet.'
-      : `The gantry feels ${sig(rk.momentPerNewtonM, 3)} N·m per newton of X belt pull (belt turns ${fixed(rk.turnSpacingMm, 0)} mm apart). ` +
-        `At the peak X pull of ${fixed(rk.peakForceXN, 1)} N that is ${fixed(rk.peakMomentNm, 2)} N·m, taken by the Y guides as ` +
-        `${fixed(rk.guideReactionN, 1)} N over their ${fixed(rk.guideSpanMm, 0)} mm span.${rating}`;
+      : `The gantry feels ${momentPer} of X belt pull (belt turns ${u.q(rk.turnSpacingMm, 'length', 'mm', 3)} apart). ` +
+        `At the peak X pull of ${u.q(rk.peakForceXN, 'force', 'N', 3)} that is ${u.q(rk.peakMomentNm, 'moment', 'N m', 3)}, taken by the Y guides as ` +
+        `${u.q(rk.guideReactionN, 'force', 'N', 3)} over their ${u.q(rk.guideSpanMm, 'length', 'mm', 3)} span.${rating}`;
   return [
     block(
       heading('6', 'Stiffness, resonance and racking'),
@@ -682,21 +788,21 @@ export function stiffnessSection(data: SheetData): Content[] {
             stack: [
               { text: 'Lowest resonance', style: 'label' },
               { text: `${fixed(s.min.frequencyHz, 1)} Hz`, fontSize: 16, bold: true },
-              { text: `at X ${fixed(s.min.xMm, 1)} mm, Y ${fixed(s.min.yMm, 1)} mm`, fontSize: 7.5 },
+              { text: `at X ${u.q(s.min.xMm, 'length', 'mm', 4)}, Y ${u.q(s.min.yMm, 'length', 'mm', 4)}`, fontSize: 7.5 },
               { text: 'the weakest point of the travel (marked on the stiffness map)', style: 'note', margin: [0, 2, 0, 0] },
             ],
           },
           {
             width: '*',
             stack: [
-              { text: `Ringing at the weakest point (tolerance ${fixed(tol, 3)} mm)`, style: 'h2', margin: [0, 0, 0, 3] },
+              { text: `Ringing at the weakest point (tolerance ${u.q(tol, 'lengthFine', 'mm', 3)})`, style: 'h2', margin: [0, 0, 0, 3] },
               table(
                 ['*', 62, 66, 112],
                 [
                   th('Acceleration'),
-                  th('Accel. [m/s²]', 'right'),
-                  th('Overshoot [mm]', 'right'),
-                  th('Accel. for tolerance [m/s²]', 'right'),
+                  th(`Accel.${bracket(A)}`, 'right'),
+                  th(`Overshoot${bracket(u.label('lengthFine'))}`, 'right'),
+                  th(`Accel. for tolerance${bracket(A)}`, 'right'),
                 ],
                 ringRows,
               ),
@@ -714,8 +820,13 @@ export function stiffnessSection(data: SheetData): Content[] {
   ];
 }
 
-/** The parts list for ordering. */
-export function partsSection(result: DesignResult): Content[] {
-  const rows = result.partsList.map((p) => [safe(p.item, { bold: true }), numCell(fixed(p.quantity, 0)), safe(p.spec)]);
-  return [heading('8', 'Parts list'), table([150, 30, '*'], [th('Item'), th('Qty', 'right'), th('Specification')], rows)];
+/** Section 1: the parts list for ordering, lengths in the sheet's units. */
+export function partsSection(data: SheetData): Content[] {
+  const u = unitsOf(data);
+  const rows = data.result.partsList.map((p) => [
+    safe(p.item, { bold: true }),
+    numCell(fixed(p.quantity, 0)),
+    safe(p.specParts?.length ? u.parts(p.specParts) : p.spec),
+  ]);
+  return [heading('1', 'Parts to order'), table([150, 30, '*'], [th('Item'), th('Qty', 'right'), th('Specification')], rows)];
 }

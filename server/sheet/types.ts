@@ -1,4 +1,5 @@
 import type { DesignInput, DesignInputRaw, DesignResult, Mechanism, Severity } from '@/engine';
+import type { UnitSystem } from '@/format';
 
 export type { DesignInput, DesignResult, Mechanism, Severity };
 
@@ -12,7 +13,13 @@ export interface SheetInput {
   /** Author of the revision. */
   designer: { name: string; email: string };
   /** The approval that publishes this sheet. */
-  approval: { reviewerName: string; approvedAt: Date | string; comment: string };
+  approval: {
+    reviewerName: string;
+    approvedAt: Date | string;
+    comment: string;
+    /** Why the reviewer approved although a check failed (printed beside the checks); null or absent otherwise. */
+    justification?: string | null;
+  };
   /** The revision's frozen design document (src/engine/README.md); defaults are filled in again with the engine's schema. */
   inputs: DesignInputRaw | DesignInput;
   /** The revision's frozen engine result (evaluateDesign output), never a recomputation. */
@@ -22,9 +29,12 @@ export interface SheetInput {
   paper: 'A4' | 'LETTER';
   /** Base address of the app, printed as where sheets and tension records live. */
   appUrl?: string;
+  /** Unit system every quantity is printed in (default metric). */
+  units?: UnitSystem;
 }
 
 /** SheetInput with the design validated and its defaults filled in. */
 export interface SheetData extends SheetInput {
   design: DesignInput;
+  units: UnitSystem;
 }

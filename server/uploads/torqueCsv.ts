@@ -31,18 +31,22 @@ export interface CsvErrorDetail {
   message: string;
 }
 
-/** A torque table that cannot be used; `details` names every problem found (up to 20). Answered with 400. */
+/** A CSV upload (torque table, job points) that cannot be used; `details` names every problem found (up to 20). Answered with 400. */
 export class CsvError extends Error {
   readonly code = 'invalid_csv';
   /** HTTP status a route should answer with. */
   readonly httpStatus = 400;
   readonly details: CsvErrorDetail[];
 
-  constructor(details: CsvErrorDetail[]) {
+  /**
+   * @param details - every problem with its line and column
+   * @param what - the file in words for the message ("torque table", "job file")
+   */
+  constructor(details: CsvErrorDetail[], what = 'torque table') {
     const first = details[0];
     const where = first ? [first.line !== null ? `line ${first.line}` : '', first.column ?? ''].filter(Boolean).join(', ') : '';
     const more = details.length > 1 ? ` (and ${details.length - 1} more problem${details.length > 2 ? 's' : ''})` : '';
-    super(`The torque table cannot be used: ${where ? `${where}: ` : ''}${first?.message ?? 'unknown problem'}${more}`);
+    super(`The ${what} cannot be used: ${where ? `${where}: ` : ''}${first?.message ?? 'unknown problem'}${more}`);
     this.name = 'CsvError';
     this.details = details;
   }
@@ -267,7 +271,7 @@ export function parseTorqueCsv(text: string): TorqueTable {
 }
 
 /** The separator used most in the first line that holds data (comma on a tie or when there is none). */
-function detectDelimiter(text: string): ',' | ';' | '\t' {
+export function detectDelimiter(text: string): ',' | ';' | '\t' {
   const firstLine = text.split('\n').find((l) => l.trim() !== '' && !l.trimStart().startsWith('#')) ?? '';
   const count = (ch: string): number => firstLine.split(ch).length - 1;
   const counts: Array<[',' | ';' | '\t', number]> = [
@@ -350,7 +354,8 @@ function splitHeaderCell(cell: string): { unitKey: string; words: Set<string> } 
 
 const NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 
-function readNumber(
+/** Reads one numeric cell (a decimal comma where the separator allows it); records a problem and returns undefined otherwise. */
+export function readNumber(
   cell: string,
   line: number,
   column: string,
@@ -370,7 +375,8 @@ function readNumber(
   return value;
 }
 
-function csvParseDetail(err: unknown): CsvErrorDetail {
+/** A csv-parse failure as one problem with its line. */
+export function csvParseDetail(err: unknown): CsvErrorDetail {
   const e = err as { code?: string; lines?: number; message?: string };
   const line = typeof e.lines === 'number' ? e.lines : null;
   switch (e.code) {

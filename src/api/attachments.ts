@@ -1,6 +1,6 @@
 import type { TorquePoint } from '@/engine';
 import { apiUrl, del, get, upload } from './http';
-import type { MotorPart } from './parts';
+import type { TorqueConditions, MotorPart } from './parts';
 import type { Page } from './types';
 
 /** A file attached to a design (or the source file of a motor's torque table). */
@@ -61,11 +61,13 @@ export const TORQUE_CSV_MAX_BYTES = 64 * 1024;
 export const getTorqueCurve = (motorId: number): Promise<TorqueCurveInfo> => get(`/parts/motors/${motorId}/torque-curve`);
 
 /**
- * Replaces a motor's torque table with a CSV (admin). The file is stored as an attachment of the motor, so the
- * upload lives here with the other file uploads.
+ * Replaces a motor's torque table with a CSV (admin), with the supply voltage and driver current it was measured at.
+ * The file is stored as an attachment of the motor, so the upload lives here with the other file uploads.
  */
-export function uploadTorqueCurve(motorId: number, file: File): Promise<TorqueCurveInfo> {
+export function uploadTorqueCurve(motorId: number, file: File, measuredAt: TorqueConditions): Promise<TorqueCurveInfo> {
   const form = new FormData();
+  form.append('supplyV', String(measuredAt.supplyV));
+  form.append('currentRmsA', String(measuredAt.currentRmsA));
   form.append('file', file, file.name);
   return upload(`/parts/motors/${motorId}/torque-curve`, form);
 }

@@ -1,5 +1,5 @@
 import type { DesignInputRaw, Mechanism } from '@/engine';
-import { apiUrl, del, get, patch, post } from './http';
+import { apiUrl, del, get, patch, post, upload } from './http';
 import type { Page } from './types';
 
 import { DESIGN_STATUSES, type DesignStatus } from '@/contracts';
@@ -88,3 +88,20 @@ export const deleteDesign = (id: number): Promise<void> => del(`/designs/${id}`)
 
 /** URL of the JSON export of a design (the browser downloads it). */
 export const designExportUrl = (id: number): string => apiUrl(`/designs/${id}/export`);
+
+/** What a job upload answers: the saved design and what was read from the file. */
+export interface JobUploadResult {
+  design: Design;
+  job: { pointCount: number; sourceUnits: { x: 'mm' | 'in'; y: 'mm' | 'in'; dwell: 's' | 'ms' | null } };
+}
+
+/** File types the job upload accepts. */
+export const JOB_CSV_ACCEPT = '.csv,.txt,text/csv,text/plain';
+
+/** Replaces a design's job points with a CSV file (x, y, optional dwell) and saves the design at `version`. */
+export function uploadDesignJob(id: number, file: File, version: number): Promise<JobUploadResult> {
+  const form = new FormData();
+  form.append('version', String(version));
+  form.append('file', file, file.name);
+  return upload(`/designs/${id}/job`, form);
+}

@@ -53,6 +53,8 @@ export interface SpanSummary {
   /** The span the sheet names for setting the belt's tension. */
   isReference: boolean;
   targetFrequencyHz: number;
+  /** Pluck frequencies that count as on target [Hz]. */
+  targetBandHz: { low: number; high: number };
   targetTensionN: number;
   latest: Measurement | null;
   count: number;
@@ -76,6 +78,8 @@ export interface SheetMeasurements extends Page<Measurement> {
   spans: SpanSummary[];
   pairs: CrossedPair[];
   tolerances: { crossedBeltPct: number; targetPct: number; source: string };
+  /** The belt's allowable tight-side tension [N]: a reading above it needs attention. */
+  allowableTensionN: number;
   /** Whether the signed-in user may record (maker or admin). */
   canRecord: boolean;
 }

@@ -62,6 +62,14 @@ export interface MotorPart extends PartBase {
   rotorInertiaKgM2: number;
   massKg: number;
   torqueCurve: TorquePoint[] | null;
+  /** Supply [V] and driver RMS current [A] the torque table was measured at (null when not recorded). */
+  torqueCurveConditions: TorqueConditions | null;
+}
+
+/** What a torque table was measured at. */
+export interface TorqueConditions {
+  supplyV: number;
+  currentRmsA: number;
 }
 
 /** Part type per shelf. */

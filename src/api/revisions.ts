@@ -1,3 +1,4 @@
+import type { QuantityKey, UnitSystem } from '@/format';
 import type { DesignInput, DesignResult, Mechanism } from '@/engine';
 import type { DesignStatus } from './designs';
 import { get, post } from './http';
@@ -43,6 +44,10 @@ export interface RevisionListItem {
   returnReason: string | null;
   /** The reviewer's comment on approval (status `approved`). */
   approvalComment: string | null;
+  /** Why the reviewer approved although a check failed, else null. */
+  approvalJustification: string | null;
+  /** Unit system the design sheet is printed in. */
+  sheetUnits: UnitSystem;
   sheetId: number | null;
   engineVersion: string;
   /** SHA-256 of the frozen inputs and results. */
@@ -72,7 +77,12 @@ export interface InputChange {
 export interface ResultChange {
   key: string;
   label: string;
+  /** Unit of `old` and `new` as stored (kept for programs; people read them through `quantity`). */
   unit: string;
+  /** What the numbers measure, so they are shown in the reader's unit system (null for counts). */
+  quantity: QuantityKey | null;
+  /** mathjs unit string of `old` and `new`. */
+  stored: string;
   old: number | null;
   new: number | null;
   isChanged: boolean;
@@ -125,18 +135,26 @@ export const listComments = (id: number): Promise<Page<RevisionComment>> => get(
 export const addComment = (id: number, body: string, parentId?: number | null): Promise<RevisionComment> =>
   post(`/revisions/${id}/comments`, parentId ? { body, parentId } : { body });
 
-/** Approves a revision; the server renders and publishes its design sheet. */
+/**
+ * Approves a revision; the server renders and publishes its design sheet. `justification` is required when a
+ * check of the revision failed (400 otherwise).
+ */
 export const approveRevision = (
   id: number,
   comment: string,
-): Promise<{ revision: RevisionDetail; sheet: { id: number; sha256: string } }> => post(`/revisions/${id}/approve`, { comment });
+  justification = '',
+): Promise<{ revision: RevisionDetail; sheet: { id: number; sha256: string } }> =>
+  post(`/revisions/${id}/approve`, justification ? { comment, justification } : { comment });
 
 /** Returns a revision to its designer with a reason (required). */
 export const returnRevision = (id: number, reason: string): Promise<RevisionDetail> => post(`/revisions/${id}/return`, { reason });
 
-/** Submits a design for review; `version` is the design version the designer sees. */
-export const submitDesign = (designId: number, version?: number): Promise<RevisionDetail> =>
-  post(`/designs/${designId}/submit`, version === undefined ? {} : { version });
+/**
+ * Submits a design for review; `version` is the design version the designer sees, `sheetUnits` the unit system
+ * its design sheet will be printed in.
+ */
+export const submitDesign = (designId: number, version?: number, sheetUnits?: UnitSystem): Promise<RevisionDetail> =>
+  post(`/designs/${designId}/submit`, { ...(version === undefined ? {} : { version }), ...(sheetUnits ? { sheetUnits } : {}) });
 
 /** Withdraws the design's revision in review; the design becomes a draft again. */
 export const withdrawDesign = (designId: number): Promise<RevisionDetail> => post(`/designs/${designId}/withdraw`, {});

@@ -1,3 +1,4 @@
+import type { UnitSystem } from '@/format';
 import type { Mechanism } from '@/engine';
 import { apiUrl, get } from './http';
 import type { PersonRef } from './revisions';
@@ -29,6 +30,12 @@ export interface SheetListItem {
   /** ISO 8601 timestamp */
   approvedAt: string;
   comment: string;
+  /** Why the reviewer approved although a check failed (null when nothing failed). */
+  justification: string | null;
+  /** Unit system the PDF is printed in (chosen by the designer at submission). */
+  units: UnitSystem;
+  /** The frozen revision's check counts. */
+  checks: { ok: number; warn: number; fail: number };
   /** SHA-256 of the A4 PDF. */
   sha256: string;
   files: SheetFile[];

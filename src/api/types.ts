@@ -12,6 +12,8 @@ export interface User {
   name: string;
   roles: Role[];
   disabled: boolean;
+  /** Invited and has not set a password yet. */
+  isInvited?: boolean;
   /** ISO 8601 timestamp */
   createdAt: string;
 }

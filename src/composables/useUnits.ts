@@ -1,6 +1,6 @@
 import { storeToRefs } from 'pinia';
 import { useUnitsStore } from '@/stores/units';
-import { displayUnit, formatQuantity, fromDisplay, toDisplay, type QuantityKey, type UnitSystem } from '@/components/units/quantities';
+import { displayUnit, formatQuantity, fromDisplay, toDisplay, type QuantityKey, type UnitSystem } from '@/format';
 
 /**
  * Unit conversions bound to the person's chosen system (the units store).

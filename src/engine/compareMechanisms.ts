@@ -2,6 +2,7 @@ import type { InputIssue } from './errors';
 import { evaluateValidDesign } from './evaluateDesign';
 import { MECHANISMS } from './kinematics';
 import { parseDesign, safeParseDesign } from './schema';
+import type { ModeId } from './structuralModes';
 import type { DesignResult, Mechanism } from './types';
 
 /** Key numbers of one design, side by side with others. */
@@ -19,6 +20,54 @@ export interface KeyFigures {
   motorCount: number;
   warnCount: number;
   failCount: number;
+  /** Second-layer figures (docs/models/). */
+  secondLayer: SecondLayerFigures;
+}
+
+/** The second layer's key numbers, for comparing mechanisms and sweeping an input. */
+export interface SecondLayerFigures {
+  /** Worst positioning error over the travel [mm]. */
+  errorTotalMm: number;
+  /** Lowest of all modes and which one [Hz]. */
+  lowestModeHz: number;
+  lowestModeId: ModeId;
+  /** Move time the ZV shaper adds [s]. */
+  zvShaperS: number;
+  /** Shortest constant-acceleration ramp to cruise within the ringing tolerance [s]. */
+  rampTimeS: number;
+  /** Microstep rate of the fastest motor at cruise [Hz]. */
+  microstepRateHz: number;
+  /** Copper loss of all motors [W]. */
+  copperLossW: number;
+  /** Supply power with margin [W]. */
+  supplyPowerW: number;
+  /** Largest radial load on a motor shaft at peak pull [N]. */
+  motorShaftLoadN: number;
+  /** Job cycle time at the plan (null without a job, or when some move cannot be made) [s]. */
+  jobTotalS: number | null;
+  /** Job cycle time as fast as the motors allow [s]. */
+  jobAtLimitsS: number | null;
+}
+
+/**
+ * The second layer's key numbers of a result.
+ * @param r - an evaluateDesign result
+ * @returns error [mm], lowest mode [Hz], shaper and ramp times [s], step rate [Hz], powers [W], shaft load [N], job [s]
+ */
+export function secondLayerFigures(r: DesignResult): SecondLayerFigures {
+  return {
+    errorTotalMm: r.errorBudget.worst.totalMm,
+    lowestModeHz: r.stiffness.lowest.frequencyHz,
+    lowestModeId: r.stiffness.lowest.modeId,
+    zvShaperS: r.shaping.zvDurationS,
+    rampTimeS: r.shaping.rampTimeForTolerance.trapezoidalS,
+    microstepRateHz: r.excitation.microstepRateHzAtCruise,
+    copperLossW: r.heat.totalCopperLossW,
+    supplyPowerW: r.heat.supply.powerW,
+    motorShaftLoadN: r.loads.motorShaftRadialN.atPeak,
+    jobTotalS: r.job ? r.job.totalS : null,
+    jobAtLimitsS: r.job?.atLimits ? r.job.atLimits.totalS : null,
+  };
 }
 
 /** One mechanism's row of a comparison. */
@@ -49,6 +98,7 @@ export function keyFigures(r: DesignResult): KeyFigures {
     motorCount: r.motors.reduce((s, m) => s + m.count, 0),
     warnCount: r.checks.filter((c) => c.severity === 'warn').length,
     failCount: r.checks.filter((c) => c.severity === 'fail').length,
+    secondLayer: secondLayerFigures(r),
   };
 }
 

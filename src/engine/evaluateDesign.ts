@@ -2,6 +2,8 @@ import { solveLoop, type LoopState, type MotorVar } from './beltLayout';
 import { beltTensionOverTravel, type LoopTensionResult } from './beltTensionMap';
 import { CAUTIONS } from './cautions';
 import { designChecks, MIN_TEETH_IN_MESH, teethInMeshFactor } from './checks';
+import { secondLayerChecks } from './secondLayerChecks';
+import { torqueTableCheck } from './torqueTableCheck';
 import { fullStepsPerRev } from './drive';
 import { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type EnvelopeInput, type EnvelopeResult } from './envelope';
 import { frameToTravel, type TravelInfo } from './frame';
@@ -13,6 +15,7 @@ import { modelTopSpeedRevPerS, motorHoldingStiffnessNmPerRad, torqueConstantNmPe
 import { CLAMP_ALLOWANCE_MM, partsList } from './partsList';
 import { guideReactionN, rackingMomentPerNewtonM, rackingTurnSpacingMm } from './racking';
 import { parseDesign, type DesignInput } from './schema';
+import { evaluateSecondLayer, spanBands, structureStiffness, type SecondLayerResult, type StructureStiffness } from './secondLayer';
 import { stiffnessMap, type StiffnessResult } from './stiffness';
 import { spanFrequencyHz } from './tension';
 import { TYPICAL_YAW_MOMENT_RATING_NM, typicalToothAllowableN } from './typicalValues';
@@ -69,6 +72,24 @@ function ringing(accel: number, fHz: number, tolMm: number): RingingFigure {
     amplitudeMm: w2 > 0 ? (accel / w2) * 1000 : Infinity,
     accelForToleranceMPerS2: (tolMm / 1000) * w2,
   };
+}
+
+/** Ringing at the axes' and the worst direction's limits and at the planned acceleration, at the lowest belt mode. */
+function ringingFigures(es: EnvelopeSection, fHz: number, tolMm: number, plannedAccel: number): DesignResult['stiffness']['ringing'] {
+  return {
+    x: ringing(es.axes.x.accelMaxMPerS2, fHz, tolMm),
+    y: ringing(es.axes.y.accelMaxMPerS2, fHz, tolMm),
+    worst: ringing(es.axes.worst.accelMaxMPerS2, fHz, tolMm),
+    planned: ringing(plannedAccel, fHz, tolMm),
+  };
+}
+
+/** The second layer's own sections of the result (everything but the lowest-mode fields of `stiffness`). */
+function secondLayerSections(
+  second: SecondLayerResult,
+): Pick<DesignResult, 'errorBudget' | 'modes' | 'modesNotHeld' | 'structure' | 'shaping' | 'excitation' | 'heat' | 'loads' | 'job'> {
+  const { errorBudget, modes, modesNotHeld, structure, shaping, excitation, heat, loads, job } = second;
+  return { errorBudget, modes, modesNotHeld, structure, shaping, excitation, heat, loads, job };
 }
 
 /** Drive pulley radius and the drive numbers of the result (docs/models/resolution.md). */
@@ -207,10 +228,13 @@ function envelopeSection(d: DesignInput, k: Matrix2, m: MassModel, tq: TorqueSou
 }
 
 /** Stiffness map over the travel (docs/models/stiffness-and-ringing.md). */
-function stiffnessSection(d: DesignInput, t: TravelInfo, m: MassModel, rM: number): StiffnessResult {
+function stiffnessSection(d: DesignInput, t: TravelInfo, m: MassModel, rM: number, structure: StructureStiffness): StiffnessResult {
   const kMotor = motorHoldingStiffnessNmPerRad(d.motor, d.driver) / (rM * rM);
   const motorStiffness: Record<MotorVar, number> = { A: kMotor, B: kMotor, B2: kMotor };
   return stiffnessMap({
+    // The gantry's yaw coordinate and a cross shaft, for the structural modes (docs/models/structural-modes.md).
+    yawSlopesMmPerRad: structure.yawSlopesMmPerRad,
+    shaft: structure.shaft,
     models: t.models,
     motorStiffnessNPerM: motorStiffness,
     axialStiffnessN: d.belt.axialStiffnessN,
@@ -447,6 +471,63 @@ function checksOf(
 }
 
 /**
+ * The second layer (docs/models/): error budget, structural modes, vibration control, excitation, heat, shaft loads
+ * and the job, from what the first layer computed.
+ */
+function secondLayerOf(
+  d: DesignInput,
+  x: {
+    k: Matrix2;
+    t: TravelInfo;
+    states: LoopState[];
+    m: MassModel;
+    es: EnvelopeSection;
+    map: StiffnessResult;
+    structure: StructureStiffness;
+    belts: BeltReport[];
+    rM: number;
+    plannedAccel: number;
+    motors: DesignResult['motors'];
+  },
+): SecondLayerResult {
+  const { t, es, belts, rM } = x;
+  const kTheta = motorHoldingStiffnessNmPerRad(d.motor, d.driver);
+  let worstIndex = 0;
+  es.env.accelMaxMPerS2.forEach((a, i) => a < es.env.accelMaxMPerS2[worstIndex] - 1e-12 && (worstIndex = i));
+  return evaluateSecondLayer({
+    d,
+    k: x.k,
+    t,
+    envIn: es.envIn,
+    env: es.env,
+    worstIndex,
+    map: x.map,
+    structure: x.structure,
+    motorsOn: x.m.motorsOn,
+    pulleyRadiusM: rM,
+    motorStiffnessNPerM: kTheta / (rM * rM),
+    holdingTorqueNm: kTheta / (90 / d.motor.stepAngleDeg),
+    plannedAccelMPerS2: x.plannedAccel,
+    belts: t.layout.loops.map((loop, i) => ({
+      id: loop.id,
+      label: loop.label,
+      loop,
+      wrapsRad: x.states[i].path.wraps.map((w) => w.wrapRad),
+      spans: spanBands(
+        t.models[i],
+        t,
+        belts[i].spans.map((sp) => sp.label),
+        d,
+        Math.max(1, d.frame.clearanceMm),
+      ),
+      worstTightN: belts[i].tension.worstTightN,
+      peakPullN: belts[i].tension.peakPullN,
+    })),
+    motorLabels: x.motors.map((mo) => ({ id: mo.id, label: `Motor ${mo.axisLabel}` })),
+  });
+}
+
+/**
  * Evaluates a design: validates it with the schema, then computes kinematics, drive numbers, travel, belt
  * layout, masses, motor torque, the acceleration/speed envelope, belt tensions over the travel, the stiffness map,
  * ringing, racking, parts and checks (docs/README.md).
@@ -476,7 +557,8 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
   const m = massModel(d, t, states, rM);
   const tq = torqueSource(d);
   const es = envelopeSection(d, k, m, tq, rM);
-  const map = stiffnessSection(d, t, m, rM);
+  const structure = structureStiffness(d, t, rM);
+  const map = stiffnessSection(d, t, m, rM, structure);
   const tensions = beltTensionOverTravel({
     models: t.models,
     motorVars: t.layout.motorVars,
@@ -490,16 +572,17 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
   });
   const belts = beltReports(d, t, states, tensions);
   const racking = rackingSection(d, t, es.env);
-  const tol = d.ringingToleranceMm;
-  const fMin = map.min.frequencyHz;
   const plannedAccel = d.plannedAccelMmPerS2 !== null ? d.plannedAccelMmPerS2 / 1000 : es.axes.worst.accelMaxMPerS2;
-  const ringingFig = {
-    x: ringing(es.axes.x.accelMaxMPerS2, fMin, tol),
-    y: ringing(es.axes.y.accelMaxMPerS2, fMin, tol),
-    worst: ringing(es.axes.worst.accelMaxMPerS2, fMin, tol),
-    planned: ringing(plannedAccel, fMin, tol),
-  };
-  const checks = checksOf(d, { t, es, belts, racking, ringingPlanned: ringingFig.planned, plannedAccel });
+  const ringingFig = ringingFigures(es, map.min.frequencyHz, d.ringingToleranceMm, plannedAccel);
+  const signs = motorsAndSigns(d, kinv, m.motorsOn);
+  const second = secondLayerOf(d, { k, t, states, m, es, map, structure, belts, rM, plannedAccel, motors: signs.motors });
+  const checks = [
+    ...checksOf(d, { t, es, belts, racking, ringingPlanned: ringingFig.planned, plannedAccel }),
+    ...secondLayerChecks({ second, cruiseSpeedMPerS: es.envIn.cruiseMPerS, travel: { xMm: t.xMm, yMm: t.yMm } }),
+  ];
+  // A torque table replaces the motor model only for the supply and current it was measured at.
+  const tableCheck = torqueTableCheck(d.motor, d.driver);
+  if (tableCheck) checks.push(tableCheck);
   const env = es.env;
   return {
     engineVersion: ENGINE_VERSION,
@@ -513,7 +596,7 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
         b: (Math.atan2(kinv[1][1], kinv[0][1]) * DEG + 360) % 360,
       },
     },
-    ...motorsAndSigns(d, kinv, m.motorsOn),
+    ...signs,
     drive,
     travel: { xMm: t.xMm, yMm: t.yMm, limitedBy: t.limitedBy },
     parking,
@@ -549,8 +632,11 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
       lowestFrequencyHz: map.lowestFrequencyHz,
       min: map.min,
       ringing: ringingFig,
-      toleranceMm: tol,
+      toleranceMm: d.ringingToleranceMm,
+      lowest: second.lowest,
+      lowestMap: second.lowestMap,
     },
+    ...secondLayerSections(second),
     racking,
     layout: layoutDrawing({
       layout: t.layout,

@@ -12,6 +12,7 @@ export {
   defaultDesign,
   issuesFromZod,
   MICROSTEP_OPTIONS,
+  JOB_MAX_POINTS,
   type DesignInput,
   type DesignInputRaw,
 } from './schema';
@@ -27,6 +28,7 @@ export {
 } from './kinematics';
 export { openBeltLengthMm, openBeltLengthExactMm, wrapAngleRad, teethInMesh } from './openBelt';
 export { spanFrequencyHz, tensionFromFrequencyN } from './tension';
+export { pluckBandHz, PLUCK_TENSION_TOLERANCE } from './pluckBand';
 export { beltArmTensionsN, chainTensionChangesN } from './beltArmTensions';
 export { beltTensionOverTravel, convexHullIndices, type PullPairs, type BeltTensionInput, type LoopTensionResult } from './beltTensionMap';
 export { microstepFigures, type MicrostepFigures } from './microstep';
@@ -45,7 +47,7 @@ export {
   interpolateTorqueCurve,
   motorHoldingStiffnessNmPerRad,
 } from './motorTorque';
-export { moveTimeS } from './moveTime';
+export { moveTimeS, jerkLimitedMoveTimeS } from './moveTime';
 export { frameToTravel, travelToFrame, type TravelInfo, type TravelInput } from './frame';
 export {
   buildBeltLayout,
@@ -69,6 +71,7 @@ export { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type En
 export { stiffnessMap, carriageStiffnessNPerM, type StiffnessInput, type StiffnessResult } from './stiffness';
 export { rackingMomentPerNewtonM, rackingTurnSpacingMm, guideReactionN } from './racking';
 export { designChecks, teethInMeshFactor, type CheckInput } from './checks';
+export { torqueTableCheck, TORQUE_TABLE_CONDITION_TOLERANCE } from './torqueTableCheck';
 export { CAUTIONS } from './cautions';
 export { partsList, CLAMP_ALLOWANCE_MM } from './partsList';
 export { evaluateDesign, evaluateValidDesign, ENVELOPE_DIRECTIONS } from './evaluateDesign';
@@ -82,6 +85,7 @@ export type {
   DesignResult,
   Check,
   CheckQuantity,
+  PartsListRow,
   QuantityKind,
   Severity,
   Caution,
@@ -95,7 +99,80 @@ export type {
   LayoutPart,
   LayoutBelt,
 } from './types';
-export { compareMechanisms, keyFigures, type KeyFigures, type ComparisonRow } from './compareMechanisms';
+export {
+  compareMechanisms,
+  keyFigures,
+  secondLayerFigures,
+  type KeyFigures,
+  type ComparisonRow,
+  type SecondLayerFigures,
+} from './compareMechanisms';
 export { sweep, type SweepPoint } from './sweep';
 export { beltGeometryAt, type BeltGeometry } from './beltGeometryAt';
 export { layoutDrawing, layoutDrawingAt } from './layoutDrawing';
+export {
+  zvShaperImpulses,
+  zvdShaperImpulses,
+  zvShaperDurationS,
+  zvdShaperDurationS,
+  rampResidualVibrationMm,
+  rampTimeForToleranceS,
+  vibrationControl,
+  type ShaperImpulse,
+  type ShapingResult,
+} from './vibrationControl';
+export { generalizedEigen3, type Sym3, type Eigen3 } from './linalg';
+export {
+  TYPICAL_GANTRY_BEAMS,
+  MODE_LABELS,
+  typicalGantryBeam,
+  beamEffectiveMassShare,
+  beamBendingFrequencyHz,
+  shaftTorsionStiffnessNmPerRad,
+  gantryYawMass,
+  yawModeFrequencyHz,
+  lowestModeMap,
+  type TypicalBeam,
+  type YawMass,
+  type ModeId,
+  type ModeReport,
+  type LowestModeMap,
+} from './structuralModes';
+export { pulleyRadialLoadN, shaftLoads, type PulleyLoadInput, type PulleyLoad, type LoadsResult } from './shaftLoads';
+export { copperLossW, supplySizing, rmsTorqueNm, referenceMoveRmsTorqueNm, SUPPLY_MARGIN } from './heat';
+export {
+  toothMeshFrequencyHz,
+  stepRatesHz,
+  meshCrossings,
+  excitation,
+  type ExcitationTarget,
+  type MeshCrossing,
+  type ExcitationResult,
+} from './excitation';
+export { scheduleJob, type JobPoint, type DirectionLimits, type JobMove, type JobResult, type MoveLimit } from './jobSchedule';
+export {
+  loadAngleErrorMm,
+  microstepDeadband,
+  carriageErrorMm,
+  errorBudgetMap,
+  biggestErrorTerm,
+  type Deadband,
+  type ErrorTerm,
+  type ErrorBudgetPoint,
+  type ErrorBudgetResult,
+  type ErrorBudgetInput,
+} from './errorBudget';
+export { yawSlopesMmPerRad, gantryYawMap } from './gantryYaw';
+export { sampledGridMap, gridStride } from './gridSampling';
+export {
+  evaluateSecondLayer,
+  structureStiffness,
+  directionLimits,
+  spanBands,
+  type SecondLayerResult,
+  type SecondLayerContext,
+  type StructureInfo,
+} from './secondLayer';
+export { type HeatResult } from './heat';
+export { jobTime } from './jobTime';
+export { secondLayerChecks, STEP_RATE_WARN_SHARE, SHAFT_LOAD_FAIL_FACTOR } from './secondLayerChecks';

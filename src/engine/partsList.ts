@@ -1,5 +1,5 @@
 import { levelName, type BeltLayout, type LayoutElement, type LayoutLoop } from './beltLayout';
-import type { BeltReport } from './types';
+import type { BeltReport, CheckQuantity, PartsListRow } from './types';
 
 /** Belt allowance at each clamp for cutting the belt [mm] (common practice: a clamp grips 10–20 mm). */
 export const CLAMP_ALLOWANCE_MM = 15;
@@ -18,7 +18,22 @@ export interface PartsInput {
   ratedCurrentA: number;
 }
 
-type Row = { item: string; quantity: number; spec: string };
+/** A measured number of a spec: the quantity for readers in either unit system, and its metric words. */
+type Measured = { q: CheckQuantity; text: string };
+type Piece = string | Measured;
+
+const mm = (value: number, digits: number): Measured => ({ q: { value, kind: 'lengthMm' }, text: `${value.toFixed(digits)} mm` });
+
+/**
+ * One row from its specification pieces: `spec` is the pieces in metric words (for programs and older readers),
+ * `specParts` keeps the measured numbers as quantities so a reader sees them in their unit system. Belt pitch and
+ * width stay text: they are the trade's names of a belt size, not measurements to convert.
+ */
+function row(item: string, quantity: number, pieces: Piece[]): PartsListRow {
+  const spec = pieces.map((s) => (typeof s === 'string' ? s : s.text)).join('');
+  const specParts = pieces.map((s) => (typeof s === 'string' ? s : s.q));
+  return { item, quantity, spec, specParts };
+}
 
 interface Placed {
   loop: LayoutLoop;
@@ -32,19 +47,23 @@ interface Placed {
  * each on its own bearings); one belt per loop with its cut length; the cross shaft of a single-motor cartesian
  * Y drive (docs/models/belt-layout.md "Parts").
  * @param p - layout, belt reports and the design's part data
- * @returns rows {item, quantity, spec}
+ * @returns rows {item, quantity, spec, specParts} (lengths in mm)
  */
-export function partsList(p: PartsInput): Row[] {
-  const rows: Row[] = [];
+export function partsList(p: PartsInput): PartsListRow[] {
+  const rows: PartsListRow[] = [];
   const mech = p.layout.mechanism;
-  const dPitch = (z: number) => ((z * p.beltPitchMm) / Math.PI).toFixed(2);
-  const size = (z: number) => `${z} teeth, ${p.beltPitchMm} mm pitch, for ${p.beltWidthMm} mm belt, pitch diameter ${dPitch(z)} mm`;
+  const dPitch = (z: number) => mm((z * p.beltPitchMm) / Math.PI, 2);
+  const size = (z: number): Piece[] => [`${z} teeth, ${p.beltPitchMm} mm pitch, for ${p.beltWidthMm} mm belt, pitch diameter `, dPitch(z)];
   const motors = mech === 'cartesian' ? 1 + p.yMotors : 2;
-  rows.push({
-    item: 'Stepper motor',
-    quantity: motors,
-    spec: `${p.stepAngleDeg}° step, holding torque ${p.holdingTorqueNm} N·m at ${p.ratedCurrentA} A rated`,
-  });
+  rows.push(
+    row('Stepper motor', motors, [
+      `${p.stepAngleDeg}° step, holding torque `,
+      { q: { value: p.holdingTorqueNm, kind: 'torqueNm' }, text: `${p.holdingTorqueNm} N·m` },
+      ' at ',
+      { q: { value: p.ratedCurrentA, kind: 'currentA' }, text: `${p.ratedCurrentA} A` },
+      ' rated',
+    ]),
+  );
   const placed: Placed[] = [];
   for (const loop of p.layout.loops) {
     const drive = loop.elements.find((e) => e.kind === 'drive');
@@ -62,28 +81,28 @@ export function partsList(p: PartsInput): Row[] {
     return `${motor ? `on the shaft of motor ${motor}` : 'on the shaft of its own Y motor'}, ${axis(x)}`;
   };
   for (const x of placed.filter((q) => q.el.kind === 'drive')) {
-    rows.push({ item: `Drive pulley ${x.el.tag}`, quantity: 1, spec: `${size(x.el.teeth)}; ${where(x)}; ${shaft(x)}` });
+    rows.push(row(`Drive pulley ${x.el.tag}`, 1, [...size(x.el.teeth), `; ${where(x)}; ${shaft(x)}`]));
   }
   const done = new Set<string>();
   for (const x of placed.filter((q) => q.el.kind === 'idler')) {
     if (done.has(x.el.id)) continue;
     const kind = x.toothed ? 'Toothed idler' : 'Smooth idler';
     const back = x.toothed ? '' : ' (runs on the belt back)';
-    const spec = x.toothed ? size(x.el.teeth) : `belt-line diameter ${dPitch(x.el.teeth)} mm, for ${p.beltWidthMm} mm belt`;
+    const spec: Piece[] = x.toothed ? size(x.el.teeth) : ['belt-line diameter ', dPitch(x.el.teeth), `, for ${p.beltWidthMm} mm belt`];
     const mates = x.el.stackId ? placed.filter((q) => q.el.stackId === x.el.stackId && q.el.kind === 'idler') : [x];
     mates.forEach((q) => done.add(q.el.id));
     if (mates.length === 1) {
-      rows.push({ item: `${kind} ${x.el.tag}${back}`, quantity: 1, spec: `${spec}; ${where(x)}; ${shaft(x)}` });
+      rows.push(row(`${kind} ${x.el.tag}${back}`, 1, [...spec, `; ${where(x)}; ${shaft(x)}`]));
       continue;
     }
     const same = mates.every((q) => q.toothed === x.toothed);
-    rows.push({
-      item: `${same ? kind : 'Idler'} ${mates.map((q) => q.el.tag).join(' + ')}, stacked`,
-      quantity: mates.length,
-      spec:
-        `${spec}; ${mates.length} idlers stacked on one bolt, each on its own bearings (they turn opposite ways), ${axis(x)}: ` +
-        mates.map(where).join('; '),
-    });
+    rows.push(
+      row(`${same ? kind : 'Idler'} ${mates.map((q) => q.el.tag).join(' + ')}, stacked`, mates.length, [
+        ...spec,
+        `; ${mates.length} idlers stacked on one bolt, each on its own bearings (they turn opposite ways), ${axis(x)}: ` +
+          mates.map(where).join('; '),
+      ]),
+    );
   }
   const runsOn = (l: LayoutLoop): string => {
     const on = `runs on the ${levelName(mech, l.level)}`;
@@ -94,21 +113,21 @@ export function partsList(p: PartsInput): Row[] {
   };
   for (const b of p.belts) {
     const loop = p.layout.loops.find((l) => l.id === b.id);
-    rows.push({
-      item: `Belt, ${b.label}`,
-      quantity: 1,
-      spec:
-        `${p.beltPitchMm} mm pitch, ${p.beltWidthMm} mm wide, cut ${b.cutLengthMm.toFixed(0)} mm (${b.loopTeeth} teeth on the pitch line + ` +
-        `${CLAMP_ALLOWANCE_MM} mm at each clamp)${loop ? `; ${runsOn(loop)}` : ''}`,
-    });
+    rows.push(
+      row(`Belt, ${b.label}`, 1, [
+        `${p.beltPitchMm} mm pitch, ${p.beltWidthMm} mm wide, cut `,
+        mm(b.cutLengthMm, 0),
+        ` (${b.loopTeeth} teeth on the pitch line + `,
+        mm(CLAMP_ALLOWANCE_MM, 0),
+        ` at each clamp)${loop ? `; ${runsOn(loop)}` : ''}`,
+      ]),
+    );
   }
   if (mech === 'cartesian' && p.yMotors === 1) {
     const len = p.layout.outerXMm - 2 * p.layout.extrusionMm;
-    rows.push({
-      item: 'Y cross shaft',
-      quantity: 1,
-      spec: `joins both Y drive pulleys (YL1, YR1) along the back, about ${len.toFixed(0)} mm long, with two bearings`,
-    });
+    rows.push(
+      row('Y cross shaft', 1, ['joins both Y drive pulleys (YL1, YR1) along the back, about ', mm(len, 0), ' long, with two bearings']),
+    );
   }
   return rows;
 }

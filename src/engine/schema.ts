@@ -67,6 +67,50 @@ const pulleySchema = z.strictObject({
   driveInertiaKgM2: num(0, 1, 'drive pulley inertia').nullable().default(null),
   /** Idler inertia; null → estimated as a solid aluminium cylinder (see mass.ts). */
   idlerInertiaKgM2: num(0, 1, 'idler inertia').nullable().default(null),
+  /** Eccentricity of the drive pulley's pitch circle on the shaft (error budget; typical value 0.02 mm). */
+  runoutMm: num(0, 5, 'drive pulley runout').default(0.02),
+});
+
+/** Most points a job may list (typed or uploaded). */
+export const JOB_MAX_POINTS = 1000;
+
+// Second-layer inputs (docs/models/): each group is optional and fills in from typical values, so design files
+// written before they existed stay valid.
+
+/** Gantry beam section; a null field takes the typical value of the frame's extrusion size (structuralModes.ts). */
+const gantryBeamSchema = z.strictObject({
+  secondMomentMm4: pos(1e10, 'gantry beam second moment of area').nullable().default(null),
+  modulusGPa: pos(1000, 'gantry beam modulus').nullable().default(null),
+  massKgPerM: pos(1000, 'gantry beam mass per metre').nullable().default(null),
+});
+
+/** The motion controller: its step-rate limit per motor and the jerk its planner uses (null: none). */
+const controllerSchema = z.strictObject({
+  maxStepRateHz: pos(1e8, 'controller step rate limit').default(100000),
+  jerkMmPerS3: pos(1e12, 'controller jerk').nullable().default(null),
+});
+
+/** Cartesian stages with one Y motor: the solid round shaft that carries its turn to the far side. */
+const crossShaftSchema = z.strictObject({
+  diameterMm: pos(100, 'cross shaft diameter').default(8),
+  shearModulusGPa: pos(500, 'cross shaft shear modulus').default(79.3),
+});
+
+/** Ratings the radial loads on motor shafts and idlers are checked against (typical values as defaults). */
+const radialLoadRatingSchema = z.strictObject({
+  motorShaftN: pos(1e6, 'motor shaft radial load rating').default(75),
+  idlerN: pos(1e6, 'idler radial load rating').default(200),
+});
+
+const jobPointSchema = z.strictObject({
+  xMm: num(-10000, 10000, 'job point X'),
+  yMm: num(-10000, 10000, 'job point Y'),
+  dwellS: num(0, 3600, 'job point dwell').default(0),
+});
+
+/** A placement job: XY points in travel coordinates, each with the pause after arriving. */
+const jobSchema = z.strictObject({
+  points: z.array(jobPointSchema).max(JOB_MAX_POINTS, `a job may have at most ${JOB_MAX_POINTS} points`),
 });
 
 /** Step angles of three- and five-phase hybrids (60°/N_r, 36°/N_r with 50 or 100 rotor teeth): refused. */
@@ -101,6 +145,14 @@ const motorSchema = z
     rotorInertiaKgM2: num(0, 1, 'rotor inertia'),
     massKg: num(0, 100, 'motor mass'),
     torqueCurve: z.array(torquePointSchema).min(2).max(500).nullable().default(null),
+    /**
+     * Supply voltage and driver current the torque table was measured at (a table measured at another supply or
+     * current does not describe this drive; a check warns); null = not recorded.
+     */
+    torqueCurveConditions: z
+      .strictObject({ supplyV: pos(1000, 'torque table supply voltage'), currentRmsA: pos(50, 'torque table driver current') })
+      .nullable()
+      .default(null),
     /** Highest shaft speed the builder allows (bearings, pulley rating); null = no limit beyond the torque. */
     maxSpeedRevPerS: pos(1000, 'speed limit').nullable().default(null),
   })
@@ -148,7 +200,10 @@ const sign = z.union([z.literal(1), z.literal(-1)], { error: 'motor direction mu
  * frame.clearanceMm 5, belt.minPulleyTeeth 12, belt.toothAllowableN null (typical value), pulley.*InertiaKgM2 null
  * (estimated), guide.yawMomentRatingNm null (typical value), motor.torqueCurve null,
  * motor.maxSpeedRevPerS null, frictionN {x:0,y:0}, torqueMargin 0.6, toolMount null, map {points:41},
- * ringingToleranceMm 0.02, plannedAccelMmPerS2 null (the envelope's worst direction), wantedTravel null.
+ * ringingToleranceMm 0.02, plannedAccelMmPerS2 null (the envelope's worst direction), wantedTravel null,
+ * pulley.runoutMm 0.02, gantryBeam {all null: typical for the frame's extrusion size}, controller
+ * {maxStepRateHz 100000, jerkMmPerS3 null}, crossShaft {diameterMm 8, shearModulusGPa 79.3 (steel)},
+ * radialLoadRating {motorShaftN 75, idlerN 200}, job null (see docs/models/ for each).
  * Cross-field rule: yMotors 2 only for "cartesian". The frame must leave travel (checked by {@link parseDesign}).
  * @see docs/README.md (the models) and src/engine/README.md (the design document)
  */
@@ -190,6 +245,12 @@ export const designInputSchema = z
       .strictObject({ xMm: pos(10000, 'wanted X travel'), yMm: pos(10000, 'wanted Y travel') })
       .nullable()
       .default(null),
+    gantryBeam: gantryBeamSchema.default({ secondMomentMm4: null, modulusGPa: null, massKgPerM: null }),
+    controller: controllerSchema.default({ maxStepRateHz: 100000, jerkMmPerS3: null }),
+    crossShaft: crossShaftSchema.default({ diameterMm: 8, shearModulusGPa: 79.3 }),
+    radialLoadRating: radialLoadRatingSchema.default({ motorShaftN: 75, idlerN: 200 }),
+    /** Optional placement job (points in travel coordinates); null when the design has none. */
+    job: jobSchema.nullable().default(null),
   })
   .superRefine((d, ctx) => {
     if (d.yMotors === 2 && d.mechanism !== 'cartesian') {
@@ -287,7 +348,7 @@ export function defaultDesign(mechanism: Mechanism): DesignInput {
       minPulleyTeeth: 12,
       toothAllowableN: null,
     },
-    pulley: { driveTeeth: 20, idlerTeeth: 20, driveInertiaKgM2: null, idlerInertiaKgM2: null },
+    pulley: { driveTeeth: 20, idlerTeeth: 20, driveInertiaKgM2: null, idlerInertiaKgM2: null, runoutMm: 0.02 },
     motor: {
       stepAngleDeg: 1.8,
       holdingTorqueNm: 0.45,
@@ -312,5 +373,10 @@ export function defaultDesign(mechanism: Mechanism): DesignInput {
     // A moderate planned acceleration: the motors give far more, but belt ringing sets the practical limit.
     plannedAccelMmPerS2: 3000,
     wantedTravel: null,
+    gantryBeam: { secondMomentMm4: null, modulusGPa: null, massKgPerM: null },
+    controller: { maxStepRateHz: 100000, jerkMmPerS3: null },
+    crossShaft: { diameterMm: 8, shearModulusGPa: 79.3 },
+    radialLoadRating: { motorShaftN: 75, idlerN: 200 },
+    job: null,
   });
 }

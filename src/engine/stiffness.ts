@@ -19,6 +19,16 @@ export interface StiffnessInput {
   travelYMm: number;
   /** Grid points per axis (2 … 101). */
   points: number;
+  /**
+   * Change of each piece's length per radian of gantry yaw, per model and piece [mm/rad] (gantryYaw.ts); with it the
+   * map also condenses the yaw coordinate (docs/models/structural-modes.md).
+   */
+  yawSlopesMmPerRad?: number[][];
+  /**
+   * A cross shaft: the drive pulley of loop `loopId` is not the motor itself but the far end of a shaft of
+   * belt-line torsional stiffness `stiffnessNPerM` (k_s/r²) from the motor of its node.
+   */
+  shaft?: { loopId: string; stiffnessNPerM: number };
 }
 
 /** Stiffness map result. */
@@ -32,6 +42,13 @@ export interface StiffnessResult {
   min: { frequencyHz: number; xMm: number; yMm: number };
   /** Carriage stiffness matrix at the weakest point [N/m]. */
   matrixAtMinNPerM: [[number, number], [number, number]];
+  /** Condensed carriage stiffness at every grid point, flat [iy·nx + ix] [N/m] (reused by the error budget). */
+  kNPerM: { xx: Float64Array; xy: Float64Array; yy: Float64Array };
+  /**
+   * With yaw slopes: the yaw rows of the condensed stiffness at a grid point, condensed on demand (the yaw mode is
+   * solved at sampled points only) [N/rad, N·m/rad].
+   */
+  yawAt: ((ix: number, iy: number) => { xf: number; yf: number; ff: number }) | null;
 }
 
 function linspace(a: number, b: number, n: number): number[] {
@@ -72,51 +89,71 @@ interface Prepared {
   l0: Float64Array;
   gx: Float64Array;
   gy: Float64Array;
+  /** Yaw slope of each piece [m/rad] (zeros without yaw). */
+  gf: Float64Array;
   t: Float64Array;
   pieces: number;
-  km: Float64Array;
+  /** Starting H_mm: the motor springs on the diagonal and a cross shaft's coupling [N/m]: h00 h01 h02 h11 h12 h22. */
+  h0: Float64Array;
   /** Result of the last condensation: kxx, kxy, kyy [N/m]. */
   out: Float64Array;
 }
 
 function prepare(inp: StiffnessInput): Prepared {
-  const vars: MotorVar[] = [];
-  for (const m of inp.models) for (const v of m.nodeMotors) if (!vars.includes(v)) vars.push(v);
+  // A loop driven through the cross shaft gets its own pulley variable, tied to the motor by the shaft's spring.
+  const varOf = (loopId: string, v: MotorVar): string => (inp.shaft && inp.shaft.loopId === loopId ? `${v}:shaft` : v);
+  const vars: string[] = [];
+  for (const m of inp.models) for (const v of m.nodeMotors) if (!vars.includes(varOf(m.loopId, v))) vars.push(varOf(m.loopId, v));
   const count = inp.models.reduce((s, m) => s + m.pieces.length, 0);
   const km = new Float64Array(NV).fill(1);
-  vars.forEach((v, i) => (km[i] = inp.motorStiffnessNPerM[v]));
+  vars.forEach((v, i) => (km[i] = v.endsWith(':shaft') ? 0 : inp.motorStiffnessNPerM[v as MotorVar]));
+  const h0 = Float64Array.from([km[0], 0, 0, km[1], 0, km[2]]);
+  if (inp.shaft) {
+    const far = vars.findIndex((v) => v.endsWith(':shaft'));
+    const near = far >= 0 ? vars.indexOf(vars[far].replace(':shaft', '')) : -1;
+    if (far >= 0 && near >= 0) {
+      const k = inp.shaft.stiffnessNPerM;
+      const diag = [0, 3, 5];
+      const off = (i: number, j: number) => (i + j === 1 ? 1 : i + j === 2 ? 2 : 4);
+      h0[diag[near]] += k;
+      h0[diag[far]] += k;
+      h0[off(Math.min(near, far), Math.max(near, far))] -= k;
+    }
+  }
   const prep: Prepared = {
     l0: new Float64Array(count),
     gx: new Float64Array(count),
     gy: new Float64Array(count),
+    gf: new Float64Array(count),
     t: new Float64Array(count * NV),
     pieces: count,
-    km,
+    h0,
     out: new Float64Array(3),
   };
   let r = 0;
-  for (const m of inp.models) {
+  inp.models.forEach((m, mi) => {
     m.pieces.forEach((pc, i) => {
       // A motor between piece i−1 and i passes belt from the earlier piece to the later one.
-      if (i > 0) prep.t[r * NV + vars.indexOf(m.nodeMotors[i - 1])] -= 1;
-      if (i < m.nodeMotors.length) prep.t[r * NV + vars.indexOf(m.nodeMotors[i])] += 1;
+      if (i > 0) prep.t[r * NV + vars.indexOf(varOf(m.loopId, m.nodeMotors[i - 1]))] -= 1;
+      if (i < m.nodeMotors.length) prep.t[r * NV + vars.indexOf(varOf(m.loopId, m.nodeMotors[i]))] += 1;
       prep.l0[r] = pc.l0Mm;
       prep.gx[r] = pc.gx;
       prep.gy[r] = pc.gy;
+      prep.gf[r] = (inp.yawSlopesMmPerRad?.[mi]?.[i] ?? 0) / 1000;
       r++;
     });
-  }
+  });
   return prep;
 }
 
 function condense(prep: Prepared, eaN: number, cxcMm: number, cycMm: number): void {
   const { t, l0, gx: gxs, gy: gys } = prep;
-  let h00 = prep.km[0];
-  let h11 = prep.km[1];
-  let h22 = prep.km[2];
-  let h01 = 0;
-  let h02 = 0;
-  let h12 = 0;
+  let h00 = prep.h0[0];
+  let h01 = prep.h0[1];
+  let h02 = prep.h0[2];
+  let h11 = prep.h0[3];
+  let h12 = prep.h0[4];
+  let h22 = prep.h0[5];
   let x0 = 0;
   let x1 = 0;
   let x2 = 0;
@@ -171,11 +208,96 @@ function condense(prep: Prepared, eaN: number, cxcMm: number, cycMm: number): vo
   prep.out[2] = kyy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
 }
 
+/** Entries of the 6-vector (gx, gy, gφ, t0, t1, t2) a piece's stretch is made of. */
+const NQ = 6;
+/** Products of two entries (upper triangle of the 6 × 6 outer product). */
+const NP = (NQ * (NQ + 1)) / 2;
+
 /**
- * Stiffness map: the lowest natural frequency of the carriage (2×2 problem K·v = ω²·M·v, M = diag(m_x, m_y))
- * at every point of a grid over the travel, its minimum and where it occurs (docs/models/stiffness-and-ringing.md).
+ * Static condensation at one grid point: sums the piece groups' outer products (upper triangle of the 6 × 6 of
+ * (gx, gy, gφ, t0, t1, t2), 21 products), then removes the three motor variables from the 3 × 3 carriage block
+ * (x, y, φ) by symmetric elimination (LDLᵀ): K_c = H_qq − H_qm·H_mm⁻¹·H_mq. Written out in scalars because the
+ * map runs it at every grid point.
+ * @param kg - spring of each group at this point [N/m]
+ * @param coef - the groups' 21 products each
+ * @param ng - number of groups
+ * @param h0 - starting H_mm (motor springs, cross-shaft coupling): h00 h01 h02 h11 h12 h22
+ * @param out - written: kxx, kxy, kyy, kxφ, kyφ, kφφ
+ */
+function condensePoint(kg: Float64Array, coef: Float64Array, ng: number, h0: Float64Array, out: Float64Array): void {
+  let xx = 0,
+    xy = 0,
+    xf = 0,
+    x0 = 0,
+    x1 = 0,
+    x2 = 0,
+    yy = 0,
+    yf = 0,
+    y0 = 0,
+    y1 = 0,
+    y2 = 0,
+    ff = 0,
+    f0 = 0,
+    f1 = 0,
+    f2 = 0;
+  let h00 = h0[0],
+    h01 = h0[1],
+    h02 = h0[2],
+    h11 = h0[3],
+    h12 = h0[4],
+    h22 = h0[5];
+  for (let g = 0; g < ng; g++) {
+    const k = kg[g];
+    const o = g * NP;
+    xx += k * coef[o];
+    xy += k * coef[o + 1];
+    xf += k * coef[o + 2];
+    x0 += k * coef[o + 3];
+    x1 += k * coef[o + 4];
+    x2 += k * coef[o + 5];
+    yy += k * coef[o + 6];
+    yf += k * coef[o + 7];
+    y0 += k * coef[o + 8];
+    y1 += k * coef[o + 9];
+    y2 += k * coef[o + 10];
+    ff += k * coef[o + 11];
+    f0 += k * coef[o + 12];
+    f1 += k * coef[o + 13];
+    f2 += k * coef[o + 14];
+    h00 += k * coef[o + 15];
+    h01 += k * coef[o + 16];
+    h02 += k * coef[o + 17];
+    h11 += k * coef[o + 18];
+    h12 += k * coef[o + 19];
+    h22 += k * coef[o + 20];
+  }
+  const f10 = h01 / h00;
+  const f20 = h02 / h00;
+  const d1 = h11 - f10 * h01;
+  const e12 = h12 - f10 * h02;
+  const f21 = e12 / d1;
+  const d2 = h22 - f20 * h02 - f21 * e12;
+  const x1b = x1 - f10 * x0;
+  const y1b = y1 - f10 * y0;
+  const f1b = f1 - f10 * f0;
+  const x2b = x2 - f20 * x0 - f21 * x1b;
+  const y2b = y2 - f20 * y0 - f21 * y1b;
+  const f2b = f2 - f20 * f0 - f21 * f1b;
+  out[0] = xx - (x0 * x0) / h00 - (x1b * x1b) / d1 - (x2b * x2b) / d2;
+  out[1] = xy - (x0 * y0) / h00 - (x1b * y1b) / d1 - (x2b * y2b) / d2;
+  out[2] = yy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
+  out[3] = xf - (x0 * f0) / h00 - (x1b * f1b) / d1 - (x2b * f2b) / d2;
+  out[4] = yf - (y0 * f0) / h00 - (y1b * f1b) / d1 - (y2b * f2b) / d2;
+  out[5] = ff - (f0 * f0) / h00 - (f1b * f1b) / d1 - (f2b * f2b) / d2;
+}
+
+/**
+ * Stiffness map: the lowest natural frequency of the carriage (2×2 problem K·v = ω²·M·v, M = diag(m_x, m_y), the
+ * gantry held square) at every point of a grid over the travel, its minimum and where it occurs; also the
+ * condensed stiffness at every point (for the error budget) and, with yaw slopes, its yaw rows (for the gantry yaw
+ * mode). See docs/models/structural-modes.md and the stiffness-map page.
  * @param inp - stiffness input (see StiffnessInput)
- * @returns grid [mm], frequencies [Hz] indexed [iy][ix], minimum
+ * @returns grid [mm], frequencies [Hz] indexed [iy][ix], minimum, per-point stiffness [N/m, N/rad, N·m/rad]
  * @see S. S. Rao, Mechanical Vibrations, 5th ed., ch. 5, two-degree-of-freedom systems (from memory)
  */
 export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
@@ -186,31 +308,10 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   const ny = ys.length;
   const n = prep.pieces;
   const ea = inp.axialStiffnessN * 1000;
-  // Pieces whose vectors (gx, gy, t) are parallel share one outer product: sum their springs first. Corexy's two
-  // arms of a loop, for instance, are one group. Coefficients: the 15 products of the 5-vector (gx, gy, t0..t2).
-  const groupOf = new Int32Array(n);
-  const groups: number[][] = [];
-  const vec = (r: number) => [prep.gx[r], prep.gy[r], prep.t[r * NV], prep.t[r * NV + 1], prep.t[r * NV + 2]];
-  for (let r = 0; r < n; r++) {
-    const v = vec(r);
-    let found = -1;
-    for (let g = 0; g < groups.length && found < 0; g++) {
-      const w = groups[g];
-      const same = v.every((x, i) => x === w[i]) || v.every((x, i) => x === -w[i]);
-      if (same) found = g;
-    }
-    if (found < 0) {
-      found = groups.length;
-      groups.push(v);
-    }
-    groupOf[r] = found;
-  }
-  const ng = groups.length;
-  const coef = new Float64Array(ng * 15);
-  groups.forEach((v, g) => {
-    let c = 0;
-    for (let i = 0; i < 5; i++) for (let j = i; j < 5; j++) coef[g * 15 + c++] = v[i] * v[j];
-  });
+  // Two groupings of the pieces: without the yaw slope for the belt mode at every point (15 products), and with it
+  // for the yaw rows, condensed only where the yaw mode is asked for (21 products).
+  const plain = groupPieces(prep, false);
+  const withYaw = groupPieces(prep, true);
   // Springs that depend on one coordinate only are computed once per column or row instead of per point.
   const colK = new Float64Array(n * nx);
   const rowK = new Float64Array(n * ny);
@@ -231,8 +332,23 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   }
   // A piece with gx = gy = 0 (constant length) got ea/l0 in both tables; keep only the column value.
   for (let r = 0; r < n; r++) if (prep.gx[r] === 0 && prep.gy[r] === 0) for (let iy = 0; iy < ny; iy++) rowK[r * ny + iy] = 0;
-  const kg = new Float64Array(ng);
-  const km = prep.km;
+  /** Sums each group's springs at a grid point into `kg`. */
+  const springs = (ix: number, iy: number, groupOf: Int32Array, kg: Float64Array): void => {
+    kg.fill(0);
+    for (let r = 0; r < n; r++) kg[groupOf[r]] += colK[r * nx + ix] + rowK[r * ny + iy];
+    const cx = inp.originXMm + xs[ix];
+    const cy = inp.originYMm + ys[iy];
+    for (let m = 0; m < mixed.length; m++) {
+      const r = mixed[m];
+      const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
+      kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
+    }
+  };
+  const kxxA = new Float64Array(nx * ny);
+  const kxyA = new Float64Array(nx * ny);
+  const kyyA = new Float64Array(nx * ny);
+  const kg = new Float64Array(plain.count);
+  const out = new Float64Array(3);
   const f: number[][] = [];
   let best = { frequencyHz: Infinity, xMm: 0, yMm: 0 };
   let bestK: [[number, number], [number, number]] = [
@@ -243,75 +359,148 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   for (let iy = 0; iy < ny; iy++) {
     const row = new Array<number>(nx);
     const cy = inp.originYMm + ys[iy];
+    const groupOf = plain.groupOf;
     for (let ix = 0; ix < nx; ix++) {
-      const cx = inp.originXMm + xs[ix];
+      // The springs of every group at this point (inline: the map's hot loop).
       kg.fill(0);
       for (let r = 0; r < n; r++) kg[groupOf[r]] += colK[r * nx + ix] + rowK[r * ny + iy];
-      for (let m = 0; m < mixed.length; m++) {
-        const r = mixed[m];
+      const cx = inp.originXMm + xs[ix];
+      for (let mi = 0; mi < mixed.length; mi++) {
+        const r = mixed[mi];
         const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
         kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
       }
-      // Order of the 15 products: xx xy x0 x1 x2 | yy y0 y1 y2 | 00 01 02 | 11 12 | 22
-      let kxx = 0,
-        kxy = 0,
-        x0 = 0,
-        x1 = 0,
-        x2 = 0,
-        kyy = 0,
-        y0 = 0,
-        y1 = 0,
-        y2 = 0;
-      let h00 = km[0],
-        h01 = 0,
-        h02 = 0,
-        h11 = km[1],
-        h12 = 0,
-        h22 = km[2];
-      for (let g = 0; g < ng; g++) {
-        const k = kg[g];
-        const o = g * 15;
-        kxx += k * coef[o];
-        kxy += k * coef[o + 1];
-        x0 += k * coef[o + 2];
-        x1 += k * coef[o + 3];
-        x2 += k * coef[o + 4];
-        kyy += k * coef[o + 5];
-        y0 += k * coef[o + 6];
-        y1 += k * coef[o + 7];
-        y2 += k * coef[o + 8];
-        h00 += k * coef[o + 9];
-        h01 += k * coef[o + 10];
-        h02 += k * coef[o + 11];
-        h11 += k * coef[o + 12];
-        h12 += k * coef[o + 13];
-        h22 += k * coef[o + 14];
-      }
-      const f10 = h01 / h00;
-      const f20 = h02 / h00;
-      const d1 = h11 - f10 * h01;
-      const e12 = h12 - f10 * h02;
-      const f21 = e12 / d1;
-      const d2 = h22 - f20 * h02 - f21 * e12;
-      const x1b = x1 - f10 * x0;
-      const y1b = y1 - f10 * y0;
-      const x2b = x2 - f20 * x0 - f21 * x1b;
-      const y2b = y2 - f20 * y0 - f21 * y1b;
-      const cxx = kxx - (x0 * x0) / h00 - (x1b * x1b) / d1 - (x2b * x2b) / d2;
-      const cxy = kxy - (x0 * y0) / h00 - (x1b * y1b) / d1 - (x2b * y2b) / d2;
-      const cyy = kyy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
-      const lam = lowestEigenvalue2(cxx, cxy, cyy, inp.xKg, inp.yKg);
+      condensePlain(kg, plain.coef, plain.count, prep.h0, out);
+      const p = iy * nx + ix;
+      kxxA[p] = out[0];
+      kxyA[p] = out[1];
+      kyyA[p] = out[2];
+      const lam = lowestEigenvalue2(out[0], out[1], out[2], inp.xKg, inp.yKg);
       const hz = Math.sqrt(lam > 0 ? lam : 0) / twoPi;
       row[ix] = hz;
       if (hz < best.frequencyHz - 1e-9) {
         best = { frequencyHz: hz, xMm: xs[ix], yMm: ys[iy] };
         bestK = [
-          [cxx, cxy],
-          [cxy, cyy],
+          [out[0], out[1]],
+          [out[1], out[2]],
         ];
       }
     }
     f.push(row);
   }
-  return { xMm: xs, yMm: ys, lowestFrequencyHz: f, min: best, matrixAtMinNPerM: bestK };
+  const hasYaw = prep.gf.some((g) => g !== 0);
+  const kgYaw = new Float64Array(withYaw.count);
+  const outYaw = new Float64Array(6);
+  return {
+    xMm: xs,
+    yMm: ys,
+    lowestFrequencyHz: f,
+    min: best,
+    matrixAtMinNPerM: bestK,
+    kNPerM: { xx: kxxA, xy: kxyA, yy: kyyA },
+    yawAt: hasYaw
+      ? (ix, iy) => {
+          springs(ix, iy, withYaw.groupOf, kgYaw);
+          condensePoint(kgYaw, withYaw.coef, withYaw.count, prep.h0, outYaw);
+          return { xf: outYaw[3], yf: outYaw[4], ff: outYaw[5] };
+        }
+      : null,
+  };
+}
+
+/**
+ * Groups pieces whose vectors (gx, gy, [gφ,] t) are parallel: they share one outer product, so their springs are
+ * summed first (corexy's two arms of a loop, for instance, are one group).
+ * @param prep - prepared pieces
+ * @param withYaw - include the yaw slope gφ in the vectors
+ * @returns group of each piece, the number of groups and each group's products (15 without yaw, 21 with)
+ */
+function groupPieces(prep: Prepared, withYaw: boolean): { groupOf: Int32Array; count: number; coef: Float64Array } {
+  const n = prep.pieces;
+  const groupOf = new Int32Array(n);
+  const groups: number[][] = [];
+  const vec = (r: number) =>
+    withYaw
+      ? [prep.gx[r], prep.gy[r], prep.gf[r], prep.t[r * NV], prep.t[r * NV + 1], prep.t[r * NV + 2]]
+      : [prep.gx[r], prep.gy[r], prep.t[r * NV], prep.t[r * NV + 1], prep.t[r * NV + 2]];
+  for (let r = 0; r < n; r++) {
+    const v = vec(r);
+    let found = -1;
+    for (let g = 0; g < groups.length && found < 0; g++) {
+      const w = groups[g];
+      if (v.every((x, i) => x === w[i]) || v.every((x, i) => x === -w[i])) found = g;
+    }
+    if (found < 0) {
+      found = groups.length;
+      groups.push(v);
+    }
+    groupOf[r] = found;
+  }
+  const len = withYaw ? NQ : NQ - 1;
+  const np = (len * (len + 1)) / 2;
+  const coef = new Float64Array(groups.length * np);
+  groups.forEach((v, g) => {
+    let c = 0;
+    for (let i = 0; i < len; i++) for (let j = i; j < len; j++) coef[g * np + c++] = v[i] * v[j];
+  });
+  return { groupOf, count: groups.length, coef };
+}
+
+/**
+ * Static condensation at one grid point without the yaw coordinate: the 2 × 2 carriage block (x, y) from the
+ * groups' 15 products of (gx, gy, t0, t1, t2), the three motor variables eliminated by LDLᵀ.
+ * @param kg - spring of each group at this point [N/m]
+ * @param coef - the groups' 15 products each: xx xy x0 x1 x2 | yy y0 y1 y2 | 00 01 02 | 11 12 | 22
+ * @param ng - number of groups
+ * @param h0 - starting H_mm (motor springs, cross-shaft coupling): h00 h01 h02 h11 h12 h22
+ * @param out - written: kxx, kxy, kyy [N/m]
+ */
+function condensePlain(kg: Float64Array, coef: Float64Array, ng: number, h0: Float64Array, out: Float64Array): void {
+  let kxx = 0,
+    kxy = 0,
+    x0 = 0,
+    x1 = 0,
+    x2 = 0,
+    kyy = 0,
+    y0 = 0,
+    y1 = 0,
+    y2 = 0;
+  let h00 = h0[0],
+    h01 = h0[1],
+    h02 = h0[2],
+    h11 = h0[3],
+    h12 = h0[4],
+    h22 = h0[5];
+  for (let g = 0; g < ng; g++) {
+    const k = kg[g];
+    const o = g * 15;
+    kxx += k * coef[o];
+    kxy += k * coef[o + 1];
+    x0 += k * coef[o + 2];
+    x1 += k * coef[o + 3];
+    x2 += k * coef[o + 4];
+    kyy += k * coef[o + 5];
+    y0 += k * coef[o + 6];
+    y1 += k * coef[o + 7];
+    y2 += k * coef[o + 8];
+    h00 += k * coef[o + 9];
+    h01 += k * coef[o + 10];
+    h02 += k * coef[o + 11];
+    h11 += k * coef[o + 12];
+    h12 += k * coef[o + 13];
+    h22 += k * coef[o + 14];
+  }
+  const f10 = h01 / h00;
+  const f20 = h02 / h00;
+  const d1 = h11 - f10 * h01;
+  const e12 = h12 - f10 * h02;
+  const f21 = e12 / d1;
+  const d2 = h22 - f20 * h02 - f21 * e12;
+  const x1b = x1 - f10 * x0;
+  const y1b = y1 - f10 * y0;
+  const x2b = x2 - f20 * x0 - f21 * x1b;
+  const y2b = y2 - f20 * y0 - f21 * y1b;
+  out[0] = kxx - (x0 * x0) / h00 - (x1b * x1b) / d1 - (x2b * x2b) / d2;
+  out[1] = kxy - (x0 * y0) / h00 - (x1b * y1b) / d1 - (x2b * y2b) / d2;
+  out[2] = kyy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
 }

@@ -1,3 +1,4 @@
+import type { SecondLayerResult } from './secondLayer';
 /** Mechanism key of a design. */
 export type Mechanism = 'corexy' | 'hbot' | 'cartesian';
 
@@ -23,6 +24,8 @@ export interface MotorSpec {
   rotorInertiaKgM2: number;
   massKg: number;
   torqueCurve?: TorquePoint[] | null;
+  /** Supply [V] and driver RMS current [A] the torque table was measured at (null when not recorded). */
+  torqueCurveConditions?: { supplyV: number; currentRmsA: number } | null;
   maxSpeedRevPerS?: number | null;
 }
 
@@ -83,7 +86,15 @@ export interface Check {
 
 /** One safety caution shown on every sheet and on the Design desk (docs/models/checks.md "Cautions"). */
 export interface Caution {
-  id: 'pinch-points' | 'electrical-supply' | 'stored-energy' | 'codes-and-practice';
+  id:
+    | 'pinch-points'
+    | 'electrical-supply'
+    | 'stored-energy'
+    | 'hot-motors'
+    | 'unexpected-motion'
+    | 'emergency-stop'
+    | 'tool-hazards'
+    | 'codes-and-practice';
   title: string;
   text: string;
 }
@@ -241,6 +252,16 @@ export interface LayoutDrawing {
   belts: LayoutBelt[];
 }
 
+/** One row of the parts list for ordering. */
+export interface PartsListRow {
+  item: string;
+  quantity: number;
+  /** The specification in metric words. */
+  spec: string;
+  /** The same specification as text pieces and quantities, for readers in other unit systems. */
+  specParts?: (string | CheckQuantity)[];
+}
+
 /** The full result of evaluateDesign (the result fields of src/engine/README.md plus what the Design desk draws). */
 export interface DesignResult {
   engineVersion: string;
@@ -318,7 +339,29 @@ export interface DesignResult {
     min: { frequencyHz: number; xMm: number; yMm: number };
     ringing: { x: RingingFigure; y: RingingFigure; worst: RingingFigure; planned: RingingFigure };
     toleranceMm: number;
+    /** Lowest of all structural modes anywhere on the grid, and which mode it is (docs/models/structural-modes.md). */
+    lowest: SecondLayerResult['lowest'];
+    /** Lowest of all modes at each grid point and which one it is, [iy][ix]. */
+    lowestMap: SecondLayerResult['lowestMap'];
   };
+  /** Positioning-error budget over the travel grid (docs/models/error-budget.md). */
+  errorBudget: SecondLayerResult['errorBudget'];
+  /** Structural modes beside the belt mode, each at its weakest point, lowest first. */
+  modes: SecondLayerResult['modes'];
+  /** Modes the belts leave unheld (the guides alone hold them). */
+  modesNotHeld: SecondLayerResult['modesNotHeld'];
+  /** Beam and shaft values the modes were computed with. */
+  structure: SecondLayerResult['structure'];
+  /** Input-shaper and ramp numbers for the lowest mode (docs/models/vibration-control.md). */
+  shaping: SecondLayerResult['shaping'];
+  /** Tooth-mesh frequency against the modes and spans; step rates (docs/models/excitation.md). */
+  excitation: SecondLayerResult['excitation'];
+  /** Copper loss, supply sizing and RMS torque (docs/models/heat-and-supply.md). */
+  heat: SecondLayerResult['heat'];
+  /** Radial loads on motor shafts and idlers (docs/models/shaft-loads.md). */
+  loads: SecondLayerResult['loads'];
+  /** Job timing when the design lists job points (docs/models/job-timing.md). */
+  job: SecondLayerResult['job'];
   racking: {
     /** Rated moment of the Y guides about the vertical axis, as typed or the typical value [N·m]. */
     yawMomentRatingNm: number;
@@ -331,7 +374,7 @@ export interface DesignResult {
     guideReactionN: number;
   };
   layout: LayoutDrawing;
-  partsList: { item: string; quantity: number; spec: string }[];
+  partsList: PartsListRow[];
   checks: Check[];
   cautions: Caution[];
 }

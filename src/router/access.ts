@@ -27,13 +27,14 @@ export function canAccess(allowed: readonly Role[] | undefined, roles: readonly 
 }
 
 /**
- * The first screen to show after signing in: Designs for those who may see designs, otherwise
- * Sheets, otherwise the Parts shelf; an account without a role gets its account page (the server shows it nothing
- * else).
+ * The first screen to show after signing in: the Review desk for reviewers (their work waits there), Designs for
+ * the others who may see designs, otherwise Sheets, otherwise the Parts shelf; an account without a role gets its
+ * account page (the server shows it nothing else).
  * @param roles - roles the user holds
  * @returns a path
  */
 export function homePathFor(roles: readonly Role[]): string {
+  if (roles.includes('reviewer')) return '/review';
   if (canAccess(DESIGN_ROLES, roles)) return '/designs';
   if (canAccess(SHEET_ROLES, roles)) return '/sheets';
   if (canAccess(MEMBER_ROLES, roles)) return '/parts';

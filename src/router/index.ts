@@ -15,6 +15,8 @@ declare module 'vue-router' {
     public?: true;
     /** Only for people who are signed out; signed-in users go to their start page. */
     guestOnly?: true;
+    /** Id of the element holding the screen's results, for the "Skip to the results" link. */
+    resultsAnchor?: string;
   }
 }
 
@@ -52,7 +54,7 @@ export const routes: RouteRecordRaw[] = [
     path: '/designs/:id',
     name: 'design-desk',
     component: () => import('@/views/desk/DesignDeskView.vue'),
-    meta: { title: 'Design desk', section: 'Designs', roles: DESIGN_ROLES },
+    meta: { title: 'Design desk', section: 'Designs', roles: DESIGN_ROLES, resultsAnchor: 'wb-results' },
   },
   {
     path: '/review',
@@ -64,7 +66,7 @@ export const routes: RouteRecordRaw[] = [
     path: '/review/:revisionId',
     name: 'review',
     component: () => import('@/views/review/ReviewView.vue'),
-    meta: { title: 'Review', section: 'Review desk', roles: DESIGN_ROLES },
+    meta: { title: 'Review', section: 'Review desk', roles: DESIGN_ROLES, resultsAnchor: 'rv-results' },
   },
   {
     path: '/sheets',

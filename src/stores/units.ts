@@ -1,6 +1,6 @@
 import { ref, watch } from 'vue';
 import { defineStore } from 'pinia';
-import { UNIT_SYSTEMS, type UnitSystem } from '@/components/units/quantities';
+import { UNIT_SYSTEMS, type UnitSystem } from '@/format';
 
 /** localStorage key of the chosen unit system. */
 export const UNITS_STORAGE_KEY = 'gw.units';

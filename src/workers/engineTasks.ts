@@ -3,10 +3,12 @@ import {
   defaultDesign,
   evaluateValidDesign,
   safeParseDesign,
+  secondLayerFigures,
   type DesignInput,
   type DesignResult,
   type InputIssue,
   type Mechanism,
+  type SecondLayerFigures,
 } from '@/engine';
 
 /**
@@ -43,6 +45,8 @@ export interface SweepPoint {
   lowestFrequencyHz: number | null;
   /** Failed checks at this point. */
   failCount: number | null;
+  /** The second layer's key numbers at this point (null when invalid). */
+  second: SecondLayerFigures | null;
   /** Why the point has no numbers (invalid input). */
   problem: string | null;
 }
@@ -124,6 +128,7 @@ export function sweepPoint(design: Record<string, unknown>, path: string, value:
       accelMaxMPerS2: null,
       lowestFrequencyHz: null,
       failCount: null,
+      second: null,
       problem: first ? `${first.path ? `${first.path}: ` : ''}${first.message}` : 'invalid input',
     };
   }
@@ -135,6 +140,7 @@ export function sweepPoint(design: Record<string, unknown>, path: string, value:
     accelMaxMPerS2: r.envelope.axes.worst.accelMaxMPerS2,
     lowestFrequencyHz: r.stiffness.min.frequencyHz,
     failCount: r.checks.filter((c) => c.severity === 'fail').length,
+    second: secondLayerFigures(r),
     problem: null,
   };
 }

@@ -1,18 +1,23 @@
-import type { DesignResult } from '@/engine';
+import type { DesignResult, ModeId } from '@/engine';
 
 /**
  * The large numeric parts of an engine result, which the engine worker sends as one transferable Float64Array
  * (moved, not copied) and only when the visible result tab needs them:
  * - `map`: the stiffness map (grid coordinates and the lowest natural frequency at every grid point);
- * - `directions`: everything sampled per travel direction (envelope, effective mass, coupling shares).
+ * - `directions`: everything sampled per travel direction (envelope, effective mass, coupling shares);
+ * - `modeMap`: the lowest structural mode over the travel (frequency and which mode, on the map's grid);
+ * - `errorMap`: the worst positioning error over the travel (on the map's grid).
  * Everything else of the result is small and always sent as it is.
  */
-export type ResultPart = 'map' | 'directions';
+export type ResultPart = 'map' | 'directions' | 'modeMap' | 'errorMap';
 
 /** Every part, in packing order. */
-export const RESULT_PARTS: readonly ResultPart[] = ['map', 'directions'];
+export const RESULT_PARTS: readonly ResultPart[] = ['map', 'directions', 'modeMap', 'errorMap'];
 
-type Field = { path: string[]; kind: 'numbers' | 'grid' | 'motors' };
+/** Mode ids packed as their index here (a grid of names would not fit a Float64Array). */
+export const PACKED_MODE_IDS: readonly ModeId[] = ['belt', 'gantry-bending', 'gantry-yaw', 'cross-shaft'];
+
+type Field = { path: string[]; kind: 'numbers' | 'grid' | 'motors' | 'modeGrid' };
 
 /** Where each part lives in the result. A tab that reads one of these fields must ask for its part. */
 const PART_FIELDS: Record<ResultPart, Field[]> = {
@@ -33,6 +38,11 @@ const PART_FIELDS: Record<ResultPart, Field[]> = {
     { path: ['coupling', 'forceShare', 'a'], kind: 'numbers' },
     { path: ['coupling', 'forceShare', 'b'], kind: 'numbers' },
   ],
+  modeMap: [
+    { path: ['stiffness', 'lowestMap', 'frequencyHz'], kind: 'grid' },
+    { path: ['stiffness', 'lowestMap', 'modeId'], kind: 'modeGrid' },
+  ],
+  errorMap: [{ path: ['errorBudget', 'totalMm'], kind: 'grid' }],
 };
 
 /** Packed parts: one Float64Array and, per field, where its values start and how they are shaped. */
@@ -73,8 +83,8 @@ export function packResult(result: DesignResult, wanted: readonly ResultPart[]):
   for (const part of parts)
     for (const field of PART_FIELDS[part]) {
       const value = read(result, field.path) as unknown[];
-      if (field.kind === 'grid') {
-        const rows = (value as number[][]).map((r) => r.length);
+      if (field.kind === 'grid' || field.kind === 'modeGrid') {
+        const rows = (value as unknown[][]).map((r) => r.length);
         const length = rows.reduce((a, b) => a + b, 0);
         shapes.push({ length, rows });
         total += length;
@@ -89,6 +99,8 @@ export function packResult(result: DesignResult, wanted: readonly ResultPart[]):
     for (const field of PART_FIELDS[part]) {
       const value = read(result, field.path);
       if (field.kind === 'grid') for (const row of value as number[][]) for (const v of row) values[at++] = v;
+      else if (field.kind === 'modeGrid')
+        for (const row of value as ModeId[][]) for (const m of row) values[at++] = PACKED_MODE_IDS.indexOf(m);
       else if (field.kind === 'motors') for (const m of value as string[]) values[at++] = m === 'B' ? 1 : 0;
       else for (const v of value as number[]) values[at++] = v;
     }
@@ -110,11 +122,12 @@ export function unpackResult(light: DesignResult, packed: PackedParts): DesignRe
     for (const field of PART_FIELDS[part]) {
       const shape = shapes[i++];
       let value: unknown;
-      if (field.kind === 'grid') {
-        const rows: number[][] = [];
+      if (field.kind === 'grid' || field.kind === 'modeGrid') {
+        const rows: unknown[][] = [];
         let start = at;
         for (const n of shape.rows ?? []) {
-          rows.push(Array.from(values.subarray(start, start + n)));
+          const row = values.subarray(start, start + n);
+          rows.push(field.kind === 'grid' ? Array.from(row) : Array.from(row, (v) => PACKED_MODE_IDS[v]));
           start += n;
         }
         value = rows;

@@ -30,7 +30,15 @@ describe('POST /api/auth/login', () => {
 
     expect(res.status).toBe(200);
     expect(res.body).toEqual({
-      user: { id: user.id, email, name: user.name, roles: ['designer', 'reviewer'], disabled: false, createdAt: user.createdAt },
+      user: {
+        id: user.id,
+        email,
+        name: user.name,
+        roles: ['designer', 'reviewer'],
+        disabled: false,
+        isInvited: false,
+        createdAt: user.createdAt,
+      },
     });
     expect(res.body.user).not.toHaveProperty('passwordHash');
     const cookie = sessionCookie(res);

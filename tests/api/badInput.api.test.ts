@@ -109,6 +109,8 @@ const HINTS: Route[] = [
   // attachments.routes.ts
   { method: 'post', path: '/api/designs/:id/attachments', body: 'multipart' },
   { method: 'get', path: '/api/designs/:id/attachments', query: ['page', 'pageSize'] },
+  // designJob.routes.ts
+  { method: 'post', path: '/api/designs/:id/job', body: 'multipart' },
   { method: 'get', path: '/api/attachments/:id' },
   { method: 'delete', path: '/api/attachments/:id' },
   // parts.routes.ts (each shelf, plural and singular segments)

@@ -39,6 +39,35 @@ describe('POST /api/calc', () => {
     },
   );
 
+  it('when the design lists a job, then the answer carries every second-layer section and times the job', async () => {
+    // Arrange
+    const doc = design((d) => ({
+      ...d,
+      job: {
+        points: [
+          { xMm: 10, yMm: 10, dwellS: 0.2 },
+          { xMm: 150, yMm: 90, dwellS: 0 },
+        ],
+      },
+    }));
+    // Act
+    const res = await agents.designer.post('/api/calc').send({ design: doc });
+    // Assert
+    expect(res.status).toBe(200);
+    for (const key of ['errorBudget', 'modes', 'shaping', 'excitation', 'heat', 'loads', 'job']) expect(res.body[key], key).toBeDefined();
+    expect(res.body.stiffness.lowest.modeId).toBe(res.body.modes[0].id);
+    expect(res.body.job.moves).toHaveLength(1);
+    expect(res.body.job.totalS).toBeCloseTo(res.body.job.moves[0].timeS + 0.2, 9);
+    expect(res.body.checks.map((c: { id: string }) => c.id)).toEqual(expect.arrayContaining(['step-rate', 'shaft-load', 'job-travel']));
+  });
+
+  it('when a job point has a bad dwell, then 400 names design.job.points.0.dwellS', async () => {
+    const doc = design((d) => ({ ...d, job: { points: [{ xMm: 1, yMm: 1, dwellS: -2 }] } }));
+    const res = await agents.designer.post('/api/calc').send({ design: doc });
+    expect(res.status).toBe(400);
+    expect(res.body.error.details.map((x: { path: string }) => x.path)).toContain('design.job.points.0.dwellS');
+  });
+
   // fix: #12 — an account without a role could use the engine.
   it('when an account without a role posts a design, then 403', async () => {
     const res = await agents.none.post('/api/calc').send({ design: design() });

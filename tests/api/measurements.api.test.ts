@@ -352,7 +352,10 @@ describe('GET /api/sheets/:id/measurements — crossed belts', () => {
     type Pair = { spanIds: string[]; differencePct: number | null; isMismatch: boolean };
     const pairOf = (body: { pairs: Pair[] }) => body.pairs.find((p) => p.spanIds.includes(refA.id))!;
     expect(flagged.body.mechanism).toBe('corexy');
-    expect(flagged.body.tolerances).toMatchObject({ crossedBeltPct: 5, source: expect.stringContaining('common practice') });
+    expect(flagged.body.tolerances).toMatchObject({
+      crossedBeltPct: 5,
+      source: expect.stringContaining('typical values: belt makers’ installation guides'),
+    });
     expect(pairOf(flagged.body)).toMatchObject({ spanIds: [refA.id, refB.id], isMismatch: true });
     expect(pairOf(flagged.body).differencePct).toBeCloseTo((0.08 / 0.96) * 100, 6);
     expect(pairOf(settled.body)).toMatchObject({ isMismatch: false });

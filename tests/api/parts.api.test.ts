@@ -47,6 +47,7 @@ const MOTOR = {
     { speedRevPerS: 0, torqueNm: 0.4 },
     { speedRevPerS: 10, torqueNm: 0.3 },
   ],
+  torqueCurveConditions: { supplyV: 24, currentRmsA: 1.5 },
   note: '',
 };
 const SHELVES = [
@@ -114,7 +115,7 @@ describe('POST /api/parts/<shelf>', () => {
   it('when optional fields are left out, then defaults apply (empty standard/source/note, no pulley inertia, no torque table)', async () => {
     const { standard: _s, source: _so, note: _n, ...belt } = BELT;
     const { inertiaKgM2: _i, note: _pn, ...pulley } = PULLEY;
-    const { torqueCurve: _t, note: _mn, ...motor } = MOTOR;
+    const { torqueCurve: _t, torqueCurveConditions: _tc, note: _mn, ...motor } = MOTOR;
 
     const b = await agents.admin.post('/api/parts/belts').send({ ...belt, name: `Bare ${uniqueTag()}` });
     const p = await agents.admin.post('/api/parts/pulleys').send({ ...pulley, name: `Bare ${uniqueTag()}` });
@@ -122,7 +123,7 @@ describe('POST /api/parts/<shelf>', () => {
 
     expect(b.body).toMatchObject({ standard: '', source: '', note: '' });
     expect(p.body).toMatchObject({ inertiaKgM2: null, note: '' });
-    expect(m.body).toMatchObject({ torqueCurve: null, note: '' });
+    expect(m.body).toMatchObject({ torqueCurve: null, torqueCurveConditions: null, note: '' });
   });
 
   it('when a form sends cleared text fields as null, then they are stored as empty text', async () => {

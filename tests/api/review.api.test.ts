@@ -453,6 +453,103 @@ describe('POST /api/revisions/:id/approve (refusals)', () => {
   });
 });
 
+describe('approval over a failed check (issue 13)', () => {
+  /** 20-tooth pulleys under a belt whose smallest pulley is 24 teeth: only the pulley check fails (H-bot: no warnings). */
+  // One failed check and nothing else: a fast controller and a stout motor shaft keep the second layer's step-rate
+  // and shaft-load checks quiet.
+  const tooSmallPulley = (d: DesignInput): DesignInput => ({
+    ...d,
+    mechanism: 'hbot',
+    belt: { ...d.belt, minPulleyTeeth: 24 },
+    controller: { ...d.controller, maxStepRateHz: 400000 },
+    radialLoadRating: { ...d.radialLoadRating, motorShaftN: 150 },
+  });
+
+  it('when a revision with a failed check is approved without a justification, then 400 names justification and nothing changes', async () => {
+    // Arrange
+    const { design, revision } = await submitted('owner', tooSmallPulley);
+
+    // Act
+    const res = await agents.reviewer.post(`/api/revisions/${revision.id}/approve`).send({ comment: 'ok' });
+    const blank = await agents.reviewer.post(`/api/revisions/${revision.id}/approve`).send({ comment: 'ok', justification: '   ' });
+
+    // Assert
+    expect(res.status).toBe(400);
+    expect(res.body.error.code).toBe('validation_failed');
+    expect(res.body.error.details).toEqual([
+      { path: 'justification', message: expect.stringMatching(/^is required: 1 check of this revision failed/) },
+    ]);
+    expect(blank.status).toBe(400);
+    expect(await designStatus(design.id)).toBe('in_review');
+    expect((await Revision.findByPk(revision.id))?.status).toBe('in_review');
+  });
+
+  it('when it is approved with a justification, then the justification is stored, logged with the failed check, mailed and on the sheet', async () => {
+    // Arrange
+    const { design, revision } = await submitted('owner', tooSmallPulley);
+    const justification = 'The 8-tooth pulley is a stop-gap for the trial run; the 12-tooth pulley is on order.';
+
+    // Act
+    const res = await agents.reviewer.post(`/api/revisions/${revision.id}/approve`).send({ comment: 'Trial only.', justification });
+
+    // Assert: state
+    expect(res.status).toBe(200);
+    expect(res.body.revision).toMatchObject({ status: 'approved', approvalComment: 'Trial only.', approvalJustification: justification });
+    expect(res.body.sheet).toMatchObject({ justification, checks: { fail: 1 } });
+    // Assert: audit names the failed check and carries the justification
+    const log = await auditOf('design', design.id);
+    expect(log.at(-1)).toMatchObject({ action: 'design.approve', to: 'approved' });
+    expect(log.at(-1)!.reason).toContain('Approved with 1 failed check (pulley-min-teeth)');
+    expect(log.at(-1)!.reason).toContain(justification);
+    // Assert: the designer's mail quotes it
+    const mail = await waitForMail(emails.owner, `Approved: ${design.name}`);
+    expect(mail.text).toContain(justification);
+  });
+
+  it('when a revision without a failed check is approved with a justification, then it is not kept (nothing to justify)', async () => {
+    const { revision } = await submitted('owner', (d) => ({ ...d, mechanism: 'hbot' }));
+    const res = await agents.reviewer.post(`/api/revisions/${revision.id}/approve`).send({ justification: 'not needed' });
+    expect(res.status).toBe(200);
+    expect(res.body.revision.approvalJustification).toBeNull();
+  });
+
+  it('when the justification is too long or not text, then 400 naming justification', async () => {
+    const { revision } = await submitted('owner', tooSmallPulley);
+    const long = await agents.reviewer.post(`/api/revisions/${revision.id}/approve`).send({ justification: 'x'.repeat(4001) });
+    const notText = await agents.reviewer.post(`/api/revisions/${revision.id}/approve`).send({ justification: 7 });
+    expect(long.body.error.details).toEqual([{ path: 'justification', message: 'must be at most 4000 characters' }]);
+    expect(notText.body.error.details).toEqual([{ path: 'justification', message: 'must be text' }]);
+  });
+
+  it('when the reviewers are mailed about a submission with a failed check, then the mail says how many checks failed', async () => {
+    const { design } = await submitted('owner', tooSmallPulley);
+    const mail = await waitForMail(emails.reviewer, `Review requested: ${design.name}`);
+    expect(mail.subject).toContain('(1 failed check)');
+    expect(mail.text).toContain('1 failed check and no warning');
+  });
+});
+
+describe('sheet units chosen at submission (issue 13)', () => {
+  it('when a designer submits with sheetUnits imperial, then the revision and its sheet say imperial', async () => {
+    // Arrange
+    const design = await draft('owner', (d) => ({ ...d, mechanism: 'hbot' }));
+    // Act
+    const sub = await agents.owner.post(`/api/designs/${design.id}/submit`).send({ sheetUnits: 'imperial' });
+    const approved = await agents.reviewer.post(`/api/revisions/${sub.body.id}/approve`).send({});
+    // Assert
+    expect(sub.status).toBe(201);
+    expect(sub.body.sheetUnits).toBe('imperial');
+    expect(approved.body.sheet.units).toBe('imperial');
+  });
+
+  it('when sheetUnits is not a unit system, then 400 names it', async () => {
+    const design = await draft();
+    const res = await agents.owner.post(`/api/designs/${design.id}/submit`).send({ sheetUnits: 'furlongs' });
+    expect(res.status).toBe(400);
+    expect(res.body.error.details).toEqual([{ path: 'sheetUnits', message: 'must be one of metric, imperial' }]);
+  });
+});
+
 describe('approval end to end', () => {
   it('when a reviewer approves, then the design is approved with a sheet, the designer and makers are mailed, and every later transition is refused', async () => {
     // Arrange

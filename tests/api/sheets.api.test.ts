@@ -162,7 +162,14 @@ describe('a later revision of the same design', () => {
     const reopen = await agents.owner.post(`/api/designs/${designId}/reopen`).send({});
     if (reopen.status !== 200) throw new Error(`reopen failed: ${reopen.status} ${JSON.stringify(reopen.body)}`);
     const current = await agents.owner.get(`/api/designs/${designId}`);
-    const inputs = { ...current.body.inputs, name: `${designName} mk2`, pretensionN: current.body.inputs.pretensionN + 10 };
+    // More pretension loads the motor shafts more: a motor with a stouter shaft keeps revision 2 free of failed checks
+    // (approving over one needs a justification, tested in review.api.test.ts).
+    const inputs = {
+      ...current.body.inputs,
+      name: `${designName} mk2`,
+      pretensionN: current.body.inputs.pretensionN + 10,
+      radialLoadRating: { ...current.body.inputs.radialLoadRating, motorShaftN: 150 },
+    };
     const saved = await agents.owner.patch(`/api/designs/${designId}`).send({ inputs, version: current.body.version });
     const sub = await agents.owner.post(`/api/designs/${designId}/submit`).send({ version: saved.body.version });
     const approved = await agents.reviewer.post(`/api/revisions/${sub.body.id}/approve`).send({ comment: 'Second batch.' });

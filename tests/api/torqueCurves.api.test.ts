@@ -39,10 +39,20 @@ function storedFiles(): string[] {
 }
 
 const newMotor = () => createPart('motor');
-const post = (who: Who, motorId: number, csv: string | Buffer, filename = 'curve.csv', contentType = 'text/csv') =>
-  agents[who]
-    .post(`/api/parts/motors/${motorId}/torque-curve`)
-    .attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv), { filename, contentType });
+/** What the tables of these tests were measured at (the upload requires it). */
+const MEASURED_AT = { supplyV: '24', currentRmsA: '1.5' };
+const post = (
+  who: Who,
+  motorId: number,
+  csv: string | Buffer,
+  filename = 'curve.csv',
+  contentType = 'text/csv',
+  fields: Record<string, string> = MEASURED_AT,
+) => {
+  let req = agents[who].post(`/api/parts/motors/${motorId}/torque-curve`);
+  for (const [name, value] of Object.entries(fields)) req = req.field(name, value);
+  return req.attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv), { filename, contentType });
+};
 
 async function curveOf(motorId: number): Promise<unknown> {
   const row = await Part.findByPk(motorId);
@@ -67,7 +77,12 @@ describe('POST /api/parts/motors/:id/torque-curve', () => {
       { speedRevPerS: 10, torqueNm: 0.21 },
     ];
     expect(res.status).toBe(200);
-    expect(res.body.motor).toMatchObject({ id: motor.id, shelf: 'motors', torqueCurve: expected });
+    expect(res.body.motor).toMatchObject({
+      id: motor.id,
+      shelf: 'motors',
+      torqueCurve: expected,
+      torqueCurveConditions: { supplyV: 24, currentRmsA: 1.5 },
+    });
     expect(res.body.sourceUnits).toEqual({ speed: 'rpm', torque: 'N·cm' });
     expect(res.body.file).toMatchObject({
       partId: motor.id,
@@ -177,6 +192,24 @@ describe('POST /api/parts/motors/:id/torque-curve', () => {
     expect(res.status).toBe(status);
     expect(await curveOf(motor.id)).toBeNull();
   });
+
+  it.each([
+    ['neither the supply nor the current', {}, ['supplyV', 'currentRmsA']],
+    ['a supply of zero', { supplyV: '0', currentRmsA: '1.5' }, ['supplyV']],
+    ['a current that is not a number', { supplyV: '24', currentRmsA: 'lots' }, ['currentRmsA']],
+  ])(
+    'when the upload gives %s it was measured at, then 400 names the fields and nothing changes (issue 13)',
+    async (_what, fields, paths) => {
+      // Arrange
+      const motor = await newMotor();
+      // Act
+      const res = await post('admin', motor.id, 'speed_rpm,torque_Ncm\n0,40\n300,30\n600,20\n', 'curve.csv', 'text/csv', fields);
+      // Assert
+      expect(res.status).toBe(400);
+      expect(res.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual([...paths].sort());
+      expect(await curveOf(motor.id)).toBeNull();
+    },
+  );
 
   it('when the motor does not exist, or the id is a belt, then 404', async () => {
     const belt = await createPart('belt');

@@ -75,6 +75,7 @@ describe('GET /api/users', () => {
       name: `Person ${tag} 1`,
       roles: [],
       disabled: false,
+      isInvited: false,
       createdAt: expect.any(String),
     });
   });
@@ -95,7 +96,7 @@ describe('POST /api/users (invite)', () => {
     const mail = await waitForMail(email, 'invited');
 
     expect(res.status).toBe(201);
-    expect(res.body.user).toMatchObject({ email, name: 'Ivy Invited', roles: ['designer', 'maker'], disabled: false });
+    expect(res.body.user).toMatchObject({ email, name: 'Ivy Invited', roles: ['designer', 'maker'], disabled: false, isInvited: true });
     expect(listed.body.items.map((u: { email: string }) => u.email)).toEqual([email]);
     expect(mail.text).toMatch(/\/reset\?token=[A-Za-z0-9_-]+&invite=1/);
     const token = await PasswordToken.findOne({ where: { tokenHash: hashToken(tokenFromMail(mail)) } });
@@ -115,6 +116,9 @@ describe('POST /api/users (invite)', () => {
     expect(reset.status).toBe(200);
     expect(login.status).toBe(200);
     expect(login.body.user.roles).toEqual(['reviewer']);
+    // fix: #13 an invited user is "invited" until the password is set, then active
+    const listed = await agents.admin.get(`/api/users?q=${encodeURIComponent(email)}`);
+    expect(listed.body.items[0].isInvited).toBe(false);
   });
 
   it('when the e-mail is already taken, then 409 email_taken', async () => {

@@ -7,7 +7,7 @@ const ROLE_JOURNEYS: Array<[email: string, start: string, nav: string[]]> = [
   ['admin@example.test', '/designs', ['designs', 'review', 'sheets', 'parts', 'team', 'outbox']],
   ['designer@example.test', '/designs', ['designs', 'sheets', 'parts']],
   ['designer2@example.test', '/designs', ['designs', 'sheets', 'parts']],
-  ['reviewer@example.test', '/designs', ['designs', 'review', 'sheets', 'parts']],
+  ['reviewer@example.test', '/review', ['designs', 'review', 'sheets', 'parts']],
   ['maker@example.test', '/sheets', ['sheets', 'parts']],
 ];
 

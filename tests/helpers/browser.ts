@@ -24,9 +24,21 @@ export const CHROMIUM_ARGS = [
   '--disable-sync',
 ] as const;
 
-/** Starts headless chromium. Close it in `afterAll`. */
-export function launchBrowser(): Promise<Browser> {
-  return chromium.launch({ executablePath: CHROMIUM_PATH, headless: true, args: [...CHROMIUM_ARGS] });
+/**
+ * Starts headless chromium. Close it in `afterAll`.
+ * @param extraArgs - more command-line switches, e.g. {@link fakeMicrophoneArgs}
+ */
+export function launchBrowser(extraArgs: readonly string[] = []): Promise<Browser> {
+  return chromium.launch({ executablePath: CHROMIUM_PATH, headless: true, args: [...CHROMIUM_ARGS, ...extraArgs] });
+}
+
+/**
+ * Switches that make chromium grant the microphone without asking and play a WAV file as its input (the file loops),
+ * so a journey can record "from the microphone".
+ * @param wavPath - a 16-bit PCM WAV on disk
+ */
+export function fakeMicrophoneArgs(wavPath: string): string[] {
+  return ['--use-fake-ui-for-media-stream', '--use-fake-device-for-media-stream', `--use-file-for-fake-audio-capture=${wavPath}`];
 }
 
 /** A page in its own context, with the uncaught page errors it raised. */
@@ -43,6 +55,11 @@ export interface OpenPageOptions {
   width?: number;
   height?: number;
   colorScheme?: 'light' | 'dark';
+  /**
+   * Let the test inject scripts the app's Content-Security-Policy would refuse (axe-core for the accessibility check).
+   * The app itself runs unchanged.
+   */
+  bypassCSP?: boolean;
 }
 
 /**
@@ -55,6 +72,7 @@ export async function openPage(browser: Browser, options: OpenPageOptions): Prom
     baseURL: options.baseURL,
     viewport: { width: options.width ?? 1280, height: options.height ?? 800 },
     colorScheme: options.colorScheme ?? 'light',
+    bypassCSP: options.bypassCSP ?? false,
   });
   context.setDefaultTimeout(15_000);
   const page = await context.newPage();
@@ -76,7 +94,8 @@ export async function signInThroughForm(page: Page, email: string, password = DE
   await page.fill('[data-test="sign-in-email"]', email);
   await page.fill('[data-test="sign-in-password"]', password);
   await page.click('[data-test="sign-in-submit"]');
-  await page.waitForSelector('[data-test="nav"]');
+  // The app shell's main area: on a phone the navigation sits in a closed drawer, so it is not waited for.
+  await page.waitForSelector('[data-test="main"]');
 }
 
 /** The `nav-<key>` keys of the visible navigation, in order. */

@@ -278,6 +278,7 @@ function uprightSvg(dr: LayoutDrawing, belt: LayoutBelt, width: number, maxHeigh
  * @param parking - parking position in travel coordinates [mm]
  * @param width - drawing width [pt]
  * @param maxHeight - largest height [pt]
+ * @param position - the parking label's coordinates in words (default "X 12.3, Y 45.6 mm"); the sheet passes its unit system's
  * @returns SVG document
  */
 export function originPlanSvg(
@@ -286,6 +287,7 @@ export function originPlanSvg(
   parking: { xMm: number; yMm: number },
   width: number,
   maxHeight: number,
+  position?: (xMm: number, yMm: number) => string,
 ): string {
   const f = frameOf(dr, width, maxHeight, 14);
   const t = dr.travel;
@@ -316,12 +318,17 @@ export function originPlanSvg(
     carriageRect(dr, f, 'rgba(219,232,245,0.7)'),
     line(px - 4, py, px + 4, py, { stroke: PALETTE.blue, 'stroke-width': 0.8 }),
     line(px, py - 4, px, py + 4, { stroke: PALETTE.blue, 'stroke-width': 0.8 }),
-    text(px, f.Y(dr.carriage.yMm + dr.carriage.depthMm / 2) - 3, `parking: X ${fmt(parking.xMm)}, Y ${fmt(parking.yMm)} mm`, {
-      size: 6,
-      bold: true,
-      anchor: 'middle',
-      fill: PALETTE.blue,
-    }),
+    text(
+      px,
+      f.Y(dr.carriage.yMm + dr.carriage.depthMm / 2) - 3,
+      `parking: ${position ? position(parking.xMm, parking.yMm) : `X ${fmt(parking.xMm)}, Y ${fmt(parking.yMm)} mm`}`,
+      {
+        size: 6,
+        bold: true,
+        anchor: 'middle',
+        fill: PALETTE.blue,
+      },
+    ),
     line(x0, y0, x0 + arrow, y0, { stroke: green, 'stroke-width': 1.1 }),
     head(x0 + arrow, y0, 1, 0),
     line(x0, y0, x0, y0 - arrow, { stroke: green, 'stroke-width': 1.1 }),

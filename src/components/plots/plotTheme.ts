@@ -17,6 +17,8 @@ export interface PlotColours {
   grid: string;
   panel: string;
   font: string;
+  /** Marks of points that fail a check. */
+  fail: string;
 }
 
 function cssVar(name: string, fallback: string): string {
@@ -48,6 +50,7 @@ function readColours(): PlotColours {
     grid: cssVar('--gw-border', '#dfe3dd'),
     panel: cssVar('--gw-bg-panel', '#ffffff'),
     font: cssVar('--gw-font', 'Inter, system-ui, sans-serif'),
+    fail: cssVar('--gw-fail-text', '#b42a24'),
   };
 }
 

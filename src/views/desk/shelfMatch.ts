@@ -37,7 +37,10 @@ export function beltValues(part: BeltPart): Record<string, unknown> {
  */
 export function motorValues(part: MotorPart): Record<string, unknown> {
   const values: Record<string, unknown> = Object.fromEntries(MOTOR_KEYS.map((k) => [`motor.${k}`, part[k]]));
-  values['motor.torqueCurve'] = part.torqueCurve && part.torqueCurve.length >= 2 ? structuredClone(part.torqueCurve) : null;
+  const hasTable = !!part.torqueCurve && part.torqueCurve.length >= 2;
+  values['motor.torqueCurve'] = hasTable ? structuredClone(part.torqueCurve) : null;
+  // The table says which drive it describes; the engine warns when the design's driver differs.
+  values['motor.torqueCurveConditions'] = hasTable && part.torqueCurveConditions ? { ...part.torqueCurveConditions } : null;
   return values;
 }
 

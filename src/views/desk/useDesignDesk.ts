@@ -49,7 +49,10 @@ export function useDesignDesk(id: Ref<number>) {
     const d = design.value;
     if (!d || canEdit.value) return null;
     if (d.status === 'in_review') return 'This design is in review: its inputs are frozen until a reviewer approves or returns it.';
-    if (d.status === 'approved') return 'This design is approved: its inputs are frozen. Copy it to start a new variant.';
+    if (d.status === 'approved')
+      return isAdmin.value || (isOwner.value && auth.hasRole('designer'))
+        ? 'This design is approved: its inputs are frozen. Start a new revision to change it; the approved sheet stays in force until the new revision is approved.'
+        : 'This design is approved: its inputs are frozen. Its owner or an admin can start a new revision.';
     if (!auth.hasRole('designer') && !isAdmin.value) return 'You can read this design; only designers and admins change designs.';
     return `This design belongs to ${d.owner?.name ?? 'another designer'}; only the owner or an admin may change it.`;
   });

@@ -1,5 +1,5 @@
 import { PULLEY_KIND_LABELS, type PartKind, type PulleyKind } from '@/api/parts';
-import type { QuantityKey } from '@/components/units/quantities';
+import type { QuantityKey } from '@/format';
 
 /** One field of a part, for the table and the add/edit dialog. */
 export interface PartField {
@@ -33,7 +33,7 @@ const NOTE: PartField = {
   key: 'note',
   label: 'Note',
   control: 'textarea',
-  help: 'Where the numbers come from. Values typed from memory should say so, e.g. “from memory — replace with your datasheet”.',
+  help: 'Where the numbers come from. Numbers that are not from a datasheet should say so, e.g. “typical values for this size — replace with your datasheet”.',
 };
 
 /** Every shelf of the Parts shelf screen. */
@@ -195,9 +195,9 @@ export const SHELVES: ShelfDef[] = [
   },
 ];
 
-/** Notes that flag numbers as remembered rather than read from a datasheet. */
-export function isFromMemory(note: string | null | undefined): boolean {
-  return !!note && /from memory|replace with your datasheet|typical/i.test(note);
+/** Notes that flag numbers as typical values rather than read from the part's own datasheet. */
+export function isTypicalValue(note: string | null | undefined): boolean {
+  return !!note && /typical|not a datasheet|replace with (your|the)|from memory/i.test(note);
 }
 
 /** One value inside a table cell. */
@@ -223,17 +223,17 @@ export const TABLE_COLUMNS: Record<PartKind, TableColumn[]> = {
   belts: [
     {
       label: 'Pitch × width',
-      width: 124,
+      width: 150,
       values: [
         { key: 'pitchMm', quantity: 'length', stored: 'mm' },
         { key: 'widthMm', quantity: 'length', stored: 'mm' },
       ],
       joiner: '×',
     },
-    { label: 'Mass / length', width: 100, values: [{ key: 'linearMassKgPerM', quantity: 'linearMass', stored: 'kg/m' }] },
+    { label: 'Mass per metre', width: 100, values: [{ key: 'linearMassKgPerM', quantity: 'linearMass', stored: 'kg/m' }] },
     { label: 'EA', width: 100, values: [{ key: 'axialStiffnessN', quantity: 'force', stored: 'N' }] },
-    { label: 'Allowable', width: 92, values: [{ key: 'allowableTensionN', quantity: 'force', stored: 'N' }] },
-    { label: 'Min. teeth', width: 84, values: [{ key: 'minPulleyTeeth' }] },
+    { label: 'Allowable tension', width: 110, values: [{ key: 'allowableTensionN', quantity: 'force', stored: 'N' }] },
+    { label: 'Smallest pulley', width: 90, values: [{ key: 'minPulleyTeeth' }] },
   ],
   pulleys: [
     { label: 'Role', width: 124, values: [{ key: 'kind' }], isText: true },

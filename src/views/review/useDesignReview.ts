@@ -1,5 +1,6 @@
 import { computed, ref, shallowRef, watch, type Ref } from 'vue';
 import type { DesignStatus } from '@/api/designs';
+import type { UnitSystem } from '@/format';
 import { listDesignRevisions, reopenDesign, submitDesign, withdrawDesign, type RevisionListItem } from '@/api/revisions';
 import { showError, showSuccess } from '@/utils/message';
 
@@ -50,10 +51,11 @@ export function useDesignReview(designId: Ref<number>, status: Ref<DesignStatus 
   /**
    * Freezes the stored inputs as a new revision and sends it for review.
    * @param version - the design version the designer sees (the server refuses a stale one)
+   * @param sheetUnits - unit system the design sheet will be printed in
    */
-  const submit = (version?: number) =>
+  const submit = (version?: number, sheetUnits?: UnitSystem) =>
     run(
-      () => submitDesign(designId.value, version),
+      () => submitDesign(designId.value, version, sheetUnits),
       'Submitted for review. Reviewers have been notified.',
       'The design could not be submitted.',
     );

@@ -85,13 +85,14 @@ export function useReview(id: Ref<number>) {
   }
 
   /**
-   * Approves the revision with an optional comment; the server renders and stores the design sheet.
+   * Approves the revision with an optional comment (and the justification a failed check requires); the server
+   * renders and stores the design sheet.
    * @returns whether it worked
    */
-  async function approve(comment: string): Promise<boolean> {
+  async function approve(comment: string, justification = ''): Promise<boolean> {
     isDeciding.value = true;
     try {
-      const answer = await approveRevision(id.value, comment.trim());
+      const answer = await approveRevision(id.value, comment.trim(), justification.trim());
       revision.value = answer.revision;
       publishedSheetId.value = answer.sheet.id;
       showSuccess(`Approved. The design sheet of revision ${answer.revision.number} is published.`);

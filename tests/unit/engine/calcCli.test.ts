@@ -51,3 +51,21 @@ describe('scripts/calc.ts', () => {
     130_000,
   );
 });
+
+describe('scripts/calc.ts --job', () => {
+  it('when a job CSV is given, then the result times those points on the design', () => {
+    const csv = file('job.csv', 'x_mm,y_mm,dwell_s\n10,10,0.2\n120,60,0\n30,100,0.1\n');
+    const r = run('reference/examples/corexy-dispensing-stage.json', '--job', csv, '--compact');
+    expect(r.code).toBe(0);
+    const out = JSON.parse(r.stdout);
+    expect(out.job.moves).toHaveLength(2);
+    expect(out.job.dwellS).toBeCloseTo(0.3, 12);
+  }, 130_000);
+
+  it('when the job CSV has a bad cell, then it exits 2 naming line and column', () => {
+    const csv = file('badjob.csv', 'x,y\n1,2\nabc,3\n');
+    const r = run('reference/examples/corexy-dispensing-stage.json', '--job', csv);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('line 3, x: "abc" is not a number');
+  }, 130_000);
+});

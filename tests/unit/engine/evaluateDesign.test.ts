@@ -58,6 +58,17 @@ const FORMAT_FIELDS = [
     ['directionDeg', 'accelMaxMPerS2', 'accelAtCruiseMPerS2', 'speedMaxMPerS'].map((f) => `envelope.axes.${a}.${f}`),
   ),
   ...['x', 'y', 'worst'].flatMap((a) => ['amplitudeMm', 'accelForToleranceMPerS2'].map((f) => `stiffness.ringing.${a}.${f}`)),
+  // Second version of the surface: the second layer
+  ...['stretchMm', 'loadAngleMm', 'deadbandMm', 'runoutMm', 'totalMm', 'xMm', 'yMm', 'directionDeg'].map((f) => `errorBudget.worst.${f}`),
+  'errorBudget.totalMm',
+  'modes',
+  ...['frequencyHz', 'modeId', 'xMm', 'yMm'].map((f) => `stiffness.lowest.${f}`),
+  ...['frequencyHz', 'zvDurationS', 'zvdDurationS'].map((f) => `shaping.${f}`),
+  ...['toothMeshHzAtCruise', 'fullStepRateHzAtTop', 'microstepRateHzAtTop', 'stepRateLimitHz'].map((f) => `excitation.${f}`),
+  'heat.motors',
+  'heat.supply.powerW',
+  'heat.supply.currentA',
+  ...['atPretension', 'atPeak'].flatMap((f) => [`loads.motorShaftRadialN.${f}`, `loads.idlerRadialN.${f}`]),
 ];
 
 function get(obj: unknown, path: string): unknown {
@@ -65,8 +76,18 @@ function get(obj: unknown, path: string): unknown {
 }
 
 describe('evaluateDesign', () => {
-  it('when the demo designs are listed, then there is one per mechanism', () => {
-    expect(demos.map(([, d]) => d.mechanism).sort()).toEqual(['cartesian', 'corexy', 'hbot']);
+  it('when the demo designs are listed, then every mechanism has one', () => {
+    expect([...new Set(demos.map(([, d]) => d.mechanism))].sort()).toEqual(['cartesian', 'corexy', 'hbot']);
+  });
+
+  it('when a demo design lists job points, then the result carries the job with one move per pair of points', () => {
+    const withJob = demos.filter(([, d]) => Array.isArray(d.job?.points));
+    expect(withJob.length).toBeGreaterThan(0);
+    for (const [, d] of withJob) {
+      const r = evaluateDesign(d);
+      expect(r.job!.moves).toHaveLength(d.job.points.length - 1);
+      expect(r.job!.totalS).toBeGreaterThan(0);
+    }
   });
 
   it.each(demos)('when the demo %s is evaluated, then every documented result field is present', (_f, design) => {
@@ -106,7 +127,7 @@ describe('evaluateDesign', () => {
       expect(b.tension.tensileAllowableN).toBe(design.belt.allowableTensionN);
       for (const s of b.spans) expect(Object.keys(s)).toEqual(expect.arrayContaining(['id', 'lengthMm', 'targetFrequencyHz']));
     }
-    for (const p of r.partsList) expect(Object.keys(p).sort()).toEqual(['item', 'quantity', 'spec']);
+    for (const p of r.partsList) expect(Object.keys(p).sort()).toEqual(['item', 'quantity', 'spec', 'specParts']);
   });
 
   it.each(demos)('when the demo %s is evaluated, then every number is finite and nothing is undefined (JSON-safe)', (_f, design) => {

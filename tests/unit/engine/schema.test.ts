@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   EngineInputError,
+  JOB_MAX_POINTS,
   MICROSTEP_OPTIONS,
   defaultDesign,
   designInputSchema,
@@ -221,5 +222,71 @@ describe('designInputSchema', () => {
   it('when the schema is used directly, then it is the same rule set parseDesign applies before the travel rule', () => {
     expect(designInputSchema.safeParse(withField('driver.microsteps', 3)).success).toBe(false);
     expect(designInputSchema.safeParse(defaultDesign('hbot')).success).toBe(true);
+  });
+});
+
+describe('parseDesign (second-layer inputs)', () => {
+  it('when a design file predates the second-layer groups, then it stays valid and gets their documented defaults', () => {
+    // Arrange: the document as written before pulley.runoutMm, gantryBeam, controller, crossShaft, radialLoadRating, job
+    const doc = JSON.parse(JSON.stringify(defaultDesign('corexy'))) as Record<string, unknown>;
+    for (const key of ['gantryBeam', 'controller', 'crossShaft', 'radialLoadRating', 'job']) delete doc[key];
+    delete (doc.pulley as Record<string, unknown>).runoutMm;
+    // Act
+    const d = parseDesign(doc);
+    // Assert
+    expect(d.pulley.runoutMm).toBe(0.02);
+    expect(d.gantryBeam).toEqual({ secondMomentMm4: null, modulusGPa: null, massKgPerM: null });
+    expect(d.controller).toEqual({ maxStepRateHz: 100000, jerkMmPerS3: null });
+    expect(d.crossShaft).toEqual({ diameterMm: 8, shearModulusGPa: 79.3 });
+    expect(d.radialLoadRating).toEqual({ motorShaftN: 75, idlerN: 200 });
+    expect(d.job).toBeNull();
+  });
+
+  it.each([
+    ['pulley.runoutMm', -0.01],
+    ['pulley.runoutMm', 6],
+    ['gantryBeam.secondMomentMm4', 0],
+    ['gantryBeam.modulusGPa', -69],
+    ['controller.maxStepRateHz', 0],
+    ['controller.jerkMmPerS3', 'fast'],
+    ['crossShaft.diameterMm', 0],
+    ['radialLoadRating.motorShaftN', -28],
+    ['radialLoadRating.idlerN', Number.POSITIVE_INFINITY],
+  ])('when %s is %j, then the error names that field', (path, value) => {
+    expect(issuePaths(withField(path, value))).toEqual([path]);
+  });
+
+  it('when a job point has a bad coordinate, a negative dwell or an unknown field, then each error names the point and field', () => {
+    // Arrange
+    const doc = withField('job', {
+      points: [
+        { xMm: 10, yMm: 10 },
+        { xMm: 'ten', yMm: 10 },
+        { xMm: 10, yMm: 10, dwellS: -1 },
+        { xMm: 10, yMm: 10, zMm: 3 },
+      ],
+    });
+    // Act / Assert
+    expect(issuePaths(doc)).toEqual(['job.points.1.xMm', 'job.points.2.dwellS', 'job.points.3.zMm']);
+  });
+
+  it('when a job lists more points than allowed, then the error names job.points', () => {
+    const points = Array.from({ length: JOB_MAX_POINTS + 1 }, (_, i) => ({ xMm: i % 100, yMm: 0 }));
+    expect(issuePaths(withField('job', { points }))).toEqual(['job.points']);
+  });
+
+  it('when a job is valid, then dwell defaults to 0 and the points keep their order', () => {
+    const d = parseDesign(
+      withField('job', {
+        points: [
+          { xMm: 5, yMm: 6, dwellS: 0.2 },
+          { xMm: 7, yMm: 8 },
+        ],
+      }),
+    );
+    expect(d.job?.points).toEqual([
+      { xMm: 5, yMm: 6, dwellS: 0.2 },
+      { xMm: 7, yMm: 8, dwellS: 0 },
+    ]);
   });
 });

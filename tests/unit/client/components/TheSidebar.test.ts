@@ -4,7 +4,7 @@ import { createTestingPinia } from '@pinia/testing';
 import type { Role } from '@/api/types';
 import TheSidebar from '@/components/TheSidebar.vue';
 
-function mountSidebar(roles: Role[], isOutboxEnabled: boolean) {
+function mountSidebar(roles: Role[], isOutboxEnabled: boolean, waiting: number | null = null) {
   return mount(TheSidebar, {
     global: {
       plugins: [
@@ -16,6 +16,7 @@ function mountSidebar(roles: Role[], isOutboxEnabled: boolean) {
               isLoaded: true,
             },
             health: { health: { status: 'ok', db: 'up', version: '0.1.0', outbox: isOutboxEnabled } },
+            reviewQueue: { waiting },
           },
         }),
       ],
@@ -50,6 +51,20 @@ describe('TheSidebar', () => {
     const review = links.find((l) => l.attributes('data-test') === 'nav-review')!;
     expect(review.props('to')).toBe('/review');
     expect(review.text()).toBe('Review desk');
+  });
+
+  it('when revisions wait for review, then the Review desk item shows how many, in words for screen readers (issue 13)', () => {
+    // Arrange + Act
+    const wrapper = mountSidebar(['reviewer'], false, 3);
+    // Assert
+    const count = wrapper.get('[data-test="review-waiting-count"]');
+    expect(count.attributes('data-count')).toBe('3');
+    expect(count.text()).toContain('3 revisions waiting');
+  });
+
+  it('when nothing waits, then the Review desk item shows no count', () => {
+    const wrapper = mountSidebar(['reviewer'], false, 0);
+    expect(wrapper.find('[data-test="review-waiting-count"]').exists()).toBe(false);
   });
 
   it('when the server reports a version, then shows it', () => {

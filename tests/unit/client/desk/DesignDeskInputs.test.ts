@@ -1,3 +1,4 @@
+import { fieldMessage } from '@/format';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { computed, defineComponent, h, reactive } from 'vue';
 import { flushPromises, mount } from '@vue/test-utils';
@@ -49,7 +50,7 @@ describe('DesignDeskInputs', () => {
     setActivePinia(createPinia());
   });
 
-  it('when a negative belt pitch is typed, then the schema message shows at that field and matches the API', async () => {
+  it('when a negative belt pitch is typed, then the schema message shows at that field, named by its label, as the API says it', async () => {
     // Arrange
     const { wrapper, model } = mountForm();
     // The API validates with the same zod schema: take its message for this value as the expectation.
@@ -63,7 +64,9 @@ describe('DesignDeskInputs', () => {
     expect((model.belt as { pitchMm: number }).pitchMm).toBe(-2);
     expect(apiMessage).toBe('belt pitch must be at least 0.5');
     // Element Plus shows a form item's message after a short debounce of its validation state.
-    await vi.waitFor(() => expect(fieldError(wrapper, 'belt.pitchMm')).toBe(apiMessage));
+    // fix: #13 validation messages name the field by its label
+    await vi.waitFor(() => expect(fieldError(wrapper, 'belt.pitchMm')).toBe(fieldMessage('belt.pitchMm', apiMessage!)));
+    expect(fieldError(wrapper, 'belt.pitchMm')).toBe('Belt pitch must be at least 0.5');
     expect(fieldError(wrapper, 'belt.widthMm')).toBe('');
     expect(wrapper.get('[data-test="group-problems-belts"]').text()).toContain('1');
     wrapper.unmount();
@@ -73,7 +76,7 @@ describe('DesignDeskInputs', () => {
     const { wrapper } = mountForm();
     await wrapper.get('input[data-test="input-frame.outerXMm"]').setValue('wide');
     await flushPromises();
-    await vi.waitFor(() => expect(fieldError(wrapper, 'frame.outerXMm')).toBe('outer X size must be a number'));
+    await vi.waitFor(() => expect(fieldError(wrapper, 'frame.outerXMm')).toBe('Frame width, outside (X) must be a number'));
     wrapper.unmount();
   });
 
@@ -82,7 +85,7 @@ describe('DesignDeskInputs', () => {
     const input = wrapper.get('input[data-test="input-pulley.driveTeeth"]');
     await input.setValue('4');
     await flushPromises();
-    await vi.waitFor(() => expect(fieldError(wrapper, 'pulley.driveTeeth')).toBe('drive pulley teeth must be at least 6'));
+    await vi.waitFor(() => expect(fieldError(wrapper, 'pulley.driveTeeth')).toBe('Drive pulley must be at least 6'));
     await input.setValue('16');
     await flushPromises();
     await vi.waitFor(() => expect(fieldError(wrapper, 'pulley.driveTeeth')).toBe(''));

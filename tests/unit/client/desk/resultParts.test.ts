@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { defaultDesign, evaluateDesign } from '@/engine';
-import { packResult, unpackResult } from '@/workers/resultParts';
+import { defaultDesign, evaluateDesign, MODE_LABELS } from '@/engine';
+import { PACKED_MODE_IDS, packResult, RESULT_PARTS, unpackResult } from '@/workers/resultParts';
 
 const full = () => evaluateDesign({ ...defaultDesign('hbot'), map: { points: 21 } });
 
@@ -10,7 +10,7 @@ describe('packResult / unpackResult', () => {
     const result = full();
 
     // Act
-    const { light, packed } = packResult(result, ['map', 'directions']);
+    const { light, packed } = packResult(result, RESULT_PARTS);
     const back = unpackResult(light, packed);
 
     // Assert
@@ -39,5 +39,38 @@ describe('packResult / unpackResult', () => {
     const { light, packed } = packResult(result, ['directions']);
 
     expect(unpackResult(light, packed).envelope.limitingMotor).toEqual(result.envelope.limitingMotor);
+  });
+});
+
+describe('packResult / unpackResult, the second layer maps', () => {
+  it('when the mode and error maps are packed and unpacked, then they equal the engine result (mode ids by name)', () => {
+    // Arrange
+    const result = evaluateDesign({ ...defaultDesign('cartesian'), yMotors: 1, map: { points: 21 } });
+
+    // Act
+    const { light, packed } = packResult(result, ['modeMap', 'errorMap']);
+    const back = unpackResult(light, packed);
+
+    // Assert
+    expect(back.stiffness.lowestMap).toEqual(result.stiffness.lowestMap);
+    expect(back.errorBudget.totalMm).toEqual(result.errorBudget.totalMm);
+    expect(back.stiffness.lowestFrequencyHz).toEqual([]);
+    expect(packed.values.length).toBe(3 * 21 * 21);
+  });
+
+  it('when the mode map names a mode, then the packed list knows it (every mode id of the engine)', () => {
+    // Arrange / Act / Assert
+    expect([...PACKED_MODE_IDS].sort()).toEqual(Object.keys(MODE_LABELS).sort());
+  });
+
+  it('when only the small result is sent, then the second layer maps are empty and its summaries stay', () => {
+    const result = full();
+
+    const { light } = packResult(result, []);
+
+    expect(light.errorBudget.totalMm).toEqual([]);
+    expect(light.stiffness.lowestMap.modeId).toEqual([]);
+    expect(light.errorBudget.worst).toEqual(result.errorBudget.worst);
+    expect(light.stiffness.lowest).toEqual(result.stiffness.lowest);
   });
 });

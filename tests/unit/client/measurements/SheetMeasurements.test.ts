@@ -52,6 +52,7 @@ function span(spanId: string, beltId: 'a' | 'b', extra: Partial<SpanSummary> = {
     fixedLength: true,
     isReference: spanId.endsWith('back'),
     targetFrequencyHz: 100,
+    targetBandHz: { low: 100 * Math.sqrt(0.9), high: 100 * Math.sqrt(1.1) },
     targetTensionN: 48,
     latest: null,
     count: 0,
@@ -85,6 +86,7 @@ function summary(extra: Partial<SheetMeasurementsData> = {}): SheetMeasurementsD
       },
     ],
     tolerances: { crossedBeltPct: 5, targetPct: 10, source: 'common practice' },
+    allowableTensionN: 250,
     canRecord: true,
     ...extra,
   };
@@ -148,14 +150,15 @@ describe('SheetMeasurements', () => {
     const wrapper = await mountSection();
     // Assert
     const a = row(wrapper, 'a-back');
-    expect(a.text()).toContain('100 Hz');
+    expect(a.text()).toContain('100.0 Hz');
+    expect(a.text()).toContain('good 94.9–104.9');
     expect(a.get('[data-test="measured-frequency"]').text()).toBe('110 Hz');
     expect(a.get('[data-test="target-tension"]').text()).toMatch(/^48\s*N$/);
     expect(a.get('[data-test="measured-tension"]').text()).toMatch(/^58\.08\s*N$/);
-    expect(a.get('[data-test="measured-deviation"]').text()).toBe('+21 %');
+    expect(a.get('[data-test="measured-deviation"]').text()).toBe('+21\u00a0%');
     expect(a.attributes('data-status')).toBe('high');
     expect(a.text()).toContain('too tight');
-    expect(row(wrapper, 'b-back').get('[data-test="measured-deviation"]').text()).toBe('−15 %'); // two significant digits
+    expect(row(wrapper, 'b-back').get('[data-test="measured-deviation"]').text()).toBe('−15\u00a0%'); // two significant digits
     expect(row(wrapper, 'b-back').text()).toContain('too slack');
     const front = row(wrapper, 'a-front');
     expect(front.get('[data-test="measured-frequency"]').text()).toBe('—');

@@ -27,7 +27,7 @@ const BELT: BeltPart = {
   axialStiffnessN: 40000,
   allowableTensionN: 250,
   minPulleyTeeth: 12,
-  note: 'Typical values from memory — replace with the belt maker’s data.',
+  note: 'Typical values for this belt size (common practice on desktop machines), not a datasheet — replace with the belt maker’s data.',
   retired: false,
 };
 
@@ -48,7 +48,7 @@ describe('PartsShelfView', () => {
     localStorage.clear();
   });
 
-  it('when a designer opens the shelf, then belts show with units and remembered values are flagged, read only', async () => {
+  it('when a designer opens the shelf, then belts show with units and typical values are flagged, read only', async () => {
     // Arrange / Act
     const { wrapper } = await mountShelf(['designer']);
     // Assert
@@ -56,8 +56,8 @@ describe('PartsShelfView', () => {
     expect(wrapper.get('[data-test="part-row"]').text()).toBe('2 mm round tooth 6 mm');
     expect(wrapper.text()).toMatch(/7\.5\s*g\/m/);
     const note = wrapper.get('[data-test="part-note"]');
-    expect(note.text()).toContain('from memory');
-    expect(note.classes()).toContain('parts__note--memory');
+    expect(note.text()).toContain('Typical values');
+    expect(note.classes()).toContain('parts__note--typical');
     expect(wrapper.find('[data-test="part-add"]').exists()).toBe(false);
     expect(wrapper.find('[data-test="part-edit"]').exists()).toBe(false);
     expect(wrapper.text()).toContain('Read only');
@@ -70,6 +70,31 @@ describe('PartsShelfView', () => {
     expect(wrapper.find('[data-test="part-edit"]').exists()).toBe(true);
     expect(wrapper.find('[data-test="part-retire"]').exists()).toBe(true);
     wrapper.unmount();
+  });
+
+  it('when the screen is phone-sized, then each part is a card with its figures and actions instead of a table (issue 13)', async () => {
+    // Arrange: matchMedia answers "phone"
+    const original = window.matchMedia;
+    window.matchMedia = ((query: string) =>
+      ({
+        matches: query.includes('max-width: 640px'),
+        media: query,
+        addEventListener: () => {},
+        removeEventListener: () => {},
+      }) as unknown as MediaQueryList) as typeof window.matchMedia;
+    try {
+      // Act
+      const { wrapper } = await mountShelf(['admin']);
+      // Assert
+      expect(wrapper.find('[data-test="parts-table-belts"]').exists()).toBe(false);
+      const card = wrapper.get('[data-test="part-card"]');
+      expect(card.text()).toContain('Allowable tension');
+      expect(card.text()).toMatch(/250\s*N/);
+      expect(card.find('[data-test="part-retire"]').exists()).toBe(true);
+      wrapper.unmount();
+    } finally {
+      window.matchMedia = original;
+    }
   });
 
   it('when "show retired" is switched on, then the shelf is asked again with retired parts', async () => {

@@ -1,12 +1,42 @@
 import { describe, expect, it, vi } from 'vitest';
 import { flushPromises, mount } from '@vue/test-utils';
 import { createMemoryHistory, createRouter } from 'vue-router';
+import { createPinia } from 'pinia';
 import type { RevisionDetail } from '@/api/revisions';
+import type { Check } from '@/engine';
 import ReviewDecision from '@/views/review/ReviewDecision.vue';
 
 vi.setConfig({ testTimeout: 60_000 });
 
-type DoneArgs = [string, (ok: boolean) => void];
+type DoneArgs = [string, string, (ok: boolean) => void];
+type ReturnArgs = [string, (ok: boolean) => void];
+
+/** A failed check in the shape the engine gives, with its message as parts. */
+const FAILED: Check = {
+  id: 'cruise-speed',
+  severity: 'fail',
+  message: 'Cruise speed 0.60 m/s is above the highest speed in the worst direction (0.51 m/s).',
+  parts: [
+    'Cruise speed ',
+    { value: 0.6, kind: 'speedMPerS' },
+    ' is above the highest speed in the worst direction (',
+    { value: 0.512, kind: 'speedMPerS' },
+    ').',
+  ],
+  value: 0.6,
+  limit: 0.512,
+  unit: 'm/s',
+  kind: 'speedMPerS',
+  subject: null,
+};
+// Stored by an older engine: a check without its message parts.
+const WARNED = {
+  ...FAILED,
+  id: 'torque-margin',
+  severity: 'warn',
+  message: 'The design uses 75 % of the torque.',
+  parts: undefined,
+} as unknown as Check;
 
 function revision(extra: Partial<RevisionDetail> = {}): RevisionDetail {
   return {
@@ -23,6 +53,8 @@ function revision(extra: Partial<RevisionDetail> = {}): RevisionDetail {
     decidedAt: null,
     returnReason: null,
     approvalComment: null,
+    approvalJustification: null,
+    sheetUnits: 'metric',
     sheetId: null,
     engineVersion: '1.0.0',
     fingerprint: 'cd'.repeat(32),
@@ -35,7 +67,7 @@ function revision(extra: Partial<RevisionDetail> = {}): RevisionDetail {
     },
     isOwn: false,
     inputs: {} as RevisionDetail['inputs'],
-    result: {} as RevisionDetail['result'],
+    result: { checks: [] as Check[] } as RevisionDetail['result'],
     previousRevisionId: 30,
     permissions: { canDecide: true, canComment: true, canWithdraw: false },
     ...extra,
@@ -53,7 +85,7 @@ async function mountDecision(rev: RevisionDetail) {
   await router.push('/');
   const wrapper = mount(ReviewDecision, {
     props: { revision: rev, isDeciding: false },
-    global: { plugins: [router] },
+    global: { plugins: [router, createPinia()] },
     attachTo: document.body,
   });
   await flushPromises();
@@ -117,7 +149,7 @@ describe('ReviewDecision', () => {
     inBody<HTMLButtonElement>('[data-test="return-confirm"]')!.click();
     await flushPromises();
     // Assert
-    const returned = wrapper.emitted('return') as DoneArgs[];
+    const returned = wrapper.emitted('return') as ReturnArgs[];
     expect(returned).toHaveLength(1);
     expect(returned[0][0]).toBe('Raise the belt pretension to the sheet value.');
     expect(isOpen('return-dialog')).toBe(true);
@@ -140,9 +172,48 @@ describe('ReviewDecision', () => {
     const approved = wrapper.emitted('approve') as DoneArgs[];
     expect(approved).toHaveLength(1);
     expect(approved[0][0]).toBe('Good margins.');
-    approved[0][1](false);
+    expect(approved[0][1]).toBe('');
+    approved[0][2](false);
     await flushPromises();
     expect(isOpen('approve-dialog')).toBe(true);
+    wrapper.unmount();
+  });
+
+  it('when a check failed, then the dialog lists it in the reviewer’s units and refuses to approve without a justification (issue 13)', async () => {
+    // Arrange
+    const wrapper = await mountDecision(
+      revision({
+        summary: { ...revision().summary, checks: { ok: 8, warn: 1, fail: 1 } },
+        result: { checks: [WARNED, FAILED] } as unknown as RevisionDetail['result'],
+      }),
+    );
+    expect(wrapper.get('[data-test="decide-fail-note"]').text()).toContain('1 failed check');
+    await wrapper.get('[data-test="review-approve"]').trigger('click');
+    await flushPromises();
+    // Act: confirm with no justification
+    inBody<HTMLButtonElement>('[data-test="approve-confirm"]')!.click();
+    await flushPromises();
+    // Assert: nothing emitted, the failed check comes first with its message in mm/s, and the field asks for a reason
+    expect(wrapper.emitted('approve')).toBeUndefined();
+    const items = [...document.body.querySelectorAll('[data-test="approve-check"]')];
+    expect(items.map((i) => i.getAttribute('data-severity'))).toEqual(['fail', 'warn']);
+    expect(items[0].textContent).toContain('Cruise speed 600\u00a0mm/s is above the highest speed in the worst direction (512\u00a0mm/s).');
+    await vi.waitFor(() =>
+      expect(inBody('[data-test="approve-dialog"] .el-form-item__error')?.textContent).toContain('Justification is required'),
+    );
+    expect(inBody('[data-test="approve-counts"]')!.textContent).toContain('1 failed');
+
+    // Act: with a justification
+    const textarea = inBody<HTMLTextAreaElement>('textarea[data-test="approve-justification"]')!;
+    textarea.value = 'Cruise speed is a target; the job planner caps it per direction.';
+    textarea.dispatchEvent(new Event('input'));
+    await flushPromises();
+    inBody<HTMLButtonElement>('[data-test="approve-confirm"]')!.click();
+    await flushPromises();
+    // Assert
+    const approved = wrapper.emitted('approve') as DoneArgs[];
+    expect(approved).toHaveLength(1);
+    expect(approved[0][1]).toBe('Cruise speed is a target; the job planner caps it per direction.');
     wrapper.unmount();
   });
 

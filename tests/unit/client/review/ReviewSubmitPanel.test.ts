@@ -5,6 +5,7 @@ import { createMemoryHistory, createRouter } from 'vue-router';
 import type { DesignStatus } from '@/api/designs';
 import type { RevisionDetail, RevisionListItem, RevisionStatus } from '@/api/revisions';
 import type { Role, User } from '@/api/types';
+import type { Check } from '@/engine';
 import ReviewSubmitPanel from '@/views/review/ReviewSubmitPanel.vue';
 
 vi.mock('@/api/revisions', () => ({
@@ -38,6 +39,8 @@ function revision(number: number, status: RevisionStatus, extra: Partial<Revisio
     decidedAt: status === 'in_review' ? null : '2026-03-02T09:30:00Z',
     returnReason: null,
     approvalComment: null,
+    approvalJustification: null,
+    sheetUnits: 'metric',
     sheetId: null,
     engineVersion: '1.0.0',
     fingerprint: 'ab'.repeat(32),
@@ -60,9 +63,25 @@ interface MountOptions {
   canChange?: boolean;
   prepare?: () => Promise<number | undefined>;
   roles?: Role[];
+  checks?: Check[] | null;
 }
 
-async function mountPanel({ status, canChange = true, prepare, roles = ['designer'] }: MountOptions) {
+const check = (id: string, severity: Check['severity'], message: string): Check => ({
+  id,
+  severity,
+  message,
+  value: 1,
+  limit: 2,
+  unit: 'N',
+  kind: 'forceN',
+  parts: [message],
+  subject: null,
+});
+
+/** The submit dialog is teleported to the body, outside the wrapper. */
+const inBody = <T extends Element = HTMLElement>(selector: string) => document.body.querySelector<T>(selector);
+
+async function mountPanel({ status, canChange = true, prepare, roles = ['designer'], checks = null }: MountOptions) {
   const router = createRouter({
     history: createMemoryHistory(),
     routes: [
@@ -82,7 +101,7 @@ async function mountPanel({ status, canChange = true, prepare, roles = ['designe
   };
   const pinia = createTestingPinia({ createSpy: vi.fn, stubActions: false, initialState: { auth: { user, isLoaded: true } } });
   const wrapper = mount(ReviewSubmitPanel, {
-    props: { designId: 7, status, canChange, prepare },
+    props: { designId: 7, status, canChange, prepare, checks },
     global: { plugins: [router, pinia] },
     attachTo: document.body,
   });
@@ -107,14 +126,15 @@ describe('ReviewSubmitPanel', () => {
       order.push('submit');
       return {} as RevisionDetail;
     });
-    message.confirmAction.mockResolvedValue(true);
     const wrapper = await mountPanel({ status: 'draft', prepare });
     // Act
     await wrapper.get('[data-test="design-submit"]').trigger('click');
     await flushPromises();
+    inBody<HTMLButtonElement>('[data-test="submit-confirm"]')!.click();
+    await flushPromises();
     // Assert
     expect(order).toEqual(['prepare', 'submit']);
-    expect(api.submitDesign).toHaveBeenCalledWith(7, 12);
+    expect(api.submitDesign).toHaveBeenCalledWith(7, 12, 'metric');
     expect(wrapper.emitted('changed')).toHaveLength(1);
     expect(message.showSuccess).toHaveBeenCalled();
     // the history is reloaded after the submit
@@ -122,23 +142,45 @@ describe('ReviewSubmitPanel', () => {
     wrapper.unmount();
   });
 
-  it('when the confirmation names the next revision number, then it counts on from the newest revision', async () => {
+  it('when the dialog opens, then its title counts on from the newest revision', async () => {
     api.listDesignRevisions.mockResolvedValue(page([revision(2, 'returned'), revision(1, 'returned')]));
-    message.confirmAction.mockResolvedValue(false);
     const wrapper = await mountPanel({ status: 'returned' });
     await wrapper.get('[data-test="design-submit"]').trigger('click');
     await flushPromises();
-    expect(message.confirmAction).toHaveBeenCalledWith(expect.objectContaining({ title: 'Submit revision 3 for review?' }));
+    expect(inBody('[data-test="submit-dialog"]')!.textContent).toContain('Submit revision 3 for review?');
     wrapper.unmount();
   });
 
-  it('when the designer cancels the confirmation, then nothing is prepared or submitted and nothing is emitted', async () => {
+  it('when the design has failed checks and warnings, then the dialog lists them, failures first (issue 13)', async () => {
+    // Arrange
+    const checks = [
+      check('torque-margin', 'warn', 'The design uses 75 % of the available torque.'),
+      check('pulley-min-teeth', 'fail', 'An 8-tooth pulley is smaller than the belt’s minimum of 12 teeth.'),
+      check('cruise-speed', 'ok', 'Cruise speed is reachable in every direction.'),
+    ];
+    const wrapper = await mountPanel({ status: 'draft', checks });
+    // Act
+    await wrapper.get('[data-test="design-submit"]').trigger('click');
+    await flushPromises();
+    // Assert
+    expect(inBody('[data-test="submit-counts"]')!.textContent).toContain('1 failed check, 1 warning');
+    const items = [...document.body.querySelectorAll('[data-test="submit-check"]')];
+    expect(items.map((i) => i.getAttribute('data-severity'))).toEqual(['fail', 'warn']);
+    expect(items[0].textContent).toContain('8-tooth pulley');
+    expect(items[1].textContent).toContain('75 %');
+    wrapper.unmount();
+  });
+
+  it('when the designer cancels the dialog, then nothing is prepared or submitted and nothing is emitted', async () => {
     // Arrange
     const prepare = vi.fn(async () => 5);
-    message.confirmAction.mockResolvedValue(false);
     const wrapper = await mountPanel({ status: 'draft', prepare });
     // Act
     await wrapper.get('[data-test="design-submit"]').trigger('click');
+    await flushPromises();
+    [...document.body.querySelectorAll<HTMLButtonElement>('[data-test="submit-dialog"] .el-dialog__footer button')]
+      .find((b) => b.textContent?.includes('Cancel'))!
+      .click();
     await flushPromises();
     // Assert
     expect(prepare).not.toHaveBeenCalled();
@@ -150,11 +192,12 @@ describe('ReviewSubmitPanel', () => {
   it('when the submit API refuses, then the error is shown and changed is not emitted', async () => {
     const failure = new Error('The design changed since you loaded it.');
     api.submitDesign.mockRejectedValue(failure);
-    message.confirmAction.mockResolvedValue(true);
     const wrapper = await mountPanel({ status: 'draft' });
     await wrapper.get('[data-test="design-submit"]').trigger('click');
     await flushPromises();
-    expect(api.submitDesign).toHaveBeenCalledWith(7, undefined);
+    inBody<HTMLButtonElement>('[data-test="submit-confirm"]')!.click();
+    await flushPromises();
+    expect(api.submitDesign).toHaveBeenCalledWith(7, undefined, 'metric');
     expect(message.showError).toHaveBeenCalledWith(failure, 'The design could not be submitted.');
     expect(wrapper.emitted('changed')).toBeUndefined();
     wrapper.unmount();

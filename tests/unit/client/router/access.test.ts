@@ -21,7 +21,7 @@ describe('homePathFor', () => {
   it.each<[Role[], string]>([
     [['admin'], '/designs'],
     [['designer'], '/designs'],
-    [['reviewer'], '/designs'],
+    [['reviewer'], '/review'], // fix: #13 reviewers land on the Review desk
     [['maker'], '/sheets'],
     [[], '/account'],
   ])('when the user holds %o, then starts at %s', (roles, expected) => {

@@ -75,7 +75,7 @@ describe('router guard', () => {
 
   it.each<[Role[], string]>([
     [['maker'], '/sheets'],
-    [['reviewer'], '/designs'],
+    [['reviewer'], '/review'],
   ])('when signed in as %o and opening the start page, then goes to %s', async (roles, expected) => {
     signedInAs(roles);
     const route = await visit('/');

@@ -20,6 +20,7 @@ const user = (id: number, roles: PublicUser['roles']): PublicUser => ({
   name: `U${id}`,
   roles,
   disabled: false,
+  isInvited: false,
   createdAt: '',
 });
 
@@ -115,6 +116,23 @@ describe('flattenLeaves and diffInputs', () => {
     ]);
   });
 
+  it('when the job points change, then the diff shows their number instead of the whole list', () => {
+    // Arrange
+    const before = { job: { points: [{ xMm: 1, yMm: 1 }] } };
+    const moved = { job: { points: [{ xMm: 2, yMm: 1 }] } };
+    const grown = {
+      job: {
+        points: [
+          { xMm: 1, yMm: 1 },
+          { xMm: 5, yMm: 5 },
+        ],
+      },
+    };
+    // Act / Assert
+    expect(diffInputs(before, moved)).toEqual([{ path: 'job.points', change: 'changed', old: '1 point', new: '1 point, moved' }]);
+    expect(diffInputs(before, grown)).toEqual([{ path: 'job.points', change: 'changed', old: '1 point', new: '2 points' }]);
+  });
+
   it('when nothing changed, then the diff is empty', () => {
     const doc = defaultDesign('corexy');
     expect(diffInputs(doc, JSON.parse(JSON.stringify(doc)))).toEqual([]);
@@ -137,9 +155,35 @@ describe('diffKeyResults', () => {
   });
 
   it('when there is no previous result, then every row is new with old null', () => {
-    const rows = diffKeyResults(null, evaluateDesign(defaultDesign('hbot')));
+    const withJob = {
+      ...defaultDesign('hbot'),
+      job: {
+        points: [
+          { xMm: 10, yMm: 10 },
+          { xMm: 100, yMm: 50 },
+        ],
+      },
+    };
+    const rows = diffKeyResults(null, evaluateDesign(withJob));
     expect(rows.length).toBeGreaterThan(15);
     expect(rows.every((r) => r.isChanged && r.old === null && r.new !== null)).toBe(true);
+  });
+});
+
+describe('diffKeyResults (second layer)', () => {
+  it('when the previous revision was frozen by an engine without the second layer, then its figures show as new', () => {
+    // Arrange
+    const after = evaluateDesign(defaultDesign('corexy'));
+    const { errorBudget: _e, ...older } = after;
+    // Act
+    const rows = diffKeyResults(older as typeof after, after);
+    // Assert
+    expect(rows.find((r) => r.key === 'errorBudget.worst.totalMm')).toMatchObject({
+      old: null,
+      new: after.errorBudget.worst.totalMm,
+      isChanged: true,
+    });
+    expect(rows.find((r) => r.key === 'travel.xMm')).toMatchObject({ isChanged: false });
   });
 });
 

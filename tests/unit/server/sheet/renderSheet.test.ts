@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { renderSheet } from '../../../../server/sheet/renderSheet';
+import { formatNumber } from '@/format';
 import { designFor, engineOneResult, exampleSheetInput } from './fixtures/sheetInput';
 
 // Rendering a sheet takes a second or two; on a busy shared machine several can queue up.
@@ -67,34 +68,38 @@ describe('renderSheet', () => {
     expect(text).toContain('2025-03-14 09:30 UTC');
   });
 
-  it('when the text is extracted, then every belt has its cut length and teeth, every span its target frequency, and the parking position is stated', () => {
+  it('when the text is extracted, then every belt has its cut length and teeth, every span its target frequency with its band, and the parking position is stated', () => {
     const flat = poppler('pdftotext', a4, '-layout').replace(/\s+/g, ' ');
     expect(input.result.belts.length).toBeGreaterThan(0);
     for (const belt of input.result.belts) {
-      expect(flat).toContain(`${belt.label} ${belt.cutLengthMm.toFixed(0)} ${belt.loopTeeth}`);
+      expect(flat).toContain(`${belt.label} ${formatNumber(belt.cutLengthMm)} ${belt.loopTeeth}`);
       for (const span of belt.spans) {
-        expect(flat).toMatch(
-          new RegExp(`${span.lengthMm.toFixed(1)} (yes|no) ${input.inputs.pretensionN.toFixed(1)} ${span.targetFrequencyHz.toFixed(1)}`),
-        );
+        // the band keeps tension within ±10 %: f·√0.9 … f·√1.1 (string law; engine pluckBandHz)
+        const band = `${(span.targetFrequencyHz * Math.sqrt(0.9)).toFixed(1)} – ${(span.targetFrequencyHz * Math.sqrt(1.1)).toFixed(1)}`;
+        expect(flat).toMatch(new RegExp(`(yes|no) ${span.targetFrequencyHz.toFixed(1)} ${band}`));
       }
     }
     const { xMm, yMm } = input.result.parking;
-    expect(flat).toContain(`Park the carriage at X ${xMm.toFixed(1)} mm, Y ${yMm.toFixed(1)} mm`);
+    expect(flat).toContain(`Park the carriage at X ${formatNumber(xMm)} mm, Y ${formatNumber(yMm)} mm`);
+    expect(flat).toContain(`Set every span to ${formatNumber(input.inputs.pretensionN, 3)} N`);
   });
 
-  it('when the text is extracted, then the limits along X, Y, the diagonal and the worst direction and the lowest resonance are printed', () => {
+  it('when the text is extracted, then the limits along X, Y, the diagonal and the worst direction and the lowest resonance are printed, and no internal check id', () => {
     const flat = poppler('pdftotext', a4, '-layout').replace(/\s+/g, ' ');
     const { axes } = input.result.envelope;
+    const three = (v: number) => formatNumber(v, 3);
     expect(flat).toContain(
-      `Along X 0 ${axes.x.accelMaxMPerS2.toFixed(2)} ${axes.x.accelAtCruiseMPerS2.toFixed(2)} ${(axes.x.speedMaxMPerS * 1000).toFixed(0)}`,
+      `Along X 0 ${three(axes.x.accelMaxMPerS2)} ${three(axes.x.accelAtCruiseMPerS2)} ${three(axes.x.speedMaxMPerS * 1000)}`,
     );
-    expect(flat).toContain(`Along Y 90 ${axes.y.accelMaxMPerS2.toFixed(2)}`);
-    expect(flat).toContain(`Along the diagonal 45 ${axes.diagonal.accelMaxMPerS2.toFixed(2)}`);
-    expect(flat).toContain(`Worst direction ${axes.worst.directionDeg} ${axes.worst.accelMaxMPerS2.toFixed(2)}`);
+    expect(flat).toContain(`Along Y 90 ${three(axes.y.accelMaxMPerS2)}`);
+    expect(flat).toContain(`Along the diagonal 45 ${three(axes.diagonal.accelMaxMPerS2)}`);
+    expect(flat).toContain(`Worst direction ${axes.worst.directionDeg} ${three(axes.worst.accelMaxMPerS2)}`);
     expect(flat).toContain(`${input.result.stiffness.min.frequencyHz.toFixed(1)} Hz`);
     for (const check of input.result.checks) if (check.subject) expect(flat).toContain(check.subject);
-    // check ids are for programs, never printed
-    for (const id of ['belt-slack', 'belt-tensile', 'teeth-in-mesh', 'torque-margin']) expect(flat).not.toContain(id);
+    // fix: #13 internal check ids stay off the sheet
+    const ids = input.result.checks.map((c) => c.id).filter((id) => /[-:]/.test(id));
+    expect(ids.length).toBeGreaterThan(3);
+    for (const id of ids) expect(flat).not.toContain(id);
   });
 
   it('when the text is extracted, then the worst tight and slack sides with where, the tooth load, the microstep figures and the motor-model caveats are printed', () => {
@@ -103,15 +108,46 @@ describe('renderSheet', () => {
     const r = input.result;
     // Act / Assert
     for (const b of r.belts) {
-      expect(flat).toContain(`${b.tension.worstTightN.toFixed(1)} / ${b.tension.tensileAllowableN.toFixed(0)}`);
-      expect(flat).toContain(`X ${b.tension.worstSlackAt.xMm.toFixed(0)}, Y ${b.tension.worstSlackAt.yMm.toFixed(0)} mm, moving toward`);
-      expect(flat).toContain(`${b.tension.toothLoadN.toFixed(2)} / ${b.tension.toothAllowableN.toFixed(1)}`);
+      expect(flat).toContain(`${formatNumber(b.tension.worstTightN, 3)} / ${formatNumber(b.tension.tensileAllowableN, 3)}`);
+      expect(flat).toContain(
+        `X ${formatNumber(b.tension.worstSlackAt.xMm, 3)}, Y ${formatNumber(b.tension.worstSlackAt.yMm, 3)} mm, moving toward`,
+      );
+      expect(flat).toContain(`${formatNumber(b.tension.toothLoadN, 3)} / ${formatNumber(b.tension.toothAllowableN, 3)}`);
     }
-    expect(flat).toContain(`Smallest pure X or pure Y move ${r.drive.microstep.axisMm.toFixed(5)}`);
-    expect(flat).toContain(`Smallest pure 45° diagonal move ${r.drive.microstep.diagonalMm.toFixed(5)}`);
+    expect(flat).toContain(`Smallest pure X or pure Y move ${formatNumber(r.drive.microstep.axisMm * 1000)} µm`);
+    expect(flat).toContain(`Smallest pure 45° diagonal move ${formatNumber(r.drive.microstep.diagonalMm * 1000)} µm`);
     expect(flat).toContain('One motor steps once, the other holds');
     expect(flat).toContain('mid-band resonance, iron loss and detent torque');
     expect(flat).toContain('measured torque–speed table');
+  });
+
+  it('when the sheet is printed in imperial units, then lengths, forces and accelerations read in inches, pound-force and in/s² (NIST SP 811 B.8)', async () => {
+    // Act
+    const flat = poppler('pdftotext', await renderSheet({ ...input, units: 'imperial' }), '-layout').replace(/\s+/g, ' ');
+    // Assert
+    const belt = input.result.belts[0];
+    expect(flat).toContain('Units on this sheet Approved on CoreXY Imperial');
+    expect(flat).toContain(`${belt.label} ${formatNumber(belt.cutLengthMm / 25.4)} ${belt.loopTeeth}`);
+    expect(flat).toContain(`Set every span to ${formatNumber(input.inputs.pretensionN / 4.4482216152605, 3)} lbf`);
+    expect(flat).toContain(`Steps per inch of belt ${(input.result.drive.stepsPerMm * 25.4).toFixed(2)}`);
+    expect(flat).toContain('Accel. at rest [in/s²]');
+    expect(flat).not.toMatch(/\[mm\]/);
+  });
+
+  it('when a reviewer approved over a failed check, then the justification is printed with the approval and above the checks', async () => {
+    // Arrange
+    const failing = { ...input.result, checks: input.result.checks.map((c, i) => (i === 0 ? { ...c, severity: 'fail' as const } : c)) };
+    const justification = 'Torque use is higher on purpose; the stage only runs at half speed.';
+    // Act
+    const flat = poppler(
+      'pdftotext',
+      await renderSheet({ ...input, result: failing, approval: { ...input.approval, justification } }),
+      '-layout',
+    ).replace(/\s+/g, ' ');
+    // Assert
+    const failed = failing.checks.filter((c) => c.severity === 'fail').length;
+    expect(flat).toContain(`Approved although ${failed} check${failed === 1 ? '' : 's'} failed`);
+    expect(flat.split(justification).length - 1).toBe(2);
   });
 
   it('when every page is read, then each carries "Page X of Y" and the fingerprint in its footer', () => {
@@ -170,7 +206,7 @@ describe('renderSheet', () => {
       expect(flat).toContain(mechanism === 'cartesian' ? 'Motor X' : 'Motor A');
       expect(flat).toContain('Racking.');
       if (mechanism === 'hbot') expect(other.result.racking.momentPerNewtonM).toBeGreaterThan(0);
-      if (mechanism === 'hbot') expect(flat).toContain(`${other.result.racking.peakMomentNm.toFixed(2)} N·m`);
+      if (mechanism === 'hbot') expect(flat).toContain(`${formatNumber(other.result.racking.peakMomentNm, 3)} N·m`);
     },
   );
 
@@ -199,7 +235,7 @@ describe('renderSheet with a result frozen by engine 1', () => {
     // Assert
     const flat = poppler('pdftotext', pdf, '-layout').replace(/\s+/g, ' ');
     expect(flat).toContain('1.0.0');
-    expect(flat).toContain('Along X (engine 1.0.0) 0.00625');
+    expect(flat).toContain('Along X (engine 1.0.0) 6.25 µm');
     expect(flat).toContain('Tensions as approved with engine 1.0.0');
     const b = old.result.belts[0] as unknown as { tightSideN: number; allowableTensionN: number };
     expect(flat).toContain(`${b.tightSideN.toFixed(1)} / ${b.allowableTensionN.toFixed(0)}`);

@@ -3,7 +3,7 @@ import { defaultDesign, evaluateValidDesign, parseDesign, type DesignInput } fro
 import { AppError } from '../../../../server/errors';
 import { calcJson, closePools, freezeInPool, getEnginePool, renderSheetsInPool } from '../../../../server/workers/pool';
 import { freezeDesign } from '../../../../server/services/revisions.service';
-import { pickSections } from '../../../../server/workers/sections';
+import { pickSections, RESULT_SECTIONS } from '../../../../server/workers/sections';
 
 process.env.DB_PASSWORD ??= 'unit-test-password';
 process.env.JWT_SECRET ??= 'Xq3vR9tLm2Wp7sKd4Hf8Jc1Bn6Yg0Za5Ue2Io9Pr3Tw';
@@ -99,5 +99,25 @@ describe('pickSections', () => {
     const result = evaluateValidDesign(demo());
 
     expect(pickSections(result)).toBe(result);
+  });
+
+  it('when every section is named, then the answer has every field of the result (none left unnamed)', () => {
+    // Arrange
+    const result = evaluateValidDesign(demo());
+
+    // Act
+    const picked = pickSections(result, RESULT_SECTIONS);
+
+    // Assert
+    expect(Object.keys(picked).sort()).toEqual(Object.keys(result).sort());
+  });
+
+  it('when the second layer sections are asked, then only they come back (with the identification)', () => {
+    const result = evaluateValidDesign(demo());
+
+    const picked = pickSections(result, ['errorBudget', 'job']);
+
+    expect(Object.keys(picked).sort()).toEqual(['engineVersion', 'errorBudget', 'job', 'mechanism', 'name']);
+    expect(picked.errorBudget).toBe(result.errorBudget);
   });
 });

@@ -1,9 +1,9 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { conversionFactor, QUANTITIES } from '@/components/units/quantities';
-import { UNIT_TABLE } from '@/components/units/unitTable';
-import { siOf, unitMath } from '../../../../scripts/genUnitTable';
+import { conversionFactor, QUANTITIES } from '@/format/displayUnits';
+import { UNIT_TABLE } from '@/format/unitTable';
+import { siOf, unitMath } from '../../../scripts/genUnitTable';
 
 const math = unitMath();
 
@@ -20,7 +20,7 @@ function storedUnitsInSource(): string[] {
       }
     }
   };
-  walk(path.join(import.meta.dirname, '../../../../src'));
+  walk(path.join(import.meta.dirname, '../../../src'));
   return [...found];
 }
 
@@ -48,6 +48,7 @@ describe('UNIT_TABLE', () => {
   it.each([
     ['mm', 'in'],
     ['N m', 'ozf in'],
+    ['N m', 'lbf in'],
     ['kg m^2', 'oz in^2'],
     ['kg/m', 'oz/ft'],
     ['m/s^2', 'in/s^2'],

@@ -3,7 +3,7 @@
  * Appendix B.8: 1 in = 25.4 mm (exact), 1 ozf·in = 7.061 552 E-03 N·m, 1 lbf = 4.448 222 N, 1 lb = 0.453 592 37 kg.
  */
 import { describe, expect, it } from 'vitest';
-import { convert, formatNumber, formatQuantity, fromDisplay, parseNumberInput, toDisplay } from '@/components/units/quantities';
+import { convert, formatNumber, formatQuantity, fromDisplay, parseNumberInput, toDisplay } from '@/format';
 
 describe('convert', () => {
   it.each([
