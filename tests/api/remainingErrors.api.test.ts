@@ -42,9 +42,10 @@ function realPath(route: ApiRoute): string {
 describe('malformed multipart on every upload route', () => {
   const uploads = ROUTES.filter((r) => r.isUpload);
 
-  it('when the router is walked, then it finds the three upload routes', () => {
+  it('when the router is walked, then it finds the four upload routes', () => {
     expect(uploads.map(routeLabel).sort()).toEqual([
       'POST /api/designs/:id/attachments',
+      'POST /api/designs/:id/job',
       'POST /api/parts/motors/:id/torque-curve',
       'POST /api/sheets/:id/measurements',
     ]);
