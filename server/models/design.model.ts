@@ -13,9 +13,6 @@ import { DESIGN_STATUSES, type DesignStatus } from '@/contracts';
 
 export { DESIGN_STATUSES, type DesignStatus };
 
-/** States in which the inputs may still change; a design in review or approved is frozen. */
-export const EDITABLE_DESIGN_STATUSES: readonly DesignStatus[] = ['draft', 'returned'];
-
 /** The three mechanisms the engine knows. */
 export const DESIGN_MECHANISMS = ['corexy', 'hbot', 'cartesian'] as const;
 export type DesignMechanism = (typeof DESIGN_MECHANISMS)[number];

@@ -18,7 +18,6 @@ export { AuditLog } from './auditLog.model';
 export {
   Design,
   DESIGN_STATUSES,
-  EDITABLE_DESIGN_STATUSES,
   DESIGN_MECHANISMS,
   type DesignStatus,
   type DesignMechanism,

@@ -1,13 +1,15 @@
+import type { Page } from '@/contracts';
 import { Op, type Transaction } from 'sequelize';
 import { getSequelize } from '../db';
-import { AppError, forbidden, notFound } from '../errors';
+import { AppError, notFound } from '../errors';
 import { logger } from '../logger';
 import type { UploadedFile } from '../uploads/uploadedFile';
 import { Attachment, Design, User, type AttachmentMime } from '../models';
 import { getContentStore, markUnreferenced, referenceContent, removeUnreferencedContent } from '../storage';
 import { assertTypeMatches, ContentStoreError, CsvError, PluckError, sha256Of, UploadTypeError, type SniffedMime } from '../uploads';
+import { assertMayAttach as assertMayAttachTo, assertMayDeleteAttachment, mayChangeDesign, mayDeleteAttachment } from './access';
 import { recordAudit } from './audit.service';
-import type { Page, PublicUser } from './users.service';
+import type { PublicUser } from './users.service';
 
 /** Largest design attachment [bytes] (issue 6: 10 MB). */
 export const ATTACHMENT_MAX_BYTES = 10 * 1024 * 1024;
@@ -36,10 +38,6 @@ export type PublicAttachment = {
 export type AttachmentPage = Page<PublicAttachment> & { canUpload: boolean };
 
 type AttachmentRow = Attachment & { uploadedBy?: User | null; design?: Design | null };
-
-const isAdmin = (actor: PublicUser) => actor.roles.includes('admin');
-const isDesignerOwner = (actor: PublicUser, design: Pick<Design, 'ownerId'>) =>
-  actor.roles.includes('designer') && design.ownerId === actor.id;
 
 /**
  * Turns the errors of the pure upload modules into API errors: 415 for a refused type, 422 for a recording that
@@ -140,16 +138,8 @@ export function toPublicAttachment(row: AttachmentRow, actor: PublicUser, design
     uploadedBy: row.uploadedBy ? { id: row.uploadedBy.id, name: row.uploadedBy.name } : null,
     createdAt: new Date(row.createdAt).toISOString(),
     url: `/api/attachments/${row.id}`,
-    canDelete: mayDelete(actor, row, design),
+    canDelete: mayDeleteAttachment(actor, row, design),
   };
-}
-
-/** The uploader, the design's owner (as a designer) and admins may delete a design attachment; torque-table sources only via the torque table. */
-function mayDelete(actor: PublicUser, row: Pick<Attachment, 'uploadedById' | 'designId'>, design: Pick<Design, 'ownerId'> | null): boolean {
-  if (row.designId === null || row.designId === undefined) return false;
-  if (isAdmin(actor)) return true;
-  if (!actor.roles.includes('designer')) return false;
-  return row.uploadedById === actor.id || (design !== null && design.ownerId === actor.id);
 }
 
 const UPLOADER_INCLUDE = { model: User, as: 'uploadedBy', attributes: ['id', 'name'] };
@@ -235,8 +225,7 @@ async function findDesignOr404(id: number): Promise<Design> {
  */
 export async function assertMayAttach(actor: PublicUser, designId: number): Promise<Design> {
   const design = await findDesignOr404(designId);
-  if (!isAdmin(actor) && !isDesignerOwner(actor, design))
-    throw forbidden('Only the owner of this design or an admin can attach files to it.');
+  assertMayAttachTo(actor, design);
   return design;
 }
 
@@ -307,7 +296,7 @@ export async function listDesignAttachments(
     total: count,
     page: query.page,
     pageSize: query.pageSize,
-    canUpload: isAdmin(actor) || isDesignerOwner(actor, design),
+    canUpload: mayChangeDesign(actor, design),
   };
 }
 
@@ -334,8 +323,7 @@ export async function deleteAttachment(actor: PublicUser, id: number): Promise<v
   if (existing.designId === null) {
     throw new AppError('not_deletable', 'This file is the source of a motor torque table; upload a new table instead.', 409);
   }
-  if (!mayDelete(actor, existing, existing.design ?? null))
-    throw forbidden('Only whoever attached this file, the design owner or an admin can delete it.');
+  assertMayDeleteAttachment(actor, existing, existing.design ?? null);
 
   await getSequelize().transaction(async (transaction) => {
     const deleted = await Attachment.destroy({ where: { id }, transaction });

@@ -1,3 +1,4 @@
+import type { Page } from '@/contracts';
 import type { Transaction } from 'sequelize';
 import { PLUCK_TENSION_TOLERANCE, pluckBandHz, tensionFromFrequencyN, type DesignInput, type DesignResult, type Mechanism } from '@/engine';
 import { getSequelize } from '../db';
@@ -7,10 +8,11 @@ import { Measurement, Revision, Sheet, User, type MeasurementSource, type Stored
 import { getContentStore } from '../storage';
 import { analysePluck, assertTypeMatches, PLUCK_DEFAULT_MAX_HZ } from '../uploads';
 import { sanitiseFileName, storeWithRows, withUploadErrors } from './attachments.service';
+import { mayRecordMeasurement } from './access';
 import { recordAudit } from './audit.service';
 import { parseJson } from './revisions.service';
 import { latestSheets } from './sheets.service';
-import type { Page, PublicUser } from './users.service';
+import type { PublicUser } from './users.service';
 
 /** Largest pluck recording [bytes] (issue 6: 2 MB; 10 s of 16-bit mono at 96 kHz would not fit, at 48 kHz it does). */
 export const RECORDING_MAX_BYTES = 2 * 1024 * 1024;
@@ -113,7 +115,6 @@ type SpanInfo = { span: DesignResult['belts'][number]['spans'][number]; belt: De
 const TOLERANCE_SOURCE =
   'typical values: belt makers’ installation guides allow about ±10 % on the set tension, and builders match crossed belts within about 5 %';
 
-const mayRecord = (actor: PublicUser) => actor.roles.includes('maker') || actor.roles.includes('admin');
 const round = (v: number, digits: number) => Number(v.toFixed(digits));
 
 function toPublic(row: MeasurementRow): PublicMeasurement {
@@ -438,7 +439,7 @@ export async function listMeasurements(
     pairs: crossedPairs(frozen.inputs.mechanism, frozen.result, spans),
     tolerances: { crossedBeltPct: CROSSED_BELT_TOLERANCE_PCT, targetPct: TARGET_TOLERANCE_PCT, source: TOLERANCE_SOURCE },
     allowableTensionN: frozen.inputs.belt.allowableTensionN,
-    canRecord: mayRecord(actor),
+    canRecord: mayRecordMeasurement(actor),
   };
 }
 

@@ -1,8 +1,9 @@
+import type { Page } from '@/contracts';
 import { createHash } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
 import { EngineInputError, evaluateValidDesign, safeParseDesign, type DesignInput, type DesignResult } from '@/engine';
 import { getSequelize } from '../db';
-import { AppError, conflict, forbidden, notFound, validationError, type ErrorDetail } from '../errors';
+import { AppError, conflict, notFound, validationError, type ErrorDetail } from '../errors';
 import {
   Design,
   Revision,
@@ -15,17 +16,17 @@ import {
 } from '../models';
 import { freezeInPool } from '../workers/pool';
 import { isUnitSystem, type QuantityKey, type UnitSystem } from '@/format';
+import { assertMayChangeDesign, assertMayReadRevision, isOwnWork, mayChangeDesign, mayComment, mayDecide, mayReadRevision } from './access';
 import { recordAudit } from './audit.service';
 import { deliverSoon, queueMail, submittedMail } from './notify.service';
-import { findActiveUsersByRole, type Page, type PublicUser } from './users.service';
+import { findActiveUsersByRole, type PublicUser } from './users.service';
 
 /**
  * Revisions: submitting a design freezes it (inputs, full engine result, engine version, fingerprint), the
  * designer may withdraw it, and reading revisions, their history and their diff. The reviewer's decisions
  * (comments, approve, return) live in reviews.service.ts.
  *
- * Who may read a revision: reviewers, admins, the design's owner and the revision's author always; everyone
- * else (makers, other designers) only once it is approved. Revisions are never modified through the API.
+ * Who may read, comment on or decide a revision is in access.ts. Revisions are never modified through the API.
  */
 
 /** Someone named in an answer. */
@@ -75,10 +76,6 @@ type RevisionRow = Revision & {
   decidedBy?: User | null;
   sheet?: Sheet | null;
 };
-
-export const isAdmin = (actor: PublicUser): boolean => actor.roles.includes('admin');
-/** Reviewers and admins review. */
-export const isReviewer = (actor: PublicUser): boolean => isAdmin(actor) || actor.roles.includes('reviewer');
 
 /** Labels of states in messages. */
 const STATE_WORDS: Record<string, string> = {
@@ -132,28 +129,6 @@ export function summaryFigures(result: DesignResult): RevisionSummaryFigures {
 
 const person = (user: User | null | undefined, fallbackId: number | null = null): PersonRef | null =>
   user ? { id: user.id, name: user.name } : fallbackId === null ? null : { id: fallbackId, name: '' };
-
-/** True when `actor` wrote the revision or owns its design ("own work"). */
-export function isOwnWork(actor: PublicUser, revision: Pick<Revision, 'authorId'>, design: Pick<Design, 'ownerId'>): boolean {
-  return revision.authorId === actor.id || design.ownerId === actor.id;
-}
-
-/** Whether `actor` may read this revision (see the module comment). */
-export function mayReadRevision(
-  actor: PublicUser,
-  revision: Pick<Revision, 'authorId' | 'status'>,
-  design: Pick<Design, 'ownerId'>,
-): boolean {
-  if (isReviewer(actor) || isOwnWork(actor, revision, design)) return true;
-  return revision.status === 'approved' && actor.roles.length > 0;
-}
-
-/** 403 unless `actor` may read the revision. */
-export function assertMayReadRevision(actor: PublicUser, revision: RevisionRow, design: Design): void {
-  if (!mayReadRevision(actor, revision, design)) {
-    throw forbidden('Only reviewers, admins and the design’s owner can read a revision before it is approved.');
-  }
-}
 
 const LIST_INCLUDE = [
   {
@@ -221,23 +196,17 @@ export async function getRevision(actor: PublicUser, id: number): Promise<Revisi
     order: [['number', 'DESC']],
   });
   const item = toListItem(row, actor);
-  const mayChange = isAdmin(actor) || (actor.roles.includes('designer') && row.design.ownerId === actor.id);
   return {
     ...item,
     inputs: parseJson<DesignInput>(row.inputs),
     result: parseJson<DesignResult>(row.result),
     previousRevisionId: previous?.id ?? null,
     permissions: {
-      canDecide: row.status === 'in_review' && isReviewer(actor) && !item.isOwn,
+      canDecide: row.status === 'in_review' && mayDecide(actor, row, row.design),
       canComment: mayComment(actor, row, row.design),
-      canWithdraw: row.status === 'in_review' && mayChange,
+      canWithdraw: row.status === 'in_review' && mayChangeDesign(actor, row.design),
     },
   };
-}
-
-/** Whether `actor` may take part in the discussion: reviewers, admins, the owner and the author. */
-export function mayComment(actor: PublicUser, revision: Pick<Revision, 'authorId'>, design: Pick<Design, 'ownerId'>): boolean {
-  return isReviewer(actor) || isOwnWork(actor, revision, design);
 }
 
 /**
@@ -554,11 +523,6 @@ async function lockDesign(id: number, transaction: Transaction): Promise<Design>
   return design;
 }
 
-function assertOwnerOrAdmin(actor: PublicUser, design: Design, what: string): void {
-  const isOwnerDesigner = design.ownerId === actor.id && actor.roles.includes('designer');
-  if (!isAdmin(actor) && !isOwnerDesigner) throw forbidden(`Only the owner of this design or an admin can ${what} it.`);
-}
-
 function engineIssues(issues: { path: string; message: string }[]): ErrorDetail[] {
   return issues.map((i) => ({ path: ['inputs', i.path].filter(Boolean).join('.'), message: i.message }));
 }
@@ -605,7 +569,7 @@ export async function submitDesign(
 ): Promise<RevisionDetail> {
   const { revisionId, mailIds } = await getSequelize().transaction(async (transaction) => {
     const design = await lockDesign(designId, transaction);
-    assertOwnerOrAdmin(actor, design, 'submit');
+    assertMayChangeDesign(actor, design, 'submit');
     if (design.status !== 'draft' && design.status !== 'returned') {
       throw conflict(`This design is ${stateWord(design.status)}; only a draft or a returned design can be submitted.`, 'invalid_state');
     }
@@ -687,7 +651,7 @@ export async function submitDesign(
 export async function withdrawDesign(actor: PublicUser, designId: number): Promise<RevisionDetail> {
   const revisionId = await getSequelize().transaction(async (transaction) => {
     const design = await lockDesign(designId, transaction);
-    assertOwnerOrAdmin(actor, design, 'withdraw');
+    assertMayChangeDesign(actor, design, 'withdraw');
     if (design.status !== 'in_review')
       throw conflict(`This design is ${stateWord(design.status)}, not in review; there is nothing to withdraw.`, 'invalid_state');
     const revision = await Revision.findOne({
@@ -735,7 +699,7 @@ export async function withdrawDesign(actor: PublicUser, designId: number): Promi
 export async function reopenDesign(actor: PublicUser, designId: number): Promise<{ id: number; status: DesignStatus }> {
   await getSequelize().transaction(async (transaction) => {
     const design = await lockDesign(designId, transaction);
-    assertOwnerOrAdmin(actor, design, 'reopen');
+    assertMayChangeDesign(actor, design, 'reopen');
     if (design.status !== 'approved')
       throw conflict(
         `This design is ${stateWord(design.status)}; only an approved design can be reopened for a new revision.`,

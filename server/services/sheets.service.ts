@@ -1,3 +1,4 @@
+import type { Page } from '@/contracts';
 import { createHash } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
 import type { DesignInput, DesignResult, Mechanism } from '@/engine';
@@ -11,7 +12,7 @@ import { ContentStoreError } from '../uploads';
 import { renderSheetsInPool } from '../workers/pool';
 import { recordAudit } from './audit.service';
 import { parseJson, type PersonRef } from './revisions.service';
-import type { Page, PublicUser } from './users.service';
+import type { PublicUser } from './users.service';
 
 /**
  * Design sheets: rendered once, when a revision is approved, from the FROZEN revision (its stored inputs and

@@ -7,6 +7,7 @@ import { createPasswordToken } from './passwordToken.service';
 import { sendMail } from './mail.service';
 import { inviteMail } from './mailTemplates';
 import { getConfig } from '../config';
+import type { Page } from '@/contracts';
 import { revokeAllSessions } from './session.service';
 
 /** A user as the API shows it: never the password hash. */
@@ -20,9 +21,6 @@ export type PublicUser = {
   isInvited: boolean;
   createdAt: string;
 };
-
-/** A page of a list, the shape every list endpoint answers. */
-export type Page<T> = { items: T[]; total: number; page: number; pageSize: number };
 
 /** Keeps only known roles, once each, in the canonical order. */
 export function normaliseRoles(roles: unknown): Role[] {

@@ -1,6 +1,6 @@
-import type { Role } from '@/contracts';
+import type { Page, Role } from '@/contracts';
 
-export type { Role };
+export type { Page, Role };
 
 /** Every role, in the order the UI lists them. */
 export const ROLES: readonly Role[] = ['designer', 'reviewer', 'maker', 'admin'];
@@ -30,14 +30,6 @@ export interface SessionInfo {
   ip: string;
   /** The session of this browser. */
   isCurrent: boolean;
-}
-
-/** One page of a list endpoint: `{ items, total, page, pageSize }`. */
-export interface Page<T> {
-  items: T[];
-  total: number;
-  page: number;
-  pageSize: number;
 }
 
 /** Paging and search parameters shared by list endpoints. */

@@ -7,11 +7,9 @@ import {
   diffKeyResults,
   flattenLeaves,
   freezeDesign,
-  isOwnWork,
-  mayComment,
-  mayReadRevision,
   revisionFingerprint,
 } from '../../../../server/services/revisions.service';
+import { isOwnWork, mayComment, mayReadRevision } from '../../../../server/services/access';
 import type { PublicUser } from '../../../../server/services/users.service';
 
 const user = (id: number, roles: PublicUser['roles']): PublicUser => ({
