@@ -1,4 +1,4 @@
-import type { Page } from '@/contracts';
+import type { AttachmentPage, PublicAttachment } from '@/contracts';
 import { Op, type Transaction } from 'sequelize';
 import { getSequelize } from '../db';
 import { AppError, notFound } from '../errors';
@@ -16,26 +16,6 @@ export const ATTACHMENT_MAX_BYTES = 10 * 1024 * 1024;
 
 /** What a design may take: datasheets, photos and tables, recognised from their bytes. */
 export const ATTACHMENT_TYPES: readonly SniffedMime[] = ['application/pdf', 'image/png', 'image/jpeg', 'text/csv'];
-
-/** An attachment as the API shows it. */
-export type PublicAttachment = {
-  id: number;
-  designId: number | null;
-  partId: number | null;
-  fileName: string;
-  mime: string;
-  size: number;
-  sha256: string;
-  uploadedBy: { id: number; name: string } | null;
-  createdAt: string;
-  /** Download address (GET). */
-  url: string;
-  /** Whether the signed-in user may delete it. */
-  canDelete: boolean;
-};
-
-/** A design's attachments, plus whether the signed-in user may add one. */
-export type AttachmentPage = Page<PublicAttachment> & { canUpload: boolean };
 
 type AttachmentRow = Attachment & { uploadedBy?: User | null; design?: Design | null };
 

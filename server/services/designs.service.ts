@@ -2,8 +2,8 @@ import { literal, Op, type Order, type Transaction, type WhereOptions } from 'se
 import { defaultDesign, EngineInputError, evaluateValidDesign, safeParseDesign, type DesignInput, type DesignResult } from '@/engine';
 import { AppError, conflict, notFound, validationError, type ErrorDetail } from '../errors';
 import { getSequelize } from '../db';
-import { EDITABLE_DESIGN_STATUSES, type Page } from '@/contracts';
-import { Attachment, Design, Revision, User, type DesignMechanism, type DesignResultSummary, type DesignStatus } from '../models';
+import { EDITABLE_DESIGN_STATUSES, type DesignDetail, type DesignListItem, type DesignResultSummary, type Page } from '@/contracts';
+import { Attachment, Design, Revision, User, type DesignStatus } from '../models';
 import type { CreateDesignInput, ListDesignsQuery, UpdateDesignInput } from '../schemas/designs.schema';
 import { removeUnreferencedBytes } from './attachments.service';
 import { storedResultsInPool } from '../workers/pool';
@@ -17,28 +17,6 @@ import {
   mayEditDesign,
 } from './access';
 import type { PublicUser } from './users.service';
-
-/** A design as the Designs table shows it. `canEdit`/`canDelete` are for the signed-in user who asked. */
-export type DesignListItem = {
-  id: number;
-  name: string;
-  mechanism: DesignMechanism;
-  status: DesignStatus;
-  owner: { id: number; name: string };
-  travel: { xMm: number; yMm: number };
-  version: number;
-  updatedAt: string;
-  createdAt: string;
-  canEdit: boolean;
-  canDelete: boolean;
-};
-
-/** A design with its inputs (the design document) and the summary computed when it was last saved. */
-export type DesignDetail = DesignListItem & {
-  inputs: DesignInput;
-  updatedBy: { id: number; name: string } | null;
-  latestResultSummary: DesignResultSummary | null;
-};
 
 type DesignRow = Design & { owner?: User | null; updatedBy?: User | null };
 

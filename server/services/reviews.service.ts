@@ -1,4 +1,4 @@
-import type { Page } from '@/contracts';
+import type { CommentItem, Page, RevisionDetail, SheetDetail } from '@/contracts';
 import type { Transaction } from 'sequelize';
 import type { DesignInput, DesignResult } from '@/engine';
 import { isUnitSystem, plural } from '@/format';
@@ -9,8 +9,8 @@ import { storeWithRowsMaking } from './attachments.service';
 import { recordAudit } from './audit.service';
 import { approvedMail, deliverSoon, queueMail, returnedMail, sheetPublishedMail, type Recipient } from './notify.service';
 import { assertMayComment, assertMayDecide, assertMayReadRevision } from './access';
-import { findRevision, getRevision, lockDesign, parseJson, stateWord, type PersonRef, type RevisionDetail } from './revisions.service';
-import { getSheet, renderSheetFilesOffThread, storeSheet, type SheetDetail } from './sheets.service';
+import { findRevision, getRevision, lockDesign, parseJson, stateWord } from './revisions.service';
+import { getSheet, renderSheetFilesOffThread, storeSheet } from './sheets.service';
 import { findActiveUsersByRole, type PublicUser } from './users.service';
 
 /**
@@ -18,16 +18,6 @@ import { findActiveUsersByRole, type PublicUser } from './users.service';
  * return with a reason. Every transition is checked against the revision's state inside a transaction that
  * locks the design row, logged in the audit log, and announced by mail after the commit.
  */
-
-/** One comment; `parentId` is the comment it answers (null for a new thread). */
-export type CommentItem = {
-  id: number;
-  revisionId: number;
-  parentId: number | null;
-  author: PersonRef & { roles: string[] };
-  body: string;
-  createdAt: string;
-};
 
 type CommentRow = RevisionComment & { author?: User | null };
 

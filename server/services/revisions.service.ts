@@ -1,19 +1,20 @@
-import type { Page } from '@/contracts';
 import { createHash } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
 import { EngineInputError, evaluateValidDesign, safeParseDesign, type DesignInput, type DesignResult } from '@/engine';
 import { getSequelize } from '../db';
 import { AppError, conflict, notFound, validationError, type ErrorDetail } from '../errors';
-import {
-  Design,
-  Revision,
-  Sheet,
-  User,
-  type DesignMechanism,
-  type DesignStatus,
-  type RevisionStatus,
-  type RevisionSummaryFigures,
-} from '../models';
+import type {
+  InputChange,
+  Page,
+  PersonRef,
+  ResultChange,
+  RevisionDetail,
+  RevisionDiff,
+  RevisionListItem,
+  RevisionStatus,
+  RevisionSummaryFigures,
+} from '@/contracts';
+import { Design, Revision, Sheet, User, type DesignMechanism, type DesignStatus } from '../models';
 import { freezeInPool } from '../workers/pool';
 import { isUnitSystem, type QuantityKey, type UnitSystem } from '@/format';
 import { assertMayChangeDesign, assertMayReadRevision, isOwnWork, mayChangeDesign, mayComment, mayDecide, mayReadRevision } from './access';
@@ -28,47 +29,6 @@ import { findActiveUsersByRole, type PublicUser } from './users.service';
  *
  * Who may read, comment on or decide a revision is in access.ts. Revisions are never modified through the API.
  */
-
-/** Someone named in an answer. */
-export type PersonRef = { id: number; name: string };
-
-/** A revision in lists: no inputs or result, a few frozen figures instead. */
-export type RevisionListItem = {
-  id: number;
-  designId: number;
-  number: number;
-  status: RevisionStatus;
-  /** The design's name as frozen in this revision. */
-  name: string;
-  mechanism: DesignMechanism;
-  design: { id: number; name: string; status: DesignStatus; owner: PersonRef };
-  author: PersonRef;
-  submittedAt: string;
-  decidedBy: PersonRef | null;
-  decidedAt: string | null;
-  /** Why it was returned (status `returned`), else null. */
-  returnReason: string | null;
-  /** The reviewer's comment on approval (status `approved`), else null. */
-  approvalComment: string | null;
-  /** Why the reviewer approved although a check failed (approved with failures only), else null. */
-  approvalJustification: string | null;
-  /** Unit system the design sheet is printed in (chosen by the designer at submission). */
-  sheetUnits: UnitSystem;
-  sheetId: number | null;
-  engineVersion: string;
-  fingerprint: string;
-  summary: RevisionSummaryFigures;
-  /** The signed-in user authored it or owns the design: they cannot approve or return it. */
-  isOwn: boolean;
-};
-
-/** One revision with its frozen inputs and result, and what the signed-in user may do with it. */
-export type RevisionDetail = RevisionListItem & {
-  inputs: DesignInput;
-  result: DesignResult;
-  previousRevisionId: number | null;
-  permissions: { canDecide: boolean; canComment: boolean; canWithdraw: boolean };
-};
 
 type RevisionRow = Revision & {
   design?: Design & { owner?: User | null };
@@ -254,35 +214,6 @@ export async function listDesignRevisions(actor: PublicUser, designId: number): 
 
 // ---------------------------------------------------------------------------------------------------------
 // Diff against the previous revision of the same design.
-
-/** One input that differs; `old` is null for a new path (and for every path of a first revision). */
-export type InputChange = { path: string; change: 'added' | 'removed' | 'changed'; old: unknown; new: unknown };
-/**
- * One key result, old and new. `unit` names the stored unit for programs; `quantity` and `stored` let a reader's
- * client show the numbers in their unit system (format layer, `@/format`).
- */
-export type ResultChange = {
-  key: string;
-  label: string;
-  unit: string;
-  quantity: QuantityKey | null;
-  stored: string;
-  old: number | null;
-  new: number | null;
-  isChanged: boolean;
-};
-/** The answer of GET /api/revisions/:id/diff. */
-export type RevisionDiff = {
-  revisionId: number;
-  number: number;
-  /** Engine that computed this revision's frozen result. */
-  engineVersion: string;
-  previous: { id: number; number: number; status: RevisionStatus; engineVersion: string } | null;
-  /** Changed inputs only (all inputs, as `added`, for a first revision). */
-  inputs: InputChange[];
-  /** Every key result, with `isChanged` marking those that moved. */
-  results: ResultChange[];
-};
 
 /** Flattens a document to leaf paths ("belt.pitchMm"); arrays are leaves (compared as a whole). */
 export function flattenLeaves(value: unknown, prefix = '', out = new Map<string, unknown>()): Map<string, unknown> {

@@ -7,20 +7,10 @@ import { createPasswordToken } from './passwordToken.service';
 import { sendMail } from './mail.service';
 import { inviteMail } from './mailTemplates';
 import { getConfig } from '../config';
-import type { Page } from '@/contracts';
-import { revokeAllSessions } from './session.service';
+import type { Page, PublicUser } from '@/contracts';
 
-/** A user as the API shows it: never the password hash. */
-export type PublicUser = {
-  id: number;
-  email: string;
-  name: string;
-  roles: Role[];
-  disabled: boolean;
-  /** Invited and has not set a password yet: cannot sign in until they follow the invitation. */
-  isInvited: boolean;
-  createdAt: string;
-};
+export type { PublicUser };
+import { revokeAllSessions } from './session.service';
 
 /** Keeps only known roles, once each, in the canonical order. */
 export function normaliseRoles(roles: unknown): Role[] {

@@ -23,3 +23,7 @@ export type PartKind = (typeof PART_KINDS)[number];
 /** Paper sizes every sheet is rendered in. */
 export const SHEET_PAPERS = ['A4', 'LETTER'] as const;
 export type SheetPaper = (typeof SHEET_PAPERS)[number];
+
+/** How a belt measurement's frequency was obtained: typed in, or found in an uploaded recording. */
+export const MEASUREMENT_SOURCES = ['typed', 'recording'] as const;
+export type MeasurementSource = (typeof MEASUREMENT_SOURCES)[number];
