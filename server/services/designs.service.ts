@@ -5,7 +5,8 @@ import { getSequelize } from '../db';
 import { EDITABLE_DESIGN_STATUSES, type DesignDetail, type DesignListItem, type DesignResultSummary, type Page } from '@/contracts';
 import { Attachment, Design, Revision, User, type DesignStatus } from '../models';
 import type { CreateDesignInput, ListDesignsQuery, UpdateDesignInput } from '../schemas/designs.schema';
-import { removeUnreferencedBytes } from './attachments.service';
+import { removeUnreferencedBytes } from './fileStore.service';
+import { parseJson } from './storedJson';
 import { storedResultsInPool } from '../workers/pool';
 import { recordAudit } from './audit.service';
 import {
@@ -19,10 +20,6 @@ import {
 import type { PublicUser } from './users.service';
 
 type DesignRow = Design & { owner?: User | null; updatedBy?: User | null };
-
-function parseJson<T>(value: unknown): T {
-  return (typeof value === 'string' ? JSON.parse(value) : value) as T;
-}
 
 function toListItem(row: DesignRow, actor: PublicUser): DesignListItem {
   const status = row.status as DesignStatus;

@@ -7,10 +7,10 @@ import type { UploadedFile } from '../uploads/uploadedFile';
 import { Measurement, Revision, Sheet, User, type MeasurementSource, type StoredSpectrum } from '../models';
 import { getContentStore } from '../storage';
 import { analysePluck, assertTypeMatches, PLUCK_DEFAULT_MAX_HZ } from '../uploads';
-import { sanitiseFileName, storeWithRows, withUploadErrors } from './attachments.service';
+import { sanitiseFileName, storeWithRows, withUploadErrors } from './fileStore.service';
 import { mayRecordMeasurement } from './access';
 import { recordAudit } from './audit.service';
-import { parseJson } from './revisions.service';
+import { parseJson } from './storedJson';
 import { latestSheets } from './sheets.service';
 import type { PublicUser } from './users.service';
 

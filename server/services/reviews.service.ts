@@ -5,11 +5,13 @@ import { isUnitSystem, plural } from '@/format';
 import { getSequelize } from '../db';
 import { conflict, notFound, validationError } from '../errors';
 import { Design, Revision, RevisionComment, User } from '../models';
-import { storeWithRowsMaking } from './attachments.service';
+import { storeWithRowsMaking } from './fileStore.service';
 import { recordAudit } from './audit.service';
 import { approvedMail, deliverSoon, queueMail, returnedMail, sheetPublishedMail, type Recipient } from './notify.service';
 import { assertMayComment, assertMayDecide, assertMayReadRevision } from './access';
-import { findRevision, getRevision, lockDesign, parseJson, stateWord } from './revisions.service';
+import { lockDesign, stateWord } from './designFlow.service';
+import { findRevision, getRevision } from './revisions.service';
+import { parseJson } from './storedJson';
 import { getSheet, renderSheetFilesOffThread, storeSheet } from './sheets.service';
 import { findActiveUsersByRole, type PublicUser } from './users.service';
 

@@ -11,7 +11,7 @@ import { getContentStore } from '../storage';
 import { ContentStoreError } from '../uploads';
 import { renderSheetsInPool } from '../workers/pool';
 import { recordAudit } from './audit.service';
-import { parseJson } from './revisions.service';
+import { parseJson } from './storedJson';
 import type { PublicUser } from './users.service';
 
 /**
@@ -84,7 +84,7 @@ export async function renderSheetFilesOffThread(source: SheetSource): Promise<Re
 /**
  * Writes the row of a rendered sheet for an approved revision (inside the approval's transaction). The PDF bytes go
  * to the content store under their SHA-256 in the same transaction: run it through `storeWithRowsMaking()`
- * (attachments.service), which registers and puts them. @returns the sheet id
+ * (fileStore.service), which registers and puts them. @returns the sheet id
  */
 export async function storeSheet(
   input: { revisionId: number; designId: number; approvedById: number; approvedAt: Date; comment: string; rendered: RenderedSheet },
