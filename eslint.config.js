@@ -23,6 +23,14 @@ const layers = [
     from: ['./src/api', './src/stores', './src/views', './src/components', './src/composables', './server', './scripts'],
     message: 'the formatting layer is pure',
   },
+  // The contract between client and server is pure too: both sides and the workers import it. It may name the
+  // engine's and the formatting layer's types (both pure), nothing else.
+  {
+    target: './src/contracts',
+    from: ['./src', './server', './scripts', './tests'],
+    except: ['./contracts', './engine', './format'],
+    message: 'the contracts import only themselves, the engine and the formatting layer',
+  },
   // The browser bundle never reaches into the server.
   { target: './src', from: ['./server', './scripts'], message: 'client code never imports server code' },
   // Routes → services → models: a route never touches a model, a service never touches the HTTP layer.

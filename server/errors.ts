@@ -1,12 +1,8 @@
 import type { ZodError } from 'zod';
-/** One entry of a validation error: which field (dotted path) and what is wrong with it. */
-export type ErrorDetail = { path: string; message: string };
+import type { ErrorDetail, ErrorDetails } from '@/contracts';
 
-/**
- * What an error body's `details` may hold: usually a list of field issues, but some errors carry a structured
- * object instead (a version conflict says who saved and when).
- */
-export type ErrorDetails = ErrorDetail[] | Record<string, unknown>;
+// The error body's shapes are part of the contract (src/contracts/common.ts); most of the server imports them from here.
+export type { ErrorDetail, ErrorDetails };
 
 /**
  * An expected, operational failure with an HTTP status and a stable machine-readable code.

@@ -1,20 +1,21 @@
 import type { RequestHandler } from 'express';
 import { forbidden } from '../errors';
 import type { Role } from '../models';
+import { holdsAnyRole } from '../services/access';
 import { authenticate } from './requireAuth';
 import { asRouteMiddleware, type RouteMiddleware } from './validate';
 
 /**
  * Allows the request when the signed-in user holds at least one of `roles`. Admins pass every role
- * check ("admin: everything above"); rules such as "cannot approve own work" belong in the services.
+ * check ("admin: everything above"; services/access.ts holdsAnyRole); rules that depend on the rows, such as
+ * "cannot approve own work", are the other rules of services/access.ts, asked by the services.
  * Authenticates first when requireAuth has not run, so `requireRole(...)` alone is enough on a route:
  * 401 without a session, 403 without the role.
  */
 export function requireRole(...roles: Role[]): RouteMiddleware & { roles: readonly Role[] } {
-  const allowed = new Set<Role>(roles);
   const requireRoleMiddleware: RequestHandler = async function requireRoleMiddleware(req, _res, next) {
     const user = await authenticate(req);
-    if (!user.roles.includes('admin') && !user.roles.some((r) => allowed.has(r))) throw forbidden();
+    if (!holdsAnyRole(user, roles)) throw forbidden();
     next();
   };
   // Readable on the middleware, so tests walking the real router know each route's rule.

@@ -9,32 +9,13 @@ import {
 } from 'sequelize';
 import type { User } from './user.model';
 
-import { DESIGN_STATUSES, type DesignStatus } from '@/contracts';
+import { DESIGN_STATUSES, type DesignResultSummary, type DesignStatus } from '@/contracts';
 
 export { DESIGN_STATUSES, type DesignStatus };
-
-/** States in which the inputs may still change; a design in review or approved is frozen. */
-export const EDITABLE_DESIGN_STATUSES: readonly DesignStatus[] = ['draft', 'returned'];
 
 /** The three mechanisms the engine knows. */
 export const DESIGN_MECHANISMS = ['corexy', 'hbot', 'cartesian'] as const;
 export type DesignMechanism = (typeof DESIGN_MECHANISMS)[number];
-
-/**
- * A few numbers of the engine result, stored at save time so lists and cards need not re-run the engine.
- * Written by designs.service; `engineVersion` says which engine computed them.
- */
-export type DesignResultSummary = {
-  engineVersion: string;
-  stepsPerMm: number;
-  /** Carriage figures of one microstep (engine 2 on; docs/models/resolution.md). */
-  microstep?: { oneMotorMm: number; oneMotorDirectionDeg: number; axisMm: number; diagonalMm: number };
-  /** Engine 1 summaries only: one motor's microstep projected on X and Y. */
-  microstepMm?: { x: number; y: number; diagonal: number };
-  worst: { directionDeg: number; accelMaxMPerS2: number; accelAtCruiseMPerS2: number; speedMaxMPerS: number };
-  lowestFrequencyHz: number;
-  checks: { total: number; bySeverity: Record<string, number> };
-};
 
 /**
  * A design being worked on: its current inputs (a validated design document, defaults filled in),

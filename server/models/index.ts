@@ -15,17 +15,9 @@ import { initSessionModel, Session } from './session.model';
 export { User, ROLES, type Role } from './user.model';
 export { PasswordToken, type TokenPurpose } from './passwordToken.model';
 export { AuditLog } from './auditLog.model';
-export {
-  Design,
-  DESIGN_STATUSES,
-  EDITABLE_DESIGN_STATUSES,
-  DESIGN_MECHANISMS,
-  type DesignStatus,
-  type DesignMechanism,
-  type DesignResultSummary,
-} from './design.model';
+export { Design, DESIGN_STATUSES, DESIGN_MECHANISMS, type DesignStatus, type DesignMechanism } from './design.model';
 export { Part, type PartKind } from './part.model';
-export { Revision, REVISION_STATUSES, type RevisionStatus, type RevisionSummaryFigures } from './revision.model';
+export { Revision, REVISION_STATUSES, type RevisionStatus } from './revision.model';
 export { RevisionComment } from './comment.model';
 export { Sheet, type SheetPaper } from './sheet.model';
 export { Notification } from './notification.model';

@@ -10,12 +10,12 @@ import {
 import type { Sheet } from './sheet.model';
 import type { User } from './user.model';
 
-/** How a frequency was obtained: typed in, or analysed from an uploaded pluck recording. */
-export const MEASUREMENT_SOURCES = ['typed', 'recording'] as const;
-export type MeasurementSource = (typeof MEASUREMENT_SOURCES)[number];
+import type { MeasurementSource, Spectrum } from '@/contracts';
 
-/** A recording's spectrum as stored for plotting (at most 512 points). */
-export type StoredSpectrum = { frequencyHz: number[]; magnitudeDb: number[] };
+export type { MeasurementSource };
+
+/** A recording's spectrum as stored for plotting (at most 512 points): the contract's shape, kept as is. */
+export type StoredSpectrum = Spectrum;
 
 /**
  * One belt-span pluck recorded against an approved sheet. Span length, belt mass per metre and the target come

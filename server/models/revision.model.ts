@@ -11,18 +11,9 @@ import type { UnitSystem } from '@/format';
 import type { Design } from './design.model';
 import type { User } from './user.model';
 
-import { REVISION_STATUSES, type RevisionStatus } from '@/contracts';
+import { REVISION_STATUSES, type RevisionStatus, type RevisionSummaryFigures } from '@/contracts';
 
 export { REVISION_STATUSES, type RevisionStatus };
-
-/** Figures of the frozen result that lists show without loading the whole result. */
-export type RevisionSummaryFigures = {
-  checks: { ok: number; warn: number; fail: number };
-  stepsPerMm: number;
-  travel: { xMm: number; yMm: number };
-  worstAccelMPerS2: number;
-  lowestFrequencyHz: number;
-};
 
 /**
  * A submitted design, frozen: the design document, the full engine result, the engine version and the

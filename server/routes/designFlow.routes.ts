@@ -4,7 +4,8 @@ import { signedInUser } from '../middleware/requireAuth';
 import { requireMember, requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
 import { emptyBodySchema, submitDesignSchema } from '../schemas/revisions.schema';
-import { listDesignRevisions, reopenDesign, submitDesign, withdrawDesign } from '../services/revisions.service';
+import { reopenDesign, submitDesign, withdrawDesign } from '../services/designFlow.service';
+import { listDesignRevisions } from '../services/revisions.service';
 
 /**
  * The review flow's routes under /api/designs (mounted beside the designs router, which has none of these paths):

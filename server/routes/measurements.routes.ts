@@ -17,9 +17,9 @@ import {
   recordMeasurement,
   RECORDING_MAX_BYTES,
 } from '../services/measurements.service';
+import { SHEET_READERS } from '../services/access';
 
-/** Everyone with a role may read a sheet's measurements; makers (and admins) record them. */
-const SHEET_READERS = ['maker', 'designer', 'reviewer'] as const;
+// Everyone with a role may read a sheet's measurements (SHEET_READERS); makers (and admins) record them.
 
 /**
  * Belt tension measurements of a sheet, mounted at /api/sheets (beside the sheets router):

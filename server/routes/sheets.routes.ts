@@ -5,9 +5,9 @@ import { requireRole } from '../middleware/requireRole';
 import { idParamsSchema } from '../schemas/common.schema';
 import { listSheetsQuerySchema, sheetPdfQuerySchema } from '../schemas/sheets.schema';
 import { getSheet, getSheetPdf, listSheets } from '../services/sheets.service';
+import { SHEET_READERS } from '../services/access';
 
-/** Everyone with a role may read sheets: makers build from them, the others check what was published. */
-const SHEET_READERS = ['maker', 'designer', 'reviewer'] as const;
+// Everyone with a role may read sheets (SHEET_READERS): makers build from them, the others check what was published.
 
 /**
  * /api/sheets: approved design sheets and their stored PDF bytes. No route changes a sheet (no PUT, PATCH or

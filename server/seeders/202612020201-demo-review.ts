@@ -3,7 +3,7 @@ import type { MigrationFn } from 'umzug';
 import { parseDesign, type DesignInput } from '@/engine';
 import type { SeedContext } from '../migrator';
 import { AuditLog, Design, Revision, RevisionComment, Sheet, User, type DesignStatus, type RevisionStatus } from '../models';
-import { freezeDesign } from '../services/revisions.service';
+import { freezeDesign } from '../services/freezeRevision';
 import { renderSheetFiles } from '../services/sheets.service';
 import { getContentStore, markUnreferenced, referenceContent, removeUnreferencedContent } from '../storage';
 import { sha256Of } from '../uploads';

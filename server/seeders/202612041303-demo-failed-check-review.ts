@@ -3,7 +3,7 @@ import { defaultDesign, parseDesign } from '@/engine';
 import type { SeedContext } from '../migrator';
 import { AuditLog, Design, Revision, User } from '../models';
 import { computeStoredResults } from '../services/designs.service';
-import { freezeDesign } from '../services/revisions.service';
+import { freezeDesign } from '../services/freezeRevision';
 
 // A revision with a failed check waiting on the Review desk, so a fresh start shows how it stands out (counts on the
 // row, the approve dialog listing it, a justification required to approve): a fast pick-and-place head planned at

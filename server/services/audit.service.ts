@@ -1,6 +1,6 @@
+import type { Page } from '@/contracts';
 import type { Transaction } from 'sequelize';
 import { AuditLog, User } from '../models';
-import type { Page } from './users.service';
 
 /** What a caller records; the time is set by the database row. */
 export type AuditInput = {

@@ -1,23 +1,18 @@
 import type { DesignInput } from '@/engine';
+import type { JobUploadResult } from '@/contracts';
 import { AppError } from '../errors';
 import type { UploadedFile } from '../uploads/uploadedFile';
 import { Attachment } from '../models';
-import { assertTypeMatches, JOB_CSV_LIMITS, parseJobCsv, type JobTable } from '../uploads';
-import { sanitiseFileName, storeWithRows, toPublicAttachment, withUploadErrors, type PublicAttachment } from './attachments.service';
+import { assertTypeMatches, JOB_CSV_LIMITS, parseJobCsv } from '../uploads';
+import { toPublicAttachment } from './attachments.service';
+import { sanitiseFileName, storeWithRows, withUploadErrors } from './fileStore.service';
 import { recordAudit } from './audit.service';
-import { assertInputsChangeable, getDesign, validDocument, writeInputsLocked, type DesignDetail } from './designs.service';
+import { assertInputsChangeable, getDesign, validDocument, writeInputsLocked } from './designs.service';
 import type { PublicUser } from './users.service';
 import { storedResultsInPool } from '../workers/pool';
 
 /** Largest job file [bytes]. */
 export const JOB_CSV_MAX_BYTES = JOB_CSV_LIMITS.maxBytes;
-
-/** What a job upload answers: the saved design (new version), what was read and the file kept with the design. */
-export type JobUploadResult = {
-  design: DesignDetail;
-  job: { pointCount: number; sourceUnits: JobTable['sourceUnits'] };
-  file: PublicAttachment | null;
-};
 
 /** 404/403/409 before a job file is read: the design exists, the actor may change it and it is still editable. */
 export async function assertMayUploadJob(actor: PublicUser, designId: number): Promise<void> {

@@ -1,57 +1,25 @@
 import { literal, Op, type Order, type Transaction, type WhereOptions } from 'sequelize';
 import { defaultDesign, EngineInputError, evaluateValidDesign, safeParseDesign, type DesignInput, type DesignResult } from '@/engine';
-import { AppError, conflict, forbidden, notFound, validationError, type ErrorDetail } from '../errors';
+import { AppError, conflict, notFound, validationError, type ErrorDetail } from '../errors';
 import { getSequelize } from '../db';
-import {
-  Attachment,
-  Design,
-  EDITABLE_DESIGN_STATUSES,
-  Revision,
-  User,
-  type DesignMechanism,
-  type DesignResultSummary,
-  type DesignStatus,
-} from '../models';
+import { EDITABLE_DESIGN_STATUSES, type DesignDetail, type DesignListItem, type DesignResultSummary, type Page } from '@/contracts';
+import { Attachment, Design, Revision, User, type DesignStatus } from '../models';
 import type { CreateDesignInput, ListDesignsQuery, UpdateDesignInput } from '../schemas/designs.schema';
-import { removeUnreferencedBytes } from './attachments.service';
+import { removeUnreferencedBytes } from './fileStore.service';
+import { parseJson } from './storedJson';
 import { storedResultsInPool } from '../workers/pool';
 import { recordAudit } from './audit.service';
-import type { Page, PublicUser } from './users.service';
-
-/** A design as the Designs table shows it. `canEdit`/`canDelete` are for the signed-in user who asked. */
-export type DesignListItem = {
-  id: number;
-  name: string;
-  mechanism: DesignMechanism;
-  status: DesignStatus;
-  owner: { id: number; name: string };
-  travel: { xMm: number; yMm: number };
-  version: number;
-  updatedAt: string;
-  createdAt: string;
-  canEdit: boolean;
-  canDelete: boolean;
-};
-
-/** A design with its inputs (the design document) and the summary computed when it was last saved. */
-export type DesignDetail = DesignListItem & {
-  inputs: DesignInput;
-  updatedBy: { id: number; name: string } | null;
-  latestResultSummary: DesignResultSummary | null;
-};
-
-/** Statuses a design may be deleted in: never once it is in review or approved. */
-const DELETABLE_STATUSES: readonly DesignStatus[] = ['draft', 'returned'];
+import {
+  assertMayChangeDesign,
+  assertMayReadDesign,
+  DELETABLE_DESIGN_STATUSES,
+  designReadNeedsAuthor,
+  mayDeleteDesign,
+  mayEditDesign,
+} from './access';
+import type { PublicUser } from './users.service';
 
 type DesignRow = Design & { owner?: User | null; updatedBy?: User | null };
-
-const isAdmin = (actor: PublicUser) => actor.roles.includes('admin');
-const isDesigner = (actor: PublicUser) => actor.roles.includes('designer') || isAdmin(actor);
-const mayChange = (actor: PublicUser, row: Design) => isAdmin(actor) || (isDesigner(actor) && row.ownerId === actor.id);
-
-function parseJson<T>(value: unknown): T {
-  return (typeof value === 'string' ? JSON.parse(value) : value) as T;
-}
 
 function toListItem(row: DesignRow, actor: PublicUser): DesignListItem {
   const status = row.status as DesignStatus;
@@ -65,8 +33,8 @@ function toListItem(row: DesignRow, actor: PublicUser): DesignListItem {
     version: row.version,
     updatedAt: new Date(row.updatedAt).toISOString(),
     createdAt: new Date(row.createdAt).toISOString(),
-    canEdit: mayChange(actor, row) && EDITABLE_DESIGN_STATUSES.includes(status),
-    canDelete: mayChange(actor, row) && DELETABLE_STATUSES.includes(status),
+    canEdit: mayEditDesign(actor, { ownerId: row.ownerId, status }),
+    canDelete: mayDeleteDesign(actor, { ownerId: row.ownerId, status }),
   };
 }
 
@@ -227,29 +195,20 @@ async function findDesign(id: number, transaction?: Transaction): Promise<Design
 }
 
 /**
- * Whether `actor` may read a design's inputs. A design in review holds exactly the inputs of the revision under
- * review, so the revision read rule applies to it (issue 12, item 8: GET /api/designs/:id and /export bypassed it):
- * reviewers, admins, the owner and the revision's author only, until it is approved. In every other state any
- * team member reads it.
+ * 403 unless `actor` may read the design's inputs (access.ts, mayReadDesign): the author of the revision in review
+ * is looked up only when the rule needs it.
  */
-export async function mayReadDesign(actor: PublicUser, design: Pick<Design, 'id' | 'ownerId' | 'status'>): Promise<boolean> {
-  if (design.status !== 'in_review') return true;
-  if (isAdmin(actor) || actor.roles.includes('reviewer') || design.ownerId === actor.id) return true;
-  const inReview = await Revision.findOne({ where: { designId: design.id, status: 'in_review' }, attributes: ['authorId'] });
-  return inReview?.authorId === actor.id;
-}
-
-/** 403 unless `actor` may read the design's inputs (see {@link mayReadDesign}). */
-async function assertMayReadDesign(actor: PublicUser, design: Pick<Design, 'id' | 'ownerId' | 'status'>): Promise<void> {
-  if (!(await mayReadDesign(actor, design))) {
-    throw forbidden('This design is in review: only reviewers, admins and its designer can read it until it is approved.');
-  }
+async function assertMayRead(actor: PublicUser, design: Pick<Design, 'id' | 'ownerId' | 'status'>): Promise<void> {
+  const inReview = designReadNeedsAuthor(actor, design)
+    ? await Revision.findOne({ where: { designId: design.id, status: 'in_review' }, attributes: ['authorId'] })
+    : null;
+  assertMayReadDesign(actor, design, inReview);
 }
 
 /** One design with its inputs: every team member, but a design in review only for those who may read its revision. */
 export async function getDesign(actor: PublicUser, id: number): Promise<DesignDetail> {
   const row = await findDesign(id);
-  await assertMayReadDesign(actor, row);
+  await assertMayRead(actor, row);
   return toDetail(row, actor);
 }
 
@@ -269,7 +228,7 @@ export async function createDesign(actor: PublicUser, input: CreateDesignInput):
       throw new AppError('not_found', 'The design to copy was not found.', 404, {
         details: [{ path: 'copyOf', message: 'no design with this id' }],
       });
-    await assertMayReadDesign(actor, source);
+    await assertMayRead(actor, source);
     const name = input.name ?? `Copy of ${source.name}`.slice(0, 200);
     document = normalise({ ...parseJson<DesignInput>(source.inputs), name });
     origin = `copy of design ${source.id}`;
@@ -326,10 +285,6 @@ function notEditable(row: Design): AppError {
   return conflict(`This design is ${label}; only drafts and returned designs can be changed.`, 'not_editable');
 }
 
-function assertMayChange(actor: PublicUser, row: Design, what: string): void {
-  if (!mayChange(actor, row)) throw forbidden(`Only the owner of this design or an admin can ${what} it.`);
-}
-
 /**
  * Saves new inputs and/or a new name with the optimistic lock: the UPDATE only matches when the stored
  * version still equals the one the client read and the design is still editable, so two saves can never
@@ -337,7 +292,7 @@ function assertMayChange(actor: PublicUser, row: Design, what: string): void {
  */
 export async function updateDesign(actor: PublicUser, id: number, patch: UpdateDesignInput): Promise<DesignDetail> {
   const row = await findDesign(id);
-  assertMayChange(actor, row, 'change');
+  assertMayChangeDesign(actor, row, 'change');
   if (!EDITABLE_DESIGN_STATUSES.includes(row.status as DesignStatus)) throw notEditable(row);
   if (row.version !== patch.version) throw versionConflict(row);
 
@@ -380,7 +335,7 @@ export async function updateDesign(actor: PublicUser, id: number, patch: UpdateD
  */
 export async function assertInputsChangeable(actor: PublicUser, id: number, version?: number): Promise<DesignInput> {
   const row = await findDesign(id);
-  assertMayChange(actor, row, 'change');
+  assertMayChangeDesign(actor, row, 'change');
   if (!EDITABLE_DESIGN_STATUSES.includes(row.status as DesignStatus)) throw notEditable(row);
   if (version !== undefined && row.version !== version) throw versionConflict(row);
   return normalise(parseJson(row.inputs), 'inputs');
@@ -430,8 +385,8 @@ export function validDocument(document: unknown, pathPrefix = 'inputs'): DesignI
 /** Deletes a draft (or returned) design: designers their own, admins any. 409 once it is in review or approved. */
 export async function deleteDesign(actor: PublicUser, id: number): Promise<void> {
   const row = await findDesign(id);
-  assertMayChange(actor, row, 'delete');
-  if (!DELETABLE_STATUSES.includes(row.status as DesignStatus)) {
+  assertMayChangeDesign(actor, row, 'delete');
+  if (!DELETABLE_DESIGN_STATUSES.includes(row.status as DesignStatus)) {
     throw conflict(`This design is ${row.status === 'in_review' ? 'in review' : row.status}; only drafts can be deleted.`, 'not_deletable');
   }
   const attachmentHashes = await getSequelize().transaction(async (transaction) => {
@@ -442,7 +397,7 @@ export async function deleteDesign(actor: PublicUser, id: number): Promise<void>
       transaction,
       lock: transaction.LOCK.UPDATE,
     });
-    const deleted = await Design.destroy({ where: { id, status: { [Op.in]: [...DELETABLE_STATUSES] } }, transaction });
+    const deleted = await Design.destroy({ where: { id, status: { [Op.in]: [...DELETABLE_DESIGN_STATUSES] } }, transaction });
     if (deleted === 0) throw conflict('This design changed state while deleting; reload it.', 'not_deletable');
     await recordAudit({ actorId: actor.id, action: 'design.delete', entity: 'design', entityId: id, fromState: row.status }, transaction);
     return attachments.map((a) => a.sha256);
@@ -467,6 +422,6 @@ export function exportFileName(name: string): string {
 export async function exportDesign(actor: PublicUser, id: number): Promise<{ fileName: string; document: DesignInput }> {
   const row = await Design.findByPk(id, { attributes: ['id', 'name', 'inputs', 'ownerId', 'status'] });
   if (!row) throw notFound('Design');
-  await assertMayReadDesign(actor, row);
+  await assertMayRead(actor, row);
   return { fileName: exportFileName(row.name), document: parseJson<DesignInput>(row.inputs) };
 }

@@ -1,3 +1,4 @@
+import type { MeasurementDetail, PublicMeasurement, SheetMeasurements, SpanStatus, SpanSummary, CrossedPair } from '@/contracts';
 import type { Transaction } from 'sequelize';
 import { PLUCK_TENSION_TOLERANCE, pluckBandHz, tensionFromFrequencyN, type DesignInput, type DesignResult, type Mechanism } from '@/engine';
 import { getSequelize } from '../db';
@@ -6,11 +7,12 @@ import type { UploadedFile } from '../uploads/uploadedFile';
 import { Measurement, Revision, Sheet, User, type MeasurementSource, type StoredSpectrum } from '../models';
 import { getContentStore } from '../storage';
 import { analysePluck, assertTypeMatches, PLUCK_DEFAULT_MAX_HZ } from '../uploads';
-import { sanitiseFileName, storeWithRows, withUploadErrors } from './attachments.service';
+import { sanitiseFileName, storeWithRows, withUploadErrors } from './fileStore.service';
+import { mayRecordMeasurement } from './access';
 import { recordAudit } from './audit.service';
-import { parseJson } from './revisions.service';
+import { parseJson } from './storedJson';
 import { latestSheets } from './sheets.service';
-import type { Page, PublicUser } from './users.service';
+import type { PublicUser } from './users.service';
 
 /** Largest pluck recording [bytes] (issue 6: 2 MB; 10 s of 16-bit mono at 96 kHz would not fit, at 48 kHz it does). */
 export const RECORDING_MAX_BYTES = 2 * 1024 * 1024;
@@ -31,77 +33,6 @@ export const TARGET_TOLERANCE_PCT = PLUCK_TENSION_TOLERANCE * 100;
 /** Typed frequencies outside this range are refused [Hz]. */
 export const TYPED_FREQUENCY_RANGE_HZ = { min: 1, max: 5000 } as const;
 
-/** A measurement as the API shows it. */
-export type PublicMeasurement = {
-  id: number;
-  sheetId: number;
-  spanId: string;
-  beltId: string;
-  spanLengthMm: number;
-  linearMassKgPerM: number;
-  frequencyHz: number;
-  tensionN: number;
-  targetFrequencyHz: number;
-  targetTensionN: number;
-  /** (tension − target) / target × 100 [%]. */
-  deviationPct: number;
-  source: MeasurementSource;
-  /** 0..1 for recordings, null when typed. */
-  confidence: number | null;
-  hasSpectrum: boolean;
-  recording: { sha256: string; size: number; fileName: string; url: string } | null;
-  measuredBy: { id: number; name: string };
-  measuredAt: string;
-};
-
-/** A measurement with its spectrum (recordings only). */
-export type MeasurementDetail = PublicMeasurement & { spectrum: StoredSpectrum | null };
-
-/** Where a span stands against its target. */
-export type SpanStatus = 'unmeasured' | 'ok' | 'low' | 'high';
-
-/** One span of the sheet with its target and the latest measurement. */
-export type SpanSummary = {
-  spanId: string;
-  beltId: string;
-  beltLabel: string;
-  label: string;
-  lengthMm: number;
-  fixedLength: boolean;
-  /** The span the sheet names for setting the belt's tension. */
-  isReference: boolean;
-  targetFrequencyHz: number;
-  /** Pluck frequencies that count as on target (tension within ±{@link TARGET_TOLERANCE_PCT} %) [Hz]. */
-  targetBandHz: { low: number; high: number };
-  targetTensionN: number;
-  latest: PublicMeasurement | null;
-  count: number;
-  status: SpanStatus;
-};
-
-/** The corresponding spans of the two crossed belts and whether their tensions disagree. */
-export type CrossedPair = {
-  spanIds: [string, string];
-  labels: [string, string];
-  /** Latest measured tensions, null while a span is unmeasured [N]. */
-  tensionsN: [number | null, number | null];
-  /** |T₁ − T₂| / mean(T₁, T₂) × 100, null until both are measured [%]. */
-  differencePct: number | null;
-  isMismatch: boolean;
-};
-
-/** GET /api/sheets/:id/measurements: the page of measurements plus the per-span summary. */
-export type SheetMeasurements = Page<PublicMeasurement> & {
-  sheetId: number;
-  mechanism: Mechanism;
-  spans: SpanSummary[];
-  pairs: CrossedPair[];
-  tolerances: { crossedBeltPct: number; targetPct: number; source: string };
-  /** The belt's allowable tight-side tension from the frozen inputs: a pluck reading above it needs attention [N]. */
-  allowableTensionN: number;
-  canRecord: boolean;
-};
-
 /** The body of POST /api/sheets/:id/measurements (JSON, or the text fields of the multipart form). */
 export type RecordMeasurementInput = { spanId: string; frequencyHz?: number };
 
@@ -113,7 +44,6 @@ type SpanInfo = { span: DesignResult['belts'][number]['spans'][number]; belt: De
 const TOLERANCE_SOURCE =
   'typical values: belt makers’ installation guides allow about ±10 % on the set tension, and builders match crossed belts within about 5 %';
 
-const mayRecord = (actor: PublicUser) => actor.roles.includes('maker') || actor.roles.includes('admin');
 const round = (v: number, digits: number) => Number(v.toFixed(digits));
 
 function toPublic(row: MeasurementRow): PublicMeasurement {
@@ -438,7 +368,7 @@ export async function listMeasurements(
     pairs: crossedPairs(frozen.inputs.mechanism, frozen.result, spans),
     tolerances: { crossedBeltPct: CROSSED_BELT_TOLERANCE_PCT, targetPct: TARGET_TOLERANCE_PCT, source: TOLERANCE_SOURCE },
     allowableTensionN: frozen.inputs.belt.allowableTensionN,
-    canRecord: mayRecord(actor),
+    canRecord: mayRecordMeasurement(actor),
   };
 }
 

@@ -1,6 +1,6 @@
+import type { Page } from '@/contracts';
 import { getConfig } from '../config';
 import { AppError } from '../errors';
-import type { Page } from './users.service';
 
 /** One e-mail caught by the local mail catcher (scripts/mailcatcher.ts). */
 export type OutboxMessage = { id: string; from: string; to: string[]; subject: string; date: string; text: string; html: string };

@@ -1,3 +1,4 @@
+import type { Page } from '@/contracts';
 import { Op, UniqueConstraintError, type Transaction, type WhereOptions } from 'sequelize';
 import { AppError, notFound, validationError, zodDetails } from '../errors';
 import { getSequelize } from '../db';
@@ -11,7 +12,7 @@ import {
   type PartPatch,
 } from '../schemas/parts.schema';
 import { recordAudit } from './audit.service';
-import type { Page, PublicUser } from './users.service';
+import type { PublicUser } from './users.service';
 
 /** URL segment of each shelf (`/api/parts/<shelf>`). */
 export const PART_SHELVES: Record<PartKind, 'belts' | 'pulleys' | 'motors'> = { belt: 'belts', pulley: 'pulleys', motor: 'motors' };

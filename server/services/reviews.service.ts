@@ -1,43 +1,25 @@
+import type { CommentItem, Page, RevisionDetail, SheetDetail } from '@/contracts';
 import type { Transaction } from 'sequelize';
 import type { DesignInput, DesignResult } from '@/engine';
 import { isUnitSystem, plural } from '@/format';
 import { getSequelize } from '../db';
-import { conflict, forbidden, notFound, validationError } from '../errors';
+import { conflict, notFound, validationError } from '../errors';
 import { Design, Revision, RevisionComment, User } from '../models';
-import { storeWithRowsMaking } from './attachments.service';
+import { storeWithRowsMaking } from './fileStore.service';
 import { recordAudit } from './audit.service';
 import { approvedMail, deliverSoon, queueMail, returnedMail, sheetPublishedMail, type Recipient } from './notify.service';
-import {
-  assertMayReadRevision,
-  findRevision,
-  getRevision,
-  isOwnWork,
-  isReviewer,
-  lockDesign,
-  mayComment,
-  parseJson,
-  stateWord,
-  type PersonRef,
-  type RevisionDetail,
-} from './revisions.service';
-import { getSheet, renderSheetFilesOffThread, storeSheet, type SheetDetail } from './sheets.service';
-import { findActiveUsersByRole, type Page, type PublicUser } from './users.service';
+import { assertMayComment, assertMayDecide, assertMayReadRevision } from './access';
+import { lockDesign, stateWord } from './designFlow.service';
+import { findRevision, getRevision } from './revisions.service';
+import { parseJson } from './storedJson';
+import { getSheet, renderSheetFilesOffThread, storeSheet } from './sheets.service';
+import { findActiveUsersByRole, type PublicUser } from './users.service';
 
 /**
  * The reviewer's side of a revision: the threaded discussion, approval (which publishes the design sheet) and
  * return with a reason. Every transition is checked against the revision's state inside a transaction that
  * locks the design row, logged in the audit log, and announced by mail after the commit.
  */
-
-/** One comment; `parentId` is the comment it answers (null for a new thread). */
-export type CommentItem = {
-  id: number;
-  revisionId: number;
-  parentId: number | null;
-  author: PersonRef & { roles: string[] };
-  body: string;
-  createdAt: string;
-};
 
 type CommentRow = RevisionComment & { author?: User | null };
 
@@ -78,9 +60,7 @@ export async function addComment(
   input: { body: string; parentId?: number | null },
 ): Promise<CommentItem> {
   const revision = await findRevision(revisionId);
-  if (!mayComment(actor, revision, revision.design)) {
-    throw forbidden('Only reviewers, admins and the design’s owner can comment on a revision.');
-  }
+  assertMayComment(actor, revision, revision.design);
   const parentId = input.parentId ?? null;
   if (parentId !== null) {
     const parent = await RevisionComment.findByPk(parentId, { attributes: ['id', 'revisionId'] });
@@ -92,17 +72,6 @@ export async function addComment(
     include: [{ model: User, as: 'author', attributes: ['id', 'name', 'roles'] }],
   })) as CommentRow;
   return toComment(created);
-}
-
-function assertMayDecide(
-  actor: PublicUser,
-  revision: Pick<Revision, 'authorId'> & { design: Pick<Design, 'ownerId'> },
-  verb: 'approve' | 'return',
-): void {
-  if (!isReviewer(actor)) throw forbidden(`Only reviewers and admins can ${verb} a revision.`);
-  if (isOwnWork(actor, revision, revision.design)) {
-    throw forbidden(verb === 'approve' ? 'You cannot approve your own work.' : 'You cannot return your own work; withdraw it instead.');
-  }
 }
 
 function wrongState(number: number, status: string, verb: 'approved' | 'returned'): Error {
@@ -160,7 +129,7 @@ export async function approveRevision(
     include: [{ model: Design, as: 'design', attributes: ['id', 'ownerId'] }],
   });
   if (!revision) throw notFound('Revision');
-  assertMayDecide(actor, revision as Revision & { design: Design }, 'approve');
+  assertMayDecide(actor, revision, (revision as Revision & { design: Design }).design, 'approve');
   if (revision.status !== 'in_review') throw wrongState(revision.number, revision.status, 'approved');
 
   const approvedAt = new Date();
@@ -287,7 +256,7 @@ export async function approveRevision(
  */
 export async function returnRevision(actor: PublicUser, revisionId: number, input: { reason: string }): Promise<RevisionDetail> {
   const revision = await findRevision(revisionId);
-  assertMayDecide(actor, revision, 'return');
+  assertMayDecide(actor, revision, revision.design, 'return');
   if (revision.status !== 'in_review') throw wrongState(revision.number, revision.status, 'returned');
 
   const mailIds = await getSequelize().transaction(async (transaction) => {

@@ -1,3 +1,4 @@
+import type { Page, SessionItem } from '@/contracts';
 import { createHash, createSecretKey, randomBytes, type KeyObject } from 'node:crypto';
 import jwt from 'jsonwebtoken';
 import type { CookieOptions } from 'express';
@@ -172,22 +173,8 @@ export async function revokeAllSessions(userId: number, reason: SessionRevokeRea
   return affected;
 }
 
-/** One open session, as the user's sessions list shows it. */
-export type SessionItem = {
-  id: number;
-  createdAt: string;
-  lastSeenAt: string;
-  expiresAt: string;
-  userAgent: string;
-  ip: string;
-  /** The session of the request that asked. */
-  isCurrent: boolean;
-};
-
 /** The user's open sessions, most recently used first. */
-export async function listSessions(
-  context: SessionContext,
-): Promise<{ items: SessionItem[]; total: number; page: number; pageSize: number }> {
+export async function listSessions(context: SessionContext): Promise<Page<SessionItem>> {
   const rows = await Session.findAll({
     where: { userId: context.user.id, revokedAt: null, expiresAt: { [Op.gt]: new Date() } },
     order: [

@@ -1,3 +1,4 @@
+import type { Page, SheetDetail, SheetListItem } from '@/contracts';
 import { createHash } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
 import type { DesignInput, DesignResult, Mechanism } from '@/engine';
@@ -10,8 +11,8 @@ import { getContentStore } from '../storage';
 import { ContentStoreError } from '../uploads';
 import { renderSheetsInPool } from '../workers/pool';
 import { recordAudit } from './audit.service';
-import { parseJson, type PersonRef } from './revisions.service';
-import type { Page, PublicUser } from './users.service';
+import { parseJson } from './storedJson';
+import type { PublicUser } from './users.service';
 
 /**
  * Design sheets: rendered once, when a revision is approved, from the FROZEN revision (its stored inputs and
@@ -19,51 +20,6 @@ import type { Page, PublicUser } from './users.service';
  * bytes and served unchanged forever; nothing re-renders or modifies a sheet (a database trigger refuses updates).
  * A sheet is superseded when a later revision of the same design has been approved.
  */
-
-/** The two files of a sheet. */
-export type SheetFile = { paper: SheetPaper; sha256: string; size: number; fileName: string };
-
-/** A sheet in the Sheets table. */
-export type SheetListItem = {
-  id: number;
-  revisionId: number;
-  revisionNumber: number;
-  /** The design as frozen in the revision (name and mechanism printed on the sheet). */
-  design: { id: number; name: string; mechanism: Mechanism };
-  designer: PersonRef;
-  approvedBy: PersonRef;
-  approvedAt: string;
-  comment: string;
-  /** Why the reviewer approved although a check failed (null when nothing failed). */
-  justification: string | null;
-  /** Unit system the sheet is printed in. */
-  units: UnitSystem;
-  /** The frozen revision's check counts. */
-  checks: { ok: number; warn: number; fail: number };
-  /** SHA-256 of the A4 PDF (the default download). */
-  sha256: string;
-  files: SheetFile[];
-  /** The revision's fingerprint (SHA-256 of its frozen inputs and results), printed in the sheet's footer. */
-  fingerprint: string;
-  engineVersion: string;
-  isSuperseded: boolean;
-  /** The newest approved sheet of the same design, when this one is superseded. */
-  supersededBy: { sheetId: number; revisionNumber: number } | null;
-};
-
-/** One span to pluck, with its target (for the maker's tension check). */
-export type SheetSpan = { id: string; label: string; lengthMm: number; targetFrequencyHz: number; fixedLength: boolean };
-
-/** A sheet with the build figures a maker needs on screen. */
-export type SheetDetail = SheetListItem & {
-  build: {
-    stepsPerMm: number;
-    travel: { xMm: number; yMm: number };
-    pretensionN: number;
-    parking: { xMm: number; yMm: number };
-    belts: { id: string; label: string; cutLengthMm: number; loopTeeth: number; spans: SheetSpan[] }[];
-  };
-};
 
 /** What approval hands over: the frozen revision and the approval printed on the sheet. */
 export type SheetSource = {
@@ -128,7 +84,7 @@ export async function renderSheetFilesOffThread(source: SheetSource): Promise<Re
 /**
  * Writes the row of a rendered sheet for an approved revision (inside the approval's transaction). The PDF bytes go
  * to the content store under their SHA-256 in the same transaction: run it through `storeWithRowsMaking()`
- * (attachments.service), which registers and puts them. @returns the sheet id
+ * (fileStore.service), which registers and puts them. @returns the sheet id
  */
 export async function storeSheet(
   input: { revisionId: number; designId: number; approvedById: number; approvedAt: Date; comment: string; rendered: RenderedSheet },

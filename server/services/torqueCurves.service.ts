@@ -3,14 +3,9 @@ import type { UploadedFile } from '../uploads/uploadedFile';
 import { Attachment, Part } from '../models';
 import { torqueCurveSchema, type TorqueConditions } from '../schemas/parts.schema';
 import { CsvError, parseTorqueCsv, assertTypeMatches, type CsvErrorDetail, type TorquePoint, type TorqueTable } from '../uploads';
-import {
-  latestPartAttachment,
-  sanitiseFileName,
-  storeWithRows,
-  toPublicAttachment,
-  withUploadErrors,
-  type PublicAttachment,
-} from './attachments.service';
+import type { PublicAttachment } from '@/contracts';
+import { latestPartAttachment, toPublicAttachment } from './attachments.service';
+import { sanitiseFileName, storeWithRows, withUploadErrors } from './fileStore.service';
 import { recordAudit } from './audit.service';
 import { toPublicPart, type PublicPart } from './parts.service';
 import type { PublicUser } from './users.service';

@@ -7,22 +7,10 @@ import { createPasswordToken } from './passwordToken.service';
 import { sendMail } from './mail.service';
 import { inviteMail } from './mailTemplates';
 import { getConfig } from '../config';
+import type { Page, PublicUser } from '@/contracts';
+
+export type { PublicUser };
 import { revokeAllSessions } from './session.service';
-
-/** A user as the API shows it: never the password hash. */
-export type PublicUser = {
-  id: number;
-  email: string;
-  name: string;
-  roles: Role[];
-  disabled: boolean;
-  /** Invited and has not set a password yet: cannot sign in until they follow the invitation. */
-  isInvited: boolean;
-  createdAt: string;
-};
-
-/** A page of a list, the shape every list endpoint answers. */
-export type Page<T> = { items: T[]; total: number; page: number; pageSize: number };
 
 /** Keeps only known roles, once each, in the canonical order. */
 export function normaliseRoles(roles: unknown): Role[] {

@@ -10,4 +10,3 @@ export type { SniffedMime } from './sniffType';
 export { assertSha256, ContentStoreError, contentPath, readBytes, removeBytes, sha256Of, storeBytes } from './contentStore';
 export type { StoredContent } from './contentStore';
 export { parseJobCsv, JOB_CSV_LIMITS } from './jobCsv';
-export type { JobTable } from './jobCsv';

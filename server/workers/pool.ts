@@ -90,10 +90,8 @@ export async function calcJson(task: CalcTask): Promise<Buffer> {
   return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }
 
-/** freezeDesign (services/revisions.service.ts) in the engine pool. */
-export async function freezeInPool(
-  storedInputs: unknown,
-): Promise<ReturnType<typeof import('../services/revisions.service').freezeDesign>> {
+/** freezeDesign (services/freezeRevision.ts) in the engine pool. */
+export async function freezeInPool(storedInputs: unknown): Promise<ReturnType<typeof import('../services/freezeRevision').freezeDesign>> {
   return unwrap(await getEnginePool().run(storedInputs, { name: 'freeze' }));
 }
 

@@ -16,7 +16,7 @@ import { pickSections, type ResultSection } from './sections';
 
 // Modules only some threads need (the models, pdfmake) load on first use, once: every import() goes through the
 // tsx loader's hooks, which costs more than a small task, so it must not happen per task.
-let revisionsModule: Promise<typeof import('../services/revisions.service')> | undefined;
+let freezeModule: Promise<typeof import('../services/freezeRevision')> | undefined;
 let designsModule: Promise<typeof import('../services/designs.service')> | undefined;
 let sheetModule: Promise<typeof import('../sheet/renderSheet')> | undefined;
 
@@ -106,9 +106,9 @@ export async function calc(task: CalcTask): Promise<Uint8Array | TaskFailure> {
 /** Freezes a revision's content (validation, engine, fingerprint) off the main thread. */
 export async function freeze(
   storedInputs: unknown,
-): Promise<TaskAnswer<ReturnType<typeof import('../services/revisions.service').freezeDesign>>> {
+): Promise<TaskAnswer<ReturnType<typeof import('../services/freezeRevision').freezeDesign>>> {
   // Loaded on first use only: the calc-only threads never load the models.
-  const { freezeDesign } = await (revisionsModule ??= import('../services/revisions.service'));
+  const { freezeDesign } = await (freezeModule ??= import('../services/freezeRevision'));
   return answer(() => freezeDesign(storedInputs));
 }
 

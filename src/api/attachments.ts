@@ -1,30 +1,11 @@
 import type { TorquePoint } from '@/engine';
 import { apiUrl, del, get, upload } from './http';
 import type { TorqueConditions, MotorPart } from './parts';
-import type { Page } from './types';
+import type { AttachmentPage, PublicAttachment } from '@/contracts';
 
-/** A file attached to a design (or the source file of a motor's torque table). */
-export interface Attachment {
-  id: number;
-  designId: number | null;
-  partId: number | null;
-  fileName: string;
-  /** Type found from the file's bytes. */
-  mime: string;
-  size: number;
-  sha256: string;
-  uploadedBy: { id: number; name: string } | null;
-  /** ISO 8601 timestamp */
-  createdAt: string;
-  url: string;
-  /** Whether the signed-in user may delete it (the server decides). */
-  canDelete: boolean;
-}
-
-/** A design's attachments and whether the signed-in user may add one. */
-export interface AttachmentPage extends Page<Attachment> {
-  canUpload: boolean;
-}
+export type { AttachmentPage };
+/** A file attached to a design (or the source file of a motor's torque table): src/contracts PublicAttachment. */
+export type Attachment = PublicAttachment;
 
 /** File types a design accepts (checked again by the server from the bytes). */
 export const ATTACHMENT_ACCEPT = '.pdf,.png,.jpg,.jpeg,.csv,application/pdf,image/png,image/jpeg,text/csv';

@@ -2,43 +2,15 @@ import type { DesignInputRaw, Mechanism } from '@/engine';
 import { apiUrl, del, get, patch, post, upload } from './http';
 import type { Page } from './types';
 
-import { DESIGN_STATUSES, type DesignStatus } from '@/contracts';
+import { DESIGN_STATUSES, type DesignDetail, type DesignListItem, type DesignStatus, type JobUploadResult } from '@/contracts';
 
-export { DESIGN_STATUSES, type DesignStatus };
+export { DESIGN_STATUSES, type DesignStatus, type JobUploadResult };
 
-/** Who owns a design. */
-export interface DesignOwner {
-  id: number;
-  name: string;
-}
+/** One row of the Designs table (src/contracts DesignListItem). */
+export type DesignSummary = DesignListItem;
 
-/** One row of the Designs table. */
-export interface DesignSummary {
-  id: number;
-  name: string;
-  mechanism: Mechanism;
-  status: DesignStatus;
-  owner: DesignOwner;
-  /** Usable travel the engine derived from the frame [mm]. */
-  travel: { xMm: number; yMm: number } | null;
-  /** Optimistic-lock version: send it back with every change. */
-  version: number;
-  /** ISO 8601 timestamp */
-  updatedAt: string;
-  /** Whether the signed-in user may change this design (the server decides). */
-  canEdit?: boolean;
-  /** Whether the signed-in user may delete this design. */
-  canDelete?: boolean;
-}
-
-/** A whole design, as GET /api/designs/:id answers. */
-export interface Design extends DesignSummary {
-  /** The design document (src/engine/README.md). */
-  inputs: DesignInputRaw;
-  createdAt?: string;
-  /** Who saved last. */
-  updatedBy?: { id: number; name: string } | null;
-}
+/** A whole design, as GET /api/designs/:id answers (src/contracts DesignDetail). */
+export type Design = DesignDetail;
 
 /** Sortable columns of the list; a leading "-" sorts descending. */
 export type DesignSortKey = 'name' | 'updatedAt' | 'status' | 'mechanism' | 'owner';
@@ -88,12 +60,6 @@ export const deleteDesign = (id: number): Promise<void> => del(`/designs/${id}`)
 
 /** URL of the JSON export of a design (the browser downloads it). */
 export const designExportUrl = (id: number): string => apiUrl(`/designs/${id}/export`);
-
-/** What a job upload answers: the saved design and what was read from the file. */
-export interface JobUploadResult {
-  design: Design;
-  job: { pointCount: number; sourceUnits: { x: 'mm' | 'in'; y: 'mm' | 'in'; dwell: 's' | 'ms' | null } };
-}
 
 /** File types the job upload accepts. */
 export const JOB_CSV_ACCEPT = '.csv,.txt,text/csv,text/plain';

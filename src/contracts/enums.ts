@@ -9,6 +9,9 @@ export type Role = (typeof ROLES)[number];
 export const DESIGN_STATUSES = ['draft', 'in_review', 'approved', 'returned'] as const;
 export type DesignStatus = (typeof DESIGN_STATUSES)[number];
 
+/** States in which a design's inputs may still change; a design in review or approved is frozen. */
+export const EDITABLE_DESIGN_STATUSES: readonly DesignStatus[] = ['draft', 'returned'];
+
 /** Review states of a revision. Only `in_review` may still change; the others are final. */
 export const REVISION_STATUSES = ['in_review', 'withdrawn', 'returned', 'approved'] as const;
 export type RevisionStatus = (typeof REVISION_STATUSES)[number];
@@ -20,3 +23,7 @@ export type PartKind = (typeof PART_KINDS)[number];
 /** Paper sizes every sheet is rendered in. */
 export const SHEET_PAPERS = ['A4', 'LETTER'] as const;
 export type SheetPaper = (typeof SHEET_PAPERS)[number];
+
+/** How a belt measurement's frequency was obtained: typed in, or found in an uploaded recording. */
+export const MEASUREMENT_SOURCES = ['typed', 'recording'] as const;
+export type MeasurementSource = (typeof MEASUREMENT_SOURCES)[number];

@@ -1,3 +1,10 @@
 // The contract between the client and the server (src/contracts/README.md). Pure, like the engine: no framework, no
-// platform, no other part of the app.
+// platform, nothing of the app but the engine's and the formatting layer's types.
 export * from './enums';
+export * from './common';
+export * from './users';
+export * from './designs';
+export * from './revisions';
+export * from './sheets';
+export * from './measurements';
+export * from './attachments';

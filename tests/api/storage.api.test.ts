@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
 import { closeSequelize, getSequelize } from '../../server/db';
 import { Attachment, AuditLog, Sheet } from '../../server/models';
-import { storeWithRows } from '../../server/services/attachments.service';
+import { storeWithRows } from '../../server/services/fileStore.service';
 import {
   LocalContentStore,
   S3ContentStore,

@@ -8,9 +8,9 @@ import { hashPassword } from '../../server/services/auth.service';
 import { toPublicUser, type PublicUser } from '../../server/services/users.service';
 import type { CaughtMessage } from '../../scripts/mailcatcher';
 import { defaultDesign, parseDesign, type DesignInput, type DesignResult, type Mechanism } from '@/engine';
-import { storeWithRows } from '../../server/services/attachments.service';
+import { storeWithRows } from '../../server/services/fileStore.service';
 import { computeStoredResults } from '../../server/services/designs.service';
-import { freezeDesign } from '../../server/services/revisions.service';
+import { freezeDesign } from '../../server/services/freezeRevision';
 
 /** A supertest agent that keeps cookies between requests. */
 export type Agent = ReturnType<typeof request.agent>;

@@ -28,14 +28,11 @@ export function useDesigns() {
   let searchTimer: ReturnType<typeof setTimeout> | null = null;
 
   const canCreate = computed(() => auth.hasAnyRole(['designer', 'admin']));
-  const isAdmin = computed(() => auth.hasRole('admin'));
   const isMine = (row: DesignSummary): boolean => !!user.value && row.owner?.id === user.value.id;
-  /** Owners (designers) rename their drafts and returned work; admins any of those. */
-  const canRename = (row: DesignSummary): boolean =>
-    row.canEdit ?? ((row.status === 'draft' || row.status === 'returned') && (isAdmin.value || (isMine(row) && auth.hasRole('designer'))));
-  /** Drafts are deleted by their owner, or an admin (the server's flag when it sends one). */
-  const canDelete = (row: DesignSummary): boolean =>
-    row.canDelete ?? (row.status === 'draft' && (isAdmin.value || (isMine(row) && auth.hasRole('designer'))));
+  /** Owners (designers) rename their drafts and returned work, admins any of those: the server's flag for this user. */
+  const canRename = (row: DesignSummary): boolean => row.canEdit;
+  /** Drafts and returned work are deleted by their owner, or an admin: the server's flag for this user. */
+  const canDelete = (row: DesignSummary): boolean => row.canDelete;
 
   async function load(): Promise<void> {
     const mine = ++ticket;

@@ -11,9 +11,6 @@ import { useAuthStore } from '@/stores/auth';
 import { errorMessage } from '@/utils/message';
 import { getAt, setAt } from './paths';
 
-/** Statuses in which a design may still be changed. */
-const EDITABLE_STATUSES = new Set(['draft', 'returned']);
-
 /** A design document being edited (loosely typed: values may be NaN or null while someone types). */
 export type EditableDesign = Record<string, unknown> & { name: string; mechanism: Mechanism };
 
@@ -37,13 +34,8 @@ export function useDesignDesk(id: Ref<number>) {
 
   const isOwner = computed(() => !!design.value && !!user.value && design.value.owner?.id === user.value.id);
   const isAdmin = computed(() => auth.hasRole('admin'));
-  /** Designers edit their own drafts (and returned work); admins any; everyone else reads. */
-  const canEdit = computed(() => {
-    const d = design.value;
-    if (!d || !EDITABLE_STATUSES.has(d.status)) return false;
-    if (typeof d.canEdit === 'boolean') return d.canEdit; // the server's answer for this user
-    return isAdmin.value || (isOwner.value && auth.hasRole('designer'));
-  });
+  /** Designers edit their own drafts (and returned work); admins any; everyone else reads. The server's flag for this user. */
+  const canEdit = computed(() => design.value?.canEdit ?? false);
   /** Why the inputs are read-only, in one sentence (null when editable). */
   const readOnlyReason = computed(() => {
     const d = design.value;

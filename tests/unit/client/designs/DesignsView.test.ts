@@ -21,6 +21,7 @@ const DESIGNER: User = {
   name: 'Dana Designer',
   roles: ['designer'],
   disabled: false,
+  isInvited: false,
   createdAt: '2026-01-01T00:00:00Z',
 };
 
@@ -34,6 +35,7 @@ function row(over: Partial<DesignSummary>): DesignSummary {
     travel: { xMm: 312, yMm: 320 },
     version: 1,
     updatedAt: '2026-11-20T10:00:00Z',
+    createdAt: '2026-11-20T09:00:00Z',
     canEdit: true,
     canDelete: true,
     ...over,

@@ -35,7 +35,15 @@ async function mountShelf(roles: Role[]) {
   vi.mocked(api.listParts).mockResolvedValue([BELT]);
   const router = createRouter({ history: createMemoryHistory(), routes: [{ path: '/parts', component: PartsShelfView }] });
   await router.push('/parts');
-  const user: User = { id: 9, email: 'x@example.test', name: 'X', roles, disabled: false, createdAt: '2026-01-01T00:00:00Z' };
+  const user: User = {
+    id: 9,
+    email: 'x@example.test',
+    name: 'X',
+    roles,
+    disabled: false,
+    isInvited: false,
+    createdAt: '2026-01-01T00:00:00Z',
+  };
   const pinia = createTestingPinia({ createSpy: vi.fn, stubActions: false, initialState: { auth: { user, isLoaded: true } } });
   const wrapper = mount(PartsShelfView, { global: { plugins: [router, pinia] }, attachTo: document.body });
   await flushPromises();

@@ -97,6 +97,7 @@ async function mountPanel({ status, canChange = true, prepare, roles = ['designe
     name: 'Dana Designer',
     roles,
     disabled: false,
+    isInvited: false,
     createdAt: '2026-01-01T00:00:00Z',
   };
   const pinia = createTestingPinia({ createSpy: vi.fn, stubActions: false, initialState: { auth: { user, isLoaded: true } } });

@@ -32,7 +32,15 @@ vi.mock('@/views/errors/NotFoundView.vue', () => ({ default: { render: () => nul
 const api = vi.mocked(authApi);
 
 function signedInAs(roles: Role[]): void {
-  const user: User = { id: 1, email: 'u@example.test', name: 'U', roles, disabled: false, createdAt: '2025-01-01T00:00:00Z' };
+  const user: User = {
+    id: 1,
+    email: 'u@example.test',
+    name: 'U',
+    roles,
+    disabled: false,
+    isInvited: false,
+    createdAt: '2025-01-01T00:00:00Z',
+  };
   api.fetchCurrentUser.mockResolvedValue({ user });
 }
 

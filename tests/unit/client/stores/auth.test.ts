@@ -21,6 +21,7 @@ const DESIGNER: User = {
   name: 'Dana Draftsman',
   roles: ['designer'],
   disabled: false,
+  isInvited: false,
   createdAt: '2025-01-01T00:00:00.000Z',
 };
 

@@ -13,6 +13,7 @@ const MAKER: User = {
   name: 'Mo Maker',
   roles: ['maker'],
   disabled: false,
+  isInvited: false,
   createdAt: '2025-01-01T00:00:00Z',
 };
 

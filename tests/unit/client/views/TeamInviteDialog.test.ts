@@ -14,6 +14,7 @@ const NEW_USER: User = {
   name: 'Rita Rivet',
   roles: ['maker'],
   disabled: false,
+  isInvited: false,
   createdAt: '2025-01-01T00:00:00Z',
 };
 

@@ -1,17 +1,10 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { defaultDesign, evaluateDesign, parseDesign } from '@/engine';
-import {
-  canonicalJson,
-  diffInputs,
-  diffKeyResults,
-  flattenLeaves,
-  freezeDesign,
-  isOwnWork,
-  mayComment,
-  mayReadRevision,
-  revisionFingerprint,
-} from '../../../../server/services/revisions.service';
+import { diffInputs, diffKeyResults, flattenLeaves } from '../../../../server/services/revisionDiff';
+import { freezeDesign } from '../../../../server/services/freezeRevision';
+import { canonicalJson, revisionFingerprint } from '../../../../server/services/revisionFingerprint';
+import { isOwnWork, mayComment, mayReadRevision } from '../../../../server/services/access';
 import type { PublicUser } from '../../../../server/services/users.service';
 
 const user = (id: number, roles: PublicUser['roles']): PublicUser => ({

@@ -2,7 +2,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { defaultDesign, evaluateValidDesign, parseDesign, type DesignInput } from '@/engine';
 import { AppError } from '../../../../server/errors';
 import { calcJson, closePools, freezeInPool, getEnginePool, renderSheetsInPool } from '../../../../server/workers/pool';
-import { freezeDesign } from '../../../../server/services/revisions.service';
+import { freezeDesign } from '../../../../server/services/freezeRevision';
 import { pickSections, RESULT_SECTIONS } from '../../../../server/workers/sections';
 
 process.env.DB_PASSWORD ??= 'unit-test-password';
