@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
-import { EngineInputError, evaluateValidDesign, safeParseDesign, type DesignInput, type DesignResult } from '@/engine';
+import { EngineInputError, evaluateValidDesign, safeParseDesign, slowestDirection, type DesignInput, type DesignResult } from '@/engine';
 import { getSequelize } from '../db';
 import { AppError, conflict, forbidden, notFound, validationError, type ErrorDetail } from '../errors';
 import {
@@ -417,7 +417,7 @@ const KEY_RESULTS: KeyResult[] = [
     'm/s²',
     (r) => r.envelope.axes.worst.accelAtCruiseMPerS2,
   ),
-  keyResult('envelope.axes.worst.speedMaxMPerS', 'Top speed, worst direction', 'm/s', (r) => r.envelope.axes.worst.speedMaxMPerS),
+  keyResult('envelope.axes.slowest.speedMaxMPerS', 'Top speed, worst direction', 'm/s', (r) => slowestDirection(r.envelope).speedMaxMPerS),
   keyResult('stiffness.min.frequencyHz', 'Lowest resonance', 'Hz', (r) => r.stiffness.min.frequencyHz),
   keyResult(
     'stiffness.ringing.planned.amplitudeMm',

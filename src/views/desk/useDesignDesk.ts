@@ -9,7 +9,7 @@ import { getEngineRunner } from '@/workers/engineClient';
 import type { ResultPart } from '@/workers/resultParts';
 import { useAuthStore } from '@/stores/auth';
 import { errorMessage } from '@/utils/message';
-import { getAt, setAt } from './paths';
+import { getAt, setAt } from '@/engine';
 
 /** Statuses in which a design may still be changed. */
 const EDITABLE_STATUSES = new Set(['draft', 'returned']);

@@ -6,7 +6,7 @@ import { createPinia, setActivePinia } from 'pinia';
 import { defaultDesign, designInputSchema, safeParseDesign } from '@/engine';
 import { formIssues } from '@/composables/useEngine';
 import DesignDeskInputs from '@/views/desk/DesignDeskInputs.vue';
-import { setAt } from '@/views/desk/paths';
+import { setAt } from '@/engine';
 
 /**
  * The form as the Design desk wires it: the design document in a reactive object, field messages from the shared
