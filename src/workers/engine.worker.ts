@@ -1,6 +1,5 @@
 /// <reference lib="webworker" />
-import type { DesignResult } from '@/engine';
-import { sweepPoint, type SweepPoint } from '@/engine';
+import { sweepPoint, type DesignResult, type SweepPoint } from '@/engine';
 import { compareRows, evaluateOutcome, sweepBase, warmEngine } from './engineTasks';
 import type { EngineRequest, EngineResponse } from './engineProtocol';
 import { packResult } from './resultParts';
