@@ -2,7 +2,8 @@ import {
   compareMechanisms,
   EngineInputError,
   evaluateValidDesign,
-  sweep,
+  getAt,
+  sweepPoint,
   type ComparisonRow,
   type DesignInput,
   type DesignResult,
@@ -52,13 +53,8 @@ export function compare(design: DesignInput): { rows: ComparisonRow[] } {
  * plannedAccelMmPerS2). The validated design has every default filled in, so every known field is present.
  */
 function assertSweepPath(design: DesignInput, path: string): void {
-  let node: unknown = design;
-  for (const part of path.split('.')) {
-    if (node === null || typeof node !== 'object' || !Object.prototype.hasOwnProperty.call(node, part)) {
-      throw validationError([{ path: 'path', message: `"${path}" is not an input of the design` }]);
-    }
-    node = (node as Record<string, unknown>)[part];
-  }
+  const node = getAt(design, path);
+  if (node === undefined) throw validationError([{ path: 'path', message: `"${path}" is not an input of the design` }]);
   if (node !== null && typeof node !== 'number') {
     throw validationError([{ path: 'path', message: `"${path}" is not a numeric input of the design` }]);
   }
@@ -81,7 +77,7 @@ export async function sweepInput(
   assertSweepPath(design, path);
   const points: SweepPoint[] = [];
   for (const value of values) {
-    points.push(...run(() => sweep(design, path, [value])).points);
+    points.push(run(() => sweepPoint(design, path, value)));
     // In a worker thread nobody else waits for this loop.
     if (options.yieldBetween !== false) await yieldToEventLoop();
   }

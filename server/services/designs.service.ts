@@ -1,5 +1,13 @@
 import { literal, Op, type Order, type Transaction, type WhereOptions } from 'sequelize';
-import { defaultDesign, EngineInputError, evaluateValidDesign, safeParseDesign, type DesignInput, type DesignResult } from '@/engine';
+import {
+  defaultDesign,
+  EngineInputError,
+  evaluateValidDesign,
+  safeParseDesign,
+  slowestDirection,
+  type DesignInput,
+  type DesignResult,
+} from '@/engine';
 import { AppError, conflict, notFound, validationError, type ErrorDetail } from '../errors';
 import { getSequelize } from '../db';
 import { EDITABLE_DESIGN_STATUSES, type DesignDetail, type DesignListItem, type DesignResultSummary, type Page } from '@/contracts';
@@ -81,7 +89,8 @@ export function computeStoredResults(
         directionDeg: worst.directionDeg,
         accelMaxMPerS2: worst.accelMaxMPerS2,
         accelAtCruiseMPerS2: worst.accelAtCruiseMPerS2,
-        speedMaxMPerS: worst.speedMaxMPerS,
+        // Top speed, worst direction: the lowest over all directions, not the speed along directionDeg (docs/models/envelope.md §3).
+        speedMaxMPerS: slowestDirection(result.envelope).speedMaxMPerS,
       },
       lowestFrequencyHz: result.stiffness.min.frequencyHz,
       checks: { total: result.checks.length, bySeverity },

@@ -1,4 +1,4 @@
-import type { DesignResult } from '@/engine';
+import { slowestDirection, type DesignResult } from '@/engine';
 import type { QuantityKey } from '@/format';
 import type { InputChange, ResultChange } from '@/contracts';
 import { canonicalJson } from './revisionFingerprint';
@@ -108,7 +108,7 @@ const KEY_RESULTS: KeyResult[] = [
     'm/s²',
     (r) => r.envelope.axes.worst.accelAtCruiseMPerS2,
   ),
-  keyResult('envelope.axes.worst.speedMaxMPerS', 'Top speed, worst direction', 'm/s', (r) => r.envelope.axes.worst.speedMaxMPerS),
+  keyResult('envelope.axes.slowest.speedMaxMPerS', 'Top speed, worst direction', 'm/s', (r) => slowestDirection(r.envelope).speedMaxMPerS),
   keyResult('stiffness.min.frequencyHz', 'Lowest resonance', 'Hz', (r) => r.stiffness.min.frequencyHz),
   keyResult(
     'stiffness.ringing.planned.amplitudeMm',

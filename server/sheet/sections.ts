@@ -1,4 +1,4 @@
-import { pluckBandHz, PLUCK_TENSION_TOLERANCE } from '@/engine';
+import { pluckBandHz, PLUCK_TENSION_TOLERANCE, slowestDirection } from '@/engine';
 import { checkText, fieldLabel, formatInputValue, plural, type QuantityKey } from '@/format';
 import { fixed, userTextRuns, utcStamp } from './format';
 import { block, COLOR, type Content, type ContentObject, groupRow, heading, numCell, table, th } from './layout';
@@ -691,15 +691,23 @@ export function limitsSection(data: SheetData): Content[] {
     const i = env.directionsDeg.findIndex((d) => Math.abs(d - deg) < 0.5);
     return limitingName(data.result, i >= 0 ? env.limitingMotor[i] : undefined);
   };
-  const rows = (['x', 'y', 'diagonal', 'worst'] as const).map((key) => {
-    const ax = env.axes[key];
-    const name = { x: 'Along X', y: 'Along Y', diagonal: 'Along the diagonal', worst: 'Worst direction' }[key];
+  // The worst acceleration and the worst speed are the lowest over all directions, each in its own direction
+  // (docs/models/envelope.md §3): the acceleration is bold on its row, the speed on its own.
+  const rows = (['x', 'y', 'diagonal', 'worst', 'slowest'] as const).map((key) => {
+    const ax = key === 'slowest' ? slowestDirection(env) : env.axes[key];
+    const name = {
+      x: 'Along X',
+      y: 'Along Y',
+      diagonal: 'Along the diagonal',
+      worst: 'Worst for acceleration',
+      slowest: 'Worst for speed',
+    }[key];
     return [
-      { text: name, bold: key === 'worst' },
+      { text: name, bold: key === 'worst' || key === 'slowest' },
       numCell(fixed(ax.directionDeg, 0)),
       numCell(u.n(ax.accelMaxMPerS2, 'accel', 'm/s^2', 3), key === 'worst'),
       numCell(u.n(ax.accelAtCruiseMPerS2, 'accel', 'm/s^2', 3), key === 'worst'),
-      numCell(u.n(ax.speedMaxMPerS, 'speed', 'm/s', 3), key === 'worst'),
+      numCell(u.n(ax.speedMaxMPerS, 'speed', 'm/s', 3), key === 'slowest'),
       limiting(ax.directionDeg),
     ];
   });

@@ -1,5 +1,5 @@
 import { computed, nextTick, onScopeDispose, ref, shallowRef, toRaw, watch, type Ref, type ShallowRef } from 'vue';
-import { designInputSchema, safeParseDesign, type DesignResult, type InputIssue } from '@/engine';
+import { designInputSchema, getAt, safeParseDesign, type DesignResult, type InputIssue } from '@/engine';
 import { getEngineRunner, type EngineRunner } from '@/workers/engineClient';
 import type { ResultPart } from '@/workers/resultParts';
 
@@ -31,15 +31,6 @@ export interface UseEngine {
   missingParts: Ref<ResultPart[]>;
 }
 
-function valueAt(source: unknown, path: string): unknown {
-  let node: unknown = source;
-  for (const key of path.split('.')) {
-    if (typeof node !== 'object' || node === null) return undefined;
-    node = (node as Record<string, unknown>)[key];
-  }
-  return node;
-}
-
 /**
  * The schema's issues for the form. A box holding text that is not a number carries NaN, which the shared
  * schema rejects with its own "… must be a number" message; the issue list reports every wrong type as
@@ -49,11 +40,11 @@ function valueAt(source: unknown, path: string): unknown {
  * @param issues - issues from safeParseDesign
  */
 export function formIssues(value: unknown, issues: InputIssue[]): InputIssue[] {
-  if (!issues.some((i) => Number.isNaN(valueAt(value, i.path)))) return issues;
+  if (!issues.some((i) => Number.isNaN(getAt(value, i.path)))) return issues;
   const raw = designInputSchema.safeParse(value);
   const own = new Map<string, string>();
   if (!raw.success) for (const i of raw.error.issues) own.set(i.path.map(String).join('.'), i.message);
-  return issues.map((i) => (Number.isNaN(valueAt(value, i.path)) && own.has(i.path) ? { path: i.path, message: own.get(i.path)! } : i));
+  return issues.map((i) => (Number.isNaN(getAt(value, i.path)) && own.has(i.path) ? { path: i.path, message: own.get(i.path)! } : i));
 }
 
 /**

@@ -14,6 +14,7 @@ export type DesignResultSummary = {
   microstep?: { oneMotorMm: number; oneMotorDirectionDeg: number; axisMm: number; diagonalMm: number };
   /** Engine 1 summaries only: one motor's microstep projected on X and Y. */
   microstepMm?: { x: number; y: number; diagonal: number };
+  /** The worst-acceleration direction and its accelerations; speedMaxMPerS is the lowest top speed over all directions. */
   worst: { directionDeg: number; accelMaxMPerS2: number; accelAtCruiseMPerS2: number; speedMaxMPerS: number };
   lowestFrequencyHz: number;
   checks: { total: number; bySeverity: Record<string, number> };

@@ -1,7 +1,7 @@
 import type { InputIssue } from './errors';
 import { evaluateValidDesign } from './evaluateDesign';
 import { MECHANISMS } from './kinematics';
-import { parseDesign, safeParseDesign } from './schema';
+import { parseDesign, safeParseDesign, type DesignInput } from './schema';
 import type { ModeId } from './structuralModes';
 import type { DesignResult, Mechanism } from './types';
 
@@ -12,11 +12,22 @@ export interface KeyFigures {
   stepsPerMm: number;
   /** Carriage figures of one microstep (docs/models/resolution.md). */
   microstep: { oneMotorMm: number; oneMotorDirectionDeg: number; axisMm: number; diagonalMm: number };
+  /** Acceleration at rest along X, Y, the diagonal and in the worst direction (the lowest over all directions) [m/s²]. */
   accelMaxMPerS2: { x: number; y: number; diagonal: number; worst: number };
+  /**
+   * Top speed along X, Y, the diagonal and in the worst direction: the lowest top speed over all directions, the
+   * speed the stage reaches whichever way it moves (docs/models/envelope.md §3) [m/s].
+   */
   speedMaxMPerS: { x: number; y: number; diagonal: number; worst: number };
   lowestFrequencyHz: number;
+  /** Ringing amplitude after an abrupt change of the worst-direction acceleration [mm]. */
+  ringingWorstMm: number;
   movingMassKg: { x: number; y: number };
   rackingMomentPerNewtonM: number;
+  /** Peak racking moment on the gantry [N·m]. */
+  rackingPeakMomentNm: number;
+  /** Belt to cut, all loops together [mm]. */
+  beltCutMm: number;
   motorCount: number;
   warnCount: number;
   failCount: number;
@@ -47,6 +58,8 @@ export interface SecondLayerFigures {
   jobTotalS: number | null;
   /** Job cycle time as fast as the motors allow [s]. */
   jobAtLimitsS: number | null;
+  /** Moving time of that job, dwells left out [s]. */
+  jobAtLimitsMoveS: number | null;
 }
 
 /**
@@ -67,11 +80,21 @@ export function secondLayerFigures(r: DesignResult): SecondLayerFigures {
     motorShaftLoadN: r.loads.motorShaftRadialN.atPeak,
     jobTotalS: r.job ? r.job.totalS : null,
     jobAtLimitsS: r.job?.atLimits ? r.job.atLimits.totalS : null,
+    jobAtLimitsMoveS: r.job?.atLimits ? r.job.atLimits.moveS : null,
   };
 }
 
+/** Acceleration at rest over all directions, for overlaying the mechanisms' envelopes. */
+export interface AccelEnvelope {
+  directionsDeg: number[];
+  /** [m/s²] */
+  accelMaxMPerS2: number[];
+}
+
 /** One mechanism's row of a comparison. */
-export type ComparisonRow = ({ mechanism: Mechanism; ok: true } & KeyFigures) | { mechanism: Mechanism; ok: false; issues: InputIssue[] };
+export type ComparisonRow =
+  | ({ mechanism: Mechanism; ok: true; accelEnvelope: AccelEnvelope } & KeyFigures)
+  | { mechanism: Mechanism; ok: false; issues: InputIssue[] };
 
 /**
  * Extracts the key figures of a result (shared by the comparison and the sweep).
@@ -90,11 +113,14 @@ export function keyFigures(r: DesignResult): KeyFigures {
       x: a.x.speedMaxMPerS,
       y: a.y.speedMaxMPerS,
       diagonal: a.diagonal.speedMaxMPerS,
-      worst: Math.min(...r.envelope.speedMaxMPerS),
+      worst: a.slowest.speedMaxMPerS,
     },
     lowestFrequencyHz: r.stiffness.min.frequencyHz,
+    ringingWorstMm: r.stiffness.ringing.worst.amplitudeMm,
     movingMassKg: { x: r.mass.xKg, y: r.mass.yKg },
     rackingMomentPerNewtonM: r.racking.momentPerNewtonM,
+    rackingPeakMomentNm: r.racking.peakMomentNm,
+    beltCutMm: r.belts.reduce((s, b) => s + b.cutLengthMm, 0),
     motorCount: r.motors.reduce((s, m) => s + m.count, 0),
     warnCount: r.checks.filter((c) => c.severity === 'warn').length,
     failCount: r.checks.filter((c) => c.severity === 'fail').length,
@@ -111,11 +137,20 @@ export function keyFigures(r: DesignResult): KeyFigures {
  */
 export function compareMechanisms(input: unknown): { rows: ComparisonRow[] } {
   const base = parseDesign(input);
-  const rows: ComparisonRow[] = MECHANISMS.map((mechanism) => {
-    const variant = { ...base, mechanism, yMotors: mechanism === 'cartesian' ? base.yMotors : 1 };
-    const parsed = safeParseDesign(variant);
-    if (!parsed.ok) return { mechanism, ok: false as const, issues: parsed.issues };
-    return { mechanism, ok: true as const, ...keyFigures(evaluateValidDesign(parsed.value)) };
-  });
-  return { rows };
+  return { rows: MECHANISMS.map((mechanism) => comparisonRow(base, mechanism)) };
+}
+
+/**
+ * One mechanism's row of a comparison: the same inputs under that mechanism, evaluated.
+ * @param base - a validated design (parseDesign)
+ * @param mechanism - the mechanism to evaluate it as
+ * @returns the key figures and the acceleration envelope, or the issues that keep the frame from taking it
+ */
+export function comparisonRow(base: DesignInput, mechanism: Mechanism): ComparisonRow {
+  const variant = { ...base, mechanism, yMotors: mechanism === 'cartesian' ? base.yMotors : 1 };
+  const parsed = safeParseDesign(variant);
+  if (!parsed.ok) return { mechanism, ok: false as const, issues: parsed.issues };
+  const r = evaluateValidDesign(parsed.value);
+  const accelEnvelope = { directionsDeg: r.envelope.directionsDeg, accelMaxMPerS2: r.envelope.accelMaxMPerS2 };
+  return { mechanism, ok: true as const, accelEnvelope, ...keyFigures(r) };
 }

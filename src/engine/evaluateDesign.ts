@@ -8,6 +8,7 @@ import { fullStepsPerRev } from './drive';
 import { computeEnvelope, motorForcesN, samplePullCurve, scalePullCurve, type EnvelopeInput, type EnvelopeResult } from './envelope';
 import { frameToTravel, type TravelInfo } from './frame';
 import { kinematicsMatrix } from './kinematics';
+import { slowestIndex } from './slowestDirection';
 import { inverse2, type Matrix2 } from './linalg';
 import { effectiveMassKg, movingMassKg, pulleyInertiaEstimateKgM2 } from './mass';
 import { microstepFigures } from './microstep';
@@ -207,20 +208,19 @@ function envelopeSection(d: DesignInput, k: Matrix2, m: MassModel, tq: TorqueSou
     speedMaxMPerS: env.speedMaxMPerS[i],
   });
   let worstI = 0;
-  let slowI = 0;
+  const slowI = slowestIndex(env.speedMaxMPerS);
   let holdI = 0;
   const reachesCruise = env.speedMaxMPerS.every((v) => v >= envIn.cruiseMPerS);
   // Up to cruise the stage must hold the plan at every speed: the lower of the rest and cruise limits.
   const hold = (i: number) => (reachesCruise ? Math.min(env.accelMaxMPerS2[i], env.accelAtCruiseMPerS2[i]) : env.accelMaxMPerS2[i]);
   for (let i = 1; i < n; i++) {
     if (env.accelMaxMPerS2[i] < env.accelMaxMPerS2[worstI] - 1e-12) worstI = i;
-    if (env.speedMaxMPerS[i] < env.speedMaxMPerS[slowI] - 1e-12) slowI = i;
     if (hold(i) < hold(holdI) - 1e-12) holdI = i;
   }
   return {
     envIn,
     env,
-    axes: { x: axis(0), y: axis(n / 4), diagonal: axis(n / 8), worst: axis(worstI) },
+    axes: { x: axis(0), y: axis(n / 4), diagonal: axis(n / 8), worst: axis(worstI), slowest: axis(slowI) },
     bestAccel: Math.max(...env.accelMaxMPerS2),
     holdAccel: { accelMPerS2: hold(holdI), directionDeg: env.directionsDeg[holdI] },
     worstSpeed: { speedMPerS: env.speedMaxMPerS[slowI], directionDeg: env.directionsDeg[slowI] },

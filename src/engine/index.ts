@@ -101,13 +101,17 @@ export type {
 } from './types';
 export {
   compareMechanisms,
+  comparisonRow,
   keyFigures,
   secondLayerFigures,
   type KeyFigures,
   type ComparisonRow,
+  type AccelEnvelope,
   type SecondLayerFigures,
 } from './compareMechanisms';
-export { sweep, type SweepPoint } from './sweep';
+export { sweep, sweepPoint, type SweepPoint } from './sweep';
+export { getAt, setAt, nonGroupStep } from './dottedPath';
+export { slowestDirection, slowestIndex } from './slowestDirection';
 export { beltGeometryAt, type BeltGeometry } from './beltGeometryAt';
 export { layoutDrawing, layoutDrawingAt } from './layoutDrawing';
 export {

@@ -312,7 +312,12 @@ export interface DesignResult {
     accelAtCruiseMPerS2: number[];
     speedMaxMPerS: number[];
     limitingMotor: ('A' | 'B')[];
-    axes: { x: AxisLimits; y: AxisLimits; diagonal: AxisLimits; worst: AxisLimits };
+    /**
+     * Named directions: X, Y, the diagonal, `worst` the direction with the lowest acceleration at rest, and `slowest`
+     * the direction with the lowest top speed — its speed is "top speed, worst direction" (docs/models/envelope.md §3).
+     * `slowest` is absent from results stored before engine 2.2.
+     */
+    axes: { x: AxisLimits; y: AxisLimits; diagonal: AxisLimits; worst: AxisLimits; slowest: AxisLimits };
     cruiseSpeedMPerS: number;
   };
   coupling: {

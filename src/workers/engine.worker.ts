@@ -1,6 +1,6 @@
 /// <reference lib="webworker" />
-import type { DesignResult } from '@/engine';
-import { compareOutcomes, evaluateOutcome, sweepPoint, warmEngine } from './engineTasks';
+import { sweepPoint, type DesignResult, type SweepPoint } from '@/engine';
+import { compareRows, evaluateOutcome, sweepBase, warmEngine } from './engineTasks';
 import type { EngineRequest, EngineResponse } from './engineProtocol';
 import { packResult } from './resultParts';
 
@@ -54,11 +54,12 @@ scope.onmessage = async (event: MessageEvent<EngineRequest>) => {
       return;
     }
     if (msg.type === 'compare') {
-      reply({ type: 'compare', id: msg.id, columns: compareOutcomes(msg.design) });
+      reply({ type: 'compare', id: msg.id, rows: compareRows(msg.design) });
       return;
     }
     if (msg.type === 'sweep') {
-      const points = [];
+      const base = sweepBase(msg.design);
+      const points: SweepPoint[] = [];
       for (let i = 0; i < msg.spec.values.length; i++) {
         await nextTurn();
         if (cancelled.has(msg.id)) {
@@ -66,7 +67,7 @@ scope.onmessage = async (event: MessageEvent<EngineRequest>) => {
           reply({ type: 'cancelled', id: msg.id });
           return;
         }
-        const point = sweepPoint(msg.design, msg.spec.path, msg.spec.values[i]);
+        const point = sweepPoint(base, msg.spec.path, msg.spec.values[i]);
         points.push(point);
         reply({ type: 'progress', id: msg.id, done: i + 1, total: msg.spec.values.length, point });
       }

@@ -1,16 +1,8 @@
-import {
-  compareOutcomes,
-  evaluateOutcome,
-  sweepPoint,
-  type CompareColumn,
-  type Outcome,
-  type SweepPoint,
-  type SweepSpec,
-} from './engineTasks';
+import { compareRows, evaluateOutcome, sweepBase, type Outcome, type SweepSpec } from './engineTasks';
 import type { EngineRequest, EngineResponse } from './engineProtocol';
 import { RESULT_PARTS, unpackResult, type PackedParts, type ResultPart } from './resultParts';
 import { warmEngine } from './engineTasks';
-import type { DesignResult } from '@/engine';
+import { sweepPoint, type ComparisonRow, type DesignResult, type SweepPoint } from '@/engine';
 
 /** Progress callback of a sweep. */
 export type SweepProgress = (done: number, total: number, point: SweepPoint) => void;
@@ -40,7 +32,7 @@ export interface EngineRunner {
   /** Loads and compiles the engine ahead of the first evaluation. */
   warm?(): Promise<void>;
   /** Evaluates the design under every mechanism. */
-  compare(design: Record<string, unknown>): Promise<CompareColumn[]>;
+  compare(design: Record<string, unknown>): Promise<ComparisonRow[]>;
   /** Evaluates the design at each value of one input, reporting progress; rejects with AbortError when aborted. */
   sweep(design: Record<string, unknown>, spec: SweepSpec, onProgress?: SweepProgress, signal?: AbortSignal): Promise<SweepPoint[]>;
 }
@@ -72,14 +64,15 @@ function inlineRunner(): EngineRunner {
     },
     async compare(design) {
       await nextTurn();
-      return compareOutcomes(design);
+      return compareRows(design);
     },
     async sweep(design, spec, onProgress, signal) {
+      const base = sweepBase(design);
       const points: SweepPoint[] = [];
       for (let i = 0; i < spec.values.length; i++) {
         await nextTurn();
         if (signal?.aborted) throw abortError();
-        const point = sweepPoint(design, spec.path, spec.values[i]);
+        const point = sweepPoint(base, spec.path, spec.values[i]);
         points.push(point);
         onProgress?.(i + 1, spec.values.length, point);
       }
@@ -134,7 +127,7 @@ function workerRunner(worker: Worker): EngineRunner {
         return;
       case 'compare':
         pending.delete(msg.id);
-        (p.resolve as (v: CompareColumn[]) => void)(msg.columns);
+        (p.resolve as (v: ComparisonRow[]) => void)(msg.rows);
         return;
       case 'sweep':
         pending.delete(msg.id);
@@ -196,7 +189,7 @@ function workerRunner(worker: Worker): EngineRunner {
     },
     compare(design) {
       if (fallback) return fallback.compare(design);
-      return send<CompareColumn[]>({ type: 'compare', id: nextId++, design });
+      return send<ComparisonRow[]>({ type: 'compare', id: nextId++, design });
     },
     sweep(design, spec, onProgress, signal) {
       if (fallback) return fallback.sweep(design, spec, onProgress, signal);

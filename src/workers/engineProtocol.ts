@@ -1,5 +1,5 @@
-import type { DesignResult } from '@/engine';
-import type { CompareColumn, Outcome, SweepPoint, SweepSpec } from './engineTasks';
+import type { ComparisonRow, DesignResult, SweepPoint } from '@/engine';
+import type { Outcome, SweepSpec } from './engineTasks';
 import type { PackedParts, ResultPart } from './resultParts';
 
 /** Messages the page sends to the engine worker. */
@@ -24,7 +24,7 @@ export type EngineResponse =
   | { type: 'evaluate'; id: number; outcome: Outcome; packed?: PackedParts }
   | { type: 'parts'; id: number; packed: PackedParts | null }
   | { type: 'warm'; id: number }
-  | { type: 'compare'; id: number; columns: CompareColumn[] }
+  | { type: 'compare'; id: number; rows: ComparisonRow[] }
   | { type: 'progress'; id: number; done: number; total: number; point: SweepPoint }
   | { type: 'sweep'; id: number; points: SweepPoint[] }
   | { type: 'cancelled'; id: number }

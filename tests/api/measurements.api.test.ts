@@ -4,7 +4,7 @@ import path from 'node:path';
 import { createHash } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { DesignResult } from '@/engine';
+import { tensionFromFrequencyN, type DesignResult } from '@/engine';
 import { createApp } from '../../server/app';
 import { resetConfigCache } from '../../server/config';
 import { closeSequelize } from '../../server/db';
@@ -49,21 +49,22 @@ const sha256 = (bytes: Buffer) => createHash('sha256').update(bytes).digest('hex
 const spanOf = (result: DesignResult, id: string) => result.belts.flatMap((b) => b.spans).find((s) => s.id === id)!;
 
 /**
- * Span tension from the pluck frequency by the string law T = 4·μ·L²·f² (Mersenne's laws; Halliday, Resnick &
- * Walker, Fundamentals of Physics, ch. 16 "Waves — I": v = √(τ/μ), f₁ = v/(2L) — chapter from memory).
+ * Published case STR-T-FROM-F (reference/halliday-resnick-walker/span-tension.json; Halliday, Resnick & Walker,
+ * Fundamentals of Physics, ch. 16): a 350 mm span of 0.0075 kg/m sounding at 95 Hz carries 33.1669 N.
  */
-const stringLawN = (muKgPerM: number, lengthMm: number, fHz: number) => 4 * muKgPerM * (lengthMm / 1000) ** 2 * fHz ** 2;
+const PUBLISHED = { spanMm: 350, frequencyHz: 95, linearMassKgPerM: 0.0075, tensionN: 33.1669 };
 
 async function rowsOf(sheetId: number): Promise<number> {
   return Measurement.count({ where: { sheetId } });
 }
 
 describe('POST /api/sheets/:id/measurements (typed)', () => {
-  it('when a maker types a frequency for the reference span, then 201 with the string-law tension, target and deviation, and GET lists it as the latest', async () => {
-    // Arrange
+  it('when a maker types a frequency for the reference span, then 201 with the published string-law tension, target and deviation, and GET lists it as the latest', async () => {
+    // Arrange: the belt is the published case's (0.0075 kg/m); the same tension sounds at 95 Hz × 350 mm / L on a
+    // span of length L (T = 4·μ·L²·f² depends on L·f only), so the API must report the published 33.1669 N.
     const span = spanOf(corexy.result, corexy.result.belts[0].referenceSpanId!);
-    const mu = corexy.inputs.belt.linearMassKgPerM;
-    const frequencyHz = 95;
+    expect(corexy.inputs.belt.linearMassKgPerM).toBe(PUBLISHED.linearMassKgPerM);
+    const frequencyHz = (PUBLISHED.frequencyHz * PUBLISHED.spanMm) / span.lengthMm;
     // Act
     const res = await agents.maker.post(`/api/sheets/${corexy.sheetId}/measurements`).send({ spanId: span.id, frequencyHz });
     const list = await agents.designer.get(`/api/sheets/${corexy.sheetId}/measurements`);
@@ -80,20 +81,15 @@ describe('POST /api/sheets/:id/measurements (typed)', () => {
       frequencyHz,
     });
     expect(res.body.spanLengthMm).toBeCloseTo(span.lengthMm, 9);
-    expect(res.body.tensionN).toBeCloseTo(stringLawN(mu, span.lengthMm, frequencyHz), 9);
+    expect(res.body.tensionN).toBeCloseTo(PUBLISHED.tensionN, 3);
     expect(res.body.targetFrequencyHz).toBeCloseTo(span.targetFrequencyHz, 9);
     // The target frequency was computed from the design pretension, so the target tension is that pretension.
     expect(res.body.targetTensionN).toBeCloseTo(corexy.inputs.pretensionN, 6);
-    expect(res.body.deviationPct).toBeCloseTo(((res.body.tensionN - res.body.targetTensionN) / res.body.targetTensionN) * 100, 9);
+    expect(res.body.deviationPct).toBeCloseTo(((PUBLISHED.tensionN - corexy.inputs.pretensionN) / corexy.inputs.pretensionN) * 100, 2);
     expect(list.status).toBe(200);
     const summary = list.body.spans.find((s: { spanId: string }) => s.spanId === span.id);
     expect(summary).toMatchObject({ beltId: 'A', isReference: true, latest: { id: res.body.id, tensionN: res.body.tensionN }, count: 1 });
     expect(list.body.items.map((m: { id: number }) => m.id)).toContain(res.body.id);
-  });
-
-  it('when checked against the published case STR-T-FROM-F (μ 0.0075 kg/m, L 0.35 m, f 95 Hz → 33.1669 N), then the string law used matches it', () => {
-    // Halliday, Resnick & Walker, Fundamentals of Physics, ch. 16 (string resonance); reference case from reference/README.md (halliday-resnick-walker).
-    expect(stringLawN(0.0075, 350, 95)).toBeCloseTo(33.1669, 3);
   });
 
   it('when a frequency arrives as multipart text with a decimal comma, then it is read as a number', async () => {
@@ -130,7 +126,13 @@ describe('POST /api/sheets/:id/measurements (recording)', () => {
     expect(res.status).toBe(201);
     expect(res.body.source).toBe('recording');
     expect(Math.abs(res.body.frequencyHz - f0)).toBeLessThan(0.5);
-    expect(res.body.tensionN).toBeCloseTo(stringLawN(corexy.inputs.belt.linearMassKgPerM, span.lengthMm, res.body.frequencyHz), 9);
+    // The engine's string law, itself checked against the published case in tests/unit/engine/tension.test.ts
+    const engineTensionN = tensionFromFrequencyN({
+      frequencyHz: res.body.frequencyHz,
+      linearMassKgPerM: corexy.inputs.belt.linearMassKgPerM,
+      spanMm: span.lengthMm,
+    });
+    expect(res.body.tensionN).toBeCloseTo(engineTensionN, 9);
     expect(res.body.confidence).toBeGreaterThan(0.5);
     expect(res.body.confidence).toBeLessThanOrEqual(1);
     expect(res.body.spectrum.frequencyHz.length).toBe(res.body.spectrum.magnitudeDb.length);

@@ -1,5 +1,5 @@
 import type { BeltPart, MotorPart, PulleyPart } from '@/api/parts';
-import { getAt } from './paths';
+import { getAt } from '@/engine';
 
 /** The parts of the shelf the Design desk offers. */
 export interface Shelf {

@@ -1,17 +1,16 @@
 import { onScopeDispose, ref, shallowRef, watch, type Ref } from 'vue';
-import { safeParseDesign } from '@/engine';
+import { safeParseDesign, type ComparisonRow } from '@/engine';
 import { getEngineRunner, type EngineRunner } from '@/workers/engineClient';
-import type { CompareColumn } from '@/workers/engineTasks';
 
 /**
- * The same inputs evaluated under every mechanism, refreshed while the Compare tab is open and the inputs are
+ * The same inputs evaluated under every mechanism (the engine's compareMechanisms, run in the worker), refreshed while the Compare tab is open and the inputs are
  * valid (a short quiet time after the last change).
  * @param source - getter of the design being edited
  * @param isActive - true while the Compare tab shows
  * @param runner - engine runner (tests pass the main-thread one)
  */
 export function useCompare(source: () => unknown, isActive: Ref<boolean>, runner: EngineRunner = getEngineRunner()) {
-  const columns = shallowRef<CompareColumn[] | null>(null);
+  const columns = shallowRef<ComparisonRow[] | null>(null);
   const isRunning = ref(false);
   const error = ref<string | null>(null);
   let timer: ReturnType<typeof setTimeout> | null = null;

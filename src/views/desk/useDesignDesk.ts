@@ -2,14 +2,13 @@ import { computed, ref, shallowRef, watch, type Ref } from 'vue';
 import { storeToRefs } from 'pinia';
 import { getDesign, updateDesign, type Design } from '@/api/designs';
 import { isApiError } from '@/api/http';
-import { safeParseDesign, type DesignInputRaw, type Mechanism } from '@/engine';
+import { getAt, safeParseDesign, setAt, type DesignInputRaw, type Mechanism } from '@/engine';
 import { useAutosave } from '@/composables/useAutosave';
 import { useEngine } from '@/composables/useEngine';
 import { getEngineRunner } from '@/workers/engineClient';
 import type { ResultPart } from '@/workers/resultParts';
 import { useAuthStore } from '@/stores/auth';
 import { errorMessage } from '@/utils/message';
-import { getAt, setAt } from './paths';
 
 /** A design document being edited (loosely typed: values may be NaN or null while someone types). */
 export type EditableDesign = Record<string, unknown> & { name: string; mechanism: Mechanism };

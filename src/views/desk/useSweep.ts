@@ -1,9 +1,7 @@
 import { computed, onScopeDispose, ref, shallowRef } from 'vue';
-import { safeParseDesign } from '@/engine';
+import { getAt, safeParseDesign, type SweepPoint } from '@/engine';
 import { getEngineRunner, type EngineRunner } from '@/workers/engineClient';
-import type { SweepPoint } from '@/workers/engineTasks';
 import { SWEEPABLE_FIELDS, type FieldDef } from './fields';
-import { getAt } from './paths';
 
 /** Most points one sweep may have. */
 export const SWEEP_MAX_STEPS = 60;
@@ -29,7 +27,7 @@ export function sweepValues(from: number, to: number, steps: number, isInteger =
 
 /**
  * The Sweep tab: choose one numeric input, a range and a number of steps, run the engine at each point (in the
- * worker, point by point, with progress) and keep the points for the plots. A run can be stopped.
+ * worker, point by point through the engine's sweepPoint, with progress) and keep the points for the plots. A run can be stopped.
  * @param source - getter of the design being edited
  * @param runner - engine runner (tests pass the main-thread one)
  */

@@ -1,3 +1,4 @@
+import net from 'node:net';
 import type { Sequelize, Transaction } from 'sequelize';
 import { describe, expect, it } from 'vitest';
 import {
@@ -268,18 +269,36 @@ describe('createSequelize', () => {
     await db.close();
   });
 
-  it('when several cluster nodes are configured, then connections go through the failover driver', async () => {
+  it('when several cluster nodes are configured and the first refuses, then the connection is tried on the second', async () => {
+    // Arrange: the first node's port has nobody listening; the second is a bare TCP listener that notes the call and hangs up
+    const closed = net.createServer();
+    await new Promise<void>((resolve) => closed.listen(0, '127.0.0.1', resolve));
+    const refusedPort = (closed.address() as net.AddressInfo).port;
+    await new Promise<void>((resolve) => closed.close(() => resolve()));
+    let reached = 0;
+    const listener = net.createServer((socket) => {
+      reached++;
+      socket.destroy();
+    });
+    await new Promise<void>((resolve) => listener.listen(0, '127.0.0.1', resolve));
+    const listeningPort = (listener.address() as net.AddressInfo).port;
     const db = createSequelize({
       ...base,
       nodes: [
-        { host: '127.0.0.1', port: 4621 },
-        { host: '127.0.0.1', port: 4622 },
+        { host: '127.0.0.1', port: refusedPort },
+        { host: '127.0.0.1', port: listeningPort },
       ],
     });
-    expect(typeof (db.options as { dialectModule?: { createConnection?: unknown } }).dialectModule?.createConnection).toBe('function');
+    const driver = (db.options as { dialectModule?: { createConnection: (c: object) => Promise<unknown> } }).dialectModule!;
+    // Act: the listener hangs up without a greeting, so the attempt fails after reaching it
+    const outcome = await driver.createConnection({ user: 'x', password: 'y', database: 'z' }).catch((err: Error) => err);
+    // Assert
+    expect(outcome).toBeInstanceOf(Error);
+    expect(reached).toBe(1);
     expect(db.options.replication).toBeFalsy();
+    await new Promise<void>((resolve) => listener.close(() => resolve()));
     await db.close();
-  });
+  }, 15_000);
 
   it('when one server is configured, then the stock driver is used', async () => {
     const db = createSequelize(base);

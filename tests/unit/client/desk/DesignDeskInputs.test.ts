@@ -3,10 +3,9 @@ import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { computed, defineComponent, h, reactive } from 'vue';
 import { flushPromises, mount } from '@vue/test-utils';
 import { createPinia, setActivePinia } from 'pinia';
-import { defaultDesign, designInputSchema, safeParseDesign } from '@/engine';
+import { defaultDesign, designInputSchema, safeParseDesign, setAt } from '@/engine';
 import { formIssues } from '@/composables/useEngine';
 import DesignDeskInputs from '@/views/desk/DesignDeskInputs.vue';
-import { setAt } from '@/views/desk/paths';
 
 /**
  * The form as the Design desk wires it: the design document in a reactive object, field messages from the shared

@@ -84,7 +84,7 @@ describe('renderSheet', () => {
     expect(flat).toContain(`Set every span to ${formatNumber(input.inputs.pretensionN, 3)} N`);
   });
 
-  it('when the text is extracted, then the limits along X, Y, the diagonal and the worst direction and the lowest resonance are printed, and no internal check id', () => {
+  it('when the text is extracted, then the limits along X, Y, the diagonal, the worst directions for acceleration and for speed and the lowest resonance are printed, and no internal check id', () => {
     const flat = poppler('pdftotext', a4, '-layout').replace(/\s+/g, ' ');
     const { axes } = input.result.envelope;
     const three = (v: number) => formatNumber(v, 3);
@@ -93,7 +93,10 @@ describe('renderSheet', () => {
     );
     expect(flat).toContain(`Along Y 90 ${three(axes.y.accelMaxMPerS2)}`);
     expect(flat).toContain(`Along the diagonal 45 ${three(axes.diagonal.accelMaxMPerS2)}`);
-    expect(flat).toContain(`Worst direction ${axes.worst.directionDeg} ${three(axes.worst.accelMaxMPerS2)}`);
+    expect(flat).toContain(`Worst for acceleration ${axes.worst.directionDeg} ${three(axes.worst.accelMaxMPerS2)}`);
+    // The worst speed is the lowest over all directions (docs/models/envelope.md §3): on this CoreXY the diagonal's.
+    expect(flat).toContain(`Worst for speed 45 ${three(axes.diagonal.accelMaxMPerS2)}`);
+    expect(flat).toMatch(new RegExp(`Worst for speed 45 \\S+ \\S+ ${three(axes.diagonal.speedMaxMPerS * 1000)}`));
     expect(flat).toContain(`${input.result.stiffness.min.frequencyHz.toFixed(1)} Hz`);
     for (const check of input.result.checks) if (check.subject) expect(flat).toContain(check.subject);
     // fix: #13 internal check ids stay off the sheet

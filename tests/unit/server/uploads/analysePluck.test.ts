@@ -3,6 +3,7 @@
  * mains hum) written with wavefile in every accepted format, and the bad recordings a maker may upload.
  */
 import { describe, expect, it } from 'vitest';
+import { spanFrequencyHz, tensionFromFrequencyN } from '@/engine';
 import { analysePluck, PluckError, type PluckAnalysis } from '../../../../server/uploads';
 import { expectWithinTolerance, loadReference, referenceCases } from '../../../helpers/loadReference';
 import { gaussian, synthSamples, synthWav, typicalPluck, writeWav, type BitDepth, type RecordingSpec } from './synthRecording';
@@ -187,9 +188,13 @@ describe('analysePluck', { timeout: 30_000 }, () => {
   });
 
   describe('string law (Halliday–Resnick–Walker, Fundamentals of Physics, transverse waves on a string; chapter from memory)', () => {
-    // f = (1/(2L))·√(T/μ) and its inverse T = 4·μ·L²·f² (Mersenne's laws), kept local: the engine owns the product version.
-    const frequencyOf = (tensionN: number, muKgPerM: number, spanM: number): number => Math.sqrt(tensionN / muKgPerM) / (2 * spanM);
-    const tensionOf = (frequencyHz: number, muKgPerM: number, spanM: number): number => 4 * muKgPerM * spanM ** 2 * frequencyHz ** 2;
+    // The product's string law, f = (1/(2L))·√(T/μ) and T = 4·μ·L²·f² (the engine's, itself checked against the
+    // published case in tests/unit/engine/tension.test.ts), so these tests follow the product's chain: tension →
+    // pluck → analysis → tension.
+    const frequencyOf = (tensionN: number, muKgPerM: number, spanM: number): number =>
+      spanFrequencyHz({ tensionN, linearMassKgPerM: muKgPerM, spanMm: spanM * 1000 });
+    const tensionOf = (frequencyHz: number, muKgPerM: number, spanM: number): number =>
+      tensionFromFrequencyN({ frequencyHz, linearMassKgPerM: muKgPerM, spanMm: spanM * 1000 });
 
     // [tension N, μ kg/m, span m]; μ ≈ 7.5–8.5 g/m is a 6 mm glass-cord belt (from memory).
     const cases: Array<[number, number, number]> = [
