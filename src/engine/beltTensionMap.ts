@@ -53,7 +53,7 @@ export interface BeltTensionInput {
  * @see A. M. Andrew, "Another efficient algorithm for convex hulls in two dimensions", Inf. Proc. Letters 9 (1979) (from memory)
  */
 export function convexHullIndices(xs: ArrayLike<number>, ys: ArrayLike<number>): number[] {
-  const idx = Array.from({ length: xs.length }, (_, i) => i).sort((i, j) => xs[i] - xs[j] || ys[i] - ys[j]);
+  const idx = interiorCulled(xs, ys).sort((i, j) => xs[i] - xs[j] || ys[i] - ys[j]);
   if (idx.length < 3) return idx;
   const cross = (o: number, a: number, b: number) => (xs[a] - xs[o]) * (ys[b] - ys[o]) - (ys[a] - ys[o]) * (xs[b] - xs[o]);
   const lower: number[] = [];
@@ -70,6 +70,44 @@ export function convexHullIndices(xs: ArrayLike<number>, ys: ArrayLike<number>):
   lower.pop();
   upper.pop();
   return lower.concat(upper);
+}
+
+/**
+ * Indices of the points that may lie on the hull, in their original order: points well inside the quadrilateral
+ * of the leftmost, lowest, rightmost and highest points are left out (they can be neither vertices nor decide
+ * which of two equal points stays), so the sort and the chain see a few dozen points instead of every pull pair.
+ * Points within a round-off band of an edge are kept.
+ * @see S. G. Akl and G. T. Toussaint, "A fast convex hull algorithm", Inf. Proc. Letters 7 (1978) (from memory)
+ */
+function interiorCulled(xs: ArrayLike<number>, ys: ArrayLike<number>): number[] {
+  const n = xs.length;
+  if (n < 8) return Array.from({ length: n }, (_, i) => i);
+  let l = 0;
+  let r = 0;
+  let b = 0;
+  let t = 0;
+  let scale = 0;
+  for (let i = 1; i < n; i++) {
+    if (xs[i] < xs[l]) l = i;
+    if (xs[i] > xs[r]) r = i;
+    if (ys[i] < ys[b]) b = i;
+    if (ys[i] > ys[t]) t = i;
+  }
+  for (let i = 0; i < n; i++) scale = Math.max(scale, Math.abs(xs[i]), Math.abs(ys[i]));
+  // Twice a triangle's area is ≤ 4·scale²; a margin far above round-off of such products and far below any real area.
+  const eps = 1e-9 * scale * scale;
+  const quad = [l, b, r, t];
+  const keep: number[] = [];
+  for (let i = 0; i < n; i++) {
+    let inside = true;
+    for (let e = 0; e < 4 && inside; e++) {
+      const o = quad[e];
+      const a = quad[(e + 1) % 4];
+      inside = (xs[a] - xs[o]) * (ys[i] - ys[o]) - (ys[a] - ys[o]) * (xs[i] - xs[o]) > eps;
+    }
+    if (!inside) keep.push(i);
+  }
+  return keep;
 }
 
 /** One loop prepared for the grid: affine piece lengths and, per piece, S coefficients per coordinate. */
@@ -144,16 +182,16 @@ export function beltTensionOverTravel(inp: BeltTensionInput): LoopTensionResult[
   nodesPerCoord[0] = Math.max(1, nodesPerCoord[0]);
   nodesPerCoord[1] = Math.max(1, nodesPerCoord[1]);
   const { aN, bN, directionDeg } = inp.pairs;
-  const hull = convexHullIndices(aN, bN);
+  const prepared = inp.models.map((model) => prepareLoop(model, inp, nodesPerCoord));
+  // Only a loop pulled by both coordinates needs the hull (the H loop); the others take one coordinate's extremes.
+  const hull = prepared.some((p) => p.usesA && p.usesB) ? convexHullIndices(aN, bN) : [];
   let maxAbsA = 0;
   let maxAbsB = 0;
   for (let i = 0; i < aN.length; i++) {
     maxAbsA = Math.max(maxAbsA, Math.abs(aN[i]));
     maxAbsB = Math.max(maxAbsB, Math.abs(bN[i]));
   }
-  return inp.models.map((model) =>
-    loopOverTravel(model, prepareLoop(model, inp, nodesPerCoord), inp, hull, [maxAbsA, maxAbsB], directionDeg),
-  );
+  return inp.models.map((model, i) => loopOverTravel(model, prepared[i], inp, hull, [maxAbsA, maxAbsB], directionDeg));
 }
 
 /** Index of the extreme vertex (sign 1: largest, −1: smallest) of ca·x + cb·y, walking from `j` round the polygon. */
@@ -188,6 +226,130 @@ function loopVertices(p: PreparedLoop, pairs: PullPairs, hull: number[]): number
   return [lo, hi];
 }
 
+/**
+ * Where a loop's share of the pull sits at a carriage position: u = Σ Lᵢ·Sᵢ / Σ Lᵢ per coordinate. Piece lengths
+ * are affine in the position, so u is a ratio of two affine functions; their coefficients are summed once.
+ */
+interface ShareRatio {
+  l0: number;
+  lx: number;
+  ly: number;
+  /** Numerators per coordinate: constant, X and Y coefficients. */
+  a0: number;
+  ax: number;
+  ay: number;
+  b0: number;
+  bx: number;
+  by: number;
+}
+
+function shareRatio(p: PreparedLoop): ShareRatio {
+  const r: ShareRatio = { l0: 0, lx: 0, ly: 0, a0: 0, ax: 0, ay: 0, b0: 0, bx: 0, by: 0 };
+  for (let i = 0; i < p.l0.length; i++) {
+    r.l0 += p.l0[i];
+    r.lx += p.gx[i];
+    r.ly += p.gy[i];
+    r.a0 += p.l0[i] * p.sA[i];
+    r.ax += p.gx[i] * p.sA[i];
+    r.ay += p.gy[i] * p.sA[i];
+    r.b0 += p.l0[i] * p.sB[i];
+    r.bx += p.gx[i] * p.sB[i];
+    r.by += p.gy[i] * p.sB[i];
+  }
+  return r;
+}
+
+/** Highest and lowest tension change of any piece at one grid point, and the vertex (index into the loop's vertices) of each. */
+interface PointExtremes {
+  hi: number;
+  lo: number;
+  hiV: number;
+  loV: number;
+}
+
+/**
+ * Extremes at one point of a loop pulled by one coordinate: a piece's change is c·F with c = u − Sᵢ, largest at
+ * the larger pull when c ≥ 0 and at the smaller one otherwise (`f` holds the smaller and the larger pull).
+ */
+function singleExtremes(s: Float64Array, u: number, f: Float64Array, e: PointExtremes): void {
+  const f0 = f[0];
+  const f1 = f[1];
+  let hi = -Infinity;
+  let lo = Infinity;
+  let hiV = 0;
+  let loV = 0;
+  for (let i = 0; i < s.length; i++) {
+    const c = u - s[i];
+    const up = c >= 0;
+    const th = c * (up ? f1 : f0);
+    const tl = c * (up ? f0 : f1);
+    if (th > hi) {
+      hi = th;
+      hiV = up ? 1 : 0;
+    }
+    if (tl < lo) {
+      lo = tl;
+      loV = up ? 0 : 1;
+    }
+  }
+  e.hi = hi;
+  e.lo = lo;
+  e.hiV = hiV;
+  e.loV = loV;
+}
+
+/**
+ * Extremes at one point of a loop pulled by both coordinates: a piece's change is ca·F_A + cb·F_B, linear over the
+ * hull of the pull pairs. Along a convex polygon's boundary it rises to one maximum and falls to one minimum, so a
+ * walk from the previous grid point's extreme vertex (`start`, the coefficients change little) finds the new one.
+ */
+function hullExtremes(
+  p: PreparedLoop,
+  uA: number,
+  uB: number,
+  va: Float64Array,
+  vb: Float64Array,
+  start: Int32Array,
+  e: PointExtremes,
+): void {
+  const nv = va.length;
+  let hi = -Infinity;
+  let lo = Infinity;
+  let hiV = 0;
+  let loV = 0;
+  for (let i = 0; i < p.sA.length; i++) {
+    const ca = uA - p.sA[i];
+    const cb = uB - p.sB[i];
+    let jh: number;
+    let jl: number;
+    if (nv > 2) {
+      jh = climb(va, vb, ca, cb, start[2 * i], 1);
+      jl = climb(va, vb, ca, cb, start[2 * i + 1], -1);
+    } else {
+      // A degenerate hull (every pull pair on one line): compare its ends.
+      const up = nv === 2 && ca * va[1] + cb * vb[1] > ca * va[0] + cb * vb[0];
+      jh = up ? 1 : 0;
+      jl = nv === 2 && !up ? 1 : 0;
+    }
+    start[2 * i] = jh;
+    start[2 * i + 1] = jl;
+    const th = ca * va[jh] + cb * vb[jh];
+    const tl = ca * va[jl] + cb * vb[jl];
+    if (th > hi) {
+      hi = th;
+      hiV = jh;
+    }
+    if (tl < lo) {
+      lo = tl;
+      loV = jl;
+    }
+  }
+  e.hi = hi;
+  e.lo = lo;
+  e.hiV = hiV;
+  e.loV = loV;
+}
+
 function loopOverTravel(
   model: LoopModel,
   p: PreparedLoop,
@@ -197,113 +359,66 @@ function loopOverTravel(
   directionDeg: Float64Array,
 ): LoopTensionResult {
   const verts = loopVertices(p, inp.pairs, hull);
-  const nv = verts.length;
   const va = Float64Array.from(verts, (v) => inp.pairs.aN[v]);
   const vb = Float64Array.from(verts, (v) => inp.pairs.bN[v]);
   const single = !(p.usesA && p.usesB);
   // In a loop pulled by one coordinate only that coordinate's pull matters (the other's coefficients are 0).
   const fv = p.usesB ? vb : va;
-  const n = p.l0.length;
-  // Piece lengths are affine in the carriage position, so u = Σ Lᵢ·Sᵢ / Σ Lᵢ is a ratio of two affine functions.
-  let l0 = 0;
-  let lx = 0;
-  let ly = 0;
-  const nA = [0, 0, 0];
-  const nB = [0, 0, 0];
-  for (let i = 0; i < n; i++) {
-    l0 += p.l0[i];
-    lx += p.gx[i];
-    ly += p.gy[i];
-    nA[0] += p.l0[i] * p.sA[i];
-    nA[1] += p.gx[i] * p.sA[i];
-    nA[2] += p.gy[i] * p.sA[i];
-    nB[0] += p.l0[i] * p.sB[i];
-    nB[1] += p.gx[i] * p.sB[i];
-    nB[2] += p.gy[i] * p.sB[i];
-  }
-  const start = new Int32Array(2 * n);
+  const sv = p.usesB ? p.sB : p.sA;
+  const r = shareRatio(p);
+  const start = new Int32Array(2 * p.l0.length);
+  const e: PointExtremes = { hi: 0, lo: 0, hiV: 0, loV: 0 };
   const t0 = inp.pretensionN;
+  const nx = inp.xMm.length;
   let worstTight = -Infinity;
   let worstSlack = Infinity;
-  let tightAt = { ix: 0, iy: 0, v: verts[0] };
-  let slackAt = { ix: 0, iy: 0, v: verts[0] };
+  let tightAt = -1;
+  let slackAt = -1;
+  let tightV = 0;
+  let slackV = 0;
   const tightMap: number[][] = [];
   const slackMap: number[][] = [];
   for (let iy = 0; iy < inp.yMm.length; iy++) {
     const cy = inp.originYMm + inp.yMm[iy];
-    const tRow = new Array<number>(inp.xMm.length);
-    const sRow = new Array<number>(inp.xMm.length);
-    for (let ix = 0; ix < inp.xMm.length; ix++) {
+    const tRow = new Array<number>(nx);
+    const sRow = new Array<number>(nx);
+    for (let ix = 0; ix < nx; ix++) {
       const cx = inp.originXMm + inp.xMm[ix];
-      const total = l0 + lx * cx + ly * cy;
-      const uA = (nA[0] + nA[1] * cx + nA[2] * cy) / total;
-      const uB = (nB[0] + nB[1] * cx + nB[2] * cy) / total;
-      let hiHere = -Infinity;
-      let loHere = Infinity;
-      let hiV = 0;
-      let loV = 0;
-      for (let i = 0; i < n; i++) {
-        const ca = uA - p.sA[i];
-        const cb = uB - p.sB[i];
-        let jh: number;
-        let jl: number;
-        if (single) {
-          // c·F is largest at the larger pull when c ≥ 0, at the smaller one otherwise.
-          const c = p.usesB ? cb : ca;
-          jh = c >= 0 ? 1 : 0;
-          jl = 1 - jh;
-        } else {
-          // A linear function along a convex polygon's boundary rises to one maximum and falls to one minimum, so a
-          // walk from the previous grid point's extreme vertex (the coefficients change little) finds the new one.
-          if (nv > 2) {
-            jh = climb(va, vb, ca, cb, start[2 * i], 1);
-            jl = climb(va, vb, ca, cb, start[2 * i + 1], -1);
-          } else {
-            // A degenerate hull (every pull pair on one line): compare its ends.
-            const up = nv === 2 && ca * va[1] + cb * vb[1] > ca * va[0] + cb * vb[0];
-            jh = up ? 1 : 0;
-            jl = nv === 2 && !up ? 1 : 0;
-          }
-          start[2 * i] = jh;
-          start[2 * i + 1] = jl;
-        }
-        const th = single ? (p.usesB ? cb : ca) * fv[jh] : ca * va[jh] + cb * vb[jh];
-        const tl = single ? (p.usesB ? cb : ca) * fv[jl] : ca * va[jl] + cb * vb[jl];
-        if (th > hiHere) {
-          hiHere = th;
-          hiV = jh;
-        }
-        if (tl < loHere) {
-          loHere = tl;
-          loV = jl;
-        }
+      const total = r.l0 + r.lx * cx + r.ly * cy;
+      if (single) {
+        const u = p.usesB ? (r.b0 + r.bx * cx + r.by * cy) / total : (r.a0 + r.ax * cx + r.ay * cy) / total;
+        singleExtremes(sv, u, fv, e);
+      } else {
+        hullExtremes(p, (r.a0 + r.ax * cx + r.ay * cy) / total, (r.b0 + r.bx * cx + r.by * cy) / total, va, vb, start, e);
       }
-      tRow[ix] = Math.round((t0 + hiHere) * 100) / 100;
-      sRow[ix] = Math.round((t0 + loHere) * 100) / 100;
-      if (t0 + hiHere > worstTight + 1e-9) {
-        worstTight = t0 + hiHere;
-        tightAt = { ix, iy, v: verts[hiV] };
+      tRow[ix] = Math.round((t0 + e.hi) * 100) / 100;
+      sRow[ix] = Math.round((t0 + e.lo) * 100) / 100;
+      if (t0 + e.hi > worstTight + 1e-9) {
+        worstTight = t0 + e.hi;
+        tightAt = iy * nx + ix;
+        tightV = verts[e.hiV];
       }
-      if (t0 + loHere < worstSlack - 1e-9) {
-        worstSlack = t0 + loHere;
-        slackAt = { ix, iy, v: verts[loV] };
+      if (t0 + e.lo < worstSlack - 1e-9) {
+        worstSlack = t0 + e.lo;
+        slackAt = iy * nx + ix;
+        slackV = verts[e.loV];
       }
     }
     tightMap.push(tRow);
     slackMap.push(sRow);
   }
-  const place = (w: { ix: number; iy: number; v: number }): TensionPlace => ({
-    xMm: inp.xMm[w.ix],
-    yMm: inp.yMm[w.iy],
-    directionDeg: directionDeg[w.v],
+  const place = (at: number, v: number): TensionPlace => ({
+    xMm: inp.xMm[at < 0 ? 0 : at % nx],
+    yMm: inp.yMm[at < 0 ? 0 : Math.floor(at / nx)],
+    directionDeg: directionDeg[v],
   });
   return {
     loopId: model.loopId,
     peakPullN: Math.max(p.shareA * maxAbs[0], p.shareB * maxAbs[1]),
     worstTightN: worstTight,
-    worstTightAt: place(tightAt),
+    worstTightAt: place(tightAt, tightAt < 0 ? verts[0] : tightV),
     worstSlackN: worstSlack,
-    worstSlackAt: place(slackAt),
+    worstSlackAt: place(slackAt, slackAt < 0 ? verts[0] : slackV),
     tightMapN: tightMap,
     slackMapN: slackMap,
   };

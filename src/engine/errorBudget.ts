@@ -198,8 +198,20 @@ export function errorBudgetMap(
     const det = a * d - b * b;
     return [d / det - cm[0][0], -b / det - (cm[0][1] + cm[1][0]) / 2, a / det - cm[1][1]];
   };
+  const cm00 = cm[0][0];
+  const cm11 = cm[1][1];
+  const cmOff = (cm[0][1] + cm[1][0]) / 2;
+  const { kxxNPerM: kxx, kxyNPerM: kxy, kyyNPerM: kyy } = inp;
   const pointTotal = (ix: number, iy: number): number => {
-    const [c11, c12, c22] = compliance(iy * nx + ix);
+    // The compliance as `compliance` gives it, in scalars (the map calls this at every sampled point).
+    const p = iy * nx + ix;
+    const a = kxx[p];
+    const b = kxy[p];
+    const d = kyy[p];
+    const det = a * d - b * b;
+    const c11 = d / det - cm00;
+    const c12 = -b / det - cmOff;
+    const c22 = a / det - cm11;
     // Coefficients of |C·F|² in mm² (C in m/N → ×1e6).
     const g11 = (c11 * c11 + c12 * c12) * 1e6;
     const g12 = c12 * (c11 + c22) * 1e6;

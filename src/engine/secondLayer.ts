@@ -252,7 +252,11 @@ function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
   };
 }
 
-function modesSection(ctx: SecondLayerContext): Pick<SecondLayerResult, 'modes' | 'modesNotHeld' | 'lowest' | 'lowestMap'> {
+/** The modes' sections of the result, and each mode's highest frequency where it is the lowest (for the excitation). */
+function modesSection(ctx: SecondLayerContext): {
+  section: Pick<SecondLayerResult, 'modes' | 'modesNotHeld' | 'lowest' | 'lowestMap'>;
+  highestWhereLowestHz: Partial<Record<ModeId, number>>;
+} {
   const { d, t, map } = ctx;
   const beam = ctx.structure.info.gantryBeam;
   const carriageKg = d.masses.carriageKg + d.masses.toolKg;
@@ -281,10 +285,13 @@ function modesSection(ctx: SecondLayerContext): Pick<SecondLayerResult, 'modes' 
   }
   const r = lowestModeMap({ xMm: map.xMm, yMm: map.yMm, maps });
   return {
-    modes: r.modes,
-    modesNotHeld: notHeld,
-    lowest: r.lowest,
-    lowestMap: { frequencyHz: r.lowestFrequencyHz, modeId: r.lowestModeId },
+    section: {
+      modes: r.modes,
+      modesNotHeld: notHeld,
+      lowest: r.lowest,
+      lowestMap: { frequencyHz: r.lowestFrequencyHz, modeId: r.lowestModeId },
+    },
+    highestWhereLowestHz: r.highestWhereLowestHz,
   };
 }
 
@@ -342,7 +349,11 @@ function yawNotHeld(d: DesignInput, yawId: ModeId): SecondLayerResult['modesNotH
   };
 }
 
-function excitationSection(ctx: SecondLayerContext, modes: ModeReport[], lowestMap: SecondLayerResult['lowestMap']): ExcitationResult {
+function excitationSection(
+  ctx: SecondLayerContext,
+  modes: ModeReport[],
+  highestWhereLowestHz: Partial<Record<ModeId, number>>,
+): ExcitationResult {
   const { d, env } = ctx;
   let share = 0;
   let topBelt = 0;
@@ -351,11 +362,12 @@ function excitationSection(ctx: SecondLayerContext, modes: ModeReport[], lowestM
     share = Math.max(share, s);
     topBelt = Math.max(topBelt, env.speedMaxMPerS[i] * s);
   });
-  const targets: ExcitationTarget[] = modes.map((m) => {
-    let max = 0;
-    lowestMap.modeId.forEach((row, iy) => row.forEach((id, ix) => id === m.id && (max = Math.max(max, lowestMap.frequencyHz[iy][ix]))));
-    return { label: m.label, kind: 'mode', minHz: m.frequencyHz, maxHz: Math.max(max, m.frequencyHz) };
-  });
+  const targets: ExcitationTarget[] = modes.map((m) => ({
+    label: m.label,
+    kind: 'mode',
+    minHz: m.frequencyHz,
+    maxHz: Math.max(highestWhereLowestHz[m.id] ?? 0, m.frequencyHz),
+  }));
   for (const b of ctx.belts)
     for (const s of b.spans) targets.push({ label: `${b.label}: ${s.label}`, kind: 'span', minHz: s.minHz, maxHz: s.maxHz });
   const fullStepMm = (d.pulley.driveTeeth * d.belt.pitchMm) / (360 / d.motor.stepAngleDeg);
@@ -535,7 +547,7 @@ function jobSection(ctx: SecondLayerContext, points: readonly JobPoint[]): JobRe
  * @see docs/models/
  */
 export function evaluateSecondLayer(ctx: SecondLayerContext): SecondLayerResult {
-  const modes = modesSection(ctx);
+  const { section: modes, highestWhereLowestHz } = modesSection(ctx);
   const d = ctx.d;
   const job = d.job && d.job.points.length > 0 ? jobSection(ctx, d.job.points) : null;
   return {
@@ -548,7 +560,7 @@ export function evaluateSecondLayer(ctx: SecondLayerContext): SecondLayerResult 
       speedMPerS: ctx.envIn.cruiseMPerS,
       toleranceMm: d.ringingToleranceMm,
     }),
-    excitation: excitationSection(ctx, modes.modes, modes.lowestMap),
+    excitation: excitationSection(ctx, modes.modes, highestWhereLowestHz),
     heat: heatSection(ctx),
     loads: loadsSection(ctx),
     job,

@@ -332,14 +332,15 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   }
   // A piece with gx = gy = 0 (constant length) got ea/l0 in both tables; keep only the column value.
   for (let r = 0; r < n; r++) if (prep.gx[r] === 0 && prep.gy[r] === 0) for (let iy = 0; iy < ny; iy++) rowK[r * ny + iy] = 0;
-  /** Sums each group's springs at a grid point into `kg`. */
-  const springs = (ix: number, iy: number, groupOf: Int32Array, kg: Float64Array): void => {
-    kg.fill(0);
-    for (let r = 0; r < n; r++) kg[groupOf[r]] += colK[r * nx + ix] + rowK[r * ny + iy];
+  const plainK = groupSprings(plain, colK, rowK, n, nx, ny);
+  const mixedPieces = Int32Array.from(mixed);
+  /** Sums each group's springs at a grid point into `kg` (column, row and mixed parts, in the map's order). */
+  const springs = (ix: number, iy: number, gk: GroupSprings, groupOf: Int32Array, kg: Float64Array): void => {
+    for (let g = 0; g < kg.length; g++) kg[g] = gk.col[g * nx + ix] + gk.row[g * ny + iy];
     const cx = inp.originXMm + xs[ix];
     const cy = inp.originYMm + ys[iy];
-    for (let m = 0; m < mixed.length; m++) {
-      const r = mixed[m];
+    for (let m = 0; m < mixedPieces.length; m++) {
+      const r = mixedPieces[m];
       const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
       kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
     }
@@ -356,19 +357,23 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
     [0, 0],
   ];
   const twoPi = 2 * Math.PI;
+  const ng = plain.count;
+  const nm = mixedPieces.length;
+  const { col: colG, row: rowG } = plainK;
   for (let iy = 0; iy < ny; iy++) {
     const row = new Array<number>(nx);
     const cy = inp.originYMm + ys[iy];
     const groupOf = plain.groupOf;
     for (let ix = 0; ix < nx; ix++) {
       // The springs of every group at this point (inline: the map's hot loop).
-      kg.fill(0);
-      for (let r = 0; r < n; r++) kg[groupOf[r]] += colK[r * nx + ix] + rowK[r * ny + iy];
-      const cx = inp.originXMm + xs[ix];
-      for (let mi = 0; mi < mixed.length; mi++) {
-        const r = mixed[mi];
-        const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
-        kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
+      for (let g = 0; g < ng; g++) kg[g] = colG[g * nx + ix] + rowG[g * ny + iy];
+      if (nm > 0) {
+        const cx = inp.originXMm + xs[ix];
+        for (let mi = 0; mi < nm; mi++) {
+          const r = mixedPieces[mi];
+          const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
+          kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
+        }
       }
       condensePlain(kg, plain.coef, plain.count, prep.h0, out);
       const p = iy * nx + ix;
@@ -390,6 +395,7 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   }
   const hasYaw = prep.gf.some((g) => g !== 0);
   const kgYaw = new Float64Array(withYaw.count);
+  const yawK = hasYaw ? groupSprings(withYaw, colK, rowK, n, nx, ny) : plainK;
   const outYaw = new Float64Array(6);
   return {
     xMm: xs,
@@ -400,12 +406,44 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
     kNPerM: { xx: kxxA, xy: kxyA, yy: kyyA },
     yawAt: hasYaw
       ? (ix, iy) => {
-          springs(ix, iy, withYaw.groupOf, kgYaw);
+          springs(ix, iy, yawK, withYaw.groupOf, kgYaw);
           condensePoint(kgYaw, withYaw.coef, withYaw.count, prep.h0, outYaw);
           return { xf: outYaw[3], yf: outYaw[4], ff: outYaw[5] };
         }
       : null,
   };
+}
+
+/** Springs of each group of pieces tabled over the grid: the part that changes with X, [g·nx + ix], and with Y, [g·ny + iy]. */
+interface GroupSprings {
+  col: Float64Array;
+  row: Float64Array;
+}
+
+/**
+ * The pieces of a group share their vector, so they all change with X only, with Y only, or with both: a group's
+ * spring is tabled per column and per row once, summed in piece order (a piece's spring is in one table only, 0 in
+ * the other; pieces that change with both are summed at each point).
+ * @param grouping - group of each piece and the group count
+ * @param colK - spring of each piece per column [r·nx + ix] (0 for pieces that do not change with X only) [N/m]
+ * @param rowK - spring of each piece per row [r·ny + iy] [N/m]
+ */
+function groupSprings(
+  grouping: { groupOf: Int32Array; count: number },
+  colK: Float64Array,
+  rowK: Float64Array,
+  n: number,
+  nx: number,
+  ny: number,
+): GroupSprings {
+  const col = new Float64Array(grouping.count * nx);
+  const row = new Float64Array(grouping.count * ny);
+  for (let r = 0; r < n; r++) {
+    const g = grouping.groupOf[r];
+    for (let ix = 0; ix < nx; ix++) col[g * nx + ix] += colK[r * nx + ix];
+    for (let iy = 0; iy < ny; iy++) row[g * ny + iy] += rowK[r * ny + iy];
+  }
+  return { col, row };
 }
 
 /**

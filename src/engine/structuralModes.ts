@@ -226,6 +226,8 @@ export interface LowestModeMap {
   /** Which mode that is at each grid point, [iy][ix]. */
   lowestModeId: ModeId[][];
   lowest: { frequencyHz: number; modeId: ModeId; xMm: number; yMm: number };
+  /** Per mode, its highest frequency over the points where it is the lowest mode (0 where it never is) [Hz]. */
+  highestWhereLowestHz: Partial<Record<ModeId, number>>;
 }
 
 /**
@@ -243,34 +245,66 @@ export function lowestModeMap(args: { xMm: number[]; yMm: number[]; maps: Partia
   const nx = args.xMm.length;
   const modes: ModeReport[] = ids.map((id) => {
     const map = args.maps[id]!;
-    let best = { f: Infinity, ix: 0, iy: 0 };
-    for (let iy = 0; iy < ny; iy++) for (let ix = 0; ix < nx; ix++) if (map[iy][ix] < best.f - 1e-9) best = { f: map[iy][ix], ix, iy };
-    return { id, label: MODE_LABELS[id], frequencyHz: best.f, xMm: args.xMm[best.ix], yMm: args.yMm[best.iy] };
+    let bestF = Infinity;
+    let bestX = 0;
+    let bestY = 0;
+    for (let iy = 0; iy < ny; iy++) {
+      const row = map[iy];
+      for (let ix = 0; ix < nx; ix++) {
+        if (row[ix] < bestF - 1e-9) {
+          bestF = row[ix];
+          bestX = ix;
+          bestY = iy;
+        }
+      }
+    }
+    return { id, label: MODE_LABELS[id], frequencyHz: bestF, xMm: args.xMm[bestX], yMm: args.yMm[bestY] };
   });
   const lowestFrequencyHz: number[][] = [];
   const lowestModeId: ModeId[][] = [];
-  let lowest = { frequencyHz: Infinity, modeId: ids[0] ?? ('belt' as ModeId), xMm: 0, yMm: 0 };
+  let lowestHz = Infinity;
+  let lowestId: ModeId = ids[0] ?? 'belt';
+  let lowestP = -1;
   const maps = ids.map((id) => args.maps[id]!);
+  const top = ids.map(() => 0);
   for (let iy = 0; iy < ny; iy++) {
     const fr = new Array<number>(nx);
     const idr = new Array<ModeId>(nx);
     const rows = maps.map((m) => m[iy]);
     for (let ix = 0; ix < nx; ix++) {
       let f = Infinity;
-      let id: ModeId = ids[0];
+      let kf = 0;
       for (let k = 0; k < rows.length; k++) {
         const v = rows[k][ix];
         if (v < f) {
           f = v;
-          id = ids[k];
+          kf = k;
         }
       }
+      const id = ids[kf];
+      if (kf < top.length) top[kf] = Math.max(top[kf], f);
       fr[ix] = f;
       idr[ix] = id;
-      if (f < lowest.frequencyHz - 1e-9) lowest = { frequencyHz: f, modeId: id, xMm: args.xMm[ix], yMm: args.yMm[iy] };
+      if (f < lowestHz - 1e-9) {
+        lowestHz = f;
+        lowestId = id;
+        lowestP = iy * nx + ix;
+      }
     }
     lowestFrequencyHz.push(fr);
     lowestModeId.push(idr);
   }
-  return { modes: modes.sort((a, b) => a.frequencyHz - b.frequencyHz), lowestFrequencyHz, lowestModeId, lowest };
+  const lowest = {
+    frequencyHz: lowestHz,
+    modeId: lowestId,
+    xMm: lowestP < 0 ? 0 : args.xMm[lowestP % nx],
+    yMm: lowestP < 0 ? 0 : args.yMm[Math.floor(lowestP / nx)],
+  };
+  return {
+    modes: modes.sort((a, b) => a.frequencyHz - b.frequencyHz),
+    lowestFrequencyHz,
+    lowestModeId,
+    lowest,
+    highestWhereLowestHz: Object.fromEntries(ids.map((id, k) => [id, top[k]])),
+  };
 }
