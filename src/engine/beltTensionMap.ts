@@ -227,6 +227,16 @@ function loopVertices(p: PreparedLoop, pairs: PullPairs, hull: number[]): number
 }
 
 /**
+ * The pieces' coefficients (S_A, S_B) without repeats, in the order they first occur. Pieces with the same pair have
+ * the same tension change everywhere, so the extremes (and the first piece that reaches them) are found among these.
+ */
+function distinctShares(p: PreparedLoop): { sA: Float64Array; sB: Float64Array } {
+  const keep: number[] = [];
+  for (let i = 0; i < p.sA.length; i++) if (!keep.some((j) => p.sA[j] === p.sA[i] && p.sB[j] === p.sB[i])) keep.push(i);
+  return { sA: Float64Array.from(keep, (i) => p.sA[i]), sB: Float64Array.from(keep, (i) => p.sB[i]) };
+}
+
+/**
  * Where a loop's share of the pull sits at a carriage position: u = Σ Lᵢ·Sᵢ / Σ Lᵢ per coordinate. Piece lengths
  * are affine in the position, so u is a ratio of two affine functions; their coefficients are summed once.
  */
@@ -304,7 +314,7 @@ function singleExtremes(s: Float64Array, u: number, f: Float64Array, e: PointExt
  * walk from the previous grid point's extreme vertex (`start`, the coefficients change little) finds the new one.
  */
 function hullExtremes(
-  p: PreparedLoop,
+  p: { sA: Float64Array; sB: Float64Array },
   uA: number,
   uB: number,
   va: Float64Array,
@@ -364,9 +374,10 @@ function loopOverTravel(
   const single = !(p.usesA && p.usesB);
   // In a loop pulled by one coordinate only that coordinate's pull matters (the other's coefficients are 0).
   const fv = p.usesB ? vb : va;
-  const sv = p.usesB ? p.sB : p.sA;
+  const shares = distinctShares(p);
+  const sv = p.usesB ? shares.sB : shares.sA;
   const r = shareRatio(p);
-  const start = new Int32Array(2 * p.l0.length);
+  const start = new Int32Array(2 * shares.sA.length);
   const e: PointExtremes = { hi: 0, lo: 0, hiV: 0, loV: 0 };
   const t0 = inp.pretensionN;
   const nx = inp.xMm.length;
@@ -389,7 +400,7 @@ function loopOverTravel(
         const u = p.usesB ? (r.b0 + r.bx * cx + r.by * cy) / total : (r.a0 + r.ax * cx + r.ay * cy) / total;
         singleExtremes(sv, u, fv, e);
       } else {
-        hullExtremes(p, (r.a0 + r.ax * cx + r.ay * cy) / total, (r.b0 + r.bx * cx + r.by * cy) / total, va, vb, start, e);
+        hullExtremes(shares, (r.a0 + r.ax * cx + r.ay * cy) / total, (r.b0 + r.bx * cx + r.by * cy) / total, va, vb, start, e);
       }
       tRow[ix] = Math.round((t0 + e.hi) * 100) / 100;
       sRow[ix] = Math.round((t0 + e.lo) * 100) / 100;

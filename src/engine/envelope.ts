@@ -255,7 +255,18 @@ export function computeEnvelope(inp: EnvelopeInput): EnvelopeResult {
  * @returns signed force at motor A and B [N]
  */
 export function motorForcesN(inp: EnvelopeInput, directionRad: number, accelMPerS2: number): [number, number] {
-  const kit = inverse2(transpose2(inp.k));
+  return motorForcesWithKit(inp, inverse2(transpose2(inp.k)), directionRad, accelMPerS2);
+}
+
+/**
+ * {@link motorForcesN} with K⁻ᵀ worked out once by the caller (loops over many directions).
+ * @param inp - envelope input
+ * @param kit - inverse2(transpose2(inp.k))
+ * @param directionRad - direction θ [rad]
+ * @param accelMPerS2 - carriage acceleration along θ [m/s²]
+ * @returns signed force at motor A and B [N]
+ */
+export function motorForcesWithKit(inp: EnvelopeInput, kit: Matrix2, directionRad: number, accelMPerS2: number): [number, number] {
   const c = Math.cos(directionRad);
   const s = Math.sin(directionRad);
   const ec = Math.abs(c) < 1e-12 ? 0 : c;

@@ -15,7 +15,7 @@ import { microstepFigures } from './microstep';
 import { modelTopSpeedRevPerS, motorHoldingStiffnessNmPerRad, torqueConstantNmPerA, torqueSpeedFunction } from './motorTorque';
 import { CLAMP_ALLOWANCE_MM, partsList } from './partsList';
 import { guideReactionN, rackingMomentPerNewtonM, rackingTurnSpacingMm } from './racking';
-import { parseDesign, type DesignInput } from './schema';
+import { parseDesignWithTravel, type DesignInput } from './schema';
 import { evaluateSecondLayer, spanBands, structureStiffness, type SecondLayerResult, type StructureStiffness } from './secondLayer';
 import { stiffnessMap, type StiffnessResult } from './stiffness';
 import { spanFrequencyHz } from './tension';
@@ -169,6 +169,21 @@ function massModel(d: DesignInput, t: TravelInfo, states: LoopState[], rM: numbe
     jDrive,
     jIdler,
     estimated: d.pulley.driveInertiaKgM2 === null || d.pulley.idlerInertiaKgM2 === null,
+  };
+}
+
+/** The mass section of the result: moving masses, each motor's equivalent mass and the effective mass per direction. */
+function massSection(k: Matrix2, m: MassModel, env: EnvelopeResult): DesignResult['mass'] {
+  return {
+    xKg: m.xKg,
+    yKg: m.yKg,
+    reflectedPerMotorKg: m.reflectedPerMotorKg,
+    motorEquivalentKg: { a: m.motorEq[0], b: m.motorEq[1] },
+    beltKg: m.beltKg,
+    effectiveKg: env.directionsDeg.map((deg) =>
+      effectiveMassKg({ k, xKg: m.xKg, yKg: m.yKg, motorEquivalentKg: m.motorEq, directionRad: deg / DEG }),
+    ),
+    pulleyInertiaKgM2: { drive: m.jDrive, idler: m.jIdler, estimated: m.estimated },
   };
 }
 
@@ -536,8 +551,8 @@ function secondLayerOf(
  * @throws EngineInputError with field paths when the design is invalid
  */
 export function evaluateDesign(input: unknown): DesignResult {
-  const d = parseDesign(input);
-  return evaluateValidDesign(d);
+  const { design, travel } = parseDesignWithTravel(input);
+  return evaluateWithTravel(design, travel);
 }
 
 /**
@@ -546,10 +561,14 @@ export function evaluateDesign(input: unknown): DesignResult {
  * @returns the full result
  */
 export function evaluateValidDesign(d: DesignInput): DesignResult {
+  return evaluateWithTravel(d, frameToTravel(d));
+}
+
+/** The evaluation of a validated design whose travel and belt layout (frameToTravel) are already worked out. */
+function evaluateWithTravel(d: DesignInput, t: TravelInfo): DesignResult {
   const k: Matrix2 = kinematicsMatrix(d.mechanism, d.motorDirection);
   const kinv = inverse2(k);
   const { rM, section: drive } = driveNumbers(d, k);
-  const t = frameToTravel(d);
   const parking = { xMm: t.xMm / 2, yMm: t.yMm / 2 };
   const pcx = t.originXMm + parking.xMm;
   const pcy = t.originYMm + parking.yMm;
@@ -600,17 +619,7 @@ export function evaluateValidDesign(d: DesignInput): DesignResult {
     drive,
     travel: { xMm: t.xMm, yMm: t.yMm, limitedBy: t.limitedBy },
     parking,
-    mass: {
-      xKg: m.xKg,
-      yKg: m.yKg,
-      reflectedPerMotorKg: m.reflectedPerMotorKg,
-      motorEquivalentKg: { a: m.motorEq[0], b: m.motorEq[1] },
-      beltKg: m.beltKg,
-      effectiveKg: env.directionsDeg.map((deg) =>
-        effectiveMassKg({ k, xKg: m.xKg, yKg: m.yKg, motorEquivalentKg: m.motorEq, directionRad: deg / DEG }),
-      ),
-      pulleyInertiaKgM2: { drive: m.jDrive, idler: m.jIdler, estimated: m.estimated },
-    },
+    mass: massSection(k, m, env),
     envelope: {
       directionsDeg: env.directionsDeg,
       accelMaxMPerS2: env.accelMaxMPerS2,

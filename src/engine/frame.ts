@@ -159,7 +159,17 @@ export function travelToFrame(args: { design: TravelInput; travelXMm: number; tr
  * @returns issues at frame.outerXMm / frame.outerYMm (empty when travel is positive)
  */
 export function travelIssues(d: TravelInput): InputIssue[] {
-  const t = frameToTravel(d);
+  return travelIssuesOf(d, frameToTravel(d));
+}
+
+/**
+ * Same as {@link travelIssues} for travel already worked out (the evaluation reuses it rather than building the
+ * belt layout twice).
+ * @param d - design (frame and belt layout inputs)
+ * @param t - frameToTravel(d)
+ * @returns issues at frame.outerXMm / frame.outerYMm, empty when the frame leaves travel on both axes
+ */
+export function travelIssuesOf(d: TravelInput, t: TravelInfo): InputIssue[] {
   const issues: InputIssue[] = [];
   if (!t.sound || !(t.xMm > 0) || !(t.yMm > 0)) {
     const need = travelToFrame({ design: d, travelXMm: 1, travelYMm: 1 });

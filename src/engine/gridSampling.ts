@@ -58,18 +58,22 @@ export function sampledGridMap(
   if (stride > 1) {
     // Interpolate along the exact rows, then down every column.
     for (const iy of ys) {
+      const row = values[iy];
       for (let k = 0; k + 1 < xs.length; k++) {
         const a = xs[k];
         const b = xs[k + 1];
-        for (let ix = a + 1; ix < b; ix++) values[iy][ix] = values[iy][a] + ((ix - a) / (b - a)) * (values[iy][b] - values[iy][a]);
+        for (let ix = a + 1; ix < b; ix++) row[ix] = row[a] + ((ix - a) / (b - a)) * (row[b] - row[a]);
       }
     }
     for (let k = 0; k + 1 < ys.length; k++) {
       const a = ys[k];
       const b = ys[k + 1];
+      const rowA = values[a];
+      const rowB = values[b];
       for (let iy = a + 1; iy < b; iy++) {
         const t = (iy - a) / (b - a);
-        for (let ix = 0; ix < nx; ix++) values[iy][ix] = values[a][ix] + t * (values[b][ix] - values[a][ix]);
+        const row = values[iy];
+        for (let ix = 0; ix < nx; ix++) row[ix] = rowA[ix] + t * (rowB[ix] - rowA[ix]);
       }
     }
   }

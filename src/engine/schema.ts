@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { EngineInputError, type InputIssue } from './errors';
-import { travelIssues } from './frame';
+import { frameToTravel, travelIssuesOf, type TravelInfo } from './frame';
 import type { Mechanism } from './types';
 
 // Ranges are "sane", not physical limits: wide enough for any bench-top or workshop stage, narrow enough
@@ -294,13 +294,20 @@ export function issuesFromZod(error: z.ZodError): InputIssue[] {
  * @returns `{ ok: true, value }` with defaults filled in, or `{ ok: false, issues }` naming each bad field
  */
 export function safeParseDesign(input: unknown): { ok: true; value: DesignInput } | { ok: false; issues: InputIssue[] } {
+  const r = safeParseWithTravel(input);
+  return r.ok ? { ok: true, value: r.value } : r;
+}
+
+/** The schema pass, then the travel check on the belt layout, keeping the travel it worked out. */
+function safeParseWithTravel(input: unknown): { ok: true; value: DesignInput; travel: TravelInfo } | { ok: false; issues: InputIssue[] } {
   // reportInput lets issuesFromZod tell a missing field ("is required") from a value of the wrong type.
   const r = designInputSchema.safeParse(input, { reportInput: true });
   if (!r.success) return { ok: false, issues: issuesFromZod(r.error) };
   // Travel depends on the belt layout, so it is checked after the field rules have passed.
-  const extra = travelIssues(r.data);
+  const travel = frameToTravel(r.data);
+  const extra = travelIssuesOf(r.data, travel);
   if (extra.length > 0) return { ok: false, issues: extra };
-  return { ok: true, value: r.data };
+  return { ok: true, value: r.data, travel };
 }
 
 /**
@@ -310,12 +317,23 @@ export function safeParseDesign(input: unknown): { ok: true; value: DesignInput 
  * @throws EngineInputError with `issues: {path, message}[]` (e.g. path "driver.microsteps")
  */
 export function parseDesign(input: unknown): DesignInput {
-  const r = safeParseDesign(input);
+  return parseDesignWithTravel(input).design;
+}
+
+/**
+ * Same as {@link parseDesign}, also returning the travel and belt layout the validation worked out
+ * (frameToTravel of the design), so an evaluation builds them once.
+ * @param input - any JSON value
+ * @returns the validated design and its travel
+ * @throws EngineInputError as parseDesign
+ */
+export function parseDesignWithTravel(input: unknown): { design: DesignInput; travel: TravelInfo } {
+  const r = safeParseWithTravel(input);
   if (!r.ok) {
     const summary = r.issues.map((i) => (i.path ? `${i.path}: ${i.message}` : i.message)).join('; ');
     throw new EngineInputError('parseDesign', summary, r.issues);
   }
-  return r.value;
+  return { design: r.value, travel: r.travel };
 }
 
 /**

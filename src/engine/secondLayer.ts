@@ -1,6 +1,6 @@
 import type { LayoutLoop } from './beltLayout';
 import { rotorTeeth } from './drive';
-import { beltSpeedForPull, motorForcesN, type EnvelopeInput, type EnvelopeResult, type PullCurve } from './envelope';
+import { beltSpeedForPull, motorForcesN, motorForcesWithKit, type EnvelopeInput, type EnvelopeResult, type PullCurve } from './envelope';
 import {
   biggestErrorTerm,
   carriageErrorMm,
@@ -190,12 +190,13 @@ function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
   const forceXN: number[] = [];
   const forceYN: number[] = [];
   const loadAngleMm: number[] = [];
+  const kitEnv = inverse2(transpose2(envIn.k));
   env.directionsDeg.forEach((deg, i) => {
     const a = Math.min(ctx.plannedAccelMPerS2, env.accelMaxMPerS2[i]);
     const [c, s] = unit(deg);
     forceXN.push(envIn.xKg * a * c + envIn.frictionXN * Math.sign(c));
     forceYN.push(envIn.yKg * a * s + envIn.frictionYN * Math.sign(s));
-    const f = motorForcesN(envIn, deg * DEG, a);
+    const f = motorForcesWithKit(envIn, kitEnv, deg * DEG, a);
     const lag = f.map((fi, m) =>
       loadAngleErrorMm({ torqueNm: (fi * r) / ctx.motorsOn[m], holdingTorqueNm: ctx.holdingTorqueNm, rotorTeeth: nr, pulleyRadiusMm: rMm }),
     );
@@ -400,10 +401,11 @@ function floorAt(c: PullCurve, v: number): number {
  * @returns acceleration [m/s²] and speed [m/s] limits along any direction
  */
 export function directionLimits(envIn: EnvelopeInput): DirectionLimits {
+  const kit = inverse2(transpose2(envIn.k));
   return {
     along(th) {
-      const f0 = motorForcesN(envIn, th, 0);
-      const f1 = motorForcesN(envIn, th, 1);
+      const f0 = motorForcesWithKit(envIn, kit, th, 0);
+      const f1 = motorForcesWithKit(envIn, kit, th, 1);
       const c = Math.cos(th);
       const s = Math.sin(th);
       const sh = [Math.abs(envIn.k[0][0] * c + envIn.k[0][1] * s), Math.abs(envIn.k[1][0] * c + envIn.k[1][1] * s)];
@@ -463,8 +465,9 @@ function heatSection(ctx: SecondLayerContext): HeatResult {
   const { d, envIn, env } = ctx;
   const v = envIn.cruiseMPerS;
   const mech = [0, 0];
+  const kit = inverse2(transpose2(envIn.k));
   env.directionsDeg.forEach((deg, i) => {
-    const f = motorForcesN(envIn, deg * DEG, env.accelAtCruiseMPerS2[i]);
+    const f = motorForcesWithKit(envIn, kit, deg * DEG, env.accelAtCruiseMPerS2[i]);
     const sh = [env.speedShareA[i], env.speedShareB[i]];
     for (let m = 0; m < 2; m++) mech[m] = Math.max(mech[m], (Math.abs(f[m]) * Math.abs(sh[m]) * v) / ctx.motorsOn[m]);
   });

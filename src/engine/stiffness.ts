@@ -1,5 +1,4 @@
 import type { LoopModel, MotorVar } from './beltLayout';
-import { lowestEigenvalue2 } from './linalg';
 
 /** Inputs of the stiffness map, SI unless the name says otherwise. */
 export interface StiffnessInput {
@@ -312,26 +311,7 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   // for the yaw rows, condensed only where the yaw mode is asked for (21 products).
   const plain = groupPieces(prep, false);
   const withYaw = groupPieces(prep, true);
-  // Springs that depend on one coordinate only are computed once per column or row instead of per point.
-  const colK = new Float64Array(n * nx);
-  const rowK = new Float64Array(n * ny);
-  const mixed: number[] = [];
-  for (let r = 0; r < n; r++) {
-    const gx = prep.gx[r];
-    const gy = prep.gy[r];
-    if (gx !== 0 && gy !== 0) {
-      mixed.push(r);
-      continue;
-    }
-    for (let ix = 0; ix < nx; ix++) {
-      colK[r * nx + ix] = gy === 0 ? ea / Math.max(1e-3, prep.l0[r] + gx * (inp.originXMm + xs[ix])) : 0;
-    }
-    for (let iy = 0; iy < ny; iy++) {
-      rowK[r * ny + iy] = gx === 0 ? ea / Math.max(1e-3, prep.l0[r] + gy * (inp.originYMm + ys[iy])) : 0;
-    }
-  }
-  // A piece with gx = gy = 0 (constant length) got ea/l0 in both tables; keep only the column value.
-  for (let r = 0; r < n; r++) if (prep.gx[r] === 0 && prep.gy[r] === 0) for (let iy = 0; iy < ny; iy++) rowK[r * ny + iy] = 0;
+  const { colK, rowK, mixed } = pieceSprings(prep, ea, inp, xs, ys);
   const plainK = groupSprings(plain, colK, rowK, n, nx, ny);
   const mixedPieces = Int32Array.from(mixed);
   /** Sums each group's springs at a grid point into `kg` (column, row and mixed parts, in the map's order). */
@@ -357,6 +337,7 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
     [0, 0],
   ];
   const twoPi = 2 * Math.PI;
+  const sqrtMass = Math.sqrt(inp.xKg * inp.yKg);
   const ng = plain.count;
   const nm = mixedPieces.length;
   const { col: colG, row: rowG } = plainK;
@@ -380,7 +361,11 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
       kxxA[p] = out[0];
       kxyA[p] = out[1];
       kyyA[p] = out[2];
-      const lam = lowestEigenvalue2(out[0], out[1], out[2], inp.xKg, inp.yKg);
+      // lowestEigenvalue2 written out, with √(m_x·m_y) taken once.
+      const ea2 = out[0] / inp.xKg;
+      const ed2 = out[2] / inp.yKg;
+      const eb2 = out[1] / sqrtMass;
+      const lam = (ea2 + ed2) / 2 - Math.sqrt(((ea2 - ed2) / 2) * ((ea2 - ed2) / 2) + eb2 * eb2);
       const hz = Math.sqrt(lam > 0 ? lam : 0) / twoPi;
       row[ix] = hz;
       if (hz < best.frequencyHz - 1e-9) {
@@ -412,6 +397,42 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
         }
       : null,
   };
+}
+
+/**
+ * Springs EA/L of the pieces whose length depends on one coordinate only, per column [r·nx + ix] or per row
+ * [r·ny + iy] (0 in the other table), computed once instead of per point; pieces that change with both are listed.
+ */
+function pieceSprings(
+  prep: Prepared,
+  ea: number,
+  inp: StiffnessInput,
+  xs: number[],
+  ys: number[],
+): { colK: Float64Array; rowK: Float64Array; mixed: number[] } {
+  const n = prep.pieces;
+  const nx = xs.length;
+  const ny = ys.length;
+  const colK = new Float64Array(n * nx);
+  const rowK = new Float64Array(n * ny);
+  const mixed: number[] = [];
+  for (let r = 0; r < n; r++) {
+    const gx = prep.gx[r];
+    const gy = prep.gy[r];
+    if (gx !== 0 && gy !== 0) {
+      mixed.push(r);
+      continue;
+    }
+    for (let ix = 0; ix < nx; ix++) {
+      colK[r * nx + ix] = gy === 0 ? ea / Math.max(1e-3, prep.l0[r] + gx * (inp.originXMm + xs[ix])) : 0;
+    }
+    for (let iy = 0; iy < ny; iy++) {
+      rowK[r * ny + iy] = gx === 0 ? ea / Math.max(1e-3, prep.l0[r] + gy * (inp.originYMm + ys[iy])) : 0;
+    }
+  }
+  // A piece with gx = gy = 0 (constant length) got ea/l0 in both tables; keep only the column value.
+  for (let r = 0; r < n; r++) if (prep.gx[r] === 0 && prep.gy[r] === 0) for (let iy = 0; iy < ny; iy++) rowK[r * ny + iy] = 0;
+  return { colK, rowK, mixed };
 }
 
 /** Springs of each group of pieces tabled over the grid: the part that changes with X, [g·nx + ix], and with Y, [g·ny + iy]. */
