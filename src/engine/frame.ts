@@ -154,22 +154,13 @@ export function travelToFrame(args: { design: TravelInput; travelXMm: number; tr
 }
 
 /**
- * Cross-field rule of the schema: the frame must leave positive travel in X and Y for the chosen layout.
+ * Cross-field rule of the schema: the frame must leave positive travel in X and Y for the chosen layout. Takes the
+ * travel already worked out, so that an evaluation builds the belt layout once.
  * @param d - a structurally valid design
+ * @param t - frameToTravel(d)
  * @returns issues at frame.outerXMm / frame.outerYMm (empty when travel is positive)
  */
-export function travelIssues(d: TravelInput): InputIssue[] {
-  return travelIssuesOf(d, frameToTravel(d));
-}
-
-/**
- * Same as {@link travelIssues} for travel already worked out (the evaluation reuses it rather than building the
- * belt layout twice).
- * @param d - design (frame and belt layout inputs)
- * @param t - frameToTravel(d)
- * @returns issues at frame.outerXMm / frame.outerYMm, empty when the frame leaves travel on both axes
- */
-export function travelIssuesOf(d: TravelInput, t: TravelInfo): InputIssue[] {
+export function travelIssues(d: TravelInput, t: TravelInfo): InputIssue[] {
   const issues: InputIssue[] = [];
   if (!t.sound || !(t.xMm > 0) || !(t.yMm > 0)) {
     const need = travelToFrame({ design: d, travelXMm: 1, travelYMm: 1 });

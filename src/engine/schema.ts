@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { EngineInputError, type InputIssue } from './errors';
-import { frameToTravel, travelIssuesOf, type TravelInfo } from './frame';
+import { frameToTravel, travelIssues, type TravelInfo } from './frame';
 import type { Mechanism } from './types';
 
 // Ranges are "sane", not physical limits: wide enough for any bench-top or workshop stage, narrow enough
@@ -305,7 +305,7 @@ function safeParseWithTravel(input: unknown): { ok: true; value: DesignInput; tr
   if (!r.success) return { ok: false, issues: issuesFromZod(r.error) };
   // Travel depends on the belt layout, so it is checked after the field rules have passed.
   const travel = frameToTravel(r.data);
-  const extra = travelIssuesOf(r.data, travel);
+  const extra = travelIssues(r.data, travel);
   if (extra.length > 0) return { ok: false, issues: extra };
   return { ok: true, value: r.data, travel };
 }
