@@ -1,3 +1,4 @@
+import { MECHANISMS } from '@/engine';
 import {
   DataTypes,
   Model,
@@ -14,7 +15,8 @@ import { DESIGN_STATUSES, type DesignResultSummary, type DesignStatus } from '@/
 export { DESIGN_STATUSES, type DesignStatus };
 
 /** The three mechanisms the engine knows. */
-export const DESIGN_MECHANISMS = ['corexy', 'hbot', 'cartesian'] as const;
+/** The mechanisms a design can be (the engine's list: one declaration). */
+export const DESIGN_MECHANISMS = MECHANISMS;
 export type DesignMechanism = (typeof DESIGN_MECHANISMS)[number];
 
 /**

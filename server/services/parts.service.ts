@@ -1,4 +1,4 @@
-import type { Page } from '@/contracts';
+import type { Page, PublicPart } from '@/contracts';
 import { Op, UniqueConstraintError, type Transaction, type WhereOptions } from 'sequelize';
 import { AppError, notFound, validationError, zodDetails } from '../errors';
 import { getSequelize } from '../db';
@@ -48,24 +48,24 @@ export const PART_FIELDS: Record<PartKind, readonly string[]> = {
 const FULL_SCHEMA = { belt: beltPartSchema, pulley: pulleyPartSchema, motor: motorPartSchema } as const;
 
 /**
- * A part as the API shows it: `{id, shelf, name, ...kind fields, note, retired, createdAt, updatedAt}`.
- * The kind fields mirror the design document's sub-objects (belt / motor) so a pick fills the form.
+ * A part as the API shows it (src/contracts/parts.ts): `{id, shelf, name, ...kind fields, note, retired, createdAt,
+ * updatedAt}`. The kind fields mirror the design document's sub-objects (belt / motor) so a pick fills the form.
  * (`shelf` rather than `kind`, because a pulley has a `kind` of its own: drive / idler-toothed / idler-smooth.)
  */
-export type PublicPart = {
-  id: number;
-  shelf: 'belts' | 'pulleys' | 'motors';
-  name: string;
-  note: string;
-  retired: boolean;
-  createdAt: string;
-  updatedAt: string;
-} & Record<string, unknown>;
+export type { PublicPart };
+
+/** A motor row in the public shape (the row's kind says which member of the union it is). */
+export function toPublicMotor(part: Part): Extract<PublicPart, { shelf: 'motors' }> {
+  if (part.kind !== 'motor') throw new Error(`part ${part.id} is a ${part.kind}, not a motor`);
+  return toPublicPart(part) as Extract<PublicPart, { shelf: 'motors' }>;
+}
 
 /** Converts a row to the public shape. */
 export function toPublicPart(part: Part): PublicPart {
   const data = (typeof part.data === 'string' ? JSON.parse(part.data) : part.data) as Record<string, unknown>;
   const fields = Object.fromEntries(PART_FIELDS[part.kind].map((key) => [key, data[key] ?? null]));
+  // The kind fields come from the stored JSON, listed by PART_FIELDS (which the shelf's zod schema wrote): the one
+  // place the row's loose `data` becomes the contract's shape.
   return {
     id: part.id,
     shelf: PART_SHELVES[part.kind],
@@ -75,7 +75,7 @@ export function toPublicPart(part: Part): PublicPart {
     retired: Boolean(part.retired),
     createdAt: new Date(part.createdAt).toISOString(),
     updatedAt: new Date(part.updatedAt).toISOString(),
-  };
+  } as PublicPart;
 }
 
 function splitInput(kind: PartKind, input: Record<string, unknown>): { name: string; note: string; data: Record<string, unknown> } {
@@ -159,7 +159,7 @@ export async function updatePart(actor: PublicUser, kind: PartKind, id: number, 
       const row = await Part.findOne({ where: { id, kind }, transaction, lock: transaction.LOCK.UPDATE });
       if (!row) throw notFound(kind[0].toUpperCase() + kind.slice(1));
       const { retired, ...fields } = patch as Record<string, unknown> & { retired?: boolean };
-      const current = toPublicPart(row);
+      const current = toPublicPart(row) as unknown as Record<string, unknown>;
       const merged = FULL_SCHEMA[kind].safeParse({
         ...Object.fromEntries([...PART_FIELDS[kind], 'name', 'note'].map((key) => [key, current[key]])),
         ...fields,

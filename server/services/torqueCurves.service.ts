@@ -1,26 +1,19 @@
+import type { TorqueCurveInfo } from '@/contracts';
 import { AppError, notFound } from '../errors';
 import type { UploadedFile } from '../uploads/uploadedFile';
 import { Attachment, Part } from '../models';
 import { torqueCurveSchema, type TorqueConditions } from '../schemas/parts.schema';
 import { CsvError, parseTorqueCsv, assertTypeMatches, type CsvErrorDetail, type TorquePoint, type TorqueTable } from '../uploads';
-import type { PublicAttachment } from '@/contracts';
 import { latestPartAttachment, toPublicAttachment } from './attachments.service';
 import { sanitiseFileName, storeWithRows, withUploadErrors } from './fileStore.service';
 import { recordAudit } from './audit.service';
-import { toPublicPart, type PublicPart } from './parts.service';
+import { toPublicMotor } from './parts.service';
 import type { PublicUser } from './users.service';
 
 /** Largest torque table [bytes] (64 kB holds far more than the 500 rows accepted). */
 export const TORQUE_CSV_MAX_BYTES = 64 * 1024;
 
-/** A motor's torque table: the points in use and the file they came from. */
-export type TorqueCurveInfo = {
-  motor: PublicPart;
-  /** The uploaded source file (null when the table was typed in or there is none). */
-  file: PublicAttachment | null;
-  /** Units the uploaded file used. */
-  sourceUnits?: TorqueTable['sourceUnits'];
-};
+export type { TorqueCurveInfo };
 
 /**
  * Where each data row of a torque table sits: the 1-based line of each row in file order and the header cells.
@@ -179,14 +172,14 @@ export async function uploadTorqueCurve(
     return { part: row, attachment: created };
   });
   const source = await Attachment.findByPk(attachment.id, { include: ['uploadedBy'] });
-  return { motor: toPublicPart(part), file: source ? toPublicAttachment(source, actor, null) : null, sourceUnits: table.sourceUnits };
+  return { motor: toPublicMotor(part), file: source ? toPublicAttachment(source, actor, null) : null, sourceUnits: table.sourceUnits };
 }
 
 /** A motor with its torque table and the newest uploaded source file (every team member). */
 export async function getTorqueCurve(actor: PublicUser, motorId: number): Promise<TorqueCurveInfo> {
   const row = await Part.findOne({ where: { id: motorId, kind: 'motor' } });
   if (!row) throw notFound('Motor');
-  const motor = toPublicPart(row);
+  const motor = toPublicMotor(row);
   const source = Array.isArray(motor.torqueCurve) && motor.torqueCurve.length > 0 ? await latestPartAttachment(motorId) : null;
   return { motor, file: source ? toPublicAttachment(source, actor, null) : null };
 }

@@ -1,7 +1,7 @@
-import type { TorquePoint } from '@/engine';
 import { apiUrl, del, get, upload } from './http';
-import type { TorqueConditions, MotorPart } from './parts';
-import type { AttachmentPage, PublicAttachment } from '@/contracts';
+import type { AttachmentPage, PublicAttachment, TorqueConditions, TorqueCurveInfo } from '@/contracts';
+
+export type { TorqueCurveInfo };
 
 export type { AttachmentPage };
 /** A file attached to a design (or the source file of a motor's torque table): src/contracts PublicAttachment. */
@@ -27,13 +27,6 @@ export const deleteAttachment = (id: number): Promise<void> => del(`/attachments
 
 /** The download address of an attachment (the browser fetches it itself). */
 export const attachmentUrl = (id: number): string => apiUrl(`/attachments/${id}`);
-
-/** A motor's torque table and the file it came from. */
-export interface TorqueCurveInfo {
-  motor: MotorPart & { torqueCurve: TorquePoint[] | null };
-  file: Attachment | null;
-  sourceUnits?: { speed: string; torque: string };
-}
 
 /** Largest torque table file [bytes]. */
 export const TORQUE_CSV_MAX_BYTES = 64 * 1024;

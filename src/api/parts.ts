@@ -1,83 +1,10 @@
-import type { TorquePoint } from '@/engine';
+import type { PartOf, PartShelf } from '@/contracts';
 import { get, patch, post } from './http';
 
-/** The three shelves of the Parts shelf. */
-export type PartKind = 'belts' | 'pulleys' | 'motors';
-
-/** Fields every part carries. */
-interface PartBase {
-  id: number;
-  name: string;
-  /** Where the numbers come from, e.g. "from memory — replace with your datasheet". */
-  note: string | null;
-  /** A retired part stays readable (old designs name it) but is not offered for new picks. */
-  retired: boolean;
-}
-
-/** A belt profile (mirrors the design's "belt"). */
-export interface BeltPart extends PartBase {
-  profile: string;
-  /** Standard the pitch comes from ("ISO 13050"), or "". */
-  standard: string | null;
-  /** Where the numbers come from (datasheet, "from memory"…), or "". */
-  source?: string | null;
-  pitchMm: number;
-  widthMm: number;
-  linearMassKgPerM: number;
-  axialStiffnessN: number;
-  allowableTensionN: number;
-  minPulleyTeeth: number;
-}
-
-/** Roles of a pulley on the shelf. */
-export type PulleyKind = 'drive' | 'idler-toothed' | 'idler-smooth';
-
-/** Words for each pulley role. */
-export const PULLEY_KIND_LABELS: Record<PulleyKind, string> = {
-  drive: 'Drive pulley',
-  'idler-toothed': 'Toothed idler',
-  'idler-smooth': 'Smooth idler',
-};
-
-/** A drive pulley or idler. */
-export interface PulleyPart extends PartBase {
-  teeth: number;
-  pitchMm: number;
-  /** Belt profile it meshes with ("GT2", "HTD 3M"…). */
-  profile: string;
-  kind: PulleyKind;
-  boreMm: number;
-  /** Moment of inertia, when known [kg·m²]. */
-  inertiaKgM2: number | null;
-}
-
-/** A stepper motor (mirrors the design's "motor"). */
-export interface MotorPart extends PartBase {
-  frameMm: number;
-  stepAngleDeg: number;
-  holdingTorqueNm: number;
-  ratedCurrentA: number;
-  phaseResistanceOhm: number;
-  phaseInductanceMh: number;
-  rotorInertiaKgM2: number;
-  massKg: number;
-  torqueCurve: TorquePoint[] | null;
-  /** Supply [V] and driver RMS current [A] the torque table was measured at (null when not recorded). */
-  torqueCurveConditions: TorqueConditions | null;
-}
-
-/** What a torque table was measured at. */
-export interface TorqueConditions {
-  supplyV: number;
-  currentRmsA: number;
-}
-
-/** Part type per shelf. */
-export interface PartOf {
-  belts: BeltPart;
-  pulleys: PulleyPart;
-  motors: MotorPart;
-}
+export { PULLEY_KIND_LABELS } from '@/contracts';
+export type { BeltPart, MotorPart, PartOf, PulleyKind, PulleyPart } from '@/contracts';
+/** The three shelves of the Parts shelf (the client's name for the contract's PartShelf). */
+export type PartKind = PartShelf;
 
 /** Fields sent when adding or editing a part (no id; retired only on edit). */
 export type PartInput<K extends PartKind> = Omit<PartOf[K], 'id' | 'retired'> & { retired?: boolean };

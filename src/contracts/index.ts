@@ -8,3 +8,4 @@ export * from './revisions';
 export * from './sheets';
 export * from './measurements';
 export * from './attachments';
+export * from './parts';

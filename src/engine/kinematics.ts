@@ -3,7 +3,7 @@ import { apply2, inverse2, transpose2, type Matrix2 } from './linalg';
 import type { Mechanism, MotorDirection } from './types';
 
 /** The mechanisms the engine knows. */
-export const MECHANISMS: readonly Mechanism[] = ['corexy', 'hbot', 'cartesian'];
+export const MECHANISMS = ['corexy', 'hbot', 'cartesian'] as const satisfies readonly Mechanism[];
 
 function checkMechanism(scope: string, mechanism: unknown): Mechanism {
   if (!MECHANISMS.includes(mechanism as Mechanism)) {
