@@ -7,12 +7,21 @@ const alias = { '@': fileURLToPath(new URL('./src', import.meta.url)) };
 // Three projects: `unit` (engine + server units, node), `client` (Vue components/stores, jsdom),
 // `api` (supertest on createApp() against the throw-away MariaDB started by scripts/test.ts),
 // `e2e` (playwright-core driving Debian chromium against the built app).
+// Timeouts are generous everywhere: a test fails on a wrong answer, never on a slow machine (a unit test that evaluates
+// every demo design can take several seconds on two busy cores); speed is measured by `npm run bench`, not here.
+const UNIT_TIMEOUT_MS = 30000;
 export default defineConfig({
   test: {
     projects: [
       {
         resolve: { alias },
-        test: { name: 'unit', environment: 'node', include: ['tests/unit/**/*.test.ts'], exclude: ['tests/unit/client/**'] },
+        test: {
+          name: 'unit',
+          environment: 'node',
+          include: ['tests/unit/**/*.test.ts'],
+          exclude: ['tests/unit/client/**'],
+          testTimeout: UNIT_TIMEOUT_MS,
+        },
       },
       {
         plugins: [vue()],
@@ -21,6 +30,7 @@ export default defineConfig({
           name: 'client',
           environment: 'jsdom',
           include: ['tests/unit/client/**/*.test.ts'],
+          testTimeout: UNIT_TIMEOUT_MS,
           server: { deps: { inline: ['element-plus'] } },
         },
       },
