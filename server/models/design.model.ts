@@ -1,4 +1,4 @@
-import { MECHANISMS } from '@/engine';
+import type { Mechanism } from '@/engine';
 import {
   DataTypes,
   Model,
@@ -10,14 +10,12 @@ import {
 } from 'sequelize';
 import type { User } from './user.model';
 
-import { DESIGN_STATUSES, type DesignResultSummary, type DesignStatus } from '@/contracts';
+import type { DesignResultSummary, DesignStatus } from '@/contracts';
 
-export { DESIGN_STATUSES, type DesignStatus };
+export type { DesignStatus };
 
-/** The three mechanisms the engine knows. */
-/** The mechanisms a design can be (the engine's list: one declaration). */
-export const DESIGN_MECHANISMS = MECHANISMS;
-export type DesignMechanism = (typeof DESIGN_MECHANISMS)[number];
+/** The mechanisms a design can be (the engine's MECHANISMS: one declaration). */
+export type DesignMechanism = Mechanism;
 
 /**
  * A design being worked on: its current inputs (a validated design document, defaults filled in),

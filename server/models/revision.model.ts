@@ -11,9 +11,9 @@ import type { UnitSystem } from '@/format';
 import type { Design } from './design.model';
 import type { User } from './user.model';
 
-import { REVISION_STATUSES, type RevisionStatus, type RevisionSummaryFigures } from '@/contracts';
+import type { RevisionStatus, RevisionSummaryFigures } from '@/contracts';
 
-export { REVISION_STATUSES, type RevisionStatus };
+export type { RevisionStatus };
 
 /**
  * A submitted design, frozen: the design document, the full engine result, the engine version and the

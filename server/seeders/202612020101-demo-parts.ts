@@ -2,7 +2,7 @@ import { Op } from 'sequelize';
 import type { MigrationFn } from 'umzug';
 import type { SeedContext } from '../migrator';
 import { Part, User, type PartKind } from '../models';
-import type { BeltPartInput, MotorPartInput, PulleyPartInput } from '../schemas/parts.schema';
+import type { BeltPartInput, MotorPartInput, PulleyPartInput } from '@/contracts';
 import { PART_FIELDS } from '../services/parts.service';
 
 // The starter parts shelf. Pitches are the nominal pitches of the named standards; every other number is a

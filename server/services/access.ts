@@ -1,4 +1,4 @@
-import { EDITABLE_DESIGN_STATUSES, type DesignStatus, type RevisionStatus, type Role } from '@/contracts';
+import type { DesignEditable, DesignStatus, RevisionStatus, Role } from '@/contracts';
 import { forbidden } from '../errors';
 
 /**
@@ -50,9 +50,17 @@ export const isDesignerOwner = (actor: Actor, design: { ownerId: number }): bool
 /** May change the design (inputs, name), submit, withdraw or reopen it, or attach files to it: its owner as designer, or an admin. */
 export const mayChangeDesign = (actor: Actor, design: { ownerId: number }): boolean => isAdmin(actor) || isDesignerOwner(actor, design);
 
-/** May edit the design now: may change it and it is a draft or returned (`canEdit`). */
-export const mayEditDesign = (actor: Actor, design: { ownerId: number; status: DesignStatus }): boolean =>
-  mayChangeDesign(actor, design) && EDITABLE_DESIGN_STATUSES.includes(design.status);
+/**
+ * May `actor` edit the design's inputs now, and if not, why (`editable` of a design detail; `canEdit` is its `ok`):
+ * frozen in review; frozen once approved (a new revision is for those who may change it); a draft or a returned design
+ * (EDITABLE_DESIGN_STATUSES) must be theirs to change — as a designer who owns it, or as an admin.
+ */
+export function designEditable(actor: Actor, design: { ownerId: number; status: DesignStatus }): DesignEditable {
+  if (design.status === 'in_review') return { ok: false, reason: 'in_review' };
+  if (design.status === 'approved') return { ok: false, reason: mayChangeDesign(actor, design) ? 'approved_reopenable' : 'approved' };
+  if (mayChangeDesign(actor, design)) return { ok: true, reason: null };
+  return { ok: false, reason: actor.roles.includes('designer') || isAdmin(actor) ? 'not_owner' : 'not_designer' };
+}
 
 /** May delete the design now: may change it and it is a draft or returned (`canDelete`). */
 export const mayDeleteDesign = (actor: Actor, design: { ownerId: number; status: DesignStatus }): boolean =>

@@ -10,9 +10,18 @@ import {
 } from '@/engine';
 import { AppError, conflict, notFound, validationError, type ErrorDetail } from '../errors';
 import { getSequelize } from '../db';
-import { EDITABLE_DESIGN_STATUSES, type DesignDetail, type DesignListItem, type DesignResultSummary, type Page } from '@/contracts';
+import {
+  EDITABLE_DESIGN_STATUSES,
+  type CreateDesignRequest,
+  type DesignDetail,
+  type DesignListItem,
+  type DesignListRequest,
+  type DesignResultSummary,
+  type Page,
+  type UpdateDesignRequest,
+  type VersionConflictDetails,
+} from '@/contracts';
 import { Attachment, Design, Revision, User, type DesignStatus } from '../models';
-import type { CreateDesignInput, ListDesignsQuery, UpdateDesignInput } from '../schemas/designs.schema';
 import { removeUnreferencedBytes } from './fileStore.service';
 import { parseJson } from './storedJson';
 import { storedResultsInPool } from '../workers/pool';
@@ -21,9 +30,9 @@ import {
   assertMayChangeDesign,
   assertMayReadDesign,
   DELETABLE_DESIGN_STATUSES,
+  designEditable,
   designReadNeedsAuthor,
   mayDeleteDesign,
-  mayEditDesign,
 } from './access';
 import type { PublicUser } from './users.service';
 
@@ -41,7 +50,7 @@ function toListItem(row: DesignRow, actor: PublicUser): DesignListItem {
     version: row.version,
     updatedAt: new Date(row.updatedAt).toISOString(),
     createdAt: new Date(row.createdAt).toISOString(),
-    canEdit: mayEditDesign(actor, { ownerId: row.ownerId, status }),
+    canEdit: designEditable(actor, { ownerId: row.ownerId, status }).ok,
     canDelete: mayDeleteDesign(actor, { ownerId: row.ownerId, status }),
   };
 }
@@ -50,6 +59,7 @@ function toDetail(row: DesignRow, actor: PublicUser): DesignDetail {
   return {
     ...toListItem(row, actor),
     inputs: parseJson<DesignInput>(row.inputs),
+    editable: designEditable(actor, { ownerId: row.ownerId, status: row.status as DesignStatus }),
     updatedBy: row.updatedBy ? { id: row.updatedBy.id, name: row.updatedBy.name } : null,
     latestResultSummary: row.resultSummary ? parseJson<DesignResultSummary>(row.resultSummary) : null,
   };
@@ -165,7 +175,7 @@ function sortOrder(sort: string): Order {
  * Lists designs for the Designs table: every team member sees every design (reviewers and makers read only).
  * Filters by name search, status, mechanism and owner ("me" or an id); sorts by one column.
  */
-export async function listDesigns(actor: PublicUser, query: ListDesignsQuery): Promise<Page<DesignListItem>> {
+export async function listDesigns(actor: PublicUser, query: DesignListRequest): Promise<Page<DesignListItem>> {
   const where: Record<string | symbol, unknown> = {};
   if (query.q?.trim()) where[Op.and] = nameSearch(query.q);
   if (query.status?.length) where.status = { [Op.in]: query.status };
@@ -225,7 +235,7 @@ export async function getDesign(actor: PublicUser, id: number): Promise<DesignDe
  * Creates a draft owned by `actor` from a document (also import), a mechanism template or a copy of another
  * design (any design the user can read, in any state). Travel and the result summary are computed now.
  */
-export async function createDesign(actor: PublicUser, input: CreateDesignInput): Promise<DesignDetail> {
+export async function createDesign(actor: PublicUser, input: CreateDesignRequest): Promise<DesignDetail> {
   let document: DesignInput;
   let origin: string;
   if (input.mode === 'template') {
@@ -272,7 +282,7 @@ export async function createDesign(actor: PublicUser, input: CreateDesignInput):
 
 /** 409 `version_conflict`: someone saved since the client read `version`; details say who and when. */
 function versionConflict(row: DesignRow): AppError {
-  const details = {
+  const details: VersionConflictDetails = {
     currentVersion: row.version,
     updatedBy: row.updatedBy ? { id: row.updatedBy.id, name: row.updatedBy.name } : null,
     updatedAt: new Date(row.updatedAt).toISOString(),
@@ -299,7 +309,7 @@ function notEditable(row: Design): AppError {
  * version still equals the one the client read and the design is still editable, so two saves can never
  * both win. @returns the design with its new version.
  */
-export async function updateDesign(actor: PublicUser, id: number, patch: UpdateDesignInput): Promise<DesignDetail> {
+export async function updateDesign(actor: PublicUser, id: number, patch: UpdateDesignRequest): Promise<DesignDetail> {
   const row = await findDesign(id);
   assertMayChangeDesign(actor, row, 'change');
   if (!EDITABLE_DESIGN_STATUSES.includes(row.status as DesignStatus)) throw notEditable(row);

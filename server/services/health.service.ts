@@ -1,8 +1,6 @@
+import type { Health } from '@/contracts';
 import { getConfig } from '../config';
 import { getSequelize } from '../db';
-
-/** The health answer: status, database reachability, version, and whether the Outbox exists. */
-export type Health = { status: 'ok' | 'degraded'; db: 'up' | 'down'; version: string; outbox: boolean };
 
 /** Pings the database (2 s limit). */
 export async function checkHealth(): Promise<Health> {

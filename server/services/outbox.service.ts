@@ -1,23 +1,20 @@
-import type { Page } from '@/contracts';
+import type { OutboxMail, Page } from '@/contracts';
 import { getConfig } from '../config';
 import { AppError } from '../errors';
-
-/** One e-mail caught by the local mail catcher (scripts/mailcatcher.ts). */
-export type OutboxMessage = { id: string; from: string; to: string[]; subject: string; date: string; text: string; html: string };
 
 /**
  * Lists the mail the local catcher received, newest first. Reads the catcher's loopback HTTP endpoint,
  * so every API process sees the same outbox.
  * @throws AppError 503 when the catcher is not running.
  */
-export async function listOutbox(query: { page: number; pageSize: number; to?: string }): Promise<Page<OutboxMessage>> {
+export async function listOutbox(query: { page: number; pageSize: number; to?: string }): Promise<Page<OutboxMail>> {
   const { smtp, mailcatcherHttpPort } = getConfig();
   const url = `http://${smtp.host}:${mailcatcherHttpPort}/messages`;
-  let messages: OutboxMessage[];
+  let messages: OutboxMail[];
   try {
     const res = await fetch(url, { signal: AbortSignal.timeout(3000) });
     if (!res.ok) throw new Error(`HTTP ${res.status}`);
-    messages = (await res.json()) as OutboxMessage[];
+    messages = (await res.json()) as OutboxMail[];
   } catch (err) {
     throw new AppError('mailcatcher_unavailable', `The local mail catcher is not reachable at ${url}. Start the app with npm start.`, 503, {
       cause: err,

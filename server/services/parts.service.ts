@@ -1,16 +1,17 @@
-import type { Page, PublicPart } from '@/contracts';
-import { Op, UniqueConstraintError, type Transaction, type WhereOptions } from 'sequelize';
-import { AppError, notFound, validationError, zodDetails } from '../errors';
-import { getSequelize } from '../db';
-import { Part, type PartKind } from '../models';
 import {
   beltPartSchema,
   motorPartSchema,
   pulleyPartSchema,
   type ListPartsQuery,
+  type Page,
   type PartInput,
   type PartPatch,
-} from '../schemas/parts.schema';
+  type PublicPart,
+} from '@/contracts';
+import { Op, UniqueConstraintError, type Transaction, type WhereOptions } from 'sequelize';
+import { AppError, notFound, validationError, zodDetails } from '../errors';
+import { getSequelize } from '../db';
+import { Part, type PartKind } from '../models';
 import { recordAudit } from './audit.service';
 import type { PublicUser } from './users.service';
 

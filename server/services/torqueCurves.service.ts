@@ -1,8 +1,7 @@
-import type { TorqueCurveInfo } from '@/contracts';
 import { AppError, notFound } from '../errors';
 import type { UploadedFile } from '../uploads/uploadedFile';
 import { Attachment, Part } from '../models';
-import { torqueCurveSchema, type TorqueConditions } from '../schemas/parts.schema';
+import { torqueCurveSchema, type TorqueConditions, type TorqueCurveInfo } from '@/contracts';
 import { CsvError, parseTorqueCsv, assertTypeMatches, type CsvErrorDetail, type TorquePoint, type TorqueTable } from '../uploads';
 import { latestPartAttachment, toPublicAttachment } from './attachments.service';
 import { sanitiseFileName, storeWithRows, withUploadErrors } from './fileStore.service';

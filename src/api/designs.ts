@@ -1,47 +1,27 @@
-import type { DesignInputRaw, Mechanism } from '@/engine';
 import { apiUrl, del, get, patch, post, upload } from './http';
 import type { Page } from './types';
 
-import { DESIGN_STATUSES, type DesignDetail, type DesignListItem, type DesignStatus, type JobUploadResult } from '@/contracts';
+import {
+  DESIGN_STATUSES,
+  type CreateDesignBody,
+  type DesignDetail,
+  type DesignListItem,
+  type DesignListQuery,
+  type DesignSortKey,
+  type DesignStatus,
+  type JobUploadResult,
+  type UpdateDesignBody,
+  type VersionConflictDetails,
+} from '@/contracts';
 
-export { DESIGN_STATUSES, type DesignStatus, type JobUploadResult };
+// Request and answer shapes come from the contract (src/contracts, request schemas in src/contracts/requests).
+export { DESIGN_STATUSES, type DesignListQuery, type DesignSortKey, type DesignStatus, type JobUploadResult, type VersionConflictDetails };
 
 /** One row of the Designs table (src/contracts DesignListItem). */
 export type DesignSummary = DesignListItem;
 
 /** A whole design, as GET /api/designs/:id answers (src/contracts DesignDetail). */
 export type Design = DesignDetail;
-
-/** Sortable columns of the list; a leading "-" sorts descending. */
-export type DesignSortKey = 'name' | 'updatedAt' | 'status' | 'mechanism' | 'owner';
-
-/** Query of the Designs list. */
-export interface DesignListQuery {
-  page?: number;
-  pageSize?: number;
-  /** e.g. "-updatedAt" */
-  sort?: `${'' | '-'}${DesignSortKey}`;
-  q?: string;
-  status?: DesignStatus | '';
-  mechanism?: Mechanism | '';
-}
-
-/** Ways to create a design: a whole document, a mechanism template, or a copy of another design. */
-export type CreateDesignInput = DesignInputRaw | { template: Mechanism; name: string } | { copyOf: number; name?: string };
-
-/** Fields a PATCH may change; `version` is the one the client last saw. */
-export interface UpdateDesignInput {
-  inputs?: DesignInputRaw;
-  name?: string;
-  version: number;
-}
-
-/** Details of a 409 version conflict: who saved in between, and the version now stored. */
-export interface VersionConflictDetails {
-  currentVersion: number;
-  updatedBy?: { id: number; name: string } | string | null;
-  updatedAt?: string;
-}
 
 /** Lists designs the signed-in user may see, one page at a time. */
 export const listDesigns = (query: DesignListQuery = {}): Promise<Page<DesignSummary>> => get('/designs', { ...query });
@@ -50,10 +30,10 @@ export const listDesigns = (query: DesignListQuery = {}): Promise<Page<DesignSum
 export const getDesign = (id: number): Promise<Design> => get(`/designs/${id}`);
 
 /** Creates a design from a document, a template or a copy; answers the new design. */
-export const createDesign = (input: CreateDesignInput): Promise<Design> => post('/designs', input);
+export const createDesign = (input: CreateDesignBody): Promise<Design> => post('/designs', input);
 
 /** Saves inputs and/or the name; answers 409 `version_conflict` when `version` is stale. */
-export const updateDesign = (id: number, input: UpdateDesignInput): Promise<Design> => patch(`/designs/${id}`, input);
+export const updateDesign = (id: number, input: UpdateDesignBody): Promise<Design> => patch(`/designs/${id}`, input);
 
 /** Deletes a draft. */
 export const deleteDesign = (id: number): Promise<void> => del(`/designs/${id}`);

@@ -1,4 +1,4 @@
-import type { PartOf, PartShelf } from '@/contracts';
+import type { PartInputOf, PartOf, PartShelf } from '@/contracts';
 import { get, patch, post } from './http';
 
 export { PULLEY_KIND_LABELS } from '@/contracts';
@@ -6,8 +6,8 @@ export type { BeltPart, MotorPart, PartOf, PulleyKind, PulleyPart } from '@/cont
 /** The three shelves of the Parts shelf (the client's name for the contract's PartShelf). */
 export type PartKind = PartShelf;
 
-/** Fields sent when adding or editing a part (no id; retired only on edit). */
-export type PartInput<K extends PartKind> = Omit<PartOf[K], 'id' | 'retired'> & { retired?: boolean };
+/** Fields sent when adding or editing a part: the contract's part schema of the shelf (retired only on edit). */
+export type PartInput<K extends PartKind> = PartInputOf[K] & { retired?: boolean };
 
 function itemsOf<T>(body: T[] | { items: T[] }): T[] {
   return Array.isArray(body) ? body : body.items;

@@ -1,19 +1,8 @@
 import type { UnitSystem } from '@/format';
-import type {
-  CommentItem,
-  DesignStatus,
-  InputChange,
-  Page,
-  PersonRef,
-  ResultChange,
-  RevisionDetail,
-  RevisionDiff,
-  RevisionListItem,
-  RevisionStatus,
-  RevisionSummaryFigures,
-} from '@/contracts';
+import type { CommentItem, DesignStatus, Page, RevisionDetail, RevisionDiff, RevisionListItem, RevisionListQuery } from '@/contracts';
 import { get, post } from './http';
 
+// Request and answer shapes come from the contract (src/contracts); views import them from here.
 export type {
   InputChange,
   PersonRef,
@@ -21,20 +10,12 @@ export type {
   RevisionDetail,
   RevisionDiff,
   RevisionListItem,
+  RevisionListQuery,
   RevisionStatus,
   RevisionSummaryFigures,
-};
+} from '@/contracts';
 /** One comment of a revision's discussion (src/contracts CommentItem). */
 export type RevisionComment = CommentItem;
-
-/** Query of the review desk list. */
-export interface RevisionListQuery {
-  /** One status or a comma-separated list, e.g. "in_review". */
-  status?: string;
-  designId?: number;
-  page?: number;
-  pageSize?: number;
-}
 
 /** Lists revisions (reviewers and admins), oldest submission first. */
 export const listRevisions = (query: RevisionListQuery = {}): Promise<Page<RevisionListItem>> => get('/revisions', { ...query });

@@ -1,19 +1,13 @@
-import type { Page, SheetDetail, SheetListItem, SheetPaper } from '@/contracts';
+import type { Page, SheetDetail, SheetListItem, SheetListQuery, SheetPaper } from '@/contracts';
 import { apiUrl, get } from './http';
 
 export type { SheetDetail, SheetListItem, SheetPaper };
 
-/** Query of the Sheets list. */
-export interface SheetListQuery {
-  page?: number;
-  pageSize?: number;
-  designId?: number;
-  /** Only sheets not superseded by a later approval. */
-  current?: boolean;
-}
-
-/** Lists approved sheets, newest approval first. */
-export const listSheets = (query: SheetListQuery = {}): Promise<Page<SheetListItem>> =>
+/**
+ * Lists approved sheets, newest approval first. The query is the contract's, except that `current` is a flag here:
+ * true asks only for sheets not superseded by a later approval (sent as `current=true`).
+ */
+export const listSheets = (query: Omit<SheetListQuery, 'current'> & { current?: boolean } = {}): Promise<Page<SheetListItem>> =>
   get('/sheets', { ...query, current: query.current ? 'true' : undefined });
 
 /** Reads one sheet with its build figures. */

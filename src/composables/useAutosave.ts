@@ -73,8 +73,9 @@ function conflictDetails(err: unknown): VersionConflictDetails | null {
   if (err.code !== 'version_conflict' && typeof details?.currentVersion !== 'number') return null;
   return {
     currentVersion: typeof details?.currentVersion === 'number' ? details.currentVersion : Number.NaN,
+    // A conflict without details (an older server, another route) still opens the dialog: "Someone", no date.
     updatedBy: details?.updatedBy ?? null,
-    updatedAt: details?.updatedAt,
+    updatedAt: details?.updatedAt ?? '',
   };
 }
 

@@ -1,7 +1,7 @@
 import type { DesignInput, Mechanism } from '@/engine';
 import type { PublicAttachment } from './attachments';
 import type { PersonRef } from './common';
-import type { DesignStatus } from './enums';
+import type { DesignStatus, ReadOnlyReason } from './enums';
 
 /**
  * A few numbers of the engine result, stored at save time so lists and cards need not re-run the engine.
@@ -40,9 +40,17 @@ export type DesignListItem = {
   canDelete: boolean;
 };
 
+/**
+ * Whether the signed-in user may edit the design's inputs now, and if not why (the server decides with its access
+ * rules; the client words the reason with the formatting layer's `readOnlyReasonText`). `ok` equals `canEdit`.
+ */
+export type DesignEditable = { ok: true; reason: null } | { ok: false; reason: ReadOnlyReason };
+
 /** A design with its inputs (the design document, defaults filled in) and the summary computed when it was last saved. */
 export type DesignDetail = DesignListItem & {
   inputs: DesignInput;
+  /** May the asker edit it now, and if not, why. */
+  editable: DesignEditable;
   /** Who saved last. */
   updatedBy: PersonRef | null;
   latestResultSummary: DesignResultSummary | null;
@@ -55,3 +63,9 @@ export type JobUploadResult = {
   job: { pointCount: number; sourceUnits: { x: 'mm' | 'in'; y: 'mm' | 'in'; dwell: 's' | 'ms' | null } };
   file: PublicAttachment | null;
 };
+
+/**
+ * The `details` of a 409 `version_conflict` answer to a save (PATCH /api/designs/:id, the job upload): the version now
+ * stored, who saved it and when.
+ */
+export type VersionConflictDetails = { currentVersion: number; updatedBy: PersonRef | null; updatedAt: string };

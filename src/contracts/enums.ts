@@ -27,3 +27,15 @@ export type SheetPaper = (typeof SHEET_PAPERS)[number];
 /** How a belt measurement's frequency was obtained: typed in, or found in an uploaded recording. */
 export const MEASUREMENT_SOURCES = ['typed', 'recording'] as const;
 export type MeasurementSource = (typeof MEASUREMENT_SOURCES)[number];
+
+/** Roles of a pulley on the parts shelf: a drive pulley on a motor shaft, a toothed idler, a smooth (flat) idler. */
+export const PULLEY_KINDS = ['drive', 'idler-toothed', 'idler-smooth'] as const;
+export type PulleyKind = (typeof PULLEY_KINDS)[number];
+
+/**
+ * Why a design's inputs are read-only for the one who asks (`DesignDetail.editable`), in the order the server checks:
+ * in review (frozen until a reviewer decides); approved, and the asker may start a new revision; approved, and only its
+ * owner or an admin may; the asker is neither designer nor admin; the design belongs to another designer.
+ */
+export const READ_ONLY_REASONS = ['in_review', 'approved_reopenable', 'approved', 'not_designer', 'not_owner'] as const;
+export type ReadOnlyReason = (typeof READ_ONLY_REASONS)[number];

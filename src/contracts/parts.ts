@@ -1,6 +1,7 @@
 // The parts shelf as the API shows it (GET/POST/PATCH /api/parts/<shelf>, the torque-table routes).
 import type { TorquePoint } from '@/engine';
 import type { PublicAttachment } from './attachments';
+import type { PulleyKind } from './enums';
 
 /** The three shelves of the Parts shelf. */
 export type PartShelf = 'belts' | 'pulleys' | 'motors';
@@ -29,9 +30,6 @@ export interface BeltPart extends PartBase {
   allowableTensionN: number;
   minPulleyTeeth: number;
 }
-
-/** Roles of a pulley on the shelf. */
-export type PulleyKind = 'drive' | 'idler-toothed' | 'idler-smooth';
 
 /** Words for each pulley role. */
 export const PULLEY_KIND_LABELS: Record<PulleyKind, string> = {

@@ -19,6 +19,15 @@ export { formatNumber, formatForInput, parseNumberInput, formatSignedPercent, RE
 export { formatQuantity, withUnit, NBSP } from './formatQuantity';
 export { formatKind, kindDisplay, kindLabel, kindToShown, kindFromUnit, FINE_LENGTH_BELOW_MM, type KindDisplay } from './formatKind';
 export { checkText, checkKind, renderParts, type CheckText } from './checkText';
-export { MECHANISM_LABELS, MECHANISM_SHORT, DESIGN_STATUS_LABELS, SEVERITY_LABELS, statusLabel, mechanismLabel, plural } from './labels';
+export {
+  MECHANISM_LABELS,
+  MECHANISM_SHORT,
+  DESIGN_STATUS_LABELS,
+  SEVERITY_LABELS,
+  statusLabel,
+  mechanismLabel,
+  plural,
+  readOnlyReasonText,
+} from './labels';
 export { INPUT_FIELDS, fieldLabel, fieldMessage, formatInputValue, type InputField } from './inputFields';
 export { formatDate, formatDateTime } from './formatDate';

@@ -1,4 +1,5 @@
 import type { Mechanism, Severity } from '@/engine';
+import type { ReadOnlyReason } from '@/contracts';
 
 /** Mechanism names with what sets them apart, for pickers and headings. */
 export const MECHANISM_LABELS: Record<Mechanism, string> = {
@@ -46,4 +47,24 @@ export function mechanismLabel(mechanism: string): string {
  */
 export function plural(count: number, one: string, many = `${one}s`): string {
   return `${count} ${count === 1 ? one : many}`;
+}
+
+/**
+ * Why a design's inputs are read-only, in one sentence (the server says which reason: `DesignDetail.editable`).
+ * @param reason - the server's reason code
+ * @param ownerName - the design's owner, named when the design is someone else's
+ */
+export function readOnlyReasonText(reason: ReadOnlyReason, ownerName: string): string {
+  switch (reason) {
+    case 'in_review':
+      return 'This design is in review: its inputs are frozen until a reviewer approves or returns it.';
+    case 'approved_reopenable':
+      return 'This design is approved: its inputs are frozen. Start a new revision to change it; the approved sheet stays in force until the new revision is approved.';
+    case 'approved':
+      return 'This design is approved: its inputs are frozen. Its owner or an admin can start a new revision.';
+    case 'not_designer':
+      return 'You can read this design; only designers and admins change designs.';
+    case 'not_owner':
+      return `This design belongs to ${ownerName || 'another designer'}; only the owner or an admin may change it.`;
+  }
 }

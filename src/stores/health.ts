@@ -36,7 +36,10 @@ export const useHealthStore = defineStore('health', () => {
         health.value = await fetchHealth();
       } catch (err) {
         // 503 still carries the health body (database down); keep its flags.
-        health.value = isApiError(err) && err.status === 503 ? { status: 'degraded', db: 'down', ...asHealth(err.body) } : null;
+        health.value =
+          isApiError(err) && err.status === 503
+            ? { status: 'degraded', db: 'down', version: '', outbox: false, ...asHealth(err.body) }
+            : null;
       } finally {
         pending = null;
       }

@@ -1,4 +1,4 @@
-import { ROLES, type Role } from '@/api/types';
+import type { Role } from '@/contracts';
 
 /** Display name of each role. */
 export const ROLE_LABELS: Record<Role, string> = {
@@ -17,10 +17,16 @@ export const ROLE_DESCRIPTIONS: Record<Role, string> = {
 };
 
 /**
+ * Every role of the contract, in the order the screens list them: the order of ROLE_DESCRIPTIONS (a record over the
+ * contract's roles, so none is missing and none is added here).
+ */
+export const ROLES_ON_SCREEN = Object.keys(ROLE_DESCRIPTIONS) as Role[];
+
+/**
  * Sorts roles into the order the UI shows them (designer, reviewer, maker, admin).
  * @param roles - roles in any order
  * @returns a new sorted array
  */
 export function sortRoles(roles: readonly Role[]): Role[] {
-  return [...roles].sort((a, b) => ROLES.indexOf(a) - ROLES.indexOf(b));
+  return [...roles].sort((a, b) => ROLES_ON_SCREEN.indexOf(a) - ROLES_ON_SCREEN.indexOf(b));
 }

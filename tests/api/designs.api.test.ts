@@ -100,6 +100,46 @@ describe('role matrix for /api/designs', () => {
   });
 });
 
+describe('GET /api/designs/:id editable (the server says whether the asker may edit, and why not)', () => {
+  it.each([
+    { who: 'owner', status: 'draft', editable: { ok: true, reason: null } },
+    { who: 'owner', status: 'returned', editable: { ok: true, reason: null } },
+    { who: 'admin', status: 'draft', editable: { ok: true, reason: null } },
+    { who: 'otherDesigner', status: 'draft', editable: { ok: false, reason: 'not_owner' } },
+    { who: 'reviewer', status: 'draft', editable: { ok: false, reason: 'not_designer' } },
+    { who: 'maker', status: 'returned', editable: { ok: false, reason: 'not_designer' } },
+    { who: 'owner', status: 'in_review', editable: { ok: false, reason: 'in_review' } },
+    { who: 'admin', status: 'in_review', editable: { ok: false, reason: 'in_review' } },
+    { who: 'owner', status: 'approved', editable: { ok: false, reason: 'approved_reopenable' } },
+    { who: 'admin', status: 'approved', editable: { ok: false, reason: 'approved_reopenable' } },
+    { who: 'otherDesigner', status: 'approved', editable: { ok: false, reason: 'approved' } },
+  ] as { who: Exclude<Who, 'anonymous'>; status: DesignStatus; editable: { ok: boolean; reason: string | null } }[])(
+    'when $who reads a $status design, then editable is $editable.ok ($editable.reason) and canEdit agrees',
+    async ({ who, status, editable }) => {
+      // Arrange
+      const design = await createDesign({ owner: users.owner });
+      await Design.update({ status }, { where: { id: design.id } });
+
+      // Act
+      const res = await agents[who].get(`/api/designs/${design.id}`);
+
+      // Assert
+      expect(res.status).toBe(200);
+      expect(res.body.editable).toEqual(editable);
+      expect(res.body.canEdit).toBe(editable.ok);
+    },
+  );
+
+  it('when the owner saves a draft, then the answer still says it is editable', async () => {
+    const design = await createDesign({ owner: users.owner });
+
+    const res = await agents.owner.patch(`/api/designs/${design.id}`).send({ name: `Still mine ${uniqueTag()}`, version: 1 });
+
+    expect(res.status).toBe(200);
+    expect(res.body.editable).toEqual({ ok: true, reason: null });
+  });
+});
+
 describe('POST /api/designs', () => {
   it('when a designer posts a document, then 201 with a version-1 draft they own, and GET returns the same inputs', async () => {
     const doc = documentNamed(`Bench dispensing stage ${uniqueTag()}`);
@@ -290,6 +330,7 @@ describe('GET /api/designs/:id', () => {
       canEdit: false,
       canDelete: false,
       inputs: design.inputs,
+      editable: { ok: false, reason: 'not_designer' },
       updatedBy: { id: users.owner.id, name: users.owner.name },
       latestResultSummary: expect.objectContaining({ engineVersion: expect.any(String) }),
     });

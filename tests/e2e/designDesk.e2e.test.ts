@@ -140,6 +140,8 @@ describe('Design desk journey', () => {
     await page.waitForSelector('[data-test="desk-inputs"]');
     // Assert
     await page.waitForSelector('[data-test="read-only-banner"]');
+    // The server's reason (a reviewer is not a designer), in the formatting layer's words.
+    expect(await page.textContent('[data-test="read-only-banner"]')).toContain('only designers and admins change designs');
     expect(await page.isDisabled('input[data-test="input-frame.outerXMm"]')).toBe(true);
     expect(await page.isDisabled('input[data-test="input-belt.widthMm"]')).toBe(true);
     expect(await page.isDisabled('input[data-test="design-name"]')).toBe(true);

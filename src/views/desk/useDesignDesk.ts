@@ -9,6 +9,7 @@ import { getEngineRunner } from '@/workers/engineClient';
 import type { ResultPart } from '@/workers/resultParts';
 import { useAuthStore } from '@/stores/auth';
 import { errorMessage } from '@/utils/message';
+import { readOnlyReasonText } from '@/format';
 
 /** A design document being edited (loosely typed: values may be NaN or null while someone types). */
 export type EditableDesign = Record<string, unknown> & { name: string; mechanism: Mechanism };
@@ -32,20 +33,13 @@ export function useDesignDesk(id: Ref<number>) {
   const notFound = ref(false);
 
   const isOwner = computed(() => !!design.value && !!user.value && design.value.owner?.id === user.value.id);
-  const isAdmin = computed(() => auth.hasRole('admin'));
-  /** Designers edit their own drafts (and returned work); admins any; everyone else reads. The server's flag for this user. */
-  const canEdit = computed(() => design.value?.canEdit ?? false);
-  /** Why the inputs are read-only, in one sentence (null when editable). */
+  /** Whether this user may edit the inputs now, and if not why: the server decides (access rules and state). */
+  const editable = computed(() => design.value?.editable ?? null);
+  const canEdit = computed(() => editable.value?.ok ?? false);
+  /** Why the inputs are read-only, in one sentence (null when editable or not loaded). */
   const readOnlyReason = computed(() => {
-    const d = design.value;
-    if (!d || canEdit.value) return null;
-    if (d.status === 'in_review') return 'This design is in review: its inputs are frozen until a reviewer approves or returns it.';
-    if (d.status === 'approved')
-      return isAdmin.value || (isOwner.value && auth.hasRole('designer'))
-        ? 'This design is approved: its inputs are frozen. Start a new revision to change it; the approved sheet stays in force until the new revision is approved.'
-        : 'This design is approved: its inputs are frozen. Its owner or an admin can start a new revision.';
-    if (!auth.hasRole('designer') && !isAdmin.value) return 'You can read this design; only designers and admins change designs.';
-    return `This design belongs to ${d.owner?.name ?? 'another designer'}; only the owner or an admin may change it.`;
+    const e = editable.value;
+    return e && !e.ok ? readOnlyReasonText(e.reason, design.value?.owner.name ?? '') : null;
   });
 
   /** Large result parts the visible result tab draws (the view sets it); others are fetched when a tab needs them. */

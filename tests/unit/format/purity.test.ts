@@ -6,7 +6,7 @@ const FORMAT_DIR = fileURLToPath(new URL('../../../src/format/', import.meta.url
 const ENGINE_DIR = fileURLToPath(new URL('../../../src/engine/', import.meta.url));
 
 describe('src/format', () => {
-  it('when its sources are read, then they import only each other, mathjs and the engine’s types (no DOM, no Node)', () => {
+  it('when its sources are read, then they import only each other, mathjs and the engine’s and the contract’s types (no DOM, no Node)', () => {
     // Arrange
     const files = readdirSync(FORMAT_DIR).filter((f) => f.endsWith('.ts'));
     expect(files.length).toBeGreaterThan(5);
@@ -16,7 +16,7 @@ describe('src/format', () => {
       const imports = [...src.matchAll(/^import\s+(type\s+)?[^;]*?from\s+'([^']+)'/gms)].map((m) => ({ isType: !!m[1], spec: m[2] }));
       // Assert
       for (const { isType, spec } of imports) {
-        const allowed = spec.startsWith('./') || spec === 'mathjs' || (spec === '@/engine' && isType);
+        const allowed = spec.startsWith('./') || spec === 'mathjs' || ((spec === '@/engine' || spec === '@/contracts') && isType);
         expect(allowed, `${f} imports ${spec}`).toBe(true);
       }
       expect(src, f).not.toMatch(/\b(window|document|process|localStorage)\s*\./);
