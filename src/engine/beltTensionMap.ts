@@ -1,6 +1,7 @@
 import type { BeltLayout, LoopModel } from './beltLayout';
 import type { Matrix2 } from './linalg';
 import type { TensionPlace } from './types';
+import { zeroRow } from './zeroRow';
 
 // Model and derivation: docs/models/belt-tension.md §3–4.
 
@@ -389,28 +390,34 @@ function loopOverTravel(
   let slackV = 0;
   const tightMap: number[][] = [];
   const slackMap: number[][] = [];
+  // The share ratio's coefficients as locals: numerator of the one pulling coordinate (or of A and B) and Σ L.
+  const { l0, lx, ly } = r;
+  const n0 = p.usesB ? r.b0 : r.a0;
+  const nxc = p.usesB ? r.bx : r.ax;
+  const nyc = p.usesB ? r.by : r.ay;
+  const xs = inp.xMm;
+  const ox = inp.originXMm;
+  const blank = zeroRow(nx);
   for (let iy = 0; iy < inp.yMm.length; iy++) {
     const cy = inp.originYMm + inp.yMm[iy];
-    const tRow = new Array<number>(nx);
-    const sRow = new Array<number>(nx);
+    const tRow = blank.slice();
+    const sRow = blank.slice();
     for (let ix = 0; ix < nx; ix++) {
-      const cx = inp.originXMm + inp.xMm[ix];
-      const total = r.l0 + r.lx * cx + r.ly * cy;
-      if (single) {
-        const u = p.usesB ? (r.b0 + r.bx * cx + r.by * cy) / total : (r.a0 + r.ax * cx + r.ay * cy) / total;
-        singleExtremes(sv, u, fv, e);
-      } else {
-        hullExtremes(shares, (r.a0 + r.ax * cx + r.ay * cy) / total, (r.b0 + r.bx * cx + r.by * cy) / total, va, vb, start, e);
-      }
-      tRow[ix] = Math.round((t0 + e.hi) * 100) / 100;
-      sRow[ix] = Math.round((t0 + e.lo) * 100) / 100;
-      if (t0 + e.hi > worstTight + 1e-9) {
-        worstTight = t0 + e.hi;
+      const cx = ox + xs[ix];
+      const total = l0 + lx * cx + ly * cy;
+      if (single) singleExtremes(sv, (n0 + nxc * cx + nyc * cy) / total, fv, e);
+      else hullExtremes(shares, (r.a0 + r.ax * cx + r.ay * cy) / total, (r.b0 + r.bx * cx + r.by * cy) / total, va, vb, start, e);
+      const hi = t0 + e.hi;
+      const lo = t0 + e.lo;
+      tRow[ix] = Math.round(hi * 100) / 100;
+      sRow[ix] = Math.round(lo * 100) / 100;
+      if (hi > worstTight + 1e-9) {
+        worstTight = hi;
         tightAt = iy * nx + ix;
         tightV = verts[e.hiV];
       }
-      if (t0 + e.lo < worstSlack - 1e-9) {
-        worstSlack = t0 + e.lo;
+      if (lo < worstSlack - 1e-9) {
+        worstSlack = lo;
         slackAt = iy * nx + ix;
         slackV = verts[e.loV];
       }

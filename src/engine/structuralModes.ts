@@ -1,5 +1,6 @@
 import { requireNumber } from './errors';
 import { generalizedEigen3, type Sym3 } from './linalg';
+import { zeroRow } from './zeroRow';
 
 // Structural modes beside the belt modes (docs/models/structural-modes.md): gantry beam bending, gantry yaw and
 // the cross shaft's twist, and the map of the lowest of all modes.
@@ -49,6 +50,12 @@ export function typicalGantryBeam(extrusionMm: number): TypicalBeam {
   return square.reduce((best, b) => (Math.abs(b.extrusionMm - extrusionMm) < Math.abs(best.extrusionMm - extrusionMm) ? b : best));
 }
 
+/** One side's integral of {@link beamEffectiveMassShare} on a span normalised to 1: q²(c²p³/3 − 2c·p⁵/5 + p⁷/7), c = 1 − q². */
+function shareIntegral(p: number, q: number): number {
+  const c = 1 - q * q;
+  return q * q * ((c * c * p ** 3) / 3 - (2 * c * p ** 5) / 5 + p ** 7 / 7);
+}
+
 /**
  * Share of a uniform simply supported beam's mass that moves with a point load at distance a from one support,
  * by Rayleigh's method with the static deflection of that load as the mode shape:
@@ -67,11 +74,7 @@ export function beamEffectiveMassShare(args: { spanMm: number; positionMm?: numb
   // Normalised to L = 1; a load right at a support moves nothing, so keep it a hair inside.
   const a = Math.min(1 - 1e-3, Math.max(1e-3, a0 / l));
   const b = 1 - a;
-  const part = (p: number, q: number) => {
-    const c = 1 - q * q;
-    return q * q * ((c * c * p ** 3) / 3 - (2 * c * p ** 5) / 5 + p ** 7 / 7);
-  };
-  return (part(a, b) + part(b, a)) / (4 * a ** 4 * b ** 4);
+  return (shareIntegral(a, b) + shareIntegral(b, a)) / (4 * a ** 4 * b ** 4);
 }
 
 /**
@@ -231,6 +234,28 @@ export interface LowestModeMap {
 }
 
 /**
+ * A mode at its weakest point: the first grid point within 1e-9 Hz of its lowest frequency, rows first. A row that
+ * is the same array as the one before cannot move it (the bending map repeats one row), so it is not scanned again.
+ */
+function weakestPoint(id: ModeId, map: number[][], xMm: number[], yMm: number[]): ModeReport {
+  let bestF = Infinity;
+  let bestX = 0;
+  let bestY = 0;
+  for (let iy = 0; iy < yMm.length; iy++) {
+    const row = map[iy];
+    if (iy > 0 && row === map[iy - 1]) continue;
+    for (let ix = 0; ix < xMm.length; ix++) {
+      if (row[ix] < bestF - 1e-9) {
+        bestF = row[ix];
+        bestX = ix;
+        bestY = iy;
+      }
+    }
+  }
+  return { id, label: MODE_LABELS[id], frequencyHz: bestF, xMm: xMm[bestX], yMm: yMm[bestY] };
+}
+
+/**
  * Combines the per-point frequencies of each mode into the list of modes (each at its own weakest point) and the
  * map of the lowest mode. Each mode is computed with the rest of the machine rigid, so the true lowest frequency
  * of the coupled machine is somewhat lower where two modes are close (see the docs page).
@@ -243,23 +268,7 @@ export function lowestModeMap(args: { xMm: number[]; yMm: number[]; maps: Partia
   const ids = (Object.keys(args.maps) as ModeId[]).filter((id) => args.maps[id]);
   const ny = args.yMm.length;
   const nx = args.xMm.length;
-  const modes: ModeReport[] = ids.map((id) => {
-    const map = args.maps[id]!;
-    let bestF = Infinity;
-    let bestX = 0;
-    let bestY = 0;
-    for (let iy = 0; iy < ny; iy++) {
-      const row = map[iy];
-      for (let ix = 0; ix < nx; ix++) {
-        if (row[ix] < bestF - 1e-9) {
-          bestF = row[ix];
-          bestX = ix;
-          bestY = iy;
-        }
-      }
-    }
-    return { id, label: MODE_LABELS[id], frequencyHz: bestF, xMm: args.xMm[bestX], yMm: args.yMm[bestY] };
-  });
+  const modes: ModeReport[] = ids.map((id) => weakestPoint(id, args.maps[id]!, args.xMm, args.yMm));
   const lowestFrequencyHz: number[][] = [];
   const lowestModeId: ModeId[][] = [];
   let lowestHz = Infinity;
@@ -267,20 +276,28 @@ export function lowestModeMap(args: { xMm: number[]; yMm: number[]; maps: Partia
   let lowestP = -1;
   const maps = ids.map((id) => args.maps[id]!);
   const top = ids.map(() => 0);
+  // Per row, mode by mode: the same comparisons per point as a loop over the modes, one row array at a time.
+  const fBuf = new Float64Array(nx);
+  const blank = zeroRow(nx);
+  const kBuf = new Int32Array(nx);
   for (let iy = 0; iy < ny; iy++) {
-    const fr = new Array<number>(nx);
-    const idr = new Array<ModeId>(nx);
-    const rows = maps.map((m) => m[iy]);
-    for (let ix = 0; ix < nx; ix++) {
-      let f = Infinity;
-      let kf = 0;
-      for (let k = 0; k < rows.length; k++) {
-        const v = rows[k][ix];
-        if (v < f) {
-          f = v;
-          kf = k;
+    fBuf.fill(Infinity);
+    kBuf.fill(0);
+    for (let k = 0; k < maps.length; k++) {
+      const row = maps[k][iy];
+      for (let ix = 0; ix < nx; ix++) {
+        const v = row[ix];
+        if (v < fBuf[ix]) {
+          fBuf[ix] = v;
+          kBuf[ix] = k;
         }
       }
+    }
+    const fr = blank.slice();
+    const idr = new Array<ModeId>(nx);
+    for (let ix = 0; ix < nx; ix++) {
+      const f = fBuf[ix];
+      const kf = kBuf[ix];
       const id = ids[kf];
       if (kf < top.length) top[kf] = Math.max(top[kf], f);
       fr[ix] = f;
