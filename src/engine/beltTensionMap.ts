@@ -279,37 +279,6 @@ interface PointExtremes {
 }
 
 /**
- * Extremes at one point of a loop pulled by one coordinate: a piece's change is c·F with c = u − Sᵢ, largest at
- * the larger pull when c ≥ 0 and at the smaller one otherwise (`f` holds the smaller and the larger pull).
- */
-function singleExtremes(s: Float64Array, u: number, f: Float64Array, e: PointExtremes): void {
-  const f0 = f[0];
-  const f1 = f[1];
-  let hi = -Infinity;
-  let lo = Infinity;
-  let hiV = 0;
-  let loV = 0;
-  for (let i = 0; i < s.length; i++) {
-    const c = u - s[i];
-    const up = c >= 0;
-    const th = c * (up ? f1 : f0);
-    const tl = c * (up ? f0 : f1);
-    if (th > hi) {
-      hi = th;
-      hiV = up ? 1 : 0;
-    }
-    if (tl < lo) {
-      lo = tl;
-      loV = up ? 0 : 1;
-    }
-  }
-  e.hi = hi;
-  e.lo = lo;
-  e.hiV = hiV;
-  e.loV = loV;
-}
-
-/**
  * Extremes at one point of a loop pulled by both coordinates: a piece's change is ca·F_A + cb·F_B, linear over the
  * hull of the pull pairs. Along a convex polygon's boundary it rises to one maximum and falls to one minimum, so a
  * walk from the previous grid point's extreme vertex (`start`, the coefficients change little) finds the new one.
@@ -375,8 +344,12 @@ function loopOverTravel(
   const single = !(p.usesA && p.usesB);
   // In a loop pulled by one coordinate only that coordinate's pull matters (the other's coefficients are 0).
   const fv = p.usesB ? vb : va;
+  // The smaller and the larger pull of that coordinate (a single loop's two vertices).
+  const f0 = fv[0];
+  const f1 = fv[1];
   const shares = distinctShares(p);
   const sv = p.usesB ? shares.sB : shares.sA;
+  const ns = sv.length;
   const r = shareRatio(p);
   const start = new Int32Array(2 * shares.sA.length);
   const e: PointExtremes = { hi: 0, lo: 0, hiV: 0, loV: 0 };
@@ -405,21 +378,48 @@ function loopOverTravel(
     for (let ix = 0; ix < nx; ix++) {
       const cx = ox + xs[ix];
       const total = l0 + lx * cx + ly * cy;
-      if (single) singleExtremes(sv, (n0 + nxc * cx + nyc * cy) / total, fv, e);
-      else hullExtremes(shares, (r.a0 + r.ax * cx + r.ay * cy) / total, (r.b0 + r.bx * cx + r.by * cy) / total, va, vb, start, e);
-      const hi = t0 + e.hi;
-      const lo = t0 + e.lo;
+      let eHi = -Infinity;
+      let eLo = Infinity;
+      let hiV = 0;
+      let loV = 0;
+      if (single) {
+        // One coordinate: a piece's change is c·F with c = u − Sᵢ, largest at the larger pull (vertex 1) when c ≥ 0
+        // and at the smaller one (vertex 0) otherwise; written out here (the map's hot loop).
+        const u = (n0 + nxc * cx + nyc * cy) / total;
+        for (let i = 0; i < ns; i++) {
+          const c = u - sv[i];
+          const up = c >= 0;
+          const th = c * (up ? f1 : f0);
+          const tl = c * (up ? f0 : f1);
+          if (th > eHi) {
+            eHi = th;
+            hiV = up ? 1 : 0;
+          }
+          if (tl < eLo) {
+            eLo = tl;
+            loV = up ? 0 : 1;
+          }
+        }
+      } else {
+        hullExtremes(shares, (r.a0 + r.ax * cx + r.ay * cy) / total, (r.b0 + r.bx * cx + r.by * cy) / total, va, vb, start, e);
+        eHi = e.hi;
+        eLo = e.lo;
+        hiV = e.hiV;
+        loV = e.loV;
+      }
+      const hi = t0 + eHi;
+      const lo = t0 + eLo;
       tRow[ix] = Math.round(hi * 100) / 100;
       sRow[ix] = Math.round(lo * 100) / 100;
       if (hi > worstTight + 1e-9) {
         worstTight = hi;
         tightAt = iy * nx + ix;
-        tightV = verts[e.hiV];
+        tightV = verts[hiV];
       }
       if (lo < worstSlack - 1e-9) {
         worstSlack = lo;
         slackAt = iy * nx + ix;
-        slackV = verts[e.loV];
+        slackV = verts[loV];
       }
     }
     tightMap.push(tRow);
