@@ -234,28 +234,6 @@ export interface LowestModeMap {
 }
 
 /**
- * A mode at its weakest point: the first grid point within 1e-9 Hz of its lowest frequency, rows first. A row that
- * is the same array as the one before cannot move it (the bending map repeats one row), so it is not scanned again.
- */
-function weakestPoint(id: ModeId, map: number[][], xMm: number[], yMm: number[]): ModeReport {
-  let bestF = Infinity;
-  let bestX = 0;
-  let bestY = 0;
-  for (let iy = 0; iy < yMm.length; iy++) {
-    const row = map[iy];
-    if (iy > 0 && row === map[iy - 1]) continue;
-    for (let ix = 0; ix < xMm.length; ix++) {
-      if (row[ix] < bestF - 1e-9) {
-        bestF = row[ix];
-        bestX = ix;
-        bestY = iy;
-      }
-    }
-  }
-  return { id, label: MODE_LABELS[id], frequencyHz: bestF, xMm: xMm[bestX], yMm: yMm[bestY] };
-}
-
-/**
  * Combines the per-point frequencies of each mode into the list of modes (each at its own weakest point) and the
  * map of the lowest mode. Each mode is computed with the rest of the machine rigid, so the true lowest frequency
  * of the coupled machine is somewhat lower where two modes are close (see the docs page).
@@ -268,7 +246,6 @@ export function lowestModeMap(args: { xMm: number[]; yMm: number[]; maps: Partia
   const ids = (Object.keys(args.maps) as ModeId[]).filter((id) => args.maps[id]);
   const ny = args.yMm.length;
   const nx = args.xMm.length;
-  const modes: ModeReport[] = ids.map((id) => weakestPoint(id, args.maps[id]!, args.xMm, args.yMm));
   const lowestFrequencyHz: number[][] = [];
   const lowestModeId: ModeId[][] = [];
   let lowestHz = Infinity;
@@ -276,22 +253,33 @@ export function lowestModeMap(args: { xMm: number[]; yMm: number[]; maps: Partia
   let lowestP = -1;
   const maps = ids.map((id) => args.maps[id]!);
   const top = ids.map(() => 0);
-  // Per row, mode by mode: the same comparisons per point as a loop over the modes, one row array at a time.
+  // Per row, mode by mode: the same comparisons per point as a loop over the modes, one row array at a time. Each
+  // mode's weakest point (the first within 1e-9 Hz of its lowest, rows first) is tracked in the same pass; a row
+  // that is the same array as the one before cannot move it (the bending map repeats one row).
   const fBuf = new Float64Array(nx);
   const blank = zeroRow(nx);
   const kBuf = new Int32Array(nx);
+  const bestF = new Float64Array(maps.length).fill(Infinity);
+  const bestP = new Int32Array(maps.length);
   for (let iy = 0; iy < ny; iy++) {
     fBuf.fill(Infinity);
     kBuf.fill(0);
     for (let k = 0; k < maps.length; k++) {
       const row = maps[k][iy];
+      const fresh = iy === 0 || row !== maps[k][iy - 1];
+      let bf = bestF[k];
       for (let ix = 0; ix < nx; ix++) {
         const v = row[ix];
+        if (fresh && v < bf - 1e-9) {
+          bf = v;
+          bestP[k] = iy * nx + ix;
+        }
         if (v < fBuf[ix]) {
           fBuf[ix] = v;
           kBuf[ix] = k;
         }
       }
+      bestF[k] = bf;
     }
     const fr = blank.slice();
     const idr = new Array<ModeId>(nx);
@@ -311,6 +299,13 @@ export function lowestModeMap(args: { xMm: number[]; yMm: number[]; maps: Partia
     lowestFrequencyHz.push(fr);
     lowestModeId.push(idr);
   }
+  const modes: ModeReport[] = ids.map((id, k) => ({
+    id,
+    label: MODE_LABELS[id],
+    frequencyHz: bestF[k],
+    xMm: args.xMm[bestP[k] % nx],
+    yMm: args.yMm[Math.floor(bestP[k] / nx)],
+  }));
   const lowest = {
     frequencyHz: lowestHz,
     modeId: lowestId,
