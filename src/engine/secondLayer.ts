@@ -6,6 +6,7 @@ import {
   carriageErrorMm,
   errorBudgetMap,
   loadAngleErrorMm,
+  loadAngleLagMm,
   microstepDeadband,
   type ErrorBudgetResult,
 } from './errorBudget';
@@ -174,6 +175,10 @@ const DEG = Math.PI / 180;
  */
 const ERROR_MAP_STRIDE = 10;
 
+function isPositiveFinite(v: number): boolean {
+  return Number.isFinite(v) && v > 0;
+}
+
 function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
   const { d, k, envIn, env, map } = ctx;
   const kinv = inverse2(k);
@@ -184,6 +189,8 @@ function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
   const forceYN: number[] = [];
   const loadAngleMm: number[] = [];
   const kitEnv = inverse2(transpose2(envIn.k));
+  // What loadAngleErrorMm checks of its constant arguments; with them valid, a finite torque needs no check.
+  const lagArgsValid = isPositiveFinite(ctx.holdingTorqueNm) && isPositiveFinite(nr) && isPositiveFinite(rMm);
   // One pass over the directions in scalars: direction cosines with exact zeros on the axes (as the envelope uses
   // them), then each motor's lag in turn.
   for (let i = 0; i < env.directionsDeg.length; i++) {
@@ -196,18 +203,16 @@ function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
     forceXN.push(envIn.xKg * a * c + envIn.frictionXN * Math.sign(c));
     forceYN.push(envIn.yKg * a * s + envIn.frictionYN * Math.sign(s));
     const f = motorForcesWithKit(envIn, kitEnv, deg * DEG, a);
-    const lag0 = loadAngleErrorMm({
-      torqueNm: (f[0] * r) / ctx.motorsOn[0],
-      holdingTorqueNm: ctx.holdingTorqueNm,
-      rotorTeeth: nr,
-      pulleyRadiusMm: rMm,
-    });
-    const lag1 = loadAngleErrorMm({
-      torqueNm: (f[1] * r) / ctx.motorsOn[1],
-      holdingTorqueNm: ctx.holdingTorqueNm,
-      rotorTeeth: nr,
-      pulleyRadiusMm: rMm,
-    });
+    const tau0 = (f[0] * r) / ctx.motorsOn[0];
+    const tau1 = (f[1] * r) / ctx.motorsOn[1];
+    const lag0 =
+      lagArgsValid && Number.isFinite(tau0)
+        ? loadAngleLagMm(tau0, ctx.holdingTorqueNm, nr, rMm)
+        : loadAngleErrorMm({ torqueNm: tau0, holdingTorqueNm: ctx.holdingTorqueNm, rotorTeeth: nr, pulleyRadiusMm: rMm });
+    const lag1 =
+      lagArgsValid && Number.isFinite(tau1)
+        ? loadAngleLagMm(tau1, ctx.holdingTorqueNm, nr, rMm)
+        : loadAngleErrorMm({ torqueNm: tau1, holdingTorqueNm: ctx.holdingTorqueNm, rotorTeeth: nr, pulleyRadiusMm: rMm });
     loadAngleMm.push(Math.hypot(kinv[0][0] * lag0 + kinv[0][1] * lag1, kinv[1][0] * lag0 + kinv[1][1] * lag1));
   }
   // Friction each motor holds against at rest, worst combination of the guides' friction directions.
