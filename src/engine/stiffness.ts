@@ -315,22 +315,14 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   const { colK, rowK, mixed } = pieceSprings(prep, ea, inp, xs, ys);
   const plainK = groupSprings(plain, colK, rowK, n, nx, ny);
   const mixedPieces = Int32Array.from(mixed);
-  /** Sums each group's springs at a grid point into `kg` (column, row and mixed parts, in the map's order). */
-  const springs = (ix: number, iy: number, gk: GroupSprings, groupOf: Int32Array, kg: Float64Array): void => {
-    for (let g = 0; g < kg.length; g++) kg[g] = gk.col[g * nx + ix] + gk.row[g * ny + iy];
-    const cx = inp.originXMm + xs[ix];
-    const cy = inp.originYMm + ys[iy];
-    for (let m = 0; m < mixedPieces.length; m++) {
-      const r = mixedPieces[m];
-      const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
-      kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
-    }
-  };
   const grid = beltModeGrid(prep, plain, plainK, mixedPieces, inp, xs, ys);
   const hasYaw = prep.gf.some((g) => g !== 0);
   const kgYaw = new Float64Array(withYaw.count);
   const yawK = hasYaw ? groupSprings(withYaw, colK, rowK, n, nx, ny) : plainK;
   const outYaw = new Float64Array(6);
+  const ngYaw = withYaw.count;
+  const groupOfYaw = withYaw.groupOf;
+  const { l0, gx, gy } = prep;
   return {
     xMm: xs,
     yMm: ys,
@@ -340,8 +332,16 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
     kNPerM: grid.k,
     yawAt: hasYaw
       ? (ix, iy) => {
-          springs(ix, iy, yawK, withYaw.groupOf, kgYaw);
-          condensePoint(kgYaw, withYaw.coef, withYaw.count, prep.h0, outYaw);
+          // Each group's springs at this point (column, row and mixed parts, in the map's order), then the condensation.
+          for (let g = 0; g < ngYaw; g++) kgYaw[g] = yawK.col[g * nx + ix] + yawK.row[g * ny + iy];
+          const cx = inp.originXMm + xs[ix];
+          const cy = inp.originYMm + ys[iy];
+          for (let m = 0; m < mixedPieces.length; m++) {
+            const r = mixedPieces[m];
+            const len = l0[r] + gx[r] * cx + gy[r] * cy;
+            kgYaw[groupOfYaw[r]] += ea / (len > 1e-3 ? len : 1e-3);
+          }
+          condensePoint(kgYaw, withYaw.coef, ngYaw, prep.h0, outYaw);
           return { xf: outYaw[3], yf: outYaw[4], ff: outYaw[5] };
         }
       : null,
