@@ -477,13 +477,15 @@ function referenceMove(ctx: SecondLayerContext, deg: number, distanceMm: number)
 function heatSection(ctx: SecondLayerContext): HeatResult {
   const { d, envIn, env } = ctx;
   const v = envIn.cruiseMPerS;
-  const mech = [0, 0];
+  let mechA = 0;
+  let mechB = 0;
   const kit = inverse2(transpose2(envIn.k));
   for (let i = 0; i < env.directionsDeg.length; i++) {
     const f = motorForcesWithKit(envIn, kit, env.directionsDeg[i] * DEG, env.accelAtCruiseMPerS2[i]);
-    mech[0] = Math.max(mech[0], (Math.abs(f[0]) * Math.abs(env.speedShareA[i]) * v) / ctx.motorsOn[0]);
-    mech[1] = Math.max(mech[1], (Math.abs(f[1]) * Math.abs(env.speedShareB[i]) * v) / ctx.motorsOn[1]);
+    mechA = Math.max(mechA, (Math.abs(f[0]) * Math.abs(env.speedShareA[i]) * v) / ctx.motorsOn[0]);
+    mechB = Math.max(mechB, (Math.abs(f[1]) * Math.abs(env.speedShareB[i]) * v) / ctx.motorsOn[1]);
   }
+  const mech = [mechA, mechB];
   // Reference cycle: across the whole X travel, then across the whole Y travel, back to back.
   const moves = [referenceMove(ctx, 0, ctx.t.xMm), referenceMove(ctx, 90, ctx.t.yMm)].filter((x) => x !== null);
   const rms = [0, 1].map((m) => rmsTorqueNm(moves.flatMap((x) => x.segments[m])));
