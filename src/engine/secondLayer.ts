@@ -179,12 +179,19 @@ function isPositiveFinite(v: number): boolean {
   return Number.isFinite(v) && v > 0;
 }
 
-function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
-  const { d, k, envIn, env, map } = ctx;
-  const kinv = inverse2(k);
-  const r = ctx.pulleyRadiusM;
+/**
+ * Per envelope direction, the carriage force at the planned acceleration (capped at the direction's limit) and the
+ * motors' load-angle lag as carriage error [N, N, mm]. In its own routine so that the section around it is not
+ * compiled mid-loop.
+ */
+function directionForces(
+  ctx: SecondLayerContext,
+  kinv: Matrix2,
+  r: number,
+  nr: number,
+): { forceXN: number[]; forceYN: number[]; loadAngleMm: number[] } {
+  const { envIn, env } = ctx;
   const rMm = r * 1000;
-  const nr = rotorTeeth(d.motor.stepAngleDeg);
   const forceXN: number[] = [];
   const forceYN: number[] = [];
   const loadAngleMm: number[] = [];
@@ -215,6 +222,16 @@ function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
         : loadAngleErrorMm({ torqueNm: tau1, holdingTorqueNm: ctx.holdingTorqueNm, rotorTeeth: nr, pulleyRadiusMm: rMm });
     loadAngleMm.push(Math.hypot(kinv[0][0] * lag0 + kinv[0][1] * lag1, kinv[1][0] * lag0 + kinv[1][1] * lag1));
   }
+  return { forceXN, forceYN, loadAngleMm };
+}
+
+function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
+  const { d, k, env, map } = ctx;
+  const kinv = inverse2(k);
+  const r = ctx.pulleyRadiusM;
+  const rMm = r * 1000;
+  const nr = rotorTeeth(d.motor.stepAngleDeg);
+  const { forceXN, forceYN, loadAngleMm } = directionForces(ctx, kinv, r, nr);
   // Friction each motor holds against at rest, worst combination of the guides' friction directions.
   const kit = inverse2(transpose2(k));
   const fricPull = [0, 1].map((m) => Math.abs(kit[m][0]) * d.frictionN.x + Math.abs(kit[m][1]) * d.frictionN.y);
@@ -474,8 +491,9 @@ function referenceMove(ctx: SecondLayerContext, deg: number, distanceMm: number)
   };
 }
 
-function heatSection(ctx: SecondLayerContext): HeatResult {
-  const { d, envIn, env } = ctx;
+/** Each motor's highest mechanical power at the cruise speed over the envelope's directions [W] (its own routine: a loop). */
+function mechanicalPowerW(ctx: SecondLayerContext): [number, number] {
+  const { envIn, env } = ctx;
   const v = envIn.cruiseMPerS;
   let mechA = 0;
   let mechB = 0;
@@ -485,7 +503,12 @@ function heatSection(ctx: SecondLayerContext): HeatResult {
     mechA = Math.max(mechA, (Math.abs(f[0]) * Math.abs(env.speedShareA[i]) * v) / ctx.motorsOn[0]);
     mechB = Math.max(mechB, (Math.abs(f[1]) * Math.abs(env.speedShareB[i]) * v) / ctx.motorsOn[1]);
   }
-  const mech = [mechA, mechB];
+  return [mechA, mechB];
+}
+
+function heatSection(ctx: SecondLayerContext): HeatResult {
+  const { d } = ctx;
+  const mech = mechanicalPowerW(ctx);
   // Reference cycle: across the whole X travel, then across the whole Y travel, back to back.
   const moves = [referenceMove(ctx, 0, ctx.t.xMm), referenceMove(ctx, 90, ctx.t.yMm)].filter((x) => x !== null);
   const rms = [0, 1].map((m) => rmsTorqueNm(moves.flatMap((x) => x.segments[m])));

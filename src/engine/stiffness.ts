@@ -348,10 +348,37 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   };
 }
 
+/** What the belt-mode grid reads at every point, and the weakest point so far (see {@link beltModeGrid}). */
+interface BeltGrid {
+  prep: Prepared;
+  groupOf: Int32Array;
+  coef: Float64Array;
+  ng: number;
+  colG: Float64Array;
+  rowG: Float64Array;
+  mixedPieces: Int32Array;
+  xs: number[];
+  ys: number[];
+  ox: number;
+  oy: number;
+  ea: number;
+  xKg: number;
+  yKg: number;
+  sqrtMass: number;
+  kg: Float64Array;
+  kxx: Float64Array;
+  kxy: Float64Array;
+  kyy: Float64Array;
+  blank: number[];
+  bestHz: number;
+  bestP: number;
+}
+
 /**
  * The belt mode at every grid point: each group's spring (tabled column and row parts, plus the pieces that change
- * with both), the condensation of condensePlain written out (the map's hot loop) and the lowest eigenvalue of the
- * 2 × 2 problem with √(m_x·m_y) taken once; the weakest point is the first within 1e-9 Hz of the lowest.
+ * with both), the condensation of the 15 products written out and the lowest eigenvalue of the 2 × 2 problem with
+ * √(m_x·m_y) taken once; the weakest point is the first within 1e-9 Hz of the lowest. One call per row (an
+ * ordinary hot function for the optimiser rather than one long loop).
  */
 function beltModeGrid(
   prep: Prepared,
@@ -362,106 +389,125 @@ function beltModeGrid(
   xs: number[],
   ys: number[],
 ): { f: number[][]; best: StiffnessResult['min']; bestK: StiffnessResult['matrixAtMinNPerM']; k: StiffnessResult['kNPerM'] } {
+  const n = xs.length * ys.length;
+  const st: BeltGrid = {
+    prep,
+    groupOf: plain.groupOf,
+    coef: plain.coef,
+    ng: plain.count,
+    colG: plainK.col,
+    rowG: plainK.row,
+    mixedPieces,
+    xs,
+    ys,
+    ox: inp.originXMm,
+    oy: inp.originYMm,
+    ea: inp.axialStiffnessN * 1000,
+    xKg: inp.xKg,
+    yKg: inp.yKg,
+    sqrtMass: Math.sqrt(inp.xKg * inp.yKg),
+    kg: new Float64Array(plain.count),
+    kxx: new Float64Array(n),
+    kxy: new Float64Array(n),
+    kyy: new Float64Array(n),
+    blank: zeroRow(xs.length),
+    bestHz: Infinity,
+    bestP: -1,
+  };
+  const f: number[][] = [];
+  for (let iy = 0; iy < ys.length; iy++) f.push(beltModeRow(st, iy));
+  const k = { xx: st.kxx, xy: st.kxy, yy: st.kyy };
+  return { f, ...weakestOf(st.bestP, st.bestHz, xs, ys, k), k };
+}
+
+/** One row of {@link beltModeGrid}: frequencies [Hz], and the condensed stiffness stored per point. */
+function beltModeRow(st: BeltGrid, iy: number): number[] {
+  const { groupOf, coef, ng, colG, rowG, mixedPieces, xs, ys, ox, ea, xKg, yKg, sqrtMass, kg } = st;
+  const { l0, gx, gy, h0 } = st.prep;
+  const { kxx: kxxA, kxy: kxyA, kyy: kyyA } = st;
   const nx = xs.length;
   const ny = ys.length;
-  const ea = inp.axialStiffnessN * 1000;
-  const kxxA = new Float64Array(nx * ny);
-  const kxyA = new Float64Array(nx * ny);
-  const kyyA = new Float64Array(nx * ny);
-  const kg = new Float64Array(plain.count);
-  const f: number[][] = [];
-  let bestHz = Infinity;
-  let bestP = -1;
-  const twoPi = 2 * Math.PI;
-  const xKg = inp.xKg;
-  const yKg = inp.yKg;
-  const sqrtMass = Math.sqrt(xKg * yKg);
-  const ng = plain.count;
   const nm = mixedPieces.length;
-  const { col: colG, row: rowG } = plainK;
-  const { l0, gx, gy, h0 } = prep;
-  const { groupOf, coef } = plain;
-  const ox = inp.originXMm;
-  const blank = zeroRow(nx);
-  for (let iy = 0; iy < ny; iy++) {
-    const row = blank.slice();
-    const cy = inp.originYMm + ys[iy];
-    for (let ix = 0; ix < nx; ix++) {
-      for (let g = 0; g < ng; g++) kg[g] = colG[g * nx + ix] + rowG[g * ny + iy];
-      if (nm > 0) {
-        const cx = ox + xs[ix];
-        for (let mi = 0; mi < nm; mi++) {
-          const r = mixedPieces[mi];
-          const len = l0[r] + gx[r] * cx + gy[r] * cy;
-          kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
-        }
-      }
-      let kxx = 0,
-        kxy = 0,
-        x0 = 0,
-        x1 = 0,
-        x2 = 0,
-        kyy = 0,
-        y0 = 0,
-        y1 = 0,
-        y2 = 0;
-      let h00 = h0[0],
-        h01 = h0[1],
-        h02 = h0[2],
-        h11 = h0[3],
-        h12 = h0[4],
-        h22 = h0[5];
-      for (let g = 0; g < ng; g++) {
-        const k = kg[g];
-        const o = g * 15;
-        kxx += k * coef[o];
-        kxy += k * coef[o + 1];
-        x0 += k * coef[o + 2];
-        x1 += k * coef[o + 3];
-        x2 += k * coef[o + 4];
-        kyy += k * coef[o + 5];
-        y0 += k * coef[o + 6];
-        y1 += k * coef[o + 7];
-        y2 += k * coef[o + 8];
-        h00 += k * coef[o + 9];
-        h01 += k * coef[o + 10];
-        h02 += k * coef[o + 11];
-        h11 += k * coef[o + 12];
-        h12 += k * coef[o + 13];
-        h22 += k * coef[o + 14];
-      }
-      const f10 = h01 / h00;
-      const f20 = h02 / h00;
-      const d1 = h11 - f10 * h01;
-      const e12 = h12 - f10 * h02;
-      const f21 = e12 / d1;
-      const d2 = h22 - f20 * h02 - f21 * e12;
-      const x1b = x1 - f10 * x0;
-      const y1b = y1 - f10 * y0;
-      const x2b = x2 - f20 * x0 - f21 * x1b;
-      const y2b = y2 - f20 * y0 - f21 * y1b;
-      const cxx = kxx - (x0 * x0) / h00 - (x1b * x1b) / d1 - (x2b * x2b) / d2;
-      const cxy = kxy - (x0 * y0) / h00 - (x1b * y1b) / d1 - (x2b * y2b) / d2;
-      const cyy = kyy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
-      const p = iy * nx + ix;
-      kxxA[p] = cxx;
-      kxyA[p] = cxy;
-      kyyA[p] = cyy;
-      const ea2 = cxx / xKg;
-      const ed2 = cyy / yKg;
-      const eb2 = cxy / sqrtMass;
-      const lam = (ea2 + ed2) / 2 - Math.sqrt(((ea2 - ed2) / 2) * ((ea2 - ed2) / 2) + eb2 * eb2);
-      const hz = Math.sqrt(lam > 0 ? lam : 0) / twoPi;
-      row[ix] = hz;
-      if (hz < bestHz - 1e-9) {
-        bestHz = hz;
-        bestP = p;
+  const twoPi = 2 * Math.PI;
+  let bestHz = st.bestHz;
+  let bestP = st.bestP;
+  const row = st.blank.slice();
+  const cy = st.oy + ys[iy];
+  for (let ix = 0; ix < nx; ix++) {
+    for (let g = 0; g < ng; g++) kg[g] = colG[g * nx + ix] + rowG[g * ny + iy];
+    if (nm > 0) {
+      const cx = ox + xs[ix];
+      for (let mi = 0; mi < nm; mi++) {
+        const r = mixedPieces[mi];
+        const len = l0[r] + gx[r] * cx + gy[r] * cy;
+        kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
       }
     }
-    f.push(row);
+    let kxx = 0,
+      kxy = 0,
+      x0 = 0,
+      x1 = 0,
+      x2 = 0,
+      kyy = 0,
+      y0 = 0,
+      y1 = 0,
+      y2 = 0;
+    let h00 = h0[0],
+      h01 = h0[1],
+      h02 = h0[2],
+      h11 = h0[3],
+      h12 = h0[4],
+      h22 = h0[5];
+    for (let g = 0; g < ng; g++) {
+      const k = kg[g];
+      const o = g * 15;
+      kxx += k * coef[o];
+      kxy += k * coef[o + 1];
+      x0 += k * coef[o + 2];
+      x1 += k * coef[o + 3];
+      x2 += k * coef[o + 4];
+      kyy += k * coef[o + 5];
+      y0 += k * coef[o + 6];
+      y1 += k * coef[o + 7];
+      y2 += k * coef[o + 8];
+      h00 += k * coef[o + 9];
+      h01 += k * coef[o + 10];
+      h02 += k * coef[o + 11];
+      h11 += k * coef[o + 12];
+      h12 += k * coef[o + 13];
+      h22 += k * coef[o + 14];
+    }
+    const f10 = h01 / h00;
+    const f20 = h02 / h00;
+    const d1 = h11 - f10 * h01;
+    const e12 = h12 - f10 * h02;
+    const f21 = e12 / d1;
+    const d2 = h22 - f20 * h02 - f21 * e12;
+    const x1b = x1 - f10 * x0;
+    const y1b = y1 - f10 * y0;
+    const x2b = x2 - f20 * x0 - f21 * x1b;
+    const y2b = y2 - f20 * y0 - f21 * y1b;
+    const cxx = kxx - (x0 * x0) / h00 - (x1b * x1b) / d1 - (x2b * x2b) / d2;
+    const cxy = kxy - (x0 * y0) / h00 - (x1b * y1b) / d1 - (x2b * y2b) / d2;
+    const cyy = kyy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
+    const p = iy * nx + ix;
+    kxxA[p] = cxx;
+    kxyA[p] = cxy;
+    kyyA[p] = cyy;
+    const ea2 = cxx / xKg;
+    const ed2 = cyy / yKg;
+    const eb2 = cxy / sqrtMass;
+    const lam = (ea2 + ed2) / 2 - Math.sqrt(((ea2 - ed2) / 2) * ((ea2 - ed2) / 2) + eb2 * eb2);
+    const hz = Math.sqrt(lam > 0 ? lam : 0) / twoPi;
+    row[ix] = hz;
+    if (hz < bestHz - 1e-9) {
+      bestHz = hz;
+      bestP = p;
+    }
   }
-  const k = { xx: kxxA, xy: kxyA, yy: kyyA };
-  return { f, ...weakestOf(bestP, bestHz, xs, ys, k), k };
+  st.bestHz = bestHz;
+  st.bestP = bestP;
+  return row;
 }
 
 /** The weakest point of the belt-mode map (flat index `p`, −1 when no point had a frequency) and K there. */
