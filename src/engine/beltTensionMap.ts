@@ -1,6 +1,7 @@
 import type { BeltLayout, LoopModel } from './beltLayout';
 import type { Matrix2 } from './linalg';
 import type { TensionPlace } from './types';
+import { zeroRow } from './zeroRow';
 
 // Model and derivation: docs/models/belt-tension.md §3–4.
 
@@ -278,37 +279,6 @@ interface PointExtremes {
 }
 
 /**
- * Extremes at one point of a loop pulled by one coordinate: a piece's change is c·F with c = u − Sᵢ, largest at
- * the larger pull when c ≥ 0 and at the smaller one otherwise (`f` holds the smaller and the larger pull).
- */
-function singleExtremes(s: Float64Array, u: number, f: Float64Array, e: PointExtremes): void {
-  const f0 = f[0];
-  const f1 = f[1];
-  let hi = -Infinity;
-  let lo = Infinity;
-  let hiV = 0;
-  let loV = 0;
-  for (let i = 0; i < s.length; i++) {
-    const c = u - s[i];
-    const up = c >= 0;
-    const th = c * (up ? f1 : f0);
-    const tl = c * (up ? f0 : f1);
-    if (th > hi) {
-      hi = th;
-      hiV = up ? 1 : 0;
-    }
-    if (tl < lo) {
-      lo = tl;
-      loV = up ? 0 : 1;
-    }
-  }
-  e.hi = hi;
-  e.lo = lo;
-  e.hiV = hiV;
-  e.loV = loV;
-}
-
-/**
  * Extremes at one point of a loop pulled by both coordinates: a piece's change is ca·F_A + cb·F_B, linear over the
  * hull of the pull pairs. Along a convex polygon's boundary it rises to one maximum and falls to one minimum, so a
  * walk from the previous grid point's extreme vertex (`start`, the coefficients change little) finds the new one.
@@ -360,6 +330,37 @@ function hullExtremes(
   e.loV = loV;
 }
 
+/** What one loop's tension grid reads at every point, and its worst sides so far (see {@link loopOverTravel}). */
+interface TensionGrid {
+  single: boolean;
+  /** Single loops: the pulling coordinate's distinct coefficients, its smaller and larger pull, u's numerator. */
+  sv: Float64Array;
+  f0: number;
+  f1: number;
+  n0: number;
+  nxc: number;
+  nyc: number;
+  /** Loops pulled by both coordinates: coefficients, hull vertices and each walk's start. */
+  shares: { sA: Float64Array; sB: Float64Array };
+  va: Float64Array;
+  vb: Float64Array;
+  start: Int32Array;
+  e: PointExtremes;
+  r: ShareRatio;
+  t0: number;
+  inp: BeltTensionInput;
+  verts: number[];
+  blank: number[];
+  worstTight: number;
+  worstSlack: number;
+  tightAt: number;
+  slackAt: number;
+  tightV: number;
+  slackV: number;
+  tightMap: number[][];
+  slackMap: number[][];
+}
+
 function loopOverTravel(
   model: LoopModel,
   p: PreparedLoop,
@@ -371,53 +372,42 @@ function loopOverTravel(
   const verts = loopVertices(p, inp.pairs, hull);
   const va = Float64Array.from(verts, (v) => inp.pairs.aN[v]);
   const vb = Float64Array.from(verts, (v) => inp.pairs.bN[v]);
-  const single = !(p.usesA && p.usesB);
   // In a loop pulled by one coordinate only that coordinate's pull matters (the other's coefficients are 0).
   const fv = p.usesB ? vb : va;
   const shares = distinctShares(p);
-  const sv = p.usesB ? shares.sB : shares.sA;
   const r = shareRatio(p);
-  const start = new Int32Array(2 * shares.sA.length);
-  const e: PointExtremes = { hi: 0, lo: 0, hiV: 0, loV: 0 };
-  const t0 = inp.pretensionN;
   const nx = inp.xMm.length;
-  let worstTight = -Infinity;
-  let worstSlack = Infinity;
-  let tightAt = -1;
-  let slackAt = -1;
-  let tightV = 0;
-  let slackV = 0;
-  const tightMap: number[][] = [];
-  const slackMap: number[][] = [];
-  for (let iy = 0; iy < inp.yMm.length; iy++) {
-    const cy = inp.originYMm + inp.yMm[iy];
-    const tRow = new Array<number>(nx);
-    const sRow = new Array<number>(nx);
-    for (let ix = 0; ix < nx; ix++) {
-      const cx = inp.originXMm + inp.xMm[ix];
-      const total = r.l0 + r.lx * cx + r.ly * cy;
-      if (single) {
-        const u = p.usesB ? (r.b0 + r.bx * cx + r.by * cy) / total : (r.a0 + r.ax * cx + r.ay * cy) / total;
-        singleExtremes(sv, u, fv, e);
-      } else {
-        hullExtremes(shares, (r.a0 + r.ax * cx + r.ay * cy) / total, (r.b0 + r.bx * cx + r.by * cy) / total, va, vb, start, e);
-      }
-      tRow[ix] = Math.round((t0 + e.hi) * 100) / 100;
-      sRow[ix] = Math.round((t0 + e.lo) * 100) / 100;
-      if (t0 + e.hi > worstTight + 1e-9) {
-        worstTight = t0 + e.hi;
-        tightAt = iy * nx + ix;
-        tightV = verts[e.hiV];
-      }
-      if (t0 + e.lo < worstSlack - 1e-9) {
-        worstSlack = t0 + e.lo;
-        slackAt = iy * nx + ix;
-        slackV = verts[e.loV];
-      }
-    }
-    tightMap.push(tRow);
-    slackMap.push(sRow);
-  }
+  const st: TensionGrid = {
+    single: !(p.usesA && p.usesB),
+    sv: p.usesB ? shares.sB : shares.sA,
+    // The smaller and the larger pull of that coordinate (a single loop's two vertices).
+    f0: fv[0],
+    f1: fv[1],
+    n0: p.usesB ? r.b0 : r.a0,
+    nxc: p.usesB ? r.bx : r.ax,
+    nyc: p.usesB ? r.by : r.ay,
+    shares,
+    va,
+    vb,
+    start: new Int32Array(2 * shares.sA.length),
+    e: { hi: 0, lo: 0, hiV: 0, loV: 0 },
+    r,
+    t0: inp.pretensionN,
+    inp,
+    verts,
+    blank: zeroRow(nx),
+    worstTight: -Infinity,
+    worstSlack: Infinity,
+    tightAt: -1,
+    slackAt: -1,
+    tightV: 0,
+    slackV: 0,
+    tightMap: [],
+    slackMap: [],
+  };
+  // One call per row: the row routine is optimised as an ordinary hot function rather than mid-loop.
+  for (let iy = 0; iy < inp.yMm.length; iy++) tensionRow(st, iy);
+  const { tightAt, slackAt } = st;
   const place = (at: number, v: number): TensionPlace => ({
     xMm: inp.xMm[at < 0 ? 0 : at % nx],
     yMm: inp.yMm[at < 0 ? 0 : Math.floor(at / nx)],
@@ -426,11 +416,77 @@ function loopOverTravel(
   return {
     loopId: model.loopId,
     peakPullN: Math.max(p.shareA * maxAbs[0], p.shareB * maxAbs[1]),
-    worstTightN: worstTight,
-    worstTightAt: place(tightAt, tightAt < 0 ? verts[0] : tightV),
-    worstSlackN: worstSlack,
-    worstSlackAt: place(slackAt, slackAt < 0 ? verts[0] : slackV),
-    tightMapN: tightMap,
-    slackMapN: slackMap,
+    worstTightN: st.worstTight,
+    worstTightAt: place(tightAt, tightAt < 0 ? verts[0] : st.tightV),
+    worstSlackN: st.worstSlack,
+    worstSlackAt: place(slackAt, slackAt < 0 ? verts[0] : st.slackV),
+    tightMapN: st.tightMap,
+    slackMapN: st.slackMap,
   };
+}
+
+/** One row of a loop's tight and slack maps (rounded to 0.01 N), tracking the worst tight and slack side. */
+function tensionRow(st: TensionGrid, iy: number): void {
+  const { single, sv, f0, f1, n0, nxc, nyc, shares, va, vb, start, e, r, t0, inp, verts } = st;
+  const { l0, lx, ly } = r;
+  const ns = sv.length;
+  const xs = inp.xMm;
+  const ox = inp.originXMm;
+  const nx = xs.length;
+  let worstTight = st.worstTight;
+  let worstSlack = st.worstSlack;
+  const cy = inp.originYMm + inp.yMm[iy];
+  const tRow = st.blank.slice();
+  const sRow = st.blank.slice();
+  for (let ix = 0; ix < nx; ix++) {
+    const cx = ox + xs[ix];
+    const total = l0 + lx * cx + ly * cy;
+    let eHi = -Infinity;
+    let eLo = Infinity;
+    let hiV = 0;
+    let loV = 0;
+    if (single) {
+      // One coordinate: a piece's change is c·F with c = u − Sᵢ, largest at the larger pull (vertex 1) when c ≥ 0
+      // and at the smaller one (vertex 0) otherwise; written out here (the map's hot loop).
+      const u = (n0 + nxc * cx + nyc * cy) / total;
+      for (let i = 0; i < ns; i++) {
+        const c = u - sv[i];
+        const up = c >= 0;
+        const th = c * (up ? f1 : f0);
+        const tl = c * (up ? f0 : f1);
+        if (th > eHi) {
+          eHi = th;
+          hiV = up ? 1 : 0;
+        }
+        if (tl < eLo) {
+          eLo = tl;
+          loV = up ? 0 : 1;
+        }
+      }
+    } else {
+      hullExtremes(shares, (r.a0 + r.ax * cx + r.ay * cy) / total, (r.b0 + r.bx * cx + r.by * cy) / total, va, vb, start, e);
+      eHi = e.hi;
+      eLo = e.lo;
+      hiV = e.hiV;
+      loV = e.loV;
+    }
+    const hi = t0 + eHi;
+    const lo = t0 + eLo;
+    tRow[ix] = Math.round(hi * 100) / 100;
+    sRow[ix] = Math.round(lo * 100) / 100;
+    if (hi > worstTight + 1e-9) {
+      worstTight = hi;
+      st.tightAt = iy * nx + ix;
+      st.tightV = verts[hiV];
+    }
+    if (lo < worstSlack - 1e-9) {
+      worstSlack = lo;
+      st.slackAt = iy * nx + ix;
+      st.slackV = verts[loV];
+    }
+  }
+  st.worstTight = worstTight;
+  st.worstSlack = worstSlack;
+  st.tightMap.push(tRow);
+  st.slackMap.push(sRow);
 }

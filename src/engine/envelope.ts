@@ -45,12 +45,13 @@ export function samplePullCurve(pullAt: (beltSpeedMPerS: number) => number, topM
  */
 export function scalePullCurve(c: PullCurve, factor: number): PullCurve {
   if (factor === 1) return c;
-  return {
-    beltSpeedMPerS: c.beltSpeedMPerS,
-    pullN: c.pullN.map((p) => p * factor),
-    pullFloorN: c.pullFloorN.map((p) => p * factor),
-    topMPerS: c.topMPerS,
-  };
+  // Plain loops: a typed array's map with a callback costs several times the products.
+  const n = c.pullN.length;
+  const pullN = new Float64Array(n);
+  const pullFloorN = new Float64Array(c.pullFloorN.length);
+  for (let i = 0; i < n; i++) pullN[i] = c.pullN[i] * factor;
+  for (let i = 0; i < pullFloorN.length; i++) pullFloorN[i] = c.pullFloorN[i] * factor;
+  return { beltSpeedMPerS: c.beltSpeedMPerS, pullN, pullFloorN, topMPerS: c.topMPerS };
 }
 
 /**
@@ -142,6 +143,29 @@ function accelBound(alpha: number, beta: number, p: number): number {
   return (p - Math.sign(alpha) * beta) / Math.abs(alpha);
 }
 
+/** Acceleration limit of one direction at given available pulls, and the motor that sets it. */
+interface RestLimit {
+  accel: number;
+  motor: 'A' | 'B';
+}
+
+/**
+ * The acceleration both motors allow with available pulls pA, pB (each pull affine in a: α·a + β); 0 when a motor
+ * cannot even hold its friction share, the one short by more then limiting. Written into `out` (no allocation:
+ * the envelope calls this twice per direction).
+ */
+function restLimit(pA: number, pB: number, alphaA: number, betaA: number, alphaB: number, betaB: number, out: RestLimit): void {
+  if (Math.abs(betaA) > pA || Math.abs(betaB) > pB) {
+    out.accel = 0;
+    out.motor = Math.abs(betaA) - pA >= Math.abs(betaB) - pB ? 'A' : 'B';
+    return;
+  }
+  const ba = accelBound(alphaA, betaA, pA);
+  const bb = accelBound(alphaB, betaB, pB);
+  out.accel = ba <= bb ? Math.max(0, ba) : Math.max(0, bb);
+  out.motor = ba <= bb ? 'A' : 'B';
+}
+
 /**
  * Acceleration and speed envelope. For direction u = (cos θ, sin θ) and acceleration a the
  * carriage needs F = diag(m_x, m_y)·u·a + friction (each guide's friction opposes its own motion), the motors
@@ -173,6 +197,7 @@ export function computeEnvelope(inp: EnvelopeInput): EnvelopeResult {
   const [pa, pb] = inp.pull;
   const pa0 = pa.pullN[0];
   const pb0 = pb.pullN[0];
+  const limit: RestLimit = { accel: 0, motor: 'A' };
   for (let i = 0; i < n; i++) {
     const deg = (360 * i) / n;
     // Angles past 180° are taken as negative so that θ and −θ give bit-identical cosines.
@@ -205,16 +230,13 @@ export function computeEnvelope(inp: EnvelopeInput): EnvelopeResult {
     if (absSb > 1e-12) vmax = Math.min(vmax, beltSpeedForPull(pb, Math.abs(betaB)) / absSb);
     else if (Math.abs(betaB) > pb0) vmax = 0;
 
-    const rest = (pA: number, pB: number): [number, 'A' | 'B'] => {
-      if (Math.abs(betaA) > pA || Math.abs(betaB) > pB) return [0, Math.abs(betaA) - pA >= Math.abs(betaB) - pB ? 'A' : 'B'];
-      const ba = accelBound(alphaA, betaA, pA);
-      const bb = accelBound(alphaB, betaB, pB);
-      return ba <= bb ? [Math.max(0, ba), 'A'] : [Math.max(0, bb), 'B'];
-    };
-    const [a0, lim] = rest(pa0, pb0);
+    restLimit(pa0, pb0, alphaA, betaA, alphaB, betaB, limit);
+    const a0 = limit.accel;
+    const lim = limit.motor;
     let aCruise = 0;
     if (inp.cruiseMPerS <= vmax) {
-      aCruise = rest(pullAtSpeed(pa, absSa * inp.cruiseMPerS), pullAtSpeed(pb, absSb * inp.cruiseMPerS))[0];
+      restLimit(pullAtSpeed(pa, absSa * inp.cruiseMPerS), pullAtSpeed(pb, absSb * inp.cruiseMPerS), alphaA, betaA, alphaB, betaB, limit);
+      aCruise = limit.accel;
     }
     // Belt pulls at the limits: the carriage-side force plus what the belt itself (and its idlers) carries.
     // Braking at the same rate (friction then helps) is kept too: its pulls belong to the same envelope.

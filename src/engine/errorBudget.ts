@@ -25,8 +25,23 @@ export function loadAngleErrorMm(args: { torqueNm: number; holdingTorqueNm: numb
   const t = requireNumber(s, 'holdingTorqueNm', args?.holdingTorqueNm, 0, Infinity, true);
   const nr = requireNumber(s, 'rotorTeeth', args?.rotorTeeth, 0, Infinity, true);
   const r = requireNumber(s, 'pulleyRadiusMm', args?.pulleyRadiusMm, 0, Infinity, true);
-  const ratio = Math.max(-1, Math.min(1, tau / t));
-  return (r * Math.asin(ratio)) / nr;
+  return loadAngleLagMm(tau, t, nr, r);
+}
+
+/**
+ * {@link loadAngleErrorMm} for arguments already known to be valid (a finite torque; a positive, finite holding
+ * torque, rotor teeth count and radius): the same arithmetic without the checks or an argument object, for loops
+ * over many directions. Callers check validity first and call loadAngleErrorMm otherwise, so bad input still
+ * raises its error.
+ * @param torqueNm - load torque τ [N·m]
+ * @param holdingTorqueNm - holding torque T [N·m]
+ * @param rotorTeeth - rotor teeth N_r [-]
+ * @param pulleyRadiusMm - drive pulley pitch radius r [mm]
+ * @returns belt lag [mm]
+ */
+export function loadAngleLagMm(torqueNm: number, holdingTorqueNm: number, rotorTeeth: number, pulleyRadiusMm: number): number {
+  const ratio = Math.max(-1, Math.min(1, torqueNm / holdingTorqueNm));
+  return (pulleyRadiusMm * Math.asin(ratio)) / rotorTeeth;
 }
 
 /** The microstep deadband of one motor. */

@@ -1,3 +1,5 @@
+import { zeroRow } from './zeroRow';
+
 // Smooth per-point quantities over the stiffness-map grid computed at every `stride`-th point and interpolated in
 // between (docs/models/error-budget.md, docs/models/structural-modes.md): the belt stiffness, and with it the error
 // budget and the yaw mode, changes slowly over the travel, so the fine map costs a fraction of a full evaluation.
@@ -46,8 +48,10 @@ export function sampledGridMap(
 ): { values: number[][]; ix: number; iy: number } {
   const xs = nodes(nx, stride);
   const ys = nodes(ny, stride);
-  // Packed rows (filled with 0 first) keep the arrays in fast elements mode for every later reader.
-  const values: number[][] = Array.from({ length: ny }, () => new Array<number>(nx).fill(0));
+  // Rows of doubles from the start (zeroRow) keep one element kind for every later reader.
+  const blank = zeroRow(nx);
+  const values: number[][] = [];
+  for (let iy = 0; iy < ny; iy++) values.push(blank.slice());
   const exact = new Uint8Array(nx * ny);
   for (const iy of ys) {
     for (const ix of xs) {

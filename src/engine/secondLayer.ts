@@ -6,6 +6,7 @@ import {
   carriageErrorMm,
   errorBudgetMap,
   loadAngleErrorMm,
+  loadAngleLagMm,
   microstepDeadband,
   type ErrorBudgetResult,
 } from './errorBudget';
@@ -174,34 +175,63 @@ const DEG = Math.PI / 180;
  */
 const ERROR_MAP_STRIDE = 10;
 
-/** Direction cosines with exact zeros on the axes (as the envelope uses them). */
-function unit(deg: number): [number, number] {
-  const c = Math.cos(deg * DEG);
-  const s = Math.sin(deg * DEG);
-  return [Math.abs(c) < 1e-12 ? 0 : c, Math.abs(s) < 1e-12 ? 0 : s];
+function isPositiveFinite(v: number): boolean {
+  return Number.isFinite(v) && v > 0;
 }
 
-function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
-  const { d, k, envIn, env, map } = ctx;
-  const kinv = inverse2(k);
-  const r = ctx.pulleyRadiusM;
+/**
+ * Per envelope direction, the carriage force at the planned acceleration (capped at the direction's limit) and the
+ * motors' load-angle lag as carriage error [N, N, mm]. In its own routine so that the section around it is not
+ * compiled mid-loop.
+ */
+function directionForces(
+  ctx: SecondLayerContext,
+  kinv: Matrix2,
+  r: number,
+  nr: number,
+): { forceXN: number[]; forceYN: number[]; loadAngleMm: number[] } {
+  const { envIn, env } = ctx;
   const rMm = r * 1000;
-  const nr = rotorTeeth(d.motor.stepAngleDeg);
   const forceXN: number[] = [];
   const forceYN: number[] = [];
   const loadAngleMm: number[] = [];
   const kitEnv = inverse2(transpose2(envIn.k));
-  env.directionsDeg.forEach((deg, i) => {
+  // What loadAngleErrorMm checks of its constant arguments; with them valid, a finite torque needs no check.
+  const lagArgsValid = isPositiveFinite(ctx.holdingTorqueNm) && isPositiveFinite(nr) && isPositiveFinite(rMm);
+  // One pass over the directions in scalars: direction cosines with exact zeros on the axes (as the envelope uses
+  // them), then each motor's lag in turn.
+  for (let i = 0; i < env.directionsDeg.length; i++) {
+    const deg = env.directionsDeg[i];
     const a = Math.min(ctx.plannedAccelMPerS2, env.accelMaxMPerS2[i]);
-    const [c, s] = unit(deg);
+    const cr = Math.cos(deg * DEG);
+    const sr = Math.sin(deg * DEG);
+    const c = Math.abs(cr) < 1e-12 ? 0 : cr;
+    const s = Math.abs(sr) < 1e-12 ? 0 : sr;
     forceXN.push(envIn.xKg * a * c + envIn.frictionXN * Math.sign(c));
     forceYN.push(envIn.yKg * a * s + envIn.frictionYN * Math.sign(s));
     const f = motorForcesWithKit(envIn, kitEnv, deg * DEG, a);
-    const lag = f.map((fi, m) =>
-      loadAngleErrorMm({ torqueNm: (fi * r) / ctx.motorsOn[m], holdingTorqueNm: ctx.holdingTorqueNm, rotorTeeth: nr, pulleyRadiusMm: rMm }),
-    );
-    loadAngleMm.push(Math.hypot(kinv[0][0] * lag[0] + kinv[0][1] * lag[1], kinv[1][0] * lag[0] + kinv[1][1] * lag[1]));
-  });
+    const tau0 = (f[0] * r) / ctx.motorsOn[0];
+    const tau1 = (f[1] * r) / ctx.motorsOn[1];
+    const lag0 =
+      lagArgsValid && Number.isFinite(tau0)
+        ? loadAngleLagMm(tau0, ctx.holdingTorqueNm, nr, rMm)
+        : loadAngleErrorMm({ torqueNm: tau0, holdingTorqueNm: ctx.holdingTorqueNm, rotorTeeth: nr, pulleyRadiusMm: rMm });
+    const lag1 =
+      lagArgsValid && Number.isFinite(tau1)
+        ? loadAngleLagMm(tau1, ctx.holdingTorqueNm, nr, rMm)
+        : loadAngleErrorMm({ torqueNm: tau1, holdingTorqueNm: ctx.holdingTorqueNm, rotorTeeth: nr, pulleyRadiusMm: rMm });
+    loadAngleMm.push(Math.hypot(kinv[0][0] * lag0 + kinv[0][1] * lag1, kinv[1][0] * lag0 + kinv[1][1] * lag1));
+  }
+  return { forceXN, forceYN, loadAngleMm };
+}
+
+function errorBudgetSection(ctx: SecondLayerContext): ErrorBudgetResult {
+  const { d, k, env, map } = ctx;
+  const kinv = inverse2(k);
+  const r = ctx.pulleyRadiusM;
+  const rMm = r * 1000;
+  const nr = rotorTeeth(d.motor.stepAngleDeg);
+  const { forceXN, forceYN, loadAngleMm } = directionForces(ctx, kinv, r, nr);
   // Friction each motor holds against at rest, worst combination of the guides' friction directions.
   const kit = inverse2(transpose2(k));
   const fricPull = [0, 1].map((m) => Math.abs(kit[m][0]) * d.frictionN.x + Math.abs(kit[m][1]) * d.frictionN.y);
@@ -461,16 +491,24 @@ function referenceMove(ctx: SecondLayerContext, deg: number, distanceMm: number)
   };
 }
 
-function heatSection(ctx: SecondLayerContext): HeatResult {
-  const { d, envIn, env } = ctx;
+/** Each motor's highest mechanical power at the cruise speed over the envelope's directions [W] (its own routine: a loop). */
+function mechanicalPowerW(ctx: SecondLayerContext): [number, number] {
+  const { envIn, env } = ctx;
   const v = envIn.cruiseMPerS;
-  const mech = [0, 0];
+  let mechA = 0;
+  let mechB = 0;
   const kit = inverse2(transpose2(envIn.k));
-  env.directionsDeg.forEach((deg, i) => {
-    const f = motorForcesWithKit(envIn, kit, deg * DEG, env.accelAtCruiseMPerS2[i]);
-    const sh = [env.speedShareA[i], env.speedShareB[i]];
-    for (let m = 0; m < 2; m++) mech[m] = Math.max(mech[m], (Math.abs(f[m]) * Math.abs(sh[m]) * v) / ctx.motorsOn[m]);
-  });
+  for (let i = 0; i < env.directionsDeg.length; i++) {
+    const f = motorForcesWithKit(envIn, kit, env.directionsDeg[i] * DEG, env.accelAtCruiseMPerS2[i]);
+    mechA = Math.max(mechA, (Math.abs(f[0]) * Math.abs(env.speedShareA[i]) * v) / ctx.motorsOn[0]);
+    mechB = Math.max(mechB, (Math.abs(f[1]) * Math.abs(env.speedShareB[i]) * v) / ctx.motorsOn[1]);
+  }
+  return [mechA, mechB];
+}
+
+function heatSection(ctx: SecondLayerContext): HeatResult {
+  const { d } = ctx;
+  const mech = mechanicalPowerW(ctx);
   // Reference cycle: across the whole X travel, then across the whole Y travel, back to back.
   const moves = [referenceMove(ctx, 0, ctx.t.xMm), referenceMove(ctx, 90, ctx.t.yMm)].filter((x) => x !== null);
   const rms = [0, 1].map((m) => rmsTorqueNm(moves.flatMap((x) => x.segments[m])));

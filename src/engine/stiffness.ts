@@ -1,4 +1,5 @@
 import type { LoopModel, MotorVar } from './beltLayout';
+import { zeroRow } from './zeroRow';
 
 /** Inputs of the stiffness map, SI unless the name says otherwise. */
 export interface StiffnessInput {
@@ -314,88 +315,224 @@ export function stiffnessMap(inp: StiffnessInput): StiffnessResult {
   const { colK, rowK, mixed } = pieceSprings(prep, ea, inp, xs, ys);
   const plainK = groupSprings(plain, colK, rowK, n, nx, ny);
   const mixedPieces = Int32Array.from(mixed);
-  /** Sums each group's springs at a grid point into `kg` (column, row and mixed parts, in the map's order). */
-  const springs = (ix: number, iy: number, gk: GroupSprings, groupOf: Int32Array, kg: Float64Array): void => {
-    for (let g = 0; g < kg.length; g++) kg[g] = gk.col[g * nx + ix] + gk.row[g * ny + iy];
-    const cx = inp.originXMm + xs[ix];
-    const cy = inp.originYMm + ys[iy];
-    for (let m = 0; m < mixedPieces.length; m++) {
-      const r = mixedPieces[m];
-      const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
-      kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
-    }
-  };
-  const kxxA = new Float64Array(nx * ny);
-  const kxyA = new Float64Array(nx * ny);
-  const kyyA = new Float64Array(nx * ny);
-  const kg = new Float64Array(plain.count);
-  const out = new Float64Array(3);
-  const f: number[][] = [];
-  let best = { frequencyHz: Infinity, xMm: 0, yMm: 0 };
-  let bestK: [[number, number], [number, number]] = [
-    [0, 0],
-    [0, 0],
-  ];
-  const twoPi = 2 * Math.PI;
-  const sqrtMass = Math.sqrt(inp.xKg * inp.yKg);
-  const ng = plain.count;
-  const nm = mixedPieces.length;
-  const { col: colG, row: rowG } = plainK;
-  for (let iy = 0; iy < ny; iy++) {
-    const row = new Array<number>(nx);
-    const cy = inp.originYMm + ys[iy];
-    const groupOf = plain.groupOf;
-    for (let ix = 0; ix < nx; ix++) {
-      // The springs of every group at this point (inline: the map's hot loop).
-      for (let g = 0; g < ng; g++) kg[g] = colG[g * nx + ix] + rowG[g * ny + iy];
-      if (nm > 0) {
-        const cx = inp.originXMm + xs[ix];
-        for (let mi = 0; mi < nm; mi++) {
-          const r = mixedPieces[mi];
-          const len = prep.l0[r] + prep.gx[r] * cx + prep.gy[r] * cy;
-          kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
-        }
-      }
-      condensePlain(kg, plain.coef, plain.count, prep.h0, out);
-      const p = iy * nx + ix;
-      kxxA[p] = out[0];
-      kxyA[p] = out[1];
-      kyyA[p] = out[2];
-      // lowestEigenvalue2 written out, with √(m_x·m_y) taken once.
-      const ea2 = out[0] / inp.xKg;
-      const ed2 = out[2] / inp.yKg;
-      const eb2 = out[1] / sqrtMass;
-      const lam = (ea2 + ed2) / 2 - Math.sqrt(((ea2 - ed2) / 2) * ((ea2 - ed2) / 2) + eb2 * eb2);
-      const hz = Math.sqrt(lam > 0 ? lam : 0) / twoPi;
-      row[ix] = hz;
-      if (hz < best.frequencyHz - 1e-9) {
-        best = { frequencyHz: hz, xMm: xs[ix], yMm: ys[iy] };
-        bestK = [
-          [out[0], out[1]],
-          [out[1], out[2]],
-        ];
-      }
-    }
-    f.push(row);
-  }
+  const grid = beltModeGrid(prep, plain, plainK, mixedPieces, inp, xs, ys);
   const hasYaw = prep.gf.some((g) => g !== 0);
   const kgYaw = new Float64Array(withYaw.count);
   const yawK = hasYaw ? groupSprings(withYaw, colK, rowK, n, nx, ny) : plainK;
   const outYaw = new Float64Array(6);
+  const ngYaw = withYaw.count;
+  const groupOfYaw = withYaw.groupOf;
+  const { l0, gx, gy } = prep;
   return {
     xMm: xs,
     yMm: ys,
-    lowestFrequencyHz: f,
-    min: best,
-    matrixAtMinNPerM: bestK,
-    kNPerM: { xx: kxxA, xy: kxyA, yy: kyyA },
+    lowestFrequencyHz: grid.f,
+    min: grid.best,
+    matrixAtMinNPerM: grid.bestK,
+    kNPerM: grid.k,
     yawAt: hasYaw
       ? (ix, iy) => {
-          springs(ix, iy, yawK, withYaw.groupOf, kgYaw);
-          condensePoint(kgYaw, withYaw.coef, withYaw.count, prep.h0, outYaw);
+          // Each group's springs at this point (column, row and mixed parts, in the map's order), then the condensation.
+          for (let g = 0; g < ngYaw; g++) kgYaw[g] = yawK.col[g * nx + ix] + yawK.row[g * ny + iy];
+          const cx = inp.originXMm + xs[ix];
+          const cy = inp.originYMm + ys[iy];
+          for (let m = 0; m < mixedPieces.length; m++) {
+            const r = mixedPieces[m];
+            const len = l0[r] + gx[r] * cx + gy[r] * cy;
+            kgYaw[groupOfYaw[r]] += ea / (len > 1e-3 ? len : 1e-3);
+          }
+          condensePoint(kgYaw, withYaw.coef, ngYaw, prep.h0, outYaw);
           return { xf: outYaw[3], yf: outYaw[4], ff: outYaw[5] };
         }
       : null,
+  };
+}
+
+/** What the belt-mode grid reads at every point, and the weakest point so far (see {@link beltModeGrid}). */
+interface BeltGrid {
+  prep: Prepared;
+  groupOf: Int32Array;
+  coef: Float64Array;
+  ng: number;
+  colG: Float64Array;
+  rowG: Float64Array;
+  mixedPieces: Int32Array;
+  xs: number[];
+  ys: number[];
+  ox: number;
+  oy: number;
+  ea: number;
+  xKg: number;
+  yKg: number;
+  sqrtMass: number;
+  kg: Float64Array;
+  kxx: Float64Array;
+  kxy: Float64Array;
+  kyy: Float64Array;
+  blank: number[];
+  bestHz: number;
+  bestP: number;
+}
+
+/**
+ * The belt mode at every grid point: each group's spring (tabled column and row parts, plus the pieces that change
+ * with both), the condensation of the 15 products written out and the lowest eigenvalue of the 2 × 2 problem with
+ * √(m_x·m_y) taken once; the weakest point is the first within 1e-9 Hz of the lowest. One call per row (an
+ * ordinary hot function for the optimiser rather than one long loop).
+ */
+function beltModeGrid(
+  prep: Prepared,
+  plain: { groupOf: Int32Array; count: number; coef: Float64Array },
+  plainK: GroupSprings,
+  mixedPieces: Int32Array,
+  inp: StiffnessInput,
+  xs: number[],
+  ys: number[],
+): { f: number[][]; best: StiffnessResult['min']; bestK: StiffnessResult['matrixAtMinNPerM']; k: StiffnessResult['kNPerM'] } {
+  const n = xs.length * ys.length;
+  const st: BeltGrid = {
+    prep,
+    groupOf: plain.groupOf,
+    coef: plain.coef,
+    ng: plain.count,
+    colG: plainK.col,
+    rowG: plainK.row,
+    mixedPieces,
+    xs,
+    ys,
+    ox: inp.originXMm,
+    oy: inp.originYMm,
+    ea: inp.axialStiffnessN * 1000,
+    xKg: inp.xKg,
+    yKg: inp.yKg,
+    sqrtMass: Math.sqrt(inp.xKg * inp.yKg),
+    kg: new Float64Array(plain.count),
+    kxx: new Float64Array(n),
+    kxy: new Float64Array(n),
+    kyy: new Float64Array(n),
+    blank: zeroRow(xs.length),
+    bestHz: Infinity,
+    bestP: -1,
+  };
+  const f: number[][] = [];
+  for (let iy = 0; iy < ys.length; iy++) f.push(beltModeRow(st, iy));
+  const k = { xx: st.kxx, xy: st.kxy, yy: st.kyy };
+  return { f, ...weakestOf(st.bestP, st.bestHz, xs, ys, k), k };
+}
+
+/** One row of {@link beltModeGrid}: frequencies [Hz], and the condensed stiffness stored per point. */
+function beltModeRow(st: BeltGrid, iy: number): number[] {
+  const { groupOf, coef, ng, colG, rowG, mixedPieces, xs, ys, ox, ea, xKg, yKg, sqrtMass, kg } = st;
+  const { l0, gx, gy, h0 } = st.prep;
+  const { kxx: kxxA, kxy: kxyA, kyy: kyyA } = st;
+  const nx = xs.length;
+  const ny = ys.length;
+  const nm = mixedPieces.length;
+  const twoPi = 2 * Math.PI;
+  let bestHz = st.bestHz;
+  let bestP = st.bestP;
+  const row = st.blank.slice();
+  const cy = st.oy + ys[iy];
+  for (let ix = 0; ix < nx; ix++) {
+    for (let g = 0; g < ng; g++) kg[g] = colG[g * nx + ix] + rowG[g * ny + iy];
+    if (nm > 0) {
+      const cx = ox + xs[ix];
+      for (let mi = 0; mi < nm; mi++) {
+        const r = mixedPieces[mi];
+        const len = l0[r] + gx[r] * cx + gy[r] * cy;
+        kg[groupOf[r]] += ea / (len > 1e-3 ? len : 1e-3);
+      }
+    }
+    let kxx = 0,
+      kxy = 0,
+      x0 = 0,
+      x1 = 0,
+      x2 = 0,
+      kyy = 0,
+      y0 = 0,
+      y1 = 0,
+      y2 = 0;
+    let h00 = h0[0],
+      h01 = h0[1],
+      h02 = h0[2],
+      h11 = h0[3],
+      h12 = h0[4],
+      h22 = h0[5];
+    for (let g = 0; g < ng; g++) {
+      const k = kg[g];
+      const o = g * 15;
+      kxx += k * coef[o];
+      kxy += k * coef[o + 1];
+      x0 += k * coef[o + 2];
+      x1 += k * coef[o + 3];
+      x2 += k * coef[o + 4];
+      kyy += k * coef[o + 5];
+      y0 += k * coef[o + 6];
+      y1 += k * coef[o + 7];
+      y2 += k * coef[o + 8];
+      h00 += k * coef[o + 9];
+      h01 += k * coef[o + 10];
+      h02 += k * coef[o + 11];
+      h11 += k * coef[o + 12];
+      h12 += k * coef[o + 13];
+      h22 += k * coef[o + 14];
+    }
+    const f10 = h01 / h00;
+    const f20 = h02 / h00;
+    const d1 = h11 - f10 * h01;
+    const e12 = h12 - f10 * h02;
+    const f21 = e12 / d1;
+    const d2 = h22 - f20 * h02 - f21 * e12;
+    const x1b = x1 - f10 * x0;
+    const y1b = y1 - f10 * y0;
+    const x2b = x2 - f20 * x0 - f21 * x1b;
+    const y2b = y2 - f20 * y0 - f21 * y1b;
+    const cxx = kxx - (x0 * x0) / h00 - (x1b * x1b) / d1 - (x2b * x2b) / d2;
+    const cxy = kxy - (x0 * y0) / h00 - (x1b * y1b) / d1 - (x2b * y2b) / d2;
+    const cyy = kyy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
+    const p = iy * nx + ix;
+    kxxA[p] = cxx;
+    kxyA[p] = cxy;
+    kyyA[p] = cyy;
+    const ea2 = cxx / xKg;
+    const ed2 = cyy / yKg;
+    const eb2 = cxy / sqrtMass;
+    const lam = (ea2 + ed2) / 2 - Math.sqrt(((ea2 - ed2) / 2) * ((ea2 - ed2) / 2) + eb2 * eb2);
+    const hz = Math.sqrt(lam > 0 ? lam : 0) / twoPi;
+    row[ix] = hz;
+    if (hz < bestHz - 1e-9) {
+      bestHz = hz;
+      bestP = p;
+    }
+  }
+  st.bestHz = bestHz;
+  st.bestP = bestP;
+  return row;
+}
+
+/** The weakest point of the belt-mode map (flat index `p`, −1 when no point had a frequency) and K there. */
+function weakestOf(
+  p: number,
+  hz: number,
+  xs: number[],
+  ys: number[],
+  k: StiffnessResult['kNPerM'],
+): { best: StiffnessResult['min']; bestK: StiffnessResult['matrixAtMinNPerM'] } {
+  if (p < 0) {
+    return {
+      best: { frequencyHz: Infinity, xMm: 0, yMm: 0 },
+      bestK: [
+        [0, 0],
+        [0, 0],
+      ],
+    };
+  }
+  return {
+    best: { frequencyHz: hz, xMm: xs[p % xs.length], yMm: ys[Math.floor(p / xs.length)] },
+    bestK: [
+      [k.xx[p], k.xy[p]],
+      [k.xy[p], k.yy[p]],
+    ],
   };
 }
 
@@ -503,63 +640,4 @@ function groupPieces(prep: Prepared, withYaw: boolean): { groupOf: Int32Array; c
     for (let i = 0; i < len; i++) for (let j = i; j < len; j++) coef[g * np + c++] = v[i] * v[j];
   });
   return { groupOf, count: groups.length, coef };
-}
-
-/**
- * Static condensation at one grid point without the yaw coordinate: the 2 × 2 carriage block (x, y) from the
- * groups' 15 products of (gx, gy, t0, t1, t2), the three motor variables eliminated by LDLᵀ.
- * @param kg - spring of each group at this point [N/m]
- * @param coef - the groups' 15 products each: xx xy x0 x1 x2 | yy y0 y1 y2 | 00 01 02 | 11 12 | 22
- * @param ng - number of groups
- * @param h0 - starting H_mm (motor springs, cross-shaft coupling): h00 h01 h02 h11 h12 h22
- * @param out - written: kxx, kxy, kyy [N/m]
- */
-function condensePlain(kg: Float64Array, coef: Float64Array, ng: number, h0: Float64Array, out: Float64Array): void {
-  let kxx = 0,
-    kxy = 0,
-    x0 = 0,
-    x1 = 0,
-    x2 = 0,
-    kyy = 0,
-    y0 = 0,
-    y1 = 0,
-    y2 = 0;
-  let h00 = h0[0],
-    h01 = h0[1],
-    h02 = h0[2],
-    h11 = h0[3],
-    h12 = h0[4],
-    h22 = h0[5];
-  for (let g = 0; g < ng; g++) {
-    const k = kg[g];
-    const o = g * 15;
-    kxx += k * coef[o];
-    kxy += k * coef[o + 1];
-    x0 += k * coef[o + 2];
-    x1 += k * coef[o + 3];
-    x2 += k * coef[o + 4];
-    kyy += k * coef[o + 5];
-    y0 += k * coef[o + 6];
-    y1 += k * coef[o + 7];
-    y2 += k * coef[o + 8];
-    h00 += k * coef[o + 9];
-    h01 += k * coef[o + 10];
-    h02 += k * coef[o + 11];
-    h11 += k * coef[o + 12];
-    h12 += k * coef[o + 13];
-    h22 += k * coef[o + 14];
-  }
-  const f10 = h01 / h00;
-  const f20 = h02 / h00;
-  const d1 = h11 - f10 * h01;
-  const e12 = h12 - f10 * h02;
-  const f21 = e12 / d1;
-  const d2 = h22 - f20 * h02 - f21 * e12;
-  const x1b = x1 - f10 * x0;
-  const y1b = y1 - f10 * y0;
-  const x2b = x2 - f20 * x0 - f21 * x1b;
-  const y2b = y2 - f20 * y0 - f21 * y1b;
-  out[0] = kxx - (x0 * x0) / h00 - (x1b * x1b) / d1 - (x2b * x2b) / d2;
-  out[1] = kxy - (x0 * y0) / h00 - (x1b * y1b) / d1 - (x2b * y2b) / d2;
-  out[2] = kyy - (y0 * y0) / h00 - (y1b * y1b) / d1 - (y2b * y2b) / d2;
 }

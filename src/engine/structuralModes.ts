@@ -1,5 +1,6 @@
 import { requireNumber } from './errors';
 import { generalizedEigen3, type Sym3 } from './linalg';
+import { zeroRow } from './zeroRow';
 
 // Structural modes beside the belt modes (docs/models/structural-modes.md): gantry beam bending, gantry yaw and
 // the cross shaft's twist, and the map of the lowest of all modes.
@@ -49,6 +50,12 @@ export function typicalGantryBeam(extrusionMm: number): TypicalBeam {
   return square.reduce((best, b) => (Math.abs(b.extrusionMm - extrusionMm) < Math.abs(best.extrusionMm - extrusionMm) ? b : best));
 }
 
+/** One side's integral of {@link beamEffectiveMassShare} on a span normalised to 1: q²(c²p³/3 − 2c·p⁵/5 + p⁷/7), c = 1 − q². */
+function shareIntegral(p: number, q: number): number {
+  const c = 1 - q * q;
+  return q * q * ((c * c * p ** 3) / 3 - (2 * c * p ** 5) / 5 + p ** 7 / 7);
+}
+
 /**
  * Share of a uniform simply supported beam's mass that moves with a point load at distance a from one support,
  * by Rayleigh's method with the static deflection of that load as the mode shape:
@@ -67,11 +74,7 @@ export function beamEffectiveMassShare(args: { spanMm: number; positionMm?: numb
   // Normalised to L = 1; a load right at a support moves nothing, so keep it a hair inside.
   const a = Math.min(1 - 1e-3, Math.max(1e-3, a0 / l));
   const b = 1 - a;
-  const part = (p: number, q: number) => {
-    const c = 1 - q * q;
-    return q * q * ((c * c * p ** 3) / 3 - (2 * c * p ** 5) / 5 + p ** 7 / 7);
-  };
-  return (part(a, b) + part(b, a)) / (4 * a ** 4 * b ** 4);
+  return (shareIntegral(a, b) + shareIntegral(b, a)) / (4 * a ** 4 * b ** 4);
 }
 
 /**
@@ -230,6 +233,74 @@ export interface LowestModeMap {
   highestWhereLowestHz: Partial<Record<ModeId, number>>;
 }
 
+/** Running state of {@link lowestModeMap}'s pass over the rows. */
+interface LowestPass {
+  ids: ModeId[];
+  maps: number[][][];
+  nx: number;
+  /** Lowest frequency and its mode (index into ids) at each point of the current row. */
+  fBuf: Float64Array;
+  kBuf: Int32Array;
+  blank: number[];
+  /** Per mode: its lowest frequency so far, where (flat index), and its highest where it is the lowest mode. */
+  bestF: Float64Array;
+  bestP: Int32Array;
+  top: Float64Array;
+  /** The lowest of all modes so far, its mode and where (flat index; −1 before any). */
+  lowestHz: number;
+  lowestId: ModeId;
+  lowestP: number;
+  frequencyRows: number[][];
+  modeRows: ModeId[][];
+}
+
+/**
+ * One row of the lowest-mode map, mode by mode: the same comparisons per point as a loop over the modes, one row
+ * array at a time. Each mode's weakest point (the first within 1e-9 Hz of its lowest, rows first) is tracked in the
+ * same pass; a row that is the same array as the one before cannot move it (the bending map repeats one row).
+ */
+function lowestModeRow(s: LowestPass, iy: number): void {
+  const { maps, nx, fBuf, kBuf, bestF, bestP, ids, top } = s;
+  fBuf.fill(Infinity);
+  kBuf.fill(0);
+  for (let k = 0; k < maps.length; k++) {
+    const row = maps[k][iy];
+    const fresh = iy === 0 || row !== maps[k][iy - 1];
+    let bf = bestF[k];
+    for (let ix = 0; ix < nx; ix++) {
+      const v = row[ix];
+      if (fresh && v < bf - 1e-9) {
+        bf = v;
+        bestP[k] = iy * nx + ix;
+      }
+      if (v < fBuf[ix]) {
+        fBuf[ix] = v;
+        kBuf[ix] = k;
+      }
+    }
+    bestF[k] = bf;
+  }
+  const fr = s.blank.slice();
+  const idr = new Array<ModeId>(nx);
+  let lowestHz = s.lowestHz;
+  for (let ix = 0; ix < nx; ix++) {
+    const f = fBuf[ix];
+    const kf = kBuf[ix];
+    const id = ids[kf];
+    if (kf < top.length) top[kf] = Math.max(top[kf], f);
+    fr[ix] = f;
+    idr[ix] = id;
+    if (f < lowestHz - 1e-9) {
+      lowestHz = f;
+      s.lowestId = id;
+      s.lowestP = iy * nx + ix;
+    }
+  }
+  s.lowestHz = lowestHz;
+  s.frequencyRows.push(fr);
+  s.modeRows.push(idr);
+}
+
 /**
  * Combines the per-point frequencies of each mode into the list of modes (each at its own weakest point) and the
  * map of the lowest mode. Each mode is computed with the rest of the machine rigid, so the true lowest frequency
@@ -243,57 +314,35 @@ export function lowestModeMap(args: { xMm: number[]; yMm: number[]; maps: Partia
   const ids = (Object.keys(args.maps) as ModeId[]).filter((id) => args.maps[id]);
   const ny = args.yMm.length;
   const nx = args.xMm.length;
-  const modes: ModeReport[] = ids.map((id) => {
-    const map = args.maps[id]!;
-    let bestF = Infinity;
-    let bestX = 0;
-    let bestY = 0;
-    for (let iy = 0; iy < ny; iy++) {
-      const row = map[iy];
-      for (let ix = 0; ix < nx; ix++) {
-        if (row[ix] < bestF - 1e-9) {
-          bestF = row[ix];
-          bestX = ix;
-          bestY = iy;
-        }
-      }
-    }
-    return { id, label: MODE_LABELS[id], frequencyHz: bestF, xMm: args.xMm[bestX], yMm: args.yMm[bestY] };
-  });
-  const lowestFrequencyHz: number[][] = [];
-  const lowestModeId: ModeId[][] = [];
-  let lowestHz = Infinity;
-  let lowestId: ModeId = ids[0] ?? 'belt';
-  let lowestP = -1;
   const maps = ids.map((id) => args.maps[id]!);
-  const top = ids.map(() => 0);
-  for (let iy = 0; iy < ny; iy++) {
-    const fr = new Array<number>(nx);
-    const idr = new Array<ModeId>(nx);
-    const rows = maps.map((m) => m[iy]);
-    for (let ix = 0; ix < nx; ix++) {
-      let f = Infinity;
-      let kf = 0;
-      for (let k = 0; k < rows.length; k++) {
-        const v = rows[k][ix];
-        if (v < f) {
-          f = v;
-          kf = k;
-        }
-      }
-      const id = ids[kf];
-      if (kf < top.length) top[kf] = Math.max(top[kf], f);
-      fr[ix] = f;
-      idr[ix] = id;
-      if (f < lowestHz - 1e-9) {
-        lowestHz = f;
-        lowestId = id;
-        lowestP = iy * nx + ix;
-      }
-    }
-    lowestFrequencyHz.push(fr);
-    lowestModeId.push(idr);
-  }
+  const pass: LowestPass = {
+    ids,
+    maps,
+    nx,
+    fBuf: new Float64Array(nx),
+    kBuf: new Int32Array(nx),
+    blank: zeroRow(nx),
+    bestF: new Float64Array(maps.length).fill(Infinity),
+    bestP: new Int32Array(maps.length),
+    top: new Float64Array(ids.length),
+    lowestHz: Infinity,
+    lowestId: ids[0] ?? 'belt',
+    lowestP: -1,
+    frequencyRows: [],
+    modeRows: [],
+  };
+  // One call per row: the row routine is optimised as an ordinary hot function rather than mid-loop.
+  for (let iy = 0; iy < ny; iy++) lowestModeRow(pass, iy);
+  const { bestF, bestP, top, lowestHz, lowestId, lowestP } = pass;
+  const lowestFrequencyHz = pass.frequencyRows;
+  const lowestModeId = pass.modeRows;
+  const modes: ModeReport[] = ids.map((id, k) => ({
+    id,
+    label: MODE_LABELS[id],
+    frequencyHz: bestF[k],
+    xMm: args.xMm[bestP[k] % nx],
+    yMm: args.yMm[Math.floor(bestP[k] / nx)],
+  }));
   const lowest = {
     frequencyHz: lowestHz,
     modeId: lowestId,
