@@ -6,7 +6,7 @@ import { ensureManyDesigns } from './seed';
 /**
  * List part of `npm run bench`: the Designs list API on a database of 10,000 designs (seeded once with the same
  * code as `npm run seed:many`). Every sort the table offers, both directions, first and a deep page; the filters
- * with the default sort; and a search typed letter by letter. Requests are interleaved over rounds so that every
+ * with the default sort and with every sort; and a search typed letter by letter. Requests are interleaved over rounds so that every
  * variant sees the same machine; figures are medians and ratios against the default sort in the same run.
  */
 const DESIGNS = 10_000;
@@ -28,10 +28,15 @@ export async function benchList(): Promise<Figure[]> {
         variants.set(`sort ${dir}${sort}`, `/api/designs?sort=${dir}${sort}&pageSize=25`);
         variants.set(`sort ${dir}${sort}, page 200`, `/api/designs?sort=${dir}${sort}&pageSize=25&page=200`);
       }
-    variants.set('filter status=draft', `${DEFAULT}&status=draft`);
-    variants.set('filter mechanism=hbot', `${DEFAULT}&mechanism=hbot`);
-    variants.set('filter owner=me', `${DEFAULT}&owner=me`);
-    variants.set('filter owner=me, sort owner', '/api/designs?sort=owner&pageSize=25&owner=me');
+    // Every filter with the default sort, then with every other sort both ways (the table combines them freely).
+    const FILTERS = ['status=draft', 'mechanism=hbot', 'owner=me'];
+    for (const filter of FILTERS) {
+      variants.set(`filter ${filter}`, `${DEFAULT}&${filter}`);
+      for (const sort of SORTS)
+        for (const dir of ['', '-'])
+          if (`${dir}${sort}` !== '-updatedAt')
+            variants.set(`filter ${filter}, sort ${dir}${sort}`, `/api/designs?sort=${dir}${sort}&pageSize=25&${filter}`);
+    }
     for (let i = 1; i <= TYPED.length; i++)
       variants.set(`search "${TYPED.slice(0, i)}"`, `${DEFAULT}&q=${encodeURIComponent(TYPED.slice(0, i))}`);
 

@@ -207,7 +207,7 @@ export interface CellValue {
   stored?: string;
 }
 
-/** A column of a shelf's table: one value, or two joined ("2 mm × 6 mm"). */
+/** A column of a shelf's table: one value, or two joined ("2 mm × 6 mm", on two lines where the column is narrow). */
 export interface TableColumn {
   label: string;
   width: number;
@@ -223,7 +223,7 @@ export const TABLE_COLUMNS: Record<PartKind, TableColumn[]> = {
   belts: [
     {
       label: 'Pitch × width',
-      width: 150,
+      width: 100,
       values: [
         { key: 'pitchMm', quantity: 'length', stored: 'mm' },
         { key: 'widthMm', quantity: 'length', stored: 'mm' },
@@ -245,7 +245,7 @@ export const TABLE_COLUMNS: Record<PartKind, TableColumn[]> = {
   motors: [
     {
       label: 'Frame · step',
-      width: 104,
+      width: 84,
       values: [
         { key: 'frameMm', quantity: 'length', stored: 'mm' },
         { key: 'stepAngleDeg', quantity: 'angle', stored: '' },
@@ -256,7 +256,7 @@ export const TABLE_COLUMNS: Record<PartKind, TableColumn[]> = {
     { label: 'Rated', width: 66, values: [{ key: 'ratedCurrentA', quantity: 'current', stored: 'A' }] },
     {
       label: 'R · L per phase',
-      width: 118,
+      width: 88,
       values: [
         { key: 'phaseResistanceOhm', quantity: 'resistance', stored: 'ohm' },
         { key: 'phaseInductanceMh', quantity: 'inductance', stored: 'mH' },

@@ -66,10 +66,11 @@ describe('TheUserMenu', () => {
     await wrapper.get('[data-test="user-menu"]').trigger('click');
     await flushPromises();
     (document.querySelector('[data-test="open-sessions"]') as HTMLElement).click();
+    // The dialog's code is fetched on this first opening.
+    await vi.waitFor(() => expect(document.querySelector('[data-test="sessions-dialog"]')).not.toBeNull());
     await flushPromises();
     // Assert
     expect(api.listSessions).toHaveBeenCalledTimes(1);
-    expect(document.querySelector('[data-test="sessions-dialog"]')).not.toBeNull();
     wrapper.unmount();
   });
 });

@@ -76,7 +76,8 @@ describe('DesignsView', () => {
     expect(names).toEqual(['Bench stage', 'Pen plotter']);
     expect(wrapper.find('[data-test="status-in_review"]').text()).toBe('In review');
     expect(wrapper.text()).toContain('H-bot');
-    expect(wrapper.text()).toMatch(/312\s*mm\s*×\s*320\s*mm/);
+    // The travel values' code comes alongside the first page (here the answer is instant, so it may come after).
+    await vi.waitFor(() => expect(wrapper.text()).toMatch(/312\s*mm\s*×\s*320\s*mm/));
     wrapper.unmount();
   });
 
