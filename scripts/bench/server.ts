@@ -84,6 +84,9 @@ async function probeWhile<T>(client: Client, until: Promise<T>): Promise<{ laten
   let done = false;
   const latencies: number[] = [];
   const finished = until.finally(() => (done = true));
+  // Rethrown by the await below; without a handler now, a failure would end the bench at once (unhandled rejection)
+  // and leave the app servers running.
+  finished.catch(() => undefined);
   while (!done) {
     const r = await client.request('GET', '/api/health').catch(() => null);
     if (r?.status === 200) latencies.push(r.ms);
