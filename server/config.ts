@@ -109,10 +109,18 @@ const envSchema = z.object({
   S3_ACCESS_KEY_ID: z.string().optional(),
   S3_SECRET_ACCESS_KEY: z.string().optional(),
   S3_FORCE_PATH_STYLE: z.enum(['true', 'false']).optional(),
-  /** Worker threads for the engine (POST /api/calc, saves, revision freezing); default: cores − 1, at least 1. */
+  /**
+   * Worker threads for the engine (POST /api/calc, saves, revision freezing); default: one per core. The threads run
+   * at a lower scheduling priority than the event loop (WORKER_NICE), so the event loop does not need a core kept free.
+   */
   ENGINE_THREADS: z.coerce.number().int().min(1).max(64).optional(),
   /** Worker threads that render design sheets (PDF). */
   PDF_THREADS: positiveInt(1),
+  /**
+   * Niceness of the engine and PDF worker threads (Linux: per thread; 0 = same as the event loop). With 10 the
+   * event loop gets a core first whenever it has work, so short requests never wait behind the engine.
+   */
+  WORKER_NICE: z.coerce.number().int().min(0).max(19).default(10),
 });
 
 /** The validated, typed configuration. Paths are absolute. */
@@ -172,7 +180,7 @@ export type AppConfig = {
   /** Where uploads and design sheets are stored: a local folder (`uploadDir`) or an S3-compatible bucket. */
   storage: StorageConfig;
   /** Sizes of the worker-thread pools (server/workers/pool.ts). */
-  workers: { engineThreads: number; pdfThreads: number };
+  workers: { engineThreads: number; pdfThreads: number; nice: number };
   version: string;
 };
 
@@ -287,7 +295,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     resetRateWindowMinutes: e.RESET_RATE_WINDOW_MINUTES,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
     storage,
-    workers: { engineThreads: e.ENGINE_THREADS ?? Math.max(1, os.availableParallelism() - 1), pdfThreads: Math.min(e.PDF_THREADS, 8) },
+    workers: { engineThreads: e.ENGINE_THREADS ?? os.availableParallelism(), pdfThreads: Math.min(e.PDF_THREADS, 8), nice: e.WORKER_NICE },
     version: readVersion(),
   };
 }

@@ -175,8 +175,10 @@ export async function startApp(options: {
 /**
  * A checkout of `ref` in a temporary folder (git worktree), sharing this checkout's node_modules, for measuring
  * today's code against an earlier commit in the same run. `remove()` deletes it again.
+ * @param overlay - folders (relative to the repository) copied from this checkout over the baseline's, e.g. the
+ *   engine, so that the baseline's server computes the same answer as this checkout's and only the server differs
  */
-export function baselineCheckout(ref: string): { dir: string; commit: string; remove(): void } {
+export function baselineCheckout(ref: string, overlay: readonly string[] = []): { dir: string; commit: string; remove(): void } {
   const commit = spawnSync('git', ['rev-parse', '--verify', `${ref}^{commit}`], { cwd: ROOT_DIR, encoding: 'utf8' }).stdout.trim();
   if (!commit) throw new Error(`baseline ${ref} is not a commit of this repository`);
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'gw-bench-baseline-'));
@@ -184,6 +186,11 @@ export function baselineCheckout(ref: string): { dir: string; commit: string; re
   const add = spawnSync('git', ['worktree', 'add', '--detach', dir, commit], { cwd: ROOT_DIR, encoding: 'utf8' });
   if (add.status !== 0) throw new Error(`git worktree add failed: ${add.stderr}`);
   fs.symlinkSync(path.join(ROOT_DIR, 'node_modules'), path.join(dir, 'node_modules'), 'dir');
+  for (const folder of overlay) {
+    // Replaced whole, so a file the baseline had and this checkout deleted does not linger.
+    fs.rmSync(path.join(dir, folder), { recursive: true, force: true });
+    fs.cpSync(path.join(ROOT_DIR, folder), path.join(dir, folder), { recursive: true });
+  }
   return {
     dir,
     commit,

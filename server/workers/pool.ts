@@ -29,7 +29,8 @@ function makePool(threads: number, name: string): Piscina {
     idleTimeout: 60_000,
     // Queue without bound: each request waits its turn rather than failing (the HTTP layer limits concurrency).
     maxQueue: Infinity,
-    workerData: { pool: name },
+    // Each thread lowers its own scheduling priority (entry.mjs), so the event loop gets a core first.
+    workerData: { pool: name, nice: getConfig().workers.nice },
   });
 }
 

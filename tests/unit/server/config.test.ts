@@ -1,3 +1,4 @@
+import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { randomBytes } from 'node:crypto';
@@ -29,6 +30,13 @@ describe('loadConfig', () => {
     });
     expect(config.dataDir).toBe(path.join(ROOT_DIR, '.data'));
     expect(config.uploadDir).toBe(path.join(ROOT_DIR, '.data', 'uploads'));
+    expect(config.workers).toEqual({ engineThreads: os.availableParallelism(), pdfThreads: 1, nice: 10 });
+  });
+
+  it('when WORKER_NICE is given, then 0–19 is taken and anything else is refused naming the variable', () => {
+    expect(loadConfig({ ...VALID, WORKER_NICE: '0', ENGINE_THREADS: '3' }).workers).toMatchObject({ engineThreads: 3, nice: 0 });
+    expect(() => loadConfig({ ...VALID, WORKER_NICE: '20' })).toThrow(/WORKER_NICE/);
+    expect(() => loadConfig({ ...VALID, WORKER_NICE: '-5' })).toThrow(/WORKER_NICE/);
   });
 
   it('when values are given as strings, then numbers are coerced and paths resolved against the repository', () => {

@@ -1,5 +1,7 @@
+import fs from 'node:fs';
 import { afterAll, describe, expect, it } from 'vitest';
 import { defaultDesign, evaluateValidDesign, parseDesign, type DesignInput } from '@/engine';
+import { getConfig } from '../../../../server/config';
 import { AppError } from '../../../../server/errors';
 import { calcJson, closePools, freezeInPool, getEnginePool, renderSheetsInPool } from '../../../../server/workers/pool';
 import { freezeDesign } from '../../../../server/services/freezeRevision';
@@ -13,6 +15,14 @@ afterAll(() => closePools());
 const overJson = <T>(value: T): unknown => JSON.parse(JSON.stringify(value));
 const demo = (): DesignInput => parseDesign({ ...defaultDesign('corexy'), name: 'Pool test stage' });
 const bytes = (body: unknown): Uint8Array => new Uint8Array(Buffer.from(JSON.stringify(body)));
+/** Niceness of a process or thread from /proc/<path>/stat (the 19th field). */
+const niceOf = (procPath: string): number => {
+  try {
+    return Number(fs.readFileSync(`/proc/${procPath}/stat`, 'utf8').split(') ')[1].split(' ')[16]);
+  } catch {
+    return Number.NaN; // a thread that ended while being read
+  }
+};
 
 describe('engine worker pool', () => {
   it('when a design is calculated in the pool (a thread that loads TypeScript through entry.mjs), then the bytes are the JSON of the in-thread result', async () => {
@@ -92,6 +102,23 @@ describe('engine worker pool', () => {
     expect(sheet.a4Sha256).toBe(createHash('sha256').update(sheet.a4).digest('hex'));
     expect(sheet.letterSha256).not.toBe(sheet.a4Sha256);
   }, 60_000); // a cold thread loads pdfmake and the fonts first; the machine may be busy
+
+  it.runIf(process.platform === 'linux' && niceOf('self') === 0)(
+    'when the pool threads run (Linux), then each runs at the configured niceness and the calling thread keeps its own',
+    async () => {
+      // Arrange: enough concurrent work to start every engine thread.
+      const design = demo();
+
+      // Act
+      await Promise.all(Array.from({ length: 4 }, () => calcJson({ kind: 'result', body: bytes({ design }) })));
+
+      // Assert: each pool thread lowered its own priority (entry.mjs); this thread, the event loop's stand-in, did not.
+      const niced = fs.readdirSync('/proc/self/task').filter((tid) => niceOf(`self/task/${tid}`) === getConfig().workers.nice);
+      expect(getConfig().workers.nice).toBe(10);
+      expect(niced.length).toBeGreaterThanOrEqual(getEnginePool().threads.length);
+      expect(niceOf('thread-self')).toBe(0);
+    },
+  );
 });
 
 describe('pickSections', () => {
