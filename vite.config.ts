@@ -29,9 +29,15 @@ export default defineConfig({
     chunkSizeWarningLimit: 5000,
     manifest: true,
     rolldownOptions: {
-      // The formatting layer is pure (ESLint holds it to that): importing one word list through `@/format` must not
-      // put the whole layer (input names, check texts, kinds) in every page's first load.
-      treeshake: { moduleSideEffects: [{ test: /[\\/]src[\\/]format[\\/]/, sideEffects: false }] },
+      // The formatting layer and the contracts are pure (ESLint holds them to that): importing one word list through
+      // `@/format` or one enum through `@/contracts` must not put the whole layer in every page's first load — nor,
+      // through the request schemas (which validate design documents with the engine's schema), the engine itself.
+      treeshake: {
+        moduleSideEffects: [
+          { test: /[\\/]src[\\/]format[\\/]/, sideEffects: false },
+          { test: /[\\/]src[\\/]contracts[\\/]/, sideEffects: false },
+        ],
+      },
     },
   },
 });
