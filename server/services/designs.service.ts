@@ -33,12 +33,14 @@ import {
   designEditable,
   designReadNeedsAuthor,
   mayDeleteDesign,
+  mayReadDesign,
 } from './access';
 import type { PublicUser } from './users.service';
 
 type DesignRow = Design & { owner?: User | null; updatedBy?: User | null };
 
-function toListItem(row: DesignRow, actor: PublicUser): DesignListItem {
+/** @param canOpen - whether `actor` may read the design (access.ts, mayReadDesign), decided by the caller */
+function toListItem(row: DesignRow, actor: PublicUser, canOpen: boolean): DesignListItem {
   const status = row.status as DesignStatus;
   return {
     id: row.id,
@@ -50,14 +52,16 @@ function toListItem(row: DesignRow, actor: PublicUser): DesignListItem {
     version: row.version,
     updatedAt: new Date(row.updatedAt).toISOString(),
     createdAt: new Date(row.createdAt).toISOString(),
+    canOpen,
     canEdit: designEditable(actor, { ownerId: row.ownerId, status }).ok,
     canDelete: mayDeleteDesign(actor, { ownerId: row.ownerId, status }),
   };
 }
 
+/** A design with its inputs, for someone who has been allowed to read it. */
 function toDetail(row: DesignRow, actor: PublicUser): DesignDetail {
   return {
-    ...toListItem(row, actor),
+    ...toListItem(row, actor, true),
     inputs: parseJson<DesignInput>(row.inputs),
     editable: designEditable(actor, { ownerId: row.ownerId, status: row.status as DesignStatus }),
     updatedBy: row.updatedBy ? { id: row.updatedBy.id, name: row.updatedBy.name } : null,
@@ -204,7 +208,28 @@ export async function listDesigns(actor: PublicUser, query: DesignListRequest): 
         order,
       })
     : [];
-  return { items: rows.map((row) => toListItem(row, actor)), total: count, page: query.page, pageSize: query.pageSize };
+  const authored = await inReviewAuthoredBy(actor, rows);
+  return {
+    items: rows.map((row) => toListItem(row, actor, mayReadDesign(actor, row, authored.has(row.id) ? { authorId: actor.id } : null))),
+    total: count,
+    page: query.page,
+    pageSize: query.pageSize,
+  };
+}
+
+/**
+ * Of the listed designs whose read rule needs the author of the revision in review (access.ts,
+ * designReadNeedsAuthor), the ids of those whose revision in review `actor` wrote: one query per page, only when needed.
+ */
+async function inReviewAuthoredBy(actor: PublicUser, rows: readonly DesignRow[]): Promise<Set<number>> {
+  const ids = rows.filter((row) => designReadNeedsAuthor(actor, row)).map((row) => row.id);
+  if (!ids.length) return new Set();
+  const revisions = await Revision.findAll({
+    where: { designId: { [Op.in]: ids }, status: 'in_review', authorId: actor.id },
+    attributes: ['designId'],
+    raw: true,
+  });
+  return new Set(revisions.map((r) => r.designId));
 }
 
 async function findDesign(id: number, transaction?: Transaction): Promise<DesignRow> {

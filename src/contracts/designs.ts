@@ -34,6 +34,11 @@ export type DesignListItem = {
   /** ISO 8601 timestamps */
   updatedAt: string;
   createdAt: string;
+  /**
+   * Whether the signed-in user may open (read) this design now: false for someone else's design while it is in review,
+   * unless the asker reviews or wrote that revision (the list still names it, so the team sees what is in review).
+   */
+  canOpen: boolean;
   /** Whether the signed-in user may change this design now (the server decides: access rules and state). */
   canEdit: boolean;
   /** Whether the signed-in user may delete this design now. */

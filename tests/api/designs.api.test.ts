@@ -327,6 +327,7 @@ describe('GET /api/designs/:id', () => {
       version: 1,
       updatedAt: expect.any(String),
       createdAt: expect.any(String),
+      canOpen: true,
       canEdit: false,
       canDelete: false,
       inputs: design.inputs,
@@ -568,6 +569,7 @@ describe('GET /api/designs (list)', () => {
         version: 1,
         updatedAt: expect.any(String),
         createdAt: expect.any(String),
+        canOpen: true,
         canEdit: false,
         canDelete: false,
       },
@@ -677,6 +679,30 @@ describe('GET /api/designs (list)', () => {
   it('when not signed in, then 401', async () => {
     const res = await request(app).get('/api/designs');
     expect(res.status).toBe(401);
+  });
+});
+
+describe('GET /api/designs canOpen (a listed design opens for exactly those the read rule lets in)', () => {
+  it.each([
+    { status: 'draft' as DesignStatus, opens: { owner: true, otherDesigner: true, admin: true, reviewer: true, maker: true } },
+    { status: 'in_review' as DesignStatus, opens: { owner: true, otherDesigner: false, admin: true, reviewer: true, maker: false } },
+    { status: 'approved' as DesignStatus, opens: { owner: true, otherDesigner: true, admin: true, reviewer: true, maker: true } },
+  ])('when the design is $status, then each role sees canOpen exactly when GET /api/designs/:id answers 200', async ({ status, opens }) => {
+    // Arrange
+    const tag = uniqueTag();
+    const design = await createDesign({ owner: users.owner, name: `${tag} listed stage`, status });
+    for (const who of Object.keys(opens) as Array<keyof typeof opens>) {
+      // Act
+      const listed = await agents[who].get(`/api/designs?q=${tag}`);
+      const read = await agents[who].get(`/api/designs/${design.id}`);
+      // Assert
+      expect(listed.status, who).toBe(200);
+      expect(
+        listed.body.items.map((d: { id: number; canOpen: boolean }) => [d.id, d.canOpen]),
+        who,
+      ).toEqual([[design.id, opens[who]]]);
+      expect(read.status, who).toBe(opens[who] ? 200 : 403);
+    }
   });
 });
 

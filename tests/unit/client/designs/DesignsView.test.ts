@@ -36,6 +36,7 @@ function row(over: Partial<DesignSummary>): DesignSummary {
     version: 1,
     updatedAt: '2026-11-20T10:00:00Z',
     createdAt: '2026-11-20T09:00:00Z',
+    canOpen: true,
     canEdit: true,
     canDelete: true,
     ...over,
@@ -78,6 +79,29 @@ describe('DesignsView', () => {
     expect(wrapper.text()).toContain('H-bot');
     // The travel values' code comes alongside the first page (here the answer is instant, so it may come after).
     await vi.waitFor(() => expect(wrapper.text()).toMatch(/312\s*mm\s*×\s*320\s*mm/));
+    wrapper.unmount();
+  });
+
+  it('when the server says a listed design may not be opened, then its name is plain text saying why and it has no actions', async () => {
+    // Arrange / Act: someone else's design in review, for a designer who does not review.
+    const { wrapper } = await mountView([
+      row({ id: 1 }),
+      row({
+        id: 3,
+        name: 'Wide stage',
+        status: 'in_review',
+        owner: { id: 9, name: 'Tobiah' },
+        canOpen: false,
+        canEdit: false,
+        canDelete: false,
+      }),
+    ]);
+    // Assert
+    const [open, closed] = wrapper.findAll('[data-test="design-row"]');
+    expect(open.element.tagName).toBe('A');
+    expect(closed.element.tagName).toBe('SPAN');
+    expect(closed.get('[data-test="design-closed"]').text()).toBe('In review: reviewers only until approved');
+    expect(wrapper.findAll('[data-test="design-actions"]')).toHaveLength(1);
     wrapper.unmount();
   });
 

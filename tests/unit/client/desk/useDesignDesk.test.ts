@@ -22,6 +22,7 @@ function designAnswer(editable: DesignEditable, status: Design['status'] = 'draf
     version: 3,
     updatedAt: '2026-12-01T10:00:00.000Z',
     createdAt: '2026-12-01T09:00:00.000Z',
+    canOpen: true,
     canEdit: editable.ok,
     canDelete: editable.ok,
     inputs: defaultDesign('corexy'),
