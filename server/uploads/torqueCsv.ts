@@ -1,5 +1,4 @@
 import { parse } from 'csv-parse/sync';
-import { create, createUnitDependencies, multiplyDependencies, unitDependencies } from 'mathjs';
 
 /** Speed units a torque table may use. */
 export type TorqueCsvSpeedUnit = 'rev/s' | 'rpm';
@@ -127,29 +126,16 @@ const QUANTITY_WORDS = new Set([
 const SPEED_HINT = 'rev/s, rps or rpm';
 const TORQUE_HINT = 'N·m, N·cm or oz·in';
 
-// mathjs units for the conversions; a private instance so the global one is untouched. mathjs 15 has no
-// ounce-force, so it is created from its definition 1 ozf = 1 oz (avoirdupois, 0.028 349 523 125 kg exactly)
-// × standard gravity (9.806 65 m/s² exactly), which gives 1 ozf·in = 7.061 552e-3 N·m as in NIST SP 811
-// (Guide for the Use of the SI, 2008, Appendix B.8). rpm and rps are revolutions (a count) per minute/second.
-let unitFactors: { speed: Record<TorqueCsvSpeedUnit, number>; torque: Record<TorqueCsvTorqueUnit, number> } | null = null;
-
-function factors(): NonNullable<typeof unitFactors> {
-  if (!unitFactors) {
-    const math = create({ unitDependencies, createUnitDependencies, multiplyDependencies });
-    math.createUnit('ozf', { definition: math.multiply(math.unit(0.028349523125, 'kg'), math.unit(9.80665, 'm/s^2')) as never });
-    math.createUnit('rps', '1 / s');
-    math.createUnit('rpm', '1 / min');
-    unitFactors = {
-      speed: { 'rev/s': math.unit(1, 'rps').toNumber('rps'), rpm: math.unit(1, 'rpm').toNumber('rps') },
-      torque: {
-        'N·m': math.unit(1, 'N m').toNumber('N m'),
-        'N·cm': math.unit(1, 'N cm').toNumber('N m'),
-        'oz·in': math.unit(1, 'ozf in').toNumber('N m'),
-      },
-    };
-  }
-  return unitFactors;
-}
+// The conversion factors, as plain numbers: importing mathjs at run time for these five constants kept about 30 MB
+// of library code on the API server's event-loop heap, which made every major garbage collection there slower
+// (DEVELOPERS.md "Performance"). tests/unit/server/uploads/torqueCsv.test.ts checks each one against mathjs
+// (bit for bit), where ozf is created from its definition 1 ozf = 1 oz (avoirdupois, 0.028 349 523 125 kg exactly)
+// × standard gravity (9.806 65 m/s² exactly), which gives 1 ozf·in = 7.061 552e-3 N·m as in NIST SP 811 (Guide for
+// the Use of the SI, 2008, Appendix B.8); rpm and rps are revolutions (a count) per minute/second.
+const UNIT_FACTORS: { speed: Record<TorqueCsvSpeedUnit, number>; torque: Record<TorqueCsvTorqueUnit, number> } = {
+  speed: { 'rev/s': 1, rpm: 0.016666666666666666 },
+  torque: { 'N·m': 1, 'N·cm': 0.01, 'oz·in': 0.007061551814226043 },
+};
 
 /**
  * Factor from a torque table's units to rev/s and N·m (rpm → 1/60; N·cm → 0.01; ozf·in → 7.061 552e-3 per NIST SP 811).
@@ -157,8 +143,7 @@ function factors(): NonNullable<typeof unitFactors> {
  * @returns the multiplication factor to rev/s (speed units) or N·m (torque units)
  */
 export function torqueCsvUnitFactor(unit: TorqueCsvSpeedUnit | TorqueCsvTorqueUnit): number {
-  const f = factors();
-  return unit === 'rev/s' || unit === 'rpm' ? f.speed[unit] : f.torque[unit];
+  return unit === 'rev/s' || unit === 'rpm' ? UNIT_FACTORS.speed[unit] : UNIT_FACTORS.torque[unit];
 }
 
 type HeaderColumn = { kind: 'speed'; unit: TorqueCsvSpeedUnit; name: string } | { kind: 'torque'; unit: TorqueCsvTorqueUnit; name: string };

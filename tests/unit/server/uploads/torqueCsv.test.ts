@@ -1,3 +1,4 @@
+import { create, createUnitDependencies, multiplyDependencies, unitDependencies } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { CsvError, parseTorqueCsv, TORQUE_CSV_LIMITS, torqueCsvUnitFactor, type CsvErrorDetail } from '../../../../server/uploads';
 import { expectWithinTolerance, loadReference, referenceCases } from '../../../helpers/loadReference';
@@ -111,6 +112,24 @@ describe('parseTorqueCsv', () => {
     ] as const)('when the unit is %s, then the factor is %s', (unit, factor) => {
       // Arrange / Act / Assert
       expect(torqueCsvUnitFactor(unit)).toBeCloseTo(factor, 15);
+    });
+
+    it.each([
+      ['rev/s', '1 rps', 'rps'],
+      ['rpm', '1 rpm', 'rps'],
+      ['N·m', '1 N m', 'N m'],
+      ['N·cm', '1 N cm', 'N m'],
+      ['oz·in', '1 ozf in', 'N m'],
+    ] as const)('when the unit is %s, then the factor is exactly mathjs’s %s in %s (library)', (unit, quantity, target) => {
+      // Arrange: a private mathjs instance; ozf from its definition (1 oz avoirdupois × standard gravity)
+      const math = create({ unitDependencies, createUnitDependencies, multiplyDependencies });
+      math.createUnit('ozf', { definition: math.multiply(math.unit(0.028349523125, 'kg'), math.unit(9.80665, 'm/s^2')) as never });
+      math.createUnit('rps', '1 / s');
+      math.createUnit('rpm', '1 / min');
+      // Act
+      const expected = math.unit(quantity).toNumber(target);
+      // Assert
+      expect(torqueCsvUnitFactor(unit)).toBe(expected);
     });
   });
 
