@@ -6,7 +6,6 @@ import { isUnitSystem, type UnitSystem } from '@/format';
 import { getConfig } from '../config';
 import { AppError, notFound } from '../errors';
 import { Revision, Sheet, User, type SheetPaper } from '../models';
-import { renderSheet } from '../sheet/renderSheet';
 import { getContentStore } from '../storage';
 import { ContentStoreError } from '../uploads';
 import { renderSheetsInPool } from '../workers/pool';
@@ -67,6 +66,9 @@ export function sheetFileName(designName: string, revisionNumber: number, paper:
  * the approval only.
  */
 export async function renderSheetFiles(source: SheetSource): Promise<RenderedSheet> {
+  // Loaded here, not at the top: the API server renders in the PDF pool (below), and the renderer's modules (about
+  // 8 MB of heap) would otherwise sit on the event loop's heap, where every major garbage collection marks them.
+  const { renderSheet } = await import('../sheet/renderSheet');
   const base = { ...source, appUrl: getConfig().appUrl };
   const a4 = await renderSheet({ ...base, paper: 'A4' });
   const letter = await renderSheet({ ...base, paper: 'LETTER' });
