@@ -6,7 +6,7 @@ import { Op, QueryTypes, type Transaction } from 'sequelize';
 import { getConfig } from '../config';
 import { getSequelize } from '../db';
 import { notFound } from '../errors';
-import { Session, type SessionRevokeReason, type User } from '../models';
+import { Session, type SessionRevokeReason } from '../models';
 import { toPublicUser, type PublicUser } from './users.service';
 
 /**
@@ -177,8 +177,7 @@ export async function readSession(token: string | undefined): Promise<SessionCon
   }
   // The JSON column arrives parsed or as text, depending on the server's column metadata.
   const roles: unknown = typeof row.roles === 'string' ? JSON.parse(row.roles) : row.roles;
-  const user = { ...row, roles, disabled: Boolean(row.disabled) } as unknown as User;
-  return { user: toPublicUser(user), sessionId: row.sessionId };
+  return { user: toPublicUser({ ...row, roles }), sessionId: row.sessionId };
 }
 
 /** Ends one session of a user. @returns whether it was still open */

@@ -18,8 +18,19 @@ export function normaliseRoles(roles: unknown): Role[] {
   return ROLES.filter((r) => list.includes(r));
 }
 
-/** Converts a model instance to the plain public shape. */
-export function toPublicUser(user: User): PublicUser {
+/** The user columns {@link toPublicUser} reads: a model instance, or a row of a plain query (session check). */
+export type UserFields = {
+  id: number;
+  email: string;
+  name: string;
+  roles: unknown;
+  disabled: boolean | number;
+  passwordHash: string | null | undefined;
+  createdAt: Date | string;
+};
+
+/** Converts a user row (model instance or plain query row) to the plain public shape. */
+export function toPublicUser(user: UserFields): PublicUser {
   return {
     id: user.id,
     email: user.email,

@@ -1,4 +1,5 @@
 import { parse } from 'csv-parse/sync';
+import { UNIT_TABLE } from '@/format/unitTable';
 
 /** Speed units a torque table may use. */
 export type TorqueCsvSpeedUnit = 'rev/s' | 'rpm';
@@ -126,15 +127,15 @@ const QUANTITY_WORDS = new Set([
 const SPEED_HINT = 'rev/s, rps or rpm';
 const TORQUE_HINT = 'N·m, N·cm or oz·in';
 
-// The conversion factors, as plain numbers: importing mathjs at run time for these five constants kept about 30 MB
-// of library code on the API server's event-loop heap, which made every major garbage collection there slower
-// (DEVELOPERS.md "Performance"). tests/unit/server/uploads/torqueCsv.test.ts checks each one against mathjs
-// (bit for bit), where ozf is created from its definition 1 ozf = 1 oz (avoirdupois, 0.028 349 523 125 kg exactly)
-// × standard gravity (9.806 65 m/s² exactly), which gives 1 ozf·in = 7.061 552e-3 N·m as in NIST SP 811 (Guide for
-// the Use of the SI, 2008, Appendix B.8); rpm and rps are revolutions (a count) per minute/second.
+// The conversion factors without mathjs at run time (its ~30 MB of library code would sit on the API server's
+// event-loop heap and slow every major garbage collection there: DEVELOPERS.md "Performance"). rpm and N·cm are exact
+// by definition; ozf·in comes from the unit table the client converts with, generated from mathjs with ozf defined as
+// 1 oz (avoirdupois, 0.028 349 523 125 kg exactly) × standard gravity (9.806 65 m/s² exactly), which gives
+// 1 ozf·in = 7.061 552e-3 N·m as in NIST SP 811 (Guide for the Use of the SI, 2008, Appendix B.8).
+// tests/unit/server/uploads/torqueCsv.test.ts checks every factor against mathjs, bit for bit.
 const UNIT_FACTORS: { speed: Record<TorqueCsvSpeedUnit, number>; torque: Record<TorqueCsvTorqueUnit, number> } = {
-  speed: { 'rev/s': 1, rpm: 0.016666666666666666 },
-  torque: { 'N·m': 1, 'N·cm': 0.01, 'oz·in': 0.007061551814226043 },
+  speed: { 'rev/s': 1, rpm: 1 / 60 },
+  torque: { 'N·m': 1, 'N·cm': 0.01, 'oz·in': UNIT_TABLE['ozf in'].si },
 };
 
 /**

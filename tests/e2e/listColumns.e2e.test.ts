@@ -68,6 +68,16 @@ async function measureTable(page: Page, tableSelector: string): Promise<TableLay
   });
 }
 
+/** Every row has its Actions cell, no cell lies under it or is cut off, and the table does not scroll sideways. */
+function expectEveryCellInView(layout: Awaited<ReturnType<typeof measureTable>>): void {
+  expect(layout.rows).toBeGreaterThan(0);
+  expect(layout.actionsCells).toBe(layout.rows);
+  expect(layout.overlaps).toEqual([]);
+  expect(layout.actionsOutside).toEqual([]);
+  expect(layout.cut).toEqual([]);
+  expect(layout.scrollWidth).toBeLessThanOrEqual(layout.clientWidth);
+}
+
 describe('List columns at 1280 px', () => {
   const baseURL = inject('baseUrl');
   let browser: Browser;
@@ -90,12 +100,7 @@ describe('List columns at 1280 px', () => {
     await page.waitForSelector('[data-test="designs-table"] [data-test="design-row"]');
     const layout = await measureTable(page, '[data-test="designs-table"]');
     // Assert
-    expect(layout.rows).toBeGreaterThan(0);
-    expect(layout.actionsCells).toBe(layout.rows);
-    expect(layout.overlaps).toEqual([]);
-    expect(layout.actionsOutside).toEqual([]);
-    expect(layout.cut).toEqual([]);
-    expect(layout.scrollWidth).toBeLessThanOrEqual(layout.clientWidth);
+    expectEveryCellInView(layout);
     expect(pageErrors).toEqual([]);
     await context.close();
   });
@@ -112,12 +117,7 @@ describe('List columns at 1280 px', () => {
       await page.waitForSelector(`[data-test="parts-table-${shelf}"] [data-test="part-row"]`);
       const layout = await measureTable(page, `[data-test="parts-table-${shelf}"]`);
       // Assert
-      expect(layout.rows).toBeGreaterThan(0);
-      expect(layout.actionsCells).toBe(layout.rows);
-      expect(layout.overlaps).toEqual([]);
-      expect(layout.actionsOutside).toEqual([]);
-      expect(layout.cut).toEqual([]);
-      expect(layout.scrollWidth).toBeLessThanOrEqual(layout.clientWidth);
+      expectEveryCellInView(layout);
       expect(pageErrors).toEqual([]);
       await context.close();
     },
