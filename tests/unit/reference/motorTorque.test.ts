@@ -1,6 +1,6 @@
 /**
  * Free-load-angle pull-out torque of a two-phase hybrid stepper (model from memory; docs/models/motor-torque.md) against
- * values from an independent brute-force search over the supply-voltage phasor (brute_force_search.py beside the
+ * values from an independent brute-force search over the supply-voltage phasor (bruteForceSearch.ts beside the
  * table). The older scalar model's torques serve as a lower bound. Provenance: reference/README.md.
  */
 import { describe, expect, it } from 'vitest';
