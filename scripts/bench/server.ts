@@ -1,7 +1,9 @@
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
+import { evaluateDesign } from '@/engine';
 import { ROOT_DIR } from '../../server/paths';
 import { baselineCheckout, BENCH_DB, BENCH_PORTS, benchEnv, Client, startApp, type AppProcess } from './env';
 import { atLeast, atMost, info, median, percentile, readRecorded, say, setRecordedBaseline, sleep, type Figure } from './lib';
@@ -10,7 +12,10 @@ import { atLeast, atMost, info, median, percentile, readRecorded, say, setRecord
  * Server part of `npm run bench`: this checkout and a baseline commit (see baselineRef) run side by side on the same bench database, and each is measured in turn, in alternating
  * rounds, so both see the same machine:
  * - /api/health latency idle, while 50 clients post /api/calc as fast as they can, and while design sheets render;
- * - /api/calc throughput (full answers, the same request for both) and, for this checkout, with `sections`.
+ * - /api/calc throughput (full answers, the same request for both) and, for this checkout, with `sections`;
+ * - what the machine allows: CPU per full answer of the server, MariaDB and the load generator (all on the same cores),
+ *   the throughput ceiling that gives, and the work of the answer itself (engine and encoding, timed in this process).
+ * Both apps get an unmeasured warm-up burst first.
  * The baseline runs this checkout's engine (BASELINE_OVERLAY is copied over its own), so both servers compute the same
  * answer and the ratio measures the server alone; the bench checks that both full answers are the same and says so.
  */
@@ -42,6 +47,7 @@ const CLIENTS = Number(process.env.BENCH_CALC_CLIENTS ?? 50);
 const LOAD_SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 5);
 const ROUNDS = Number(process.env.BENCH_SERVER_ROUNDS ?? 3);
 const IDLE_PROBES = 200;
+const WARMUP_SECONDS = 2;
 const SHEETS = 2;
 
 const design = JSON.parse(fs.readFileSync(path.join(ROOT_DIR, 'reference/examples/corexy-dispensing-stage.json'), 'utf8')) as Record<
@@ -59,9 +65,37 @@ function cpuMs(pid: number | undefined): number {
   }
 }
 
+/** The work of one full answer itself, warm, in this process: the engine, then JSON and UTF-8 encoding (medians) [ms]. */
+function answerWork(): { engineMs: number; encodeMs: number } {
+  const engineMs: number[] = [];
+  const encodeMs: number[] = [];
+  for (let i = 0; i < 250; i++) {
+    const t0 = performance.now();
+    const result = evaluateDesign(design);
+    const t1 = performance.now();
+    Buffer.from(JSON.stringify(result), 'utf8');
+    const t2 = performance.now();
+    // The first 50 warm the code up.
+    if (i >= 50) {
+      engineMs.push(t1 - t0);
+      encodeMs.push(t2 - t1);
+    }
+  }
+  return { engineMs: median(engineMs), encodeMs: median(encodeMs) };
+}
+
+/** CPU time this process (the load generator) has used so far, all threads [ms]. */
+function ownCpuMs(): number {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1000;
+}
+
 interface Sample {
   /** Server CPU per completed /api/calc under load [ms]. */
   cpuPerCalc: number[];
+  /** MariaDB's and the load generator's CPU per completed /api/calc [ms] (they share the machine with the server). */
+  dbCpuPerCalc: number[];
+  loadCpuPerCalc: number[];
   idle: number[];
   underCalc: number[];
   underSheets: number[];
@@ -155,14 +189,19 @@ async function approveSheets(designer: Client, reviewer: Client, count: number, 
   return approved;
 }
 
-async function measure(app: AppProcess, sample: Sample, withSheets: boolean): Promise<void> {
+async function measure(app: AppProcess, sample: Sample, withSheets: boolean, dbPid: number): Promise<void> {
   const probe = new Client(app.url);
   const load = new Client(app.url);
   await load.signIn('designer@example.test');
   sample.idle.push(...(await healthProbes(probe, IDLE_PROBES)));
   const cpuBefore = cpuMs(app.child.pid);
+  const dbBefore = cpuMs(dbPid);
+  const loadBefore = ownCpuMs();
   const { latencies, value } = await probeWhile(probe, calcLoad(load, { design }, CLIENTS, LOAD_SECONDS));
-  sample.cpuPerCalc.push((cpuMs(app.child.pid) - cpuBefore) / Math.max(1, value.done));
+  const per = (ms: number) => ms / Math.max(1, value.done);
+  sample.cpuPerCalc.push(per(cpuMs(app.child.pid) - cpuBefore));
+  sample.dbCpuPerCalc.push(per(cpuMs(dbPid) - dbBefore));
+  sample.loadCpuPerCalc.push(per(ownCpuMs() - loadBefore));
   sample.underCalc.push(...latencies);
   sample.calcPerS.push(value.done / LOAD_SECONDS);
   sample.calcErrors += value.errors;
@@ -179,7 +218,7 @@ async function measure(app: AppProcess, sample: Sample, withSheets: boolean): Pr
 }
 
 export async function benchServer(): Promise<Figure[]> {
-  await benchEnv();
+  const env = await benchEnv();
   const ref = baselineRef();
   const baseline = baselineCheckout(
     ref,
@@ -206,15 +245,36 @@ export async function benchServer(): Promise<Figure[]> {
           : `DIFFERENT results (canonical SHA-256 ${answerNow.sha256.slice(0, 12)} vs ${answerThen.sha256.slice(0, 12)})`);
     say(`server: ${sameAnswerNote}`);
     const samples = new Map<AppProcess, Sample>(
-      apps.map((a) => [a, { cpuPerCalc: [], idle: [], underCalc: [], underSheets: [], calcPerS: [], calcErrors: 0, bytes: 0 }]),
+      apps.map((a) => [
+        a,
+        {
+          cpuPerCalc: [],
+          dbCpuPerCalc: [],
+          loadCpuPerCalc: [],
+          idle: [],
+          underCalc: [],
+          underSheets: [],
+          calcPerS: [],
+          calcErrors: 0,
+          bytes: 0,
+        },
+      ]),
     );
+    // Warm-up: the same load for a moment on each app, unmeasured, so that no round pays for starting a worker
+    // thread or for compiling cold code (this checkout starts its second engine thread on the first burst).
+    for (const app of apps) {
+      const warm = new Client(app.url);
+      await warm.signIn('designer@example.test');
+      await calcLoad(warm, { design }, CLIENTS, WARMUP_SECONDS);
+      warm.close();
+    }
     for (let round = 0; round < ROUNDS; round++) {
       const order = round % 2 === 0 ? [current, before] : [before, current];
       for (const app of order) {
         say(`server: round ${round + 1}/${ROUNDS}, ${app.label}`);
         // Sheets only for this checkout: the baseline's sheet renderer reads the result shape of its own engine,
         // not of the overlaid one (an approval there fails).
-        await measure(app, samples.get(app)!, round === ROUNDS - 1 && app === current);
+        await measure(app, samples.get(app)!, round === ROUNDS - 1 && app === current, env.db.pid);
       }
     }
     // The leaner answer the Design desk's server calls can ask for.
@@ -230,6 +290,9 @@ export async function benchServer(): Promise<Figure[]> {
     const idleThen = p99(then.idle);
     const tputNow = median(now.calcPerS);
     const tputThen = median(then.calcPerS);
+    const cores = os.availableParallelism();
+    const ceiling = (cores * 1000) / (median(now.cpuPerCalc) + median(now.dbCpuPerCalc) + median(now.loadCpuPerCalc));
+    const ownWork = answerWork();
     return [
       info(
         'server.health.idle.p99',
@@ -271,6 +334,17 @@ export async function benchServer(): Promise<Figure[]> {
         '×',
         'higher',
         `${median(now.cpuPerCalc).toFixed(2)} ms vs ${median(then.cpuPerCalc).toFixed(2)} ms of CPU per request (user + system, /proc)`,
+      ),
+      info(
+        'server.calc.ceiling',
+        'full-answer throughput the cores allow at this CPU per request',
+        ceiling,
+        'req/s',
+        'higher',
+        `${cores} cores ÷ (server ${median(now.cpuPerCalc).toFixed(2)} + MariaDB ${median(now.dbCpuPerCalc).toFixed(2)} + load generator ` +
+          `${median(now.loadCpuPerCalc).toFixed(2)} ms per request); 2× the baseline (${(2 * tputThen).toFixed(0)} req/s) would need ` +
+          `≤ ${((cores * 1000) / (2 * tputThen)).toFixed(2)} ms in all, while computing and encoding the answer alone takes ` +
+          `${ownWork.engineMs.toFixed(2)} + ${ownWork.encodeMs.toFixed(2)} ms (engine, JSON + UTF-8; measured in this process, the same work the baseline does)`,
       ),
       info(
         'server.calc.sections.throughput',

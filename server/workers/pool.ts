@@ -20,12 +20,17 @@ const ENTRY = path.join(import.meta.dirname, 'entry.mjs');
 let enginePool: Piscina | null = null;
 let pdfPool: Piscina | null = null;
 
-function makePool(threads: number, name: string): Piscina {
+/**
+ * @param keep - threads that never end: the engine pool keeps all of them, so a burst of requests after a quiet
+ *   minute never waits while a new thread loads TypeScript and the engine (hundreds of milliseconds of CPU, taken
+ *   from the cores that are busy with that burst); the sheet pool keeps one
+ */
+function makePool(threads: number, name: string, keep: number): Piscina {
   return new Piscina({
     filename: ENTRY,
-    minThreads: 1,
+    minThreads: Math.min(keep, threads),
     maxThreads: threads,
-    // Idle threads end after a minute; the first one stays (minThreads) so the engine is warm for the next request.
+    // Threads beyond `keep` end after a minute idle.
     idleTimeout: 60_000,
     // Queue without bound: each request waits its turn rather than failing (the HTTP layer limits concurrency).
     maxQueue: Infinity,
@@ -36,17 +41,18 @@ function makePool(threads: number, name: string): Piscina {
 
 /** The engine pool (created on first use). */
 export function getEnginePool(): Piscina {
-  enginePool ??= makePool(getConfig().workers.engineThreads, 'engine');
+  const threads = getConfig().workers.engineThreads;
+  enginePool ??= makePool(threads, 'engine', threads);
   return enginePool;
 }
 
 /** The sheet-rendering pool (created on first use). */
 export function getPdfPool(): Piscina {
-  pdfPool ??= makePool(getConfig().workers.pdfThreads, 'pdf');
+  pdfPool ??= makePool(getConfig().workers.pdfThreads, 'pdf', 1);
   return pdfPool;
 }
 
-/** Starts the engine threads and loads the engine in them, so the first request does not pay for it. */
+/** Starts the engine threads (each loads the engine as it starts), so the first requests do not pay for it. */
 export async function warmPools(): Promise<void> {
   await getEnginePool().run(null, { name: 'ping' });
 }
