@@ -1,6 +1,5 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { launchBrowser, navKeys, openPage, signInThroughForm, signOut, waitForSignInWithNext } from '../helpers/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { useBrowser, navKeys, openPage, signInThroughForm, signOut, waitForSignInWithNext } from '../helpers/browser';
 
 // Demo accounts seeded into gw_test_e2e by tests/helpers/e2eGlobalSetup.ts (password gantry-demo).
 const ROLE_JOURNEYS: Array<[email: string, start: string, nav: string[]]> = [
@@ -13,21 +12,13 @@ const ROLE_JOURNEYS: Array<[email: string, start: string, nav: string[]]> = [
 
 describe('sign-in journeys', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
-
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const browser = useBrowser();
 
   it.each(ROLE_JOURNEYS)(
     'when %s signs in, then lands on %s, sees exactly the navigation %j, and can sign out',
     async (email, start, nav) => {
       // Arrange
-      const { context, page, pageErrors } = await openPage(browser, { baseURL });
+      const { context, page, pageErrors } = await openPage(browser(), { baseURL });
       await page.goto('/');
       await page.waitForURL(/\/sign-in$/);
       // Act
@@ -50,7 +41,7 @@ describe('sign-in journeys', () => {
   );
 
   it('when the password is wrong, then shows the server message and stays on sign-in', async () => {
-    const { context, page, pageErrors } = await openPage(browser, { baseURL });
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL });
     await page.goto('/sign-in');
     await page.fill('[data-test="sign-in-email"]', 'designer@example.test');
     await page.fill('[data-test="sign-in-password"]', 'not-the-password');
@@ -65,7 +56,7 @@ describe('sign-in journeys', () => {
   });
 
   it('when a maker opens the Team screen, then sees Not allowed and no Team navigation', async () => {
-    const { context, page, pageErrors } = await openPage(browser, { baseURL });
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL });
     await page.goto('/team');
     await waitForSignInWithNext(page, '/team');
     await signInThroughForm(page, 'maker@example.test');
@@ -81,7 +72,7 @@ describe('sign-in journeys', () => {
   });
 
   it('when an admin follows a link to Team while signed out, then arrives at the team list after signing in', async () => {
-    const { context, page, pageErrors } = await openPage(browser, { baseURL });
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL });
     await page.goto('/team');
     await waitForSignInWithNext(page, '/team');
     await signInThroughForm(page, 'admin@example.test');
@@ -103,7 +94,7 @@ describe('sign-in journeys', () => {
   });
 
   it('when the theme is switched to dark, then it stays dark after a reload', async () => {
-    const { context, page, pageErrors } = await openPage(browser, { baseURL, colorScheme: 'light' });
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL, colorScheme: 'light' });
     await page.goto('/sign-in');
     await signInThroughForm(page, 'designer@example.test');
     expect(await page.evaluate(() => document.documentElement.classList.contains('dark'))).toBe(false);

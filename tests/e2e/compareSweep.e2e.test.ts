@@ -1,22 +1,13 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { launchBrowser, openPage, signInThroughForm } from '../helpers/browser';
+import { describe, expect, inject, it } from 'vitest';
+import { useBrowser, openPage, signInThroughForm } from '../helpers/browser';
 
 describe('Compare and Sweep journeys', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
-
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const browser = useBrowser();
 
   it('when a designer compares mechanisms and sweeps the drive pulley down to 8 teeth, then all three mechanisms are side by side and the pulleys below the belt’s minimum are marked, not plotted as good', async () => {
     // Arrange: a CoreXY draft (its belt's smallest pulley is 12 teeth).
-    const { context, page, pageErrors } = await openPage(browser, { baseURL, width: 1440, height: 1000 });
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL, width: 1440, height: 1000 });
     await page.goto('/sign-in');
     await signInThroughForm(page, 'designer@example.test');
     const created = await page.request.post('/api/designs', {

@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, openPage, signInThroughForm } from '../helpers/browser';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { useBrowser, openPage, signInThroughForm } from '../helpers/browser';
 
 /** Types a value into a Design desk input and waits until the autosave has stored it (or refused it). */
 async function typeAndWaitForSave(page: Page, designId: number, path: string, value: string): Promise<number> {
@@ -11,20 +11,12 @@ async function typeAndWaitForSave(page: Page, designId: number, path: string, va
 
 describe('two people editing one design', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
-
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const browser = useBrowser();
 
   it('when a designer and an admin both change the same draft, then the later save meets the conflict dialog, and "Load their version" shows the other change', async () => {
     // Arrange: the designer's draft, open on two Design desks.
-    const designer = await openPage(browser, { baseURL, height: 1000 });
-    const admin = await openPage(browser, { baseURL, height: 1000 });
+    const designer = await openPage(browser(), { baseURL, height: 1000 });
+    const admin = await openPage(browser(), { baseURL, height: 1000 });
     await designer.page.goto('/sign-in');
     await signInThroughForm(designer.page, 'designer@example.test');
     await admin.page.goto('/sign-in');

@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, openPage, signInThroughForm } from '../helpers/browser';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { useBrowser, openPage, signInThroughForm } from '../helpers/browser';
 
 /**
  * The designing journey on the Design desk, in headless chromium against the built app and a demo-seeded
@@ -37,21 +37,13 @@ async function typeInto(page: Page, path: string, value: string): Promise<void> 
 
 describe('Design desk journey', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
+  const browser = useBrowser();
   let designUrl = '';
   const name = `Crossed-belt bench stage ${Date.now()}`;
 
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
-
   it('when a designer builds a crossed-belt design, then the coupling and stiffness maps follow the frame and belt, imperial shows, and it is saved', async () => {
     // Arrange: sign in and start from the CoreXY template
-    const { context, page, pageErrors } = await openPage(browser, { baseURL });
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL });
     await page.goto('/sign-in');
     await signInThroughForm(page, 'designer@example.test');
     await page.goto('/designs');
@@ -132,7 +124,7 @@ describe('Design desk journey', () => {
   it('when a reviewer opens that design, then everything is read-only and the server refuses a change', async () => {
     // Arrange
     expect(designUrl).toMatch(/^\/designs\/\d+$/);
-    const { context, page, pageErrors } = await openPage(browser, { baseURL });
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL });
     await page.goto('/sign-in');
     await signInThroughForm(page, 'reviewer@example.test');
     // Act

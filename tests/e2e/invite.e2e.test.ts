@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, navKeys, openPage, signInThroughForm } from '../helpers/browser';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { useBrowser, navKeys, openPage, signInThroughForm } from '../helpers/browser';
 
 /** Clicks Refresh in the Outbox until a mail to `address` is listed (mail is delivered in the background). */
 async function waitForMailTo(page: Page, address: string): Promise<void> {
@@ -19,20 +19,12 @@ async function waitForMailTo(page: Page, address: string): Promise<void> {
 
 describe('invitation journey', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
-
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const browser = useBrowser();
 
   it('when an admin invites someone, then the e-mailed link lets them set a password and sign in with the chosen roles', async () => {
     // Arrange: a unique address so reruns against the same database do not collide.
     const email = `new.maker.${Date.now().toString(36)}@example.test`;
-    const admin = await openPage(browser, { baseURL });
+    const admin = await openPage(browser(), { baseURL });
     await admin.page.goto('/sign-in');
     await signInThroughForm(admin.page, 'admin@example.test');
 
@@ -54,7 +46,7 @@ describe('invitation journey', () => {
     expect(invite, `links in the invitation: ${links.join(', ')}`).toBeTruthy();
 
     // Act 3: the new person opens the link in their own browser context.
-    const newcomer = await openPage(browser, { baseURL });
+    const newcomer = await openPage(browser(), { baseURL });
     const target = new URL(invite!);
     await newcomer.page.goto(`${target.pathname}${target.search}`);
     expect(await newcomer.page.textContent('[data-test="page-title"]')).toBe('Set your password');
@@ -69,7 +61,7 @@ describe('invitation journey', () => {
     expect(await newcomer.page.textContent('[data-test="user-name"]')).toBe('Nia Newcomer');
 
     // The link works once.
-    const reuse = await openPage(browser, { baseURL });
+    const reuse = await openPage(browser(), { baseURL });
     await reuse.page.goto(`${target.pathname}${target.search}`);
     await reuse.page.fill('[data-test="reset-password"]', 'another long password');
     await reuse.page.fill('[data-test="reset-confirm"]', 'another long password');

@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, openPage, signInThroughForm } from '../helpers/browser';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { useBrowser, openPage, signInThroughForm } from '../helpers/browser';
 
 /**
  * The job journey on the Design desk, in headless chromium against the built app and a demo-seeded database
@@ -36,19 +36,11 @@ const BAD_CSV = 'x,y\n10,10\n20,abc\n';
 
 describe('Job timing journey', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
-
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const browser = useBrowser();
 
   it('when a designer uploads a job file, then its points are timed, saved with the design, and a bad file names its line', async () => {
     // Arrange: a new CoreXY design
-    const { context, page, pageErrors } = await openPage(browser, { baseURL });
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL });
     await page.goto('/sign-in');
     await signInThroughForm(page, 'designer@example.test');
     await page.goto('/designs');

@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, openPage, signInThroughForm } from '../helpers/browser';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { useBrowser, openPage, signInThroughForm } from '../helpers/browser';
 
 /** A cell's box in page coordinates, with the text it shows (for the failure message). */
 interface CellBox {
@@ -80,19 +80,11 @@ function expectEveryCellInView(layout: Awaited<ReturnType<typeof measureTable>>)
 
 describe('List columns at 1280 px', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
-
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const browser = useBrowser();
 
   it('when the Designs list is shown 1280 px wide, then no cell lies under the Actions column and the table does not scroll sideways', async () => {
     // Arrange
-    const { page, context, pageErrors } = await openPage(browser, { baseURL, width: 1280 });
+    const { page, context, pageErrors } = await openPage(browser(), { baseURL, width: 1280 });
     await page.goto('/sign-in');
     await signInThroughForm(page, 'designer@example.test');
     // Act
@@ -109,7 +101,7 @@ describe('List columns at 1280 px', () => {
     'when the Parts shelf of %s is shown to an admin 1280 px wide, then no cell lies under the Actions column and the table does not scroll sideways',
     async (shelf) => {
       // Arrange
-      const { page, context, pageErrors } = await openPage(browser, { baseURL, width: 1280 });
+      const { page, context, pageErrors } = await openPage(browser(), { baseURL, width: 1280 });
       await page.goto('/sign-in');
       await signInThroughForm(page, 'admin@example.test');
       // Act

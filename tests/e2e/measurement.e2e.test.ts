@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, openPage, signInThroughForm } from '../helpers/browser';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { useBrowser, openPage, signInThroughForm } from '../helpers/browser';
 import { synthWav, typicalPluck } from '../unit/server/uploads/synthRecording';
 
 // Demo data seeded into gw_test_e2e by tests/helpers/e2eGlobalSetup.ts: the "Bench dispensing stage" (CoreXY) has a
@@ -44,19 +44,11 @@ async function spansOf(page: Page, sheetId: number): Promise<SpanSummary[]> {
 
 describe('belt tension measurement journey', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
-
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const browser = useBrowser();
 
   it('when a maker uploads a WAV of a plucked span, then the measured tension shows beside the target; a silent WAV gets the maker-friendly 422 message', async () => {
     // Arrange: the maker signs in and opens the current sheet; pick a span nobody measured yet.
-    const { context, page, pageErrors } = await openPage(browser, { baseURL, height: 1000 });
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL, height: 1000 });
     await page.goto('/sign-in');
     await signInThroughForm(page, 'maker@example.test');
     const sheetId = await currentBenchSheet(page);

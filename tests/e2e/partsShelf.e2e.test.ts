@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, openPage, signInThroughForm } from '../helpers/browser';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { useBrowser, openPage, signInThroughForm } from '../helpers/browser';
 
 /** Types into the number box of a part field of the open dialog. */
 async function fillPart(page: Page, key: string, value: string): Promise<void> {
@@ -9,20 +9,12 @@ async function fillPart(page: Page, key: string, value: string): Promise<void> {
 
 describe('Parts shelf journey: a new motor with its torque table', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
-
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const browser = useBrowser();
 
   it('when an admin adds a motor and uploads its torque table with what it was measured at, then a designer who picks it is warned that the design drives it differently', async () => {
     const name = `42 mm trial motor ${Date.now().toString(36)}`;
-    const admin = await openPage(browser, { baseURL, height: 1000 });
-    const designer = await openPage(browser, { baseURL, height: 1000 });
+    const admin = await openPage(browser(), { baseURL, height: 1000 });
+    const designer = await openPage(browser(), { baseURL, height: 1000 });
 
     // Act 1: the admin adds a motor through the dialog.
     await admin.page.goto('/sign-in');

@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { launchBrowser, openPage, signInThroughForm } from '../helpers/browser';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { useBrowser, openPage, signInThroughForm } from '../helpers/browser';
 
 type Mail = { to: string[]; subject: string; text: string };
 
@@ -28,31 +28,23 @@ const resetPath = (mail: Mail): string => {
 
 describe('forgot and reset password journey', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
-
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const browser = useBrowser();
 
   it('when someone forgets their password, then the e-mailed link sets a new one, they are signed in, and the old password no longer works', async () => {
     // Arrange: a person with a password of their own (invited, then set through the invitation link).
     const email = `forgetful.${Date.now().toString(36)}@example.test`;
-    const admin = await openPage(browser, { baseURL });
+    const admin = await openPage(browser(), { baseURL });
     await admin.page.goto('/sign-in');
     await signInThroughForm(admin.page, 'admin@example.test');
     expect((await admin.page.request.post('/api/users', { data: { email, name: 'Fen Forgetful', roles: ['maker'] } })).status()).toBe(201);
     const invite = resetPath(await mailTo(admin.page, email, 'invited'));
     const tokenOf = (path: string) => new URL(path, baseURL).searchParams.get('token');
     // A throw-away context of its own: setting a password signs that context in.
-    const setup = await openPage(browser, { baseURL });
+    const setup = await openPage(browser(), { baseURL });
     const set = await setup.page.request.post('/api/auth/reset', { data: { token: tokenOf(invite), password: 'the first password 1' } });
     expect(set.status()).toBe(200);
     await setup.context.close();
-    const person = await openPage(browser, { baseURL, width: 390, height: 844 });
+    const person = await openPage(browser(), { baseURL, width: 390, height: 844 });
 
     // Act 1: "Forgot password?" from the sign-in page.
     await person.page.goto('/sign-in');
@@ -76,7 +68,7 @@ describe('forgot and reset password journey', () => {
       headers: {},
     });
     expect(old.status()).toBe(401);
-    const fresh = await openPage(browser, { baseURL });
+    const fresh = await openPage(browser(), { baseURL });
     await fresh.page.goto('/sign-in');
     await signInThroughForm(fresh.page, email, 'a brand new password 2');
     expect(await fresh.page.textContent('[data-test="user-name"]')).toBe('Fen Forgetful');

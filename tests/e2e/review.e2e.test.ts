@@ -4,9 +4,9 @@ import { readFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { defaultDesign } from '@/engine';
-import { fakeMicrophoneArgs, launchBrowser, openPage, signInThroughForm, type OpenPage } from '../helpers/browser';
+import { fakeMicrophoneArgs, useBrowser, openPage, signInThroughForm, type OpenPage } from '../helpers/browser';
 import { synthWav, typicalPluck } from '../unit/server/uploads/synthRecording';
 
 /** What the fake microphone hears: a belt plucked at this frequency, again and again (chromium loops the file). */
@@ -31,23 +31,23 @@ async function openFromDesk(page: Page, designName: string, revision: number): P
 
 describe('review journey: submit, return, fix, resubmit, approve, download', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
   let micDir = '';
+  let wavPath = '';
   const pages: OpenPage[] = [];
 
-  beforeAll(async () => {
+  beforeAll(() => {
     // The maker's phone records "from the microphone": chromium plays this WAV as its input.
     micDir = mkdtempSync(path.join(tmpdir(), 'gw-mic-'));
-    const wavPath = path.join(micDir, 'pluck.wav');
+    wavPath = path.join(micDir, 'pluck.wav');
     writeFileSync(
       wavPath,
       synthWav({ sampleRateHz: 48000, durationS: 1.5, pluck: typicalPluck(MIC_PLUCK_HZ, { onsetS: 0.05 }), noiseRms: 0.002, seed: 5 }),
     );
-    browser = await launchBrowser(fakeMicrophoneArgs(wavPath));
   });
+  // After the hook above: chromium starts once the WAV it plays is written.
+  const browser = useBrowser(() => fakeMicrophoneArgs(wavPath));
 
-  afterAll(async () => {
-    await browser?.close();
+  afterAll(() => {
     if (micDir) rmSync(micDir, { recursive: true, force: true });
   });
 
@@ -56,9 +56,9 @@ describe('review journey: submit, return, fix, resubmit, approve, download', () 
     const reason = 'Raise the belt pretension to 45 N so the slack side stays taut at full acceleration.';
 
     // Arrange: the designer's draft (made through the API of their own session; the journey starts at the Design desk).
-    const designer = await openPage(browser, { baseURL });
-    const reviewer = await openPage(browser, { baseURL });
-    const maker = await openPage(browser, { baseURL });
+    const designer = await openPage(browser(), { baseURL });
+    const reviewer = await openPage(browser(), { baseURL });
+    const maker = await openPage(browser(), { baseURL });
     pages.push(designer, reviewer, maker);
     await designer.page.goto('/sign-in');
     await signInThroughForm(designer.page, 'designer@example.test');
@@ -151,7 +151,7 @@ describe('review journey: submit, return, fix, resubmit, approve, download', () 
 
     // Act 6: at the machine, the maker opens the sheet on a phone and records a typed pluck on the reference span.
     const sheetPath = new URL(maker.page.url()).pathname;
-    const phone = await openPage(browser, { baseURL, width: 390, height: 844 });
+    const phone = await openPage(browser(), { baseURL, width: 390, height: 844 });
     pages.push(phone);
     await phone.page.goto('/sign-in');
     await signInThroughForm(phone.page, 'maker@example.test');

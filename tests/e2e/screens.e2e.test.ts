@@ -1,7 +1,7 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { horizontalOverflow, seriousViolations } from '../helpers/a11y';
-import { launchBrowser, openPage, signInThroughForm } from '../helpers/browser';
+import { useBrowser, openPage, signInThroughForm } from '../helpers/browser';
 
 // Every screen of the app, as people meet it: at desktop width in the light theme, and on phones of 360 px (light)
 // and 430 px (dark). On each one axe-core (4.14) must find no serious or critical violation, and on a phone the page
@@ -173,22 +173,14 @@ async function check(page: Page, screen: Screen, isPhone: boolean): Promise<stri
 
 describe('every screen, readable for everyone', () => {
   const baseURL = inject('baseUrl');
-  let browser: Browser;
-
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-  });
+  const browser = useBrowser();
 
   it.each(VIEWS)(
     'when every screen is opened at $label, then axe finds no serious or critical violation and phones never scroll sideways',
     async ({ width, height, colorScheme, isPhone }) => {
       // Arrange
-      const visitor = await openPage(browser, { baseURL, width, height, colorScheme, bypassCSP: true });
-      const admin = await openPage(browser, { baseURL, width, height, colorScheme, bypassCSP: true });
+      const visitor = await openPage(browser(), { baseURL, width, height, colorScheme, bypassCSP: true });
+      const admin = await openPage(browser(), { baseURL, width, height, colorScheme, bypassCSP: true });
       await admin.page.goto('/sign-in');
       await signInThroughForm(admin.page, 'admin@example.test');
       const ids = await demoIds(admin.page);
@@ -209,7 +201,7 @@ describe('every screen, readable for everyone', () => {
 
   it('when a keyboard user opens the Design desk, then the first Tab stop skips straight to the results', async () => {
     // Arrange
-    const { context, page } = await openPage(browser, { baseURL, width: 1440, height: 900 });
+    const { context, page } = await openPage(browser(), { baseURL, width: 1440, height: 900 });
     await page.goto('/sign-in');
     await signInThroughForm(page, 'designer@example.test');
     const ids = await demoIds(page).catch(() => null);
@@ -231,7 +223,7 @@ describe('every screen, readable for everyone', () => {
 
   it('when a reviewer signs in on a phone, then the Review desk opens, the menu drawer shows how many revisions wait, and a link there closes it', async () => {
     // Arrange
-    const { context, page, pageErrors } = await openPage(browser, { baseURL, width: 390, height: 844 });
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL, width: 390, height: 844 });
     await page.goto('/sign-in');
     await page.fill('[data-test="sign-in-email"]', 'reviewer@example.test');
     await page.fill('[data-test="sign-in-password"]', 'gantry-demo');

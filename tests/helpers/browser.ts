@@ -1,4 +1,5 @@
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll } from 'vitest';
 
 /**
  * Debian's chromium driven by playwright-core (browser downloads do not work here).
@@ -25,11 +26,32 @@ export const CHROMIUM_ARGS = [
 ] as const;
 
 /**
- * Starts headless chromium. Close it in `afterAll`.
+ * Starts headless chromium. Close it in `afterAll` ({@link useBrowser} does both).
  * @param extraArgs - more command-line switches, e.g. {@link fakeMicrophoneArgs}
  */
 export function launchBrowser(extraArgs: readonly string[] = []): Promise<Browser> {
   return chromium.launch({ executablePath: CHROMIUM_PATH, headless: true, args: [...CHROMIUM_ARGS, ...extraArgs] });
+}
+
+/**
+ * Launches chromium before the tests of the enclosing `describe` and closes it after them (one browser per file;
+ * each test opens its own context with {@link openPage}).
+ * @param extraArgs - more switches, or a function that gives them when the browser starts (it runs after the
+ *   `beforeAll` hooks registered before this call, e.g. one that writes a file the switches name)
+ * @returns the running browser
+ */
+export function useBrowser(extraArgs: readonly string[] | (() => readonly string[]) = []): () => Browser {
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    browser = await launchBrowser(typeof extraArgs === 'function' ? extraArgs() : extraArgs);
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+  return () => {
+    if (!browser) throw new Error('no browser: useBrowser() belongs in a describe block, and its browser is used inside the tests');
+    return browser;
+  };
 }
 
 /**
