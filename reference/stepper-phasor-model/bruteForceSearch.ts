@@ -26,11 +26,16 @@ export interface SearchInput {
   speedRevPerS: number;
 }
 
+/** The grid the stored values were searched on: magnitude × angle steps of the first pass, then of each zoom. */
+export const TABLE_PASSES: readonly (readonly [number, number])[] = [[400, 1440], ...Array.from({ length: 5 }, () => [80, 80] as const)];
+
 /**
  * Largest torque over the voltage phasors the supply allows with the current within the driver's peak.
+ * @param p - motor, driver and speed
+ * @param passes - grid of the first pass and of each zoom around the best point (a coarser one is quicker)
  * @returns pull-out torque [N·m] (0 when no phasor gives a forward torque)
  */
-export function searchPullOutNm(p: SearchInput): number {
+export function searchPullOutNm(p: SearchInput, passes: readonly (readonly [number, number])[] = TABLE_PASSES): number {
   const kt = p.holdingTorqueNm / (Math.SQRT2 * p.ratedCurrentA);
   const ip = Math.SQRT2 * Math.min(p.currentRmsA, p.ratedCurrentA);
   const w = 2 * Math.PI * p.speedRevPerS;
@@ -46,7 +51,6 @@ export function searchPullOutNm(p: SearchInput): number {
   let mHi = p.supplyV;
   let dLo = -Math.PI;
   let dHi = Math.PI;
-  const passes: [number, number][] = [[400, 1440], ...Array.from({ length: 5 }, (): [number, number] => [80, 80])];
   for (const [nm, nd] of passes) {
     for (let i = 0; i <= nm; i++) {
       const m = Math.min(p.supplyV, mLo + ((mHi - mLo) * i) / nm);

@@ -10,6 +10,7 @@ import {
   type DriverSpec,
   type MotorSpec,
 } from '@/engine';
+import { searchPullOutNm } from '../../../reference/stepper-phasor-model/bruteForceSearch';
 
 // A typical 0.45 N·m, 1.5 A, 1.8 Ω, 3.2 mH, 1.8° motor on 24 V (the Design desk's template motor; invented, not a datasheet).
 const typical: MotorSpec = {
@@ -25,53 +26,19 @@ const typical: MotorSpec = {
 const typicalDriver: DriverSpec = { microsteps: 16, supplyV: 24, currentRmsA: 1.5 };
 
 /**
- * Independent pull-out torque: a brute-force search over the driver's voltage phasor V_s = m·e^{jδ} (m ≤ V, δ the
- * angle to the back-EMF, i.e. the load angle seen from the supply), the current from the circuit I = (V_s − E)/Z in
- * complex arithmetic, feasible when |I| ≤ I_p; torque k_t·Re(I). A coarse grid, then three zooms around the best.
- * Built from the circuit equation, not from the engine's circle geometry.
+ * Independent pull-out torque: the brute-force search over the driver's voltage phasor that produced the reference
+ * table's `independent` rows (reference/stepper-phasor-model/bruteForceSearch.ts: the current from the circuit
+ * I = (V_s − E)/Z in complex arithmetic, feasible when |I| ≤ I_p; built from the circuit equation, not from the
+ * engine's circle geometry), on a coarser grid so that sixty cases stay quick.
  */
 function bruteForcePullOutNm(motor: MotorSpec, driver: DriverSpec, speedRevPerS: number): number {
-  const kt = motor.holdingTorqueNm / (Math.SQRT2 * motor.ratedCurrentA);
-  const ip = Math.SQRT2 * Math.min(driver.currentRmsA, motor.ratedCurrentA);
-  const w = 2 * Math.PI * speedRevPerS;
-  const e = kt * w;
-  const r = motor.phaseResistanceOhm;
-  const x = (90 / motor.stepAngleDeg) * w * (motor.phaseInductanceMh / 1000);
-  const z2 = r * r + x * x;
-  const torqueAt = (m: number, d: number): number => {
-    const vr = m * Math.cos(d) - e;
-    const vi = m * Math.sin(d);
-    // (vr + j·vi)/(r + j·x)
-    const ir = (vr * r + vi * x) / z2;
-    const ii = (vi * r - vr * x) / z2;
-    return Math.hypot(ir, ii) <= ip ? kt * ir : -Infinity;
-  };
-  let best = -Infinity;
-  let bm = 0;
-  let bd = 0;
-  let mLo = 0;
-  let mHi = driver.supplyV;
-  let dLo = -Math.PI;
-  let dHi = Math.PI;
-  for (const [nm, nd] of [
+  const input = { ...motor, supplyV: driver.supplyV, currentRmsA: driver.currentRmsA, speedRevPerS };
+  return searchPullOutNm(input, [
     [200, 720],
     [60, 60],
     [60, 60],
     [60, 60],
-  ]) {
-    for (let i = 0; i <= nm; i++) {
-      const m = mLo + ((mHi - mLo) * i) / nm;
-      for (let j = 0; j <= nd; j++) {
-        const d = dLo + ((dHi - dLo) * j) / nd;
-        const t = torqueAt(Math.min(m, driver.supplyV), d);
-        if (t > best) [best, bm, bd] = [t, m, d];
-      }
-    }
-    const sm = (mHi - mLo) / nm;
-    const sd = (dHi - dLo) / nd;
-    [mLo, mHi, dLo, dHi] = [Math.max(0, bm - 2 * sm), Math.min(driver.supplyV, bm + 2 * sm), bd - 2 * sd, bd + 2 * sd];
-  }
-  return Math.max(0, best);
+  ]);
 }
 
 describe('pullOutTorqueNm', () => {
