@@ -34,14 +34,16 @@ scope.onmessage = async (event: MessageEvent<EngineRequest>) => {
       return;
     }
     if (msg.type === 'evaluate') {
+      const started = performance.now();
       const outcome = evaluateOutcome(msg.design, { validated: msg.validated });
+      const computeMs = performance.now() - started;
       if (!outcome.ok || !msg.parts) {
-        reply({ type: 'evaluate', id: msg.id, outcome });
+        reply({ type: 'evaluate', id: msg.id, outcome, computeMs });
         return;
       }
       last = { id: msg.id, result: outcome.result };
       const { light, packed } = packResult(outcome.result, msg.parts);
-      reply({ type: 'evaluate', id: msg.id, outcome: { ok: true, result: light }, packed }, [packed.values.buffer]);
+      reply({ type: 'evaluate', id: msg.id, outcome: { ok: true, result: light }, packed, computeMs }, [packed.values.buffer]);
       return;
     }
     if (msg.type === 'parts') {

@@ -15,8 +15,11 @@ export interface EvaluateOptions {
   parts?: ResultPart[];
 }
 
-/** An evaluation's outcome; a result may lack some large parts (`missing`), fetched later with completeParts. */
-export type Evaluation = Outcome & { missing?: ResultPart[] };
+/**
+ * An evaluation's outcome; a result may lack some large parts (`missing`), fetched later with completeParts.
+ * `computeMs` is the engine's own time, without waiting for the worker (busy with warming up or an earlier run).
+ */
+export type Evaluation = Outcome & { missing?: ResultPart[]; computeMs?: number };
 
 /** Runs engine work in the worker, or on the main thread where workers do not exist. */
 export interface EngineRunner {
@@ -53,7 +56,9 @@ function inlineRunner(): EngineRunner {
     usesWorker: false,
     async evaluate(design, options) {
       await nextTurn();
-      return evaluateOutcome(design, { validated: options?.validated });
+      const started = performance.now();
+      const outcome = evaluateOutcome(design, { validated: options?.validated });
+      return { ...outcome, computeMs: performance.now() - started };
     },
     async completeParts(result) {
       return result; // main-thread results are always whole
@@ -118,7 +123,10 @@ function workerRunner(worker: Worker): EngineRunner {
         return;
       case 'evaluate':
         pending.delete(msg.id);
-        (p.resolve as (v: Evaluation) => void)(msg.outcome.ok ? withParts(msg.outcome.result, msg.packed, msg.id) : msg.outcome);
+        (p.resolve as (v: Evaluation) => void)({
+          ...(msg.outcome.ok ? withParts(msg.outcome.result, msg.packed, msg.id) : msg.outcome),
+          computeMs: msg.computeMs,
+        });
         return;
       case 'parts':
       case 'warm':

@@ -21,7 +21,8 @@ export type EngineRequest =
 
 /** Messages the engine worker answers with. */
 export type EngineResponse =
-  | { type: 'evaluate'; id: number; outcome: Outcome; packed?: PackedParts }
+  /** `computeMs`: how long the engine itself took in the worker (not the wait for the worker or the copy back). */
+  | { type: 'evaluate'; id: number; outcome: Outcome; packed?: PackedParts; computeMs?: number }
   | { type: 'parts'; id: number; packed: PackedParts | null }
   | { type: 'warm'; id: number }
   | { type: 'compare'; id: number; rows: ComparisonRow[] }

@@ -68,6 +68,48 @@ describe('useEngine', () => {
     scope.stop();
   });
 
+  it('when the runner reports the engine’s own time, then "computed in" shows that time and not the wait for the runner', async () => {
+    // Arrange: a runner that answers after a long wait (a worker still warming up) with a short engine time
+    const doc = reactive(structuredClone(defaultDesign('corexy')));
+    const runner = {
+      usesWorker: true,
+      evaluate: async (design: Record<string, unknown>) => {
+        await new Promise((resolve) => setTimeout(resolve, 120));
+        return { ...evaluateOutcome(design), computeMs: 7.4 };
+      },
+      compare: vi.fn(),
+      sweep: vi.fn(),
+    } as unknown as EngineRunner;
+    const scope = effectScope();
+    // Act
+    const engine = scope.run(() => useEngine(() => doc, { runner }))!;
+    await vi.waitFor(() => expect(engine.result.value).not.toBeNull(), { timeout: 10_000 });
+    // Assert
+    expect(engine.lastDurationMs.value).toBe(7);
+    scope.stop();
+  });
+
+  it('when the runner does not report the engine’s time, then "computed in" is the round trip', async () => {
+    // Arrange
+    const doc = reactive(structuredClone(defaultDesign('corexy')));
+    const runner = {
+      usesWorker: true,
+      evaluate: async (design: Record<string, unknown>) => {
+        await new Promise((resolve) => setTimeout(resolve, 120));
+        return evaluateOutcome(design);
+      },
+      compare: vi.fn(),
+      sweep: vi.fn(),
+    } as unknown as EngineRunner;
+    const scope = effectScope();
+    // Act
+    const engine = scope.run(() => useEngine(() => doc, { runner }))!;
+    await vi.waitFor(() => expect(engine.result.value).not.toBeNull(), { timeout: 10_000 });
+    // Assert
+    expect(engine.lastDurationMs.value).toBeGreaterThanOrEqual(119);
+    scope.stop();
+  });
+
   it('when inputs change while an evaluation runs, then only the newest waits and it runs right after (no fixed wait)', async () => {
     // Arrange: a runner whose evaluations finish only when released
     const doc = reactive(structuredClone(defaultDesign('corexy')));
