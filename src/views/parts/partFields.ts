@@ -210,6 +210,10 @@ export interface CellValue {
 /** A column of a shelf's table: one value, or two joined ("2 mm × 6 mm", on two lines where the column is narrow). */
 export interface TableColumn {
   label: string;
+  /**
+   * Least width [px]: what the widest value needs in metric and imperial units, or the header on two lines without
+   * breaking a word ("ALLOWABLE") or starting a line with a joiner ("FRAME · / STEP"), whichever is more.
+   */
   width: number;
   values: CellValue[];
   /** Joins two values. */
@@ -218,52 +222,64 @@ export interface TableColumn {
   isText?: boolean;
 }
 
+/**
+ * Least widths [px] of each shelf's Name and Note columns. With the value columns and Actions (156 px) they add up to
+ * 980 px, just within the table at a 1280 px window, so nothing scrolls sideways there
+ * (tests/e2e/listColumns.e2e.test.ts). The rest goes to Note, shared with Name so that a demo note (five lines) and a
+ * name with its profile line wrap to about the same height; wider windows give both more, in proportion.
+ */
+export const TABLE_EDGES: Record<PartKind, { name: number; note: number }> = {
+  belts: { name: 150, note: 194 },
+  pulleys: { name: 186, note: 194 },
+  motors: { name: 160, note: 180 },
+};
+
 /** Compact table columns per shelf (the dialog edits every field). */
 export const TABLE_COLUMNS: Record<PartKind, TableColumn[]> = {
   belts: [
     {
       label: 'Pitch × width',
-      width: 100,
+      width: 96,
       values: [
         { key: 'pitchMm', quantity: 'length', stored: 'mm' },
         { key: 'widthMm', quantity: 'length', stored: 'mm' },
       ],
       joiner: '×',
     },
-    { label: 'Mass per metre', width: 100, values: [{ key: 'linearMassKgPerM', quantity: 'linearMass', stored: 'kg/m' }] },
-    { label: 'EA', width: 100, values: [{ key: 'axialStiffnessN', quantity: 'force', stored: 'N' }] },
-    { label: 'Allowable tension', width: 110, values: [{ key: 'allowableTensionN', quantity: 'force', stored: 'N' }] },
-    { label: 'Smallest pulley', width: 90, values: [{ key: 'minPulleyTeeth' }] },
+    { label: 'Mass per metre', width: 98, values: [{ key: 'linearMassKgPerM', quantity: 'linearMass', stored: 'kg/m' }] },
+    { label: 'EA', width: 92, values: [{ key: 'axialStiffnessN', quantity: 'force', stored: 'N' }] },
+    { label: 'Allowable tension', width: 102, values: [{ key: 'allowableTensionN', quantity: 'force', stored: 'N' }] },
+    { label: 'Smallest pulley', width: 92, values: [{ key: 'minPulleyTeeth' }] },
   ],
   pulleys: [
-    { label: 'Role', width: 124, values: [{ key: 'kind' }], isText: true },
+    { label: 'Role', width: 112, values: [{ key: 'kind' }], isText: true },
     { label: 'Teeth', width: 68, values: [{ key: 'teeth' }] },
     { label: 'Pitch', width: 84, values: [{ key: 'pitchMm', quantity: 'length', stored: 'mm' }] },
-    { label: 'Bore', width: 84, values: [{ key: 'boreMm', quantity: 'length', stored: 'mm' }] },
+    { label: 'Bore', width: 76, values: [{ key: 'boreMm', quantity: 'length', stored: 'mm' }] },
     { label: 'Inertia', width: 104, values: [{ key: 'inertiaKgM2', quantity: 'inertia', stored: 'kg m^2' }] },
   ],
   motors: [
     {
       label: 'Frame · step',
-      width: 84,
+      width: 82,
       values: [
         { key: 'frameMm', quantity: 'length', stored: 'mm' },
         { key: 'stepAngleDeg', quantity: 'angle', stored: '' },
       ],
       joiner: '·',
     },
-    { label: 'Holding torque', width: 92, values: [{ key: 'holdingTorqueNm', quantity: 'torque', stored: 'N m' }] },
-    { label: 'Rated', width: 66, values: [{ key: 'ratedCurrentA', quantity: 'current', stored: 'A' }] },
+    { label: 'Holding torque', width: 84, values: [{ key: 'holdingTorqueNm', quantity: 'torque', stored: 'N m' }] },
+    { label: 'Rated', width: 68, values: [{ key: 'ratedCurrentA', quantity: 'current', stored: 'A' }] },
     {
       label: 'R · L per phase',
-      width: 88,
+      width: 80,
       values: [
         { key: 'phaseResistanceOhm', quantity: 'resistance', stored: 'ohm' },
         { key: 'phaseInductanceMh', quantity: 'inductance', stored: 'mH' },
       ],
       joiner: '·',
     },
-    { label: 'Rotor', width: 88, values: [{ key: 'rotorInertiaKgM2', quantity: 'inertia', stored: 'kg m^2' }] },
-    { label: 'Mass', width: 72, values: [{ key: 'massKg', quantity: 'massSmall', stored: 'kg' }] },
+    { label: 'Rotor', width: 96, values: [{ key: 'rotorInertiaKgM2', quantity: 'inertia', stored: 'kg m^2' }] },
+    { label: 'Mass', width: 74, values: [{ key: 'massKg', quantity: 'massSmall', stored: 'kg' }] },
   ],
 };

@@ -2,7 +2,7 @@ import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, mount } from '@vue/test-utils';
 import { createTestingPinia } from '@pinia/testing';
 import { createMemoryHistory, createRouter } from 'vue-router';
-import type { BeltPart } from '@/api/parts';
+import type { BeltPart, MotorPart } from '@/api/parts';
 import type { Role, User } from '@/api/types';
 import PartsShelfView from '@/views/parts/PartsShelfView.vue';
 
@@ -13,6 +13,11 @@ vi.mock('@/api/parts', async (importOriginal) => ({
   createPart: vi.fn(),
 }));
 const api = await import('@/api/parts');
+vi.mock('@/api/attachments', async (importOriginal) => ({
+  ...(await importOriginal<typeof import('@/api/attachments')>()),
+  getTorqueCurve: vi.fn(),
+}));
+const attachmentsApi = await import('@/api/attachments');
 
 vi.setConfig({ testTimeout: 60_000 });
 
@@ -31,10 +36,27 @@ const BELT: BeltPart = {
   retired: false,
 };
 
-async function mountShelf(roles: Role[]) {
-  vi.mocked(api.listParts).mockResolvedValue([BELT]);
+const MOTOR: MotorPart = {
+  id: 7,
+  name: '42 mm 0.45 N·m',
+  frameMm: 42,
+  stepAngleDeg: 1.8,
+  holdingTorqueNm: 0.45,
+  ratedCurrentA: 1.5,
+  phaseResistanceOhm: 1.65,
+  phaseInductanceMh: 2.8,
+  rotorInertiaKgM2: 5.4e-6,
+  massKg: 0.28,
+  torqueCurve: null,
+  torqueCurveConditions: null,
+  note: '',
+  retired: false,
+};
+
+async function mountShelf(roles: Role[], shelf: 'belts' | 'motors' = 'belts') {
+  vi.mocked(api.listParts).mockResolvedValue(shelf === 'motors' ? [MOTOR] : [BELT]);
   const router = createRouter({ history: createMemoryHistory(), routes: [{ path: '/parts', component: PartsShelfView }] });
-  await router.push('/parts');
+  await router.push(shelf === 'motors' ? '/parts?shelf=motors' : '/parts');
   const user: User = {
     id: 9,
     email: 'x@example.test',
@@ -45,7 +67,11 @@ async function mountShelf(roles: Role[]) {
     createdAt: '2026-01-01T00:00:00Z',
   };
   const pinia = createTestingPinia({ createSpy: vi.fn, stubActions: false, initialState: { auth: { user, isLoaded: true } } });
-  const wrapper = mount(PartsShelfView, { global: { plugins: [router, pinia] }, attachTo: document.body });
+  // The torque dialog's plot needs a real browser (plotly); its data is the dialog's business, not the shelf's.
+  const wrapper = mount(PartsShelfView, {
+    global: { plugins: [router, pinia], stubs: { TorqueTablePlot: true } },
+    attachTo: document.body,
+  });
   await flushPromises();
   return { wrapper };
 }
@@ -103,6 +129,38 @@ describe('PartsShelfView', () => {
     } finally {
       window.matchMedia = original;
     }
+  });
+
+  it('when an admin clicks Edit, then the dialog (loaded on that first opening) shows the part’s values', async () => {
+    // Arrange
+    const { wrapper } = await mountShelf(['admin']);
+    expect(document.querySelector('[data-test="part-dialog"]')).toBeNull();
+    // Act
+    await wrapper.get('[data-test="part-edit"]').trigger('click');
+    // Assert
+    await vi.waitFor(() => expect(document.querySelector('[data-test="part-dialog"]')).not.toBeNull());
+    await flushPromises();
+    const name = document.querySelector<HTMLInputElement>('[data-test="part-dialog"] [data-test="part-field-name"] input');
+    expect(name?.value).toBe(BELT.name);
+    wrapper.unmount();
+  });
+
+  it('when someone opens a motor’s torque table, then the dialog (loaded on that first opening) asks the server for the table', async () => {
+    // Arrange
+    vi.mocked(attachmentsApi.getTorqueCurve).mockResolvedValue({
+      motor: { ...MOTOR, shelf: 'motors', createdAt: '2026-01-01T00:00:00Z', updatedAt: '2026-01-01T00:00:00Z' },
+      file: null,
+    });
+    const { wrapper } = await mountShelf(['designer'], 'motors');
+    expect(document.querySelector('[data-test="torque-dialog"]')).toBeNull();
+    // Act
+    await wrapper.get(`[data-test="torque-table-open-${MOTOR.id}"]`).trigger('click');
+    // Assert
+    await vi.waitFor(() => expect(document.querySelector('[data-test="torque-dialog"] [data-test="torque-status"]')).not.toBeNull());
+    await flushPromises();
+    expect(attachmentsApi.getTorqueCurve).toHaveBeenCalledWith(MOTOR.id);
+    expect(document.querySelector('[data-test="torque-status"]')?.textContent).toContain('No table uploaded');
+    wrapper.unmount();
   });
 
   it('when "show retired" is switched on, then the shelf is asked again with retired parts', async () => {
