@@ -207,13 +207,19 @@ export class Client {
   cookie = '';
   constructor(readonly base: string) {}
 
-  /** One request; resolves with status, body and the time it took [ms]. */
+  /**
+   * One request; resolves with status, body, its size and the time it took [ms].
+   * @param body - a value sent as JSON, or bytes already encoded (a load loop encodes its body once)
+   * @param options.discardBody - count the answer's bytes without decoding them (`body` is then empty), so a load
+   *   loop spends as little CPU as a client on another machine would take from this one
+   */
   request(
     method: string,
     url: string,
     body?: unknown,
-  ): Promise<{ status: number; body: string; ms: number; headers: http.IncomingHttpHeaders }> {
-    const data = body === undefined ? undefined : Buffer.from(JSON.stringify(body));
+    options: { discardBody?: boolean } = {},
+  ): Promise<{ status: number; body: string; bytes: number; ms: number; headers: http.IncomingHttpHeaders }> {
+    const data = body === undefined ? undefined : Buffer.isBuffer(body) ? body : Buffer.from(JSON.stringify(body));
     const started = performance.now();
     return new Promise((resolve, reject) => {
       const req = http.request(
@@ -228,11 +234,16 @@ export class Client {
         },
         (res) => {
           const chunks: Buffer[] = [];
-          res.on('data', (c: Buffer) => chunks.push(c));
+          let bytes = 0;
+          res.on('data', (c: Buffer) => {
+            bytes += c.length;
+            if (!options.discardBody) chunks.push(c);
+          });
           res.on('end', () =>
             resolve({
               status: res.statusCode ?? 0,
-              body: Buffer.concat(chunks).toString('utf8'),
+              body: options.discardBody ? '' : Buffer.concat(chunks).toString('utf8'),
+              bytes,
               ms: performance.now() - started,
               headers: res.headers,
             }),

@@ -1,4 +1,4 @@
-import { spawnSync } from 'node:child_process';
+import { fork, spawnSync, type ChildProcess } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
@@ -11,7 +11,8 @@ import { atLeast, atMost, info, median, percentile, readRecorded, say, setRecord
 /**
  * Server part of `npm run bench`: this checkout and a baseline commit (see baselineRef) run side by side on the same bench database, and each is measured in turn, in alternating
  * rounds, so both see the same machine:
- * - /api/health latency idle, while 50 clients post /api/calc as fast as they can, and while design sheets render;
+ * - /api/health latency idle, while 50 clients post /api/calc as fast as they can, and while design sheets render,
+ *   probed from a child process (healthProbe.ts) so that this process's busy event loop is not in the figure;
  * - /api/calc throughput (full answers, the same request for both) and, for this checkout, with `sections`;
  * - what the machine allows: CPU per full answer of the server, MariaDB and the load generator (all on the same cores),
  *   the throughput ceiling that gives, and the work of the answer itself (engine and encoding, timed in this process).
@@ -46,8 +47,9 @@ export function baselineRef(): string {
 const CLIENTS = Number(process.env.BENCH_CALC_CLIENTS ?? 50);
 const LOAD_SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 5);
 const ROUNDS = Number(process.env.BENCH_SERVER_ROUNDS ?? 3);
-const IDLE_PROBES = 200;
+const IDLE_PROBES = 1000;
 const WARMUP_SECONDS = 2;
+const SETTLE_MS = 1000;
 const SHEETS = 2;
 
 const design = JSON.parse(fs.readFileSync(path.join(ROOT_DIR, 'reference/examples/corexy-dispensing-stage.json'), 'utf8')) as Record<
@@ -104,29 +106,50 @@ interface Sample {
   bytes: number;
 }
 
-async function healthProbes(client: Client, count: number): Promise<number[]> {
-  const out: number[] = [];
-  for (let i = 0; i < count; i++) {
-    const r = await client.request('GET', '/api/health');
-    if (r.status === 200) out.push(r.ms);
-  }
-  return out;
-}
+/**
+ * /api/health probes from a child process (healthProbe.ts): its own event loop, so the latencies are the server's,
+ * not delays of this process's event loop while it reads the load's answers.
+ */
+class HealthProber {
+  private readonly child: ChildProcess;
+  private answer: ((latencies: number[]) => void) | null = null;
 
-/** Probes /api/health every few ms until `until` resolves. */
-async function probeWhile<T>(client: Client, until: Promise<T>): Promise<{ latencies: number[]; value: T }> {
-  let done = false;
-  const latencies: number[] = [];
-  const finished = until.finally(() => (done = true));
-  // Rethrown by the await below; without a handler now, a failure would end the bench at once (unhandled rejection)
-  // and leave the app servers running.
-  finished.catch(() => undefined);
-  while (!done) {
-    const r = await client.request('GET', '/api/health').catch(() => null);
-    if (r?.status === 200) latencies.push(r.ms);
-    await sleep(5);
+  constructor(url: string) {
+    this.child = fork(path.join(import.meta.dirname, 'healthProbe.ts'), [url], { execArgv: ['--import', 'tsx'], stdio: 'inherit' });
+    this.child.on('message', (msg: { latencies: number[] }) => {
+      const answer = this.answer;
+      this.answer = null;
+      answer?.(msg.latencies);
+    });
   }
-  return { latencies, value: await finished };
+
+  private ask(command: object): Promise<number[]> {
+    return new Promise((resolve, reject) => {
+      this.answer = resolve;
+      this.child.once('exit', (code) => reject(new Error(`health prober exited (${code})`)));
+      this.child.send(command);
+    });
+  }
+
+  /** `n` probes in a row [ms]. */
+  count(n: number): Promise<number[]> {
+    return this.ask({ cmd: 'count', n });
+  }
+
+  /** Probes every few ms until `until` settles. */
+  async during<T>(until: Promise<T>): Promise<{ latencies: number[]; value: T }> {
+    const probes = this.ask({ cmd: 'start', gapMs: 5 });
+    // Rethrown by the await below; without a handler now, a failure would end the bench at once (unhandled
+    // rejection) and leave the app servers running.
+    const finished = until.finally(() => this.child.send({ cmd: 'stop' }));
+    finished.catch(() => undefined);
+    const latencies = await probes;
+    return { latencies, value: await finished };
+  }
+
+  close(): void {
+    this.child.disconnect();
+  }
 }
 
 /** `clients` loops posting `body` to /api/calc for `seconds`. */
@@ -140,13 +163,16 @@ async function calcLoad(
   let done = 0;
   let errors = 0;
   let bytes = 0;
+  const encoded = Buffer.from(JSON.stringify(body));
   await Promise.all(
     Array.from({ length: clients }, async () => {
       while (performance.now() < end) {
-        const r = await client.request('POST', '/api/calc', body).catch((err: Error) => ({ status: 0, body: err.message }));
+        const r = await client
+          .request('POST', '/api/calc', encoded, { discardBody: true })
+          .catch((err: Error) => ({ status: 0, bytes: 0, body: err.message }));
         if (r.status === 200) {
           done++;
-          bytes = r.body.length;
+          bytes = r.bytes;
         } else errors++;
       }
     }),
@@ -190,14 +216,17 @@ async function approveSheets(designer: Client, reviewer: Client, count: number, 
 }
 
 async function measure(app: AppProcess, sample: Sample, withSheets: boolean, dbPid: number): Promise<void> {
-  const probe = new Client(app.url);
+  const probe = new HealthProber(app.url);
   const load = new Client(app.url);
   await load.signIn('designer@example.test');
-  sample.idle.push(...(await healthProbes(probe, IDLE_PROBES)));
+  // Idle means idle: the previous phase (the other server's load, or the warm-up) has a second to settle first
+  // (its last garbage collections, MariaDB's writes).
+  await sleep(SETTLE_MS);
+  sample.idle.push(...(await probe.count(IDLE_PROBES)));
   const cpuBefore = cpuMs(app.child.pid);
   const dbBefore = cpuMs(dbPid);
   const loadBefore = ownCpuMs();
-  const { latencies, value } = await probeWhile(probe, calcLoad(load, { design }, CLIENTS, LOAD_SECONDS));
+  const { latencies, value } = await probe.during(calcLoad(load, { design }, CLIENTS, LOAD_SECONDS));
   const per = (ms: number) => ms / Math.max(1, value.done);
   sample.cpuPerCalc.push(per(cpuMs(app.child.pid) - cpuBefore));
   sample.dbCpuPerCalc.push(per(cpuMs(dbPid) - dbBefore));
@@ -209,7 +238,7 @@ async function measure(app: AppProcess, sample: Sample, withSheets: boolean, dbP
   if (withSheets) {
     const reviewer = new Client(app.url);
     await reviewer.signIn('reviewer@example.test');
-    const sheets = await probeWhile(probe, approveSheets(load, reviewer, SHEETS, app.label));
+    const sheets = await probe.during(approveSheets(load, reviewer, SHEETS, app.label));
     sample.underSheets.push(...sheets.latencies);
     reviewer.close();
   }
