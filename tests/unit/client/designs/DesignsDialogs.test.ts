@@ -1,26 +1,13 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, mount, type VueWrapper } from '@vue/test-utils';
 import { createMemoryHistory, createRouter } from 'vue-router';
-import type { DesignSummary } from '@/api/designs';
 import DesignsNewDialog from '@/views/designs/DesignsNewDialog.vue';
 import DesignsRenameDialog from '@/views/designs/DesignsRenameDialog.vue';
+import { designRow } from './designRow';
 
 vi.setConfig({ testTimeout: 60_000 });
 
-const BENCH: DesignSummary = {
-  id: 7,
-  name: 'Bench dispensing stage',
-  mechanism: 'corexy',
-  status: 'draft',
-  owner: { id: 2, name: 'Dana Designer' },
-  travel: { xMm: 312, yMm: 320 },
-  version: 3,
-  updatedAt: '2026-11-20T10:00:00Z',
-  createdAt: '2026-11-20T09:00:00Z',
-  canOpen: true,
-  canEdit: true,
-  canDelete: true,
-};
+const BENCH = designRow({ id: 7, name: 'Bench dispensing stage', version: 3 });
 
 /** The value of the text box with this data-test (the dialogs are teleported to the body). */
 function boxValue(dataTest: string): string | undefined {

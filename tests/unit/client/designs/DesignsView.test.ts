@@ -5,6 +5,7 @@ import { createMemoryHistory, createRouter } from 'vue-router';
 import type { DesignSummary } from '@/api/designs';
 import type { User } from '@/api/types';
 import DesignsView from '@/views/designs/DesignsView.vue';
+import { designRow } from './designRow';
 
 vi.mock('@/api/designs', async (importOriginal) => ({
   ...(await importOriginal<typeof import('@/api/designs')>()),
@@ -24,24 +25,6 @@ const DESIGNER: User = {
   isInvited: false,
   createdAt: '2026-01-01T00:00:00Z',
 };
-
-function row(over: Partial<DesignSummary>): DesignSummary {
-  return {
-    id: 1,
-    name: 'Bench stage',
-    mechanism: 'corexy',
-    status: 'draft',
-    owner: { id: 2, name: 'Dana Designer' },
-    travel: { xMm: 312, yMm: 320 },
-    version: 1,
-    updatedAt: '2026-11-20T10:00:00Z',
-    createdAt: '2026-11-20T09:00:00Z',
-    canOpen: true,
-    canEdit: true,
-    canDelete: true,
-    ...over,
-  };
-}
 
 async function mountView(items: DesignSummary[]) {
   vi.mocked(api.listDesigns).mockResolvedValue({ items, total: items.length, page: 1, pageSize: 20 });
@@ -68,8 +51,8 @@ describe('DesignsView', () => {
   it('when it opens, then it asks the server for the newest first and lists each design with status words and travel in mm', async () => {
     // Arrange / Act
     const { wrapper } = await mountView([
-      row({ id: 1 }),
-      row({ id: 2, name: 'Pen plotter', mechanism: 'hbot', status: 'in_review', canEdit: false, canDelete: false }),
+      designRow({ id: 1 }),
+      designRow({ id: 2, name: 'Pen plotter', mechanism: 'hbot', status: 'in_review', canEdit: false, canDelete: false }),
     ]);
     // Assert
     expect(api.listDesigns).toHaveBeenCalledWith(expect.objectContaining({ page: 1, pageSize: 20, sort: '-updatedAt' }));
@@ -85,8 +68,8 @@ describe('DesignsView', () => {
   it('when the server says a listed design may not be opened, then its name is plain text saying why and it has no actions', async () => {
     // Arrange / Act: someone else's design in review, for a designer who does not review.
     const { wrapper } = await mountView([
-      row({ id: 1 }),
-      row({
+      designRow({ id: 1 }),
+      designRow({
         id: 3,
         name: 'Wide stage',
         status: 'in_review',
@@ -106,7 +89,7 @@ describe('DesignsView', () => {
   });
 
   it('when the Name header is clicked, then the server sorts by name', async () => {
-    const { wrapper } = await mountView([row({})]);
+    const { wrapper } = await mountView([designRow({})]);
     vi.mocked(api.listDesigns).mockClear();
     // Act
     const nameHeader = wrapper.findAll('th').find((th) => th.text().startsWith('Name'))!;
@@ -125,7 +108,7 @@ describe('DesignsView', () => {
   });
 
   it('when someone searches, then the query goes to the server after a pause, from page 1', async () => {
-    const { wrapper } = await mountView([row({})]);
+    const { wrapper } = await mountView([designRow({})]);
     vi.mocked(api.listDesigns).mockClear();
     await wrapper.get('input[data-test="designs-search"]').setValue('plotter');
     await vi.waitFor(() => expect(api.listDesigns).toHaveBeenCalledWith(expect.objectContaining({ q: 'plotter', page: 1 })));

@@ -21,6 +21,20 @@ function countingRunner(): EngineRunner & { calls: number } {
   return runner as unknown as EngineRunner & { calls: number };
 }
 
+/** A worker-like runner that answers only after 120 ms, reporting `computeMs` as the engine's own time when given. */
+function slowRunner(computeMs?: number): EngineRunner {
+  return {
+    usesWorker: true,
+    evaluate: async (design: Record<string, unknown>) => {
+      await new Promise((resolve) => setTimeout(resolve, 120));
+      const outcome = evaluateOutcome(design);
+      return computeMs === undefined ? outcome : { ...outcome, computeMs };
+    },
+    compare: vi.fn(),
+    sweep: vi.fn(),
+  } as unknown as EngineRunner;
+}
+
 describe('useEngine', () => {
   it('when the inputs are valid, then the result equals the engine’s own evaluation', async () => {
     // Arrange
@@ -71,15 +85,7 @@ describe('useEngine', () => {
   it('when the runner reports the engine’s own time, then "computed in" shows that time and not the wait for the runner', async () => {
     // Arrange: a runner that answers after a long wait (a worker still warming up) with a short engine time
     const doc = reactive(structuredClone(defaultDesign('corexy')));
-    const runner = {
-      usesWorker: true,
-      evaluate: async (design: Record<string, unknown>) => {
-        await new Promise((resolve) => setTimeout(resolve, 120));
-        return { ...evaluateOutcome(design), computeMs: 7.4 };
-      },
-      compare: vi.fn(),
-      sweep: vi.fn(),
-    } as unknown as EngineRunner;
+    const runner = slowRunner(7.4);
     const scope = effectScope();
     // Act
     const engine = scope.run(() => useEngine(() => doc, { runner }))!;
@@ -92,15 +98,7 @@ describe('useEngine', () => {
   it('when the runner does not report the engine’s time, then "computed in" is the round trip', async () => {
     // Arrange
     const doc = reactive(structuredClone(defaultDesign('corexy')));
-    const runner = {
-      usesWorker: true,
-      evaluate: async (design: Record<string, unknown>) => {
-        await new Promise((resolve) => setTimeout(resolve, 120));
-        return evaluateOutcome(design);
-      },
-      compare: vi.fn(),
-      sweep: vi.fn(),
-    } as unknown as EngineRunner;
+    const runner = slowRunner();
     const scope = effectScope();
     // Act
     const engine = scope.run(() => useEngine(() => doc, { runner }))!;
