@@ -112,21 +112,23 @@ interface Sample {
  */
 class HealthProber {
   private readonly child: ChildProcess;
-  private answer: ((latencies: number[]) => void) | null = null;
+  /** The command waiting for its answer (one at a time). */
+  private waiting: { resolve: (latencies: number[]) => void; reject: (err: Error) => void } | null = null;
 
   constructor(url: string) {
     this.child = fork(path.join(import.meta.dirname, 'healthProbe.ts'), [url], { execArgv: ['--import', 'tsx'], stdio: 'inherit' });
-    this.child.on('message', (msg: { latencies: number[] }) => {
-      const answer = this.answer;
-      this.answer = null;
-      answer?.(msg.latencies);
-    });
+    const settle = (how: (w: NonNullable<HealthProber['waiting']>) => void) => {
+      const w = this.waiting;
+      this.waiting = null;
+      if (w) how(w);
+    };
+    this.child.on('message', (msg: { latencies: number[] }) => settle((w) => w.resolve(msg.latencies)));
+    this.child.on('exit', (code) => settle((w) => w.reject(new Error(`health prober exited (${code})`))));
   }
 
   private ask(command: object): Promise<number[]> {
     return new Promise((resolve, reject) => {
-      this.answer = resolve;
-      this.child.once('exit', (code) => reject(new Error(`health prober exited (${code})`)));
+      this.waiting = { resolve, reject };
       this.child.send(command);
     });
   }
@@ -289,8 +291,7 @@ export async function benchServer(): Promise<Figure[]> {
         },
       ]),
     );
-    // Warm-up: the same load for a moment on each app, unmeasured, so that no round pays for starting a worker
-    // thread or for compiling cold code (this checkout starts its second engine thread on the first burst).
+    // Warm-up: the same load for a moment on each app, unmeasured, so that no round pays for compiling cold code.
     for (const app of apps) {
       const warm = new Client(app.url);
       await warm.signIn('designer@example.test');
