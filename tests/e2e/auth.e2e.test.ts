@@ -106,4 +106,25 @@ describe('sign-in journeys', () => {
     expect(pageErrors).toEqual([]);
     await context.close();
   });
+
+  it('when someone opens Active sessions from the user menu, then the dialog shows over the page, not clipped to the header', async () => {
+    // Arrange
+    const { context, page, pageErrors } = await openPage(browser(), { baseURL });
+    await page.goto('/sign-in');
+    await signInThroughForm(page, 'designer@example.test');
+    // Act
+    await page.click('[data-test="user-menu"]');
+    await page.click('[data-test="open-sessions"]');
+    const row = page.locator('[data-test="session-row"]').first();
+    await row.waitFor();
+    // Assert: what is drawn at the middle of the first session row is that row (the header's backdrop blur used to
+    // confine the dialog to the header's box, so the page showed there instead)
+    const rowIsOnTop = await row.evaluate((el) => {
+      const r = el.getBoundingClientRect();
+      return el.contains(document.elementFromPoint(r.left + r.width / 2, r.top + r.height / 2));
+    });
+    expect(rowIsOnTop).toBe(true);
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  });
 });
