@@ -48,7 +48,10 @@ const CLIENTS = Number(process.env.BENCH_CALC_CLIENTS ?? 50);
 const LOAD_SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 5);
 const ROUNDS = Number(process.env.BENCH_SERVER_ROUNDS ?? 3);
 const IDLE_PROBES = 1000;
-const WARMUP_SECONDS = 2;
+const WARMUP_SECONDS = 3;
+const REWARM_SECONDS = 3;
+const WARMUP_MIN_SECONDS = 24;
+const WARMUP_MAX_SECONDS = Number(process.env.BENCH_WARMUP_MAX_SECONDS ?? 60);
 const SETTLE_MS = 1000;
 const SHEETS = 2;
 
@@ -84,12 +87,6 @@ function answerWork(): { engineMs: number; encodeMs: number } {
     }
   }
   return { engineMs: median(engineMs), encodeMs: median(encodeMs) };
-}
-
-/** CPU time this process (the load generator) has used so far, all threads [ms]. */
-function ownCpuMs(): number {
-  const u = process.cpuUsage();
-  return (u.user + u.system) / 1000;
 }
 
 interface Sample {
@@ -154,32 +151,45 @@ class HealthProber {
   }
 }
 
-/** `clients` loops posting `body` to /api/calc for `seconds`. */
-async function calcLoad(
-  client: Client,
-  body: unknown,
-  clients: number,
-  seconds: number,
-): Promise<{ done: number; errors: number; bytes: number }> {
-  const end = performance.now() + seconds * 1000;
-  let done = 0;
-  let errors = 0;
-  let bytes = 0;
-  const encoded = Buffer.from(JSON.stringify(body));
-  await Promise.all(
-    Array.from({ length: clients }, async () => {
-      while (performance.now() < end) {
-        const r = await client
-          .request('POST', '/api/calc', encoded, { discardBody: true })
-          .catch((err: Error) => ({ status: 0, bytes: 0, body: err.message }));
-        if (r.status === 200) {
-          done++;
-          bytes = r.bytes;
-        } else errors++;
-      }
-    }),
-  );
-  return { done: done, errors, bytes };
+/** What one load run did: 200 answers, other answers and failures, the last answer's size [B], the loader's CPU [ms]. */
+interface LoadRun {
+  done: number;
+  errors: number;
+  bytes: number;
+  cpuMs: number;
+}
+
+/**
+ * The /api/calc load from a child process (calcLoad.ts): a lean process of its own, so that its CPU per answer is
+ * that of the load alone (not of this process's heap, which holds the engine and the bench's bookkeeping), and
+ * measured apart from the server's and MariaDB's.
+ */
+class CalcLoader {
+  private readonly child: ChildProcess;
+  private waiting: { resolve: (run: LoadRun) => void; reject: (err: Error) => void } | null = null;
+
+  constructor(private readonly client: Client) {
+    this.child = fork(path.join(import.meta.dirname, 'calcLoad.ts'), [], { execArgv: ['--import', 'tsx'], stdio: 'inherit' });
+    const settle = (how: (w: NonNullable<CalcLoader['waiting']>) => void) => {
+      const w = this.waiting;
+      this.waiting = null;
+      if (w) how(w);
+    };
+    this.child.on('message', (run: LoadRun) => settle((w) => w.resolve(run)));
+    this.child.on('exit', (code) => settle((w) => w.reject(new Error(`load generator exited (${code})`))));
+  }
+
+  /** `clients` loops posting `body` to /api/calc for `seconds`. */
+  run(body: unknown, clients: number, seconds: number): Promise<LoadRun> {
+    return new Promise((resolve, reject) => {
+      this.waiting = { resolve, reject };
+      this.child.send({ url: this.client.base, cookie: this.client.cookie, body: JSON.stringify(body), clients, seconds });
+    });
+  }
+
+  close(): void {
+    this.child.disconnect();
+  }
 }
 
 /** JSON with object keys sorted, so two answers that differ only in key order compare equal. */
@@ -221,18 +231,21 @@ async function measure(app: AppProcess, sample: Sample, withSheets: boolean, dbP
   const probe = new HealthProber(app.url);
   const load = new Client(app.url);
   await load.signIn('designer@example.test');
+  const loader = new CalcLoader(load);
   // Idle means idle: the previous phase (the other server's load, or the warm-up) has a second to settle first
   // (its last garbage collections, MariaDB's writes).
   await sleep(SETTLE_MS);
   sample.idle.push(...(await probe.count(IDLE_PROBES)));
+  // Idle, a server sheds some of its warm state (optimised code, heap size); the round measures it warm, as it
+  // runs under a steady load, so a short unmeasured burst comes first (the same for both apps).
+  await loader.run({ design }, CLIENTS, REWARM_SECONDS);
   const cpuBefore = cpuMs(app.child.pid);
   const dbBefore = cpuMs(dbPid);
-  const loadBefore = ownCpuMs();
-  const { latencies, value } = await probe.during(calcLoad(load, { design }, CLIENTS, LOAD_SECONDS));
+  const { latencies, value } = await probe.during(loader.run({ design }, CLIENTS, LOAD_SECONDS));
   const per = (ms: number) => ms / Math.max(1, value.done);
   sample.cpuPerCalc.push(per(cpuMs(app.child.pid) - cpuBefore));
   sample.dbCpuPerCalc.push(per(cpuMs(dbPid) - dbBefore));
-  sample.loadCpuPerCalc.push(per(ownCpuMs() - loadBefore));
+  sample.loadCpuPerCalc.push(per(value.cpuMs));
   sample.underCalc.push(...latencies);
   sample.calcPerS.push(value.done / LOAD_SECONDS);
   sample.calcErrors += value.errors;
@@ -245,6 +258,7 @@ async function measure(app: AppProcess, sample: Sample, withSheets: boolean, dbP
     reviewer.close();
   }
   probe.close();
+  loader.close();
   load.close();
 }
 
@@ -291,11 +305,26 @@ export async function benchServer(): Promise<Figure[]> {
         },
       ]),
     );
-    // Warm-up: the same load for a moment on each app, unmeasured, so that no round pays for compiling cold code.
+    // Warm-up: the same load on each app, unmeasured, until its throughput settles: a server keeps getting faster
+    // for tens of seconds under load (optimised code in every engine thread, the heap growing to fit the load), and
+    // a round on a half-warm server measures its start-up instead.
     for (const app of apps) {
       const warm = new Client(app.url);
       await warm.signIn('designer@example.test');
-      await calcLoad(warm, { design }, CLIENTS, WARMUP_SECONDS);
+      const loader = new CalcLoader(warm);
+      const rates: number[] = [];
+      const started = performance.now();
+      for (;;) {
+        rates.push((await loader.run({ design }, CLIENTS, WARMUP_SECONDS)).done / WARMUP_SECONDS);
+        const [a, b, c] = rates.slice(-3);
+        const elapsed = (performance.now() - started) / 1000;
+        const settled = elapsed >= WARMUP_MIN_SECONDS && Math.max(a, b, c) <= 1.05 * Math.min(a, b, c);
+        if (settled || elapsed > WARMUP_MAX_SECONDS) break;
+      }
+      say(
+        `server: ${app.label} warmed up in ${((performance.now() - started) / 1000).toFixed(0)} s (${rates.map((r) => r.toFixed(0)).join(', ')} req/s)`,
+      );
+      loader.close();
       warm.close();
     }
     for (let round = 0; round < ROUNDS; round++) {
@@ -310,7 +339,9 @@ export async function benchServer(): Promise<Figure[]> {
     // The leaner answer the Design desk's server calls can ask for.
     const lean = new Client(current.url);
     await lean.signIn('designer@example.test');
-    const leanRun = await calcLoad(lean, { design, sections: ['drive', 'envelope', 'checks'] }, CLIENTS, LOAD_SECONDS);
+    const leanLoader = new CalcLoader(lean);
+    const leanRun = await leanLoader.run({ design, sections: ['drive', 'envelope', 'checks'] }, CLIENTS, LOAD_SECONDS);
+    leanLoader.close();
     lean.close();
 
     const now = samples.get(current)!;
