@@ -49,7 +49,7 @@ const LOAD_SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 5);
 const ROUNDS = Number(process.env.BENCH_SERVER_ROUNDS ?? 3);
 const IDLE_PROBES = 1000;
 const WARMUP_SECONDS = 3;
-const REWARM_SECONDS = 3;
+const REWARM_SECONDS = 10;
 const WARMUP_MIN_SECONDS = 24;
 const WARMUP_MAX_SECONDS = Number(process.env.BENCH_WARMUP_MAX_SECONDS ?? 60);
 const SETTLE_MS = 1000;
@@ -236,8 +236,9 @@ async function measure(app: AppProcess, sample: Sample, withSheets: boolean, dbP
   // (its last garbage collections, MariaDB's writes).
   await sleep(SETTLE_MS);
   sample.idle.push(...(await probe.count(IDLE_PROBES)));
-  // Idle, a server sheds some of its warm state (optimised code, heap size); the round measures it warm, as it
-  // runs under a steady load, so a short unmeasured burst comes first (the same for both apps).
+  // Idle, a server sheds some of its warm state (half a minute idle costs it a fifth of its throughput, regained
+  // over some ten seconds of load); the round measures it warm, as it runs under a steady load, so an unmeasured
+  // burst comes first (the same for both apps).
   await loader.run({ design }, CLIENTS, REWARM_SECONDS);
   const cpuBefore = cpuMs(app.child.pid);
   const dbBefore = cpuMs(dbPid);
