@@ -165,21 +165,94 @@ export async function sweepOrphans(store: ContentStore, options: { minAgeMs?: nu
   );
 }
 
-/** Runs {@link sweepOrphans} periodically in this process (every process may: rows are claimed). @returns stop() */
-export function startContentSweeper(store: () => ContentStore, intervalMs = 5 * 60_000): () => void {
+/**
+ * How old unregistered bytes must be before the sweep takes them for strays: far longer than any transaction that
+ * puts bytes and then commits their row (seconds), so bytes whose transaction is still running are never touched.
+ */
+const STRAY_MIN_AGE_MS = 60 * 60_000;
+
+/** What one pass over the whole store found. */
+interface StraySweep {
+  /** Stored contents looked at. */
+  checked: number;
+  /** Of those, old enough and without a row in `stored_contents`: registered as orphans. */
+  strays: number;
+  /** Removed (a stray that something refers to after all is kept and its row made `live`). */
+  removed: number;
+}
+
+/**
+ * Finds bytes in the store that nothing registered: a process that died after putting them and before its
+ * transaction committed leaves bytes with no `stored_contents` row, which no delete will ever mark. Each stored
+ * hash at least `minAgeMs` old without a row gets an `orphan` row (INSERT IGNORE: a row that appeared meanwhile, or
+ * a transaction still writing one, wins), and then goes through the same claimed removal as every orphan, which
+ * counts the references afresh. A reference added at the same moment is safe for the reasons given at the top of
+ * this file: it turns the row `live`, or waits for the removal and puts the bytes again.
+ * @param options.minAgeMs - youngest bytes taken for strays (default {@link STRAY_MIN_AGE_MS})
+ * @param options.pageSize - hashes listed and looked up at a time
+ * @returns how many contents were checked, registered and removed
+ */
+export async function sweepStrays(store: ContentStore, options: { minAgeMs?: number; pageSize?: number } = {}): Promise<StraySweep> {
+  const db = getSequelize();
+  const oldest = Date.now() - (options.minAgeMs ?? STRAY_MIN_AGE_MS);
+  const result: StraySweep = { checked: 0, strays: 0, removed: 0 };
+  let after: string | undefined;
+  for (;;) {
+    const page = await store.list({ after, limit: options.pageSize ?? 500 });
+    result.checked += page.items.length;
+    const old = page.items.filter((i) => i.storedAt.getTime() <= oldest).map((i) => i.sha256);
+    if (old.length > 0) {
+      const known = await db.query<{ sha256: string }>('SELECT sha256 FROM stored_contents WHERE sha256 IN (?)', {
+        replacements: [old],
+        type: QueryTypes.SELECT,
+      });
+      const registered = new Set(known.map((r) => r.sha256));
+      const strays = old.filter((h) => !registered.has(h));
+      const now = new Date();
+      for (const sha256 of strays) {
+        await db.query(
+          'INSERT IGNORE INTO stored_contents (sha256, size, state, orphan_since, claim_token, claimed_until, created_at, updated_at) ' +
+            "VALUES (?, NULL, 'orphan', ?, NULL, NULL, ?, ?)",
+          { replacements: [sha256, now, now, now] },
+        );
+      }
+      if (strays.length > 0) {
+        logger.info({ count: strays.length }, 'stored bytes without a registry row found; removing those nothing refers to');
+        result.strays += strays.length;
+        result.removed += await removeUnreferencedContent(strays, store, db);
+      }
+    }
+    if (!page.next) return result;
+    after = page.next;
+  }
+}
+
+/**
+ * Runs {@link sweepOrphans} periodically in this process (every process may: rows are claimed), and every
+ * `strayEvery`-th time (the first a minute after start) {@link sweepStrays}, which lists the whole store.
+ * @returns stop()
+ */
+export function startContentSweeper(store: () => ContentStore, intervalMs = 5 * 60_000, strayEvery = 12): () => void {
   let isRunning = false;
-  const tick = async () => {
+  let ticks = 0;
+  const run = async (withStrays: boolean) => {
     if (isRunning) return;
     isRunning = true;
     try {
       await sweepOrphans(store());
+      if (withStrays) await sweepStrays(store());
     } catch (err) {
       logger.warn({ err }, 'content sweep failed');
     } finally {
       isRunning = false;
     }
   };
-  const timer = setInterval(() => void tick(), intervalMs);
+  const timer = setInterval(() => void run(++ticks % strayEvery === 0), intervalMs);
   timer.unref();
-  return () => clearInterval(timer);
+  const first = setTimeout(() => void run(true), Math.min(60_000, intervalMs));
+  first.unref();
+  return () => {
+    clearInterval(timer);
+    clearTimeout(first);
+  };
 }

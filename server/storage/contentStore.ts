@@ -27,4 +27,18 @@ export interface ContentStore {
   has(sha256: string): Promise<boolean>;
   /** Removes bytes (whether anything still refers to them is the caller's business). @returns whether they existed. */
   remove(sha256: string): Promise<boolean>;
+  /**
+   * One page of what the store holds, in hash order, for the sweep that finds bytes nothing registered (a process
+   * that died between putting them and committing): each hash with when it was stored.
+   * @param options.after - where to go on: the previous page's `next` (a position the store chose, not to be parsed)
+   * @param options.limit - most items on the page
+   * @returns the page and where the next page starts, or null at the end
+   */
+  list(options: { after?: string; limit: number }): Promise<{ items: StoredItem[]; next: string | null }>;
+}
+
+/** A stored content and when its bytes were last written. */
+export interface StoredItem {
+  sha256: string;
+  storedAt: Date;
 }

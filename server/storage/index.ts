@@ -8,7 +8,14 @@ import { S3ContentStore } from './s3ContentStore';
 export type { ContentStore } from './contentStore';
 export { LocalContentStore } from './localContentStore';
 export { S3ContentStore } from './s3ContentStore';
-export { markUnreferenced, referenceContent, removeUnreferencedContent, startContentSweeper, sweepOrphans } from './contentRegistry';
+export {
+  markUnreferenced,
+  referenceContent,
+  removeUnreferencedContent,
+  startContentSweeper,
+  sweepOrphans,
+  sweepStrays,
+} from './contentRegistry';
 
 let current: { key: string; store: ContentStore } | undefined;
 let override: ContentStore | undefined;

@@ -1,6 +1,19 @@
-import { stat } from 'node:fs/promises';
+import { readdir, stat } from 'node:fs/promises';
+import { join } from 'node:path';
 import { contentPath, readBytes, removeBytes, storeBytes, type StoredContent } from '../uploads';
-import type { ContentStore } from './contentStore';
+import type { ContentStore, StoredItem } from './contentStore';
+
+const HEX2 = /^[0-9a-f]{2}$/;
+const SHA256_HEX = /^[0-9a-f]{64}$/;
+
+/** Entries of a folder that match `pattern`, sorted; none when the folder does not exist. */
+async function namesIn(dir: string, pattern: RegExp): Promise<string[]> {
+  const names = await readdir(dir).catch((err: NodeJS.ErrnoException) => {
+    if (err.code === 'ENOENT') return [] as string[];
+    throw err;
+  });
+  return names.filter((n) => pattern.test(n)).sort();
+}
 
 /**
  * The content store in a local folder (`UPLOAD_DIR`, default `.data/uploads`): `root/ab/cd/<sha256>`, written to a
@@ -27,5 +40,26 @@ export class LocalContentStore implements ContentStore {
 
   remove(sha256: string): Promise<boolean> {
     return removeBytes(this.rootDir, sha256);
+  }
+
+  async list(options: { after?: string; limit: number }): Promise<{ items: StoredItem[]; next: string | null }> {
+    // Walks ab/cd/<sha256> in name order, skipping the folders that sort before `after` (temporary files of a write
+    // in progress and anything else not named by a hash are not content).
+    const after = options.after ?? '';
+    const items: StoredItem[] = [];
+    for (const ab of await namesIn(this.rootDir, HEX2)) {
+      if (ab < after.slice(0, 2)) continue;
+      for (const cd of await namesIn(join(this.rootDir, ab), HEX2)) {
+        if (ab + cd < after.slice(0, 4)) continue;
+        for (const name of await namesIn(join(this.rootDir, ab, cd), SHA256_HEX)) {
+          if (name <= after || !name.startsWith(ab + cd)) continue;
+          const found = await stat(join(this.rootDir, ab, cd, name)).catch(() => undefined);
+          if (!found?.isFile()) continue;
+          items.push({ sha256: name, storedAt: found.mtime });
+          if (items.length >= options.limit) return { items, next: name };
+        }
+      }
+    }
+    return { items, next: null };
   }
 }

@@ -2,13 +2,14 @@ import {
   DeleteObjectCommand,
   GetObjectCommand,
   HeadObjectCommand,
+  ListObjectsCommand,
   PutObjectCommand,
   S3Client,
   type S3ClientConfig,
 } from '@aws-sdk/client-s3';
 import { posix } from 'node:path';
 import { assertSha256, ContentStoreError, sha256Of, type StoredContent } from '../uploads';
-import type { ContentStore } from './contentStore';
+import type { ContentStore, StoredItem } from './contentStore';
 
 /** How to reach the bucket (see `STORAGE=s3` in .env.example). */
 export type S3StoreOptions = {
@@ -109,5 +110,25 @@ export class S3ContentStore implements ContentStore {
     const existed = await this.has(sha256);
     if (existed) await this.client.send(new DeleteObjectCommand({ Bucket: this.options.bucket, Key: this.keyOf(sha256) }));
     return existed;
+  }
+
+  async list(options: { after?: string; limit: number }): Promise<{ items: StoredItem[]; next: string | null }> {
+    // Keys are <prefix>/ab/cd/<sha256>, so key order is hash order; the page goes on after the last key listed.
+    // The first version of the listing call, with a marker: every S3-compatible service has it, while the second
+    // version's continuation tokens are missing from some (the fake S3 of the tests cannot make them).
+    const folder = posix.join(this.options.prefix, 'x').slice(0, -1);
+    const res = await this.client.send(
+      new ListObjectsCommand({ Bucket: this.options.bucket, Prefix: folder || undefined, Marker: options.after, MaxKeys: options.limit }),
+    );
+    const items: StoredItem[] = [];
+    let lastKey: string | null = null;
+    for (const object of res.Contents ?? []) {
+      lastKey = object.Key ?? lastKey;
+      const name = posix.basename(object.Key ?? '');
+      // Only objects at a content address are content (anything else someone put in the folder is left alone).
+      if (!/^[0-9a-f]{64}$/.test(name) || object.Key !== this.keyOf(name)) continue;
+      items.push({ sha256: name, storedAt: object.LastModified ?? new Date(0) });
+    }
+    return { items, next: res.IsTruncated ? lastKey : null };
   }
 }

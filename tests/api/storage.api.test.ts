@@ -15,6 +15,7 @@ import {
   S3ContentStore,
   markUnreferenced,
   sweepOrphans,
+  sweepStrays,
   useContentStore,
   type ContentStore,
 } from '../../server/storage';
@@ -263,6 +264,7 @@ describe.each(BACKENDS)('content store: $name', ({ open }) => {
       get: (h, o) => backend.store.get(h, o),
       has: (h) => backend.store.has(h),
       remove: (h) => backend.store.remove(h),
+      list: (o) => backend.store.list(o),
     };
     const undo = useContentStore(failing);
     // Act
@@ -371,5 +373,55 @@ describe.each(BACKENDS)('content store: $name', ({ open }) => {
     expect(await backend.store.has(sha256(attached))).toBe(true);
     expect(await registryState(sha256(attached))).toBe('live');
     expect(await markUnreferenced(sha256(attached))).toBe(false);
+  });
+
+  it('when the store is listed page by page, then every stored hash comes once, in hash order, with when it was stored', async () => {
+    // Arrange
+    for (let i = 0; i < 3; i++) await backend.store.put(pdf());
+    const stored = (await backend.listed()).sort();
+    // Act
+    const seen: string[] = [];
+    let after: string | undefined;
+    let pages = 0;
+    for (;;) {
+      const page = await backend.store.list({ after, limit: 2 });
+      pages += 1;
+      for (const item of page.items) {
+        expect(item.storedAt.getTime()).toBeGreaterThan(Date.now() - 10 * 60_000);
+        seen.push(item.sha256);
+      }
+      if (!page.next) break;
+      after = page.next;
+    }
+    // Assert
+    expect(seen).toEqual(stored);
+    expect(pages).toBeGreaterThanOrEqual(2);
+  });
+
+  it('when bytes were stored but their transaction never committed, then the stray sweep removes them once old enough; registered and referenced bytes stay', async () => {
+    // Arrange: a stray (put, no registry row, as a process dying before its commit leaves it), an attachment, and an
+    // attachment whose registry row is missing (referenced bytes the sweep must not take).
+    const stray = pdf();
+    await backend.store.put(stray);
+    const attached = await upload(pdf());
+    const unlisted = await upload(pdf());
+    await getSequelize().query('DELETE FROM stored_contents WHERE sha256 = ?', { replacements: [unlisted.body.sha256] });
+    // Act: first with the default age (everything here is seconds old), then taking bytes of any age.
+    const young = await sweepStrays(backend.store, { pageSize: 2 });
+    const strayKeptWhileYoung = await backend.store.has(sha256(stray));
+    const old = await sweepStrays(backend.store, { minAgeMs: 0, pageSize: 2 });
+    // Assert
+    expect([attached.status, unlisted.status]).toEqual([201, 201]);
+    expect(young).toEqual({ checked: expect.any(Number), strays: 0, removed: 0 });
+    expect(young.checked).toBeGreaterThanOrEqual(3);
+    expect(strayKeptWhileYoung).toBe(true);
+    expect(old.strays).toBeGreaterThanOrEqual(2);
+    expect(old.removed).toBeGreaterThanOrEqual(1);
+    expect(await backend.store.has(sha256(stray))).toBe(false);
+    expect(await registryState(sha256(stray))).toBeNull();
+    expect(await registryState(attached.body.sha256)).toBe('live');
+    expect((await backend.store.get(attached.body.sha256, { verify: true })).length).toBeGreaterThan(0);
+    expect(await backend.store.has(unlisted.body.sha256)).toBe(true);
+    expect(await registryState(unlisted.body.sha256)).toBe('live');
   });
 });
