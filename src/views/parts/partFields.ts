@@ -200,6 +200,25 @@ export function isTypicalValue(note: string | null | undefined): boolean {
   return !!note && /typical|not a datasheet|replace with (your|the)|from memory/i.test(note);
 }
 
+/**
+ * The note several parts of a shelf share word for word (the typical-values warning of the seeded parts, mostly):
+ * shown once above the list, each of those rows then carries a short marker instead of the whole sentence.
+ * @returns the most common note among `notes` that at least two parts carry, or null
+ */
+export function sharedNote(notes: readonly (string | null | undefined)[]): string | null {
+  const counts = new Map<string, number>();
+  for (const n of notes) if (n) counts.set(n, (counts.get(n) ?? 0) + 1);
+  let best: string | null = null;
+  let bestCount = 1;
+  for (const [note, count] of counts) {
+    if (count > bestCount) {
+      best = note;
+      bestCount = count;
+    }
+  }
+  return best;
+}
+
 /** One value inside a table cell. */
 export interface CellValue {
   key: string;
@@ -225,13 +244,14 @@ export interface TableColumn {
 /**
  * Least widths [px] of each shelf's Name and Note columns. With the value columns and Actions (156 px) they add up to
  * 980 px, just within the table at a 1280 px window, so nothing scrolls sideways there
- * (tests/e2e/listColumns.e2e.test.ts). The rest goes to Note, shared with Name so that a demo note (five lines) and a
- * name with its profile line wrap to about the same height; wider windows give both more, in proportion.
+ * (tests/e2e/listColumns.e2e.test.ts). A note several parts share is said once above the table (sharedNote), so the
+ * belts' Note column holds a short marker and Name gets the room for "2 mm round tooth 10 mm" on one line; wider
+ * windows give both more, in proportion.
  */
 export const TABLE_EDGES: Record<PartKind, { name: number; note: number }> = {
-  belts: { name: 150, note: 194 },
+  belts: { name: 176, note: 168 },
   pulleys: { name: 186, note: 194 },
-  motors: { name: 160, note: 180 },
+  motors: { name: 184, note: 156 },
 };
 
 /** Compact table columns per shelf (the dialog edits every field). */

@@ -53,8 +53,8 @@ const MOTOR: MotorPart = {
   retired: false,
 };
 
-async function mountShelf(roles: Role[], shelf: 'belts' | 'motors' = 'belts') {
-  vi.mocked(api.listParts).mockResolvedValue(shelf === 'motors' ? [MOTOR] : [BELT]);
+async function mountShelf(roles: Role[], shelf: 'belts' | 'motors' = 'belts', belts: BeltPart[] = [BELT]) {
+  vi.mocked(api.listParts).mockResolvedValue(shelf === 'motors' ? [MOTOR] : belts);
   const router = createRouter({ history: createMemoryHistory(), routes: [{ path: '/parts', component: PartsShelfView }] });
   await router.push(shelf === 'motors' ? '/parts?shelf=motors' : '/parts');
   const user: User = {
@@ -95,6 +95,49 @@ describe('PartsShelfView', () => {
     expect(wrapper.find('[data-test="part-add"]').exists()).toBe(false);
     expect(wrapper.find('[data-test="part-edit"]').exists()).toBe(false);
     expect(wrapper.text()).toContain('Read only');
+    wrapper.unmount();
+  });
+
+  it('when several parts carry the same note, then it is said once above the list and their rows show a short marker', async () => {
+    // Arrange: two belts with the typical-values note, one with a note of its own.
+    const own = 'Bought from the local supplier; check the pitch line.';
+    const belts = [
+      BELT,
+      { ...BELT, id: 5, name: '2 mm round tooth 10 mm', widthMm: 10 },
+      { ...BELT, id: 6, name: 'Steel-cord 6 mm', note: own },
+    ];
+    // Act
+    const { wrapper } = await mountShelf(['designer'], 'belts', belts);
+    // Assert
+    const shared = wrapper.get('[data-test="parts-shared-note"]');
+    expect(shared.text()).toContain(BELT.note);
+    expect(shared.classes()).toContain('parts__note--typical');
+    const notes = wrapper.findAll('[data-test="part-note"]');
+    expect(notes.map((n) => n.text())).toEqual(['!Typical values', '!Typical values', own]);
+    expect(notes[0].attributes('title')).toBe(BELT.note);
+    expect(notes[2].attributes('title')).toBeUndefined();
+    expect(wrapper.text().split(BELT.note).length - 1).toBe(1);
+    wrapper.unmount();
+  });
+
+  it('when parts share a note that is not about typical values, then it is lifted with how many share it', async () => {
+    const note = 'Generic size; inertia left empty.';
+    const belts = [
+      { ...BELT, note },
+      { ...BELT, id: 5, name: 'Other', note },
+    ];
+    const { wrapper } = await mountShelf(['designer'], 'belts', belts);
+    const shared = wrapper.get('[data-test="parts-shared-note"]');
+    expect(shared.text()).toBe(`Note shared by 2 parts: ${note}`);
+    expect(shared.classes()).not.toContain('parts__note--typical');
+    expect(wrapper.findAll('[data-test="part-note"]').map((n) => n.text())).toEqual(['Shared note (above)', 'Shared note (above)']);
+    wrapper.unmount();
+  });
+
+  it('when every part has a note of its own, then no note is lifted above the list', async () => {
+    const { wrapper } = await mountShelf(['designer']);
+    expect(wrapper.find('[data-test="parts-shared-note"]').exists()).toBe(false);
+    expect(wrapper.get('[data-test="part-note"]').text()).toContain(BELT.note);
     wrapper.unmount();
   });
 
