@@ -53,7 +53,7 @@ const REWARM_SECONDS = 10;
 const WARMUP_MIN_SECONDS = 24;
 const WARMUP_MAX_SECONDS = Number(process.env.BENCH_WARMUP_MAX_SECONDS ?? 60);
 const SETTLE_MS = 1000;
-const SHEETS = 2;
+const SHEETS = 4;
 
 const design = JSON.parse(fs.readFileSync(path.join(ROOT_DIR, 'reference/examples/corexy-dispensing-stage.json'), 'utf8')) as Record<
   string,
@@ -104,50 +104,66 @@ interface Sample {
 }
 
 /**
- * /api/health probes from a child process (healthProbe.ts): its own event loop, so the latencies are the server's,
- * not delays of this process's event loop while it reads the load's answers.
+ * A bench helper in a child process of its own (a script next to this one, run with tsx): one command at a time,
+ * answered by the child's next message; the child exiting rejects the command waiting.
  */
-class HealthProber {
-  private readonly child: ChildProcess;
-  /** The command waiting for its answer (one at a time). */
-  private waiting: { resolve: (latencies: number[]) => void; reject: (err: Error) => void } | null = null;
+class BenchChild<Answer> {
+  readonly child: ChildProcess;
+  /** The command waiting for its answer. */
+  private waiting: { resolve: (answer: Answer) => void; reject: (err: Error) => void } | null = null;
 
-  constructor(url: string) {
-    this.child = fork(path.join(import.meta.dirname, 'healthProbe.ts'), [url], { execArgv: ['--import', 'tsx'], stdio: 'inherit' });
-    const settle = (how: (w: NonNullable<HealthProber['waiting']>) => void) => {
+  constructor(script: string, args: string[], label: string) {
+    this.child = fork(path.join(import.meta.dirname, script), args, { execArgv: ['--import', 'tsx'], stdio: 'inherit' });
+    const settle = (how: (w: NonNullable<BenchChild<Answer>['waiting']>) => void) => {
       const w = this.waiting;
       this.waiting = null;
       if (w) how(w);
     };
-    this.child.on('message', (msg: { latencies: number[] }) => settle((w) => w.resolve(msg.latencies)));
-    this.child.on('exit', (code) => settle((w) => w.reject(new Error(`health prober exited (${code})`))));
+    this.child.on('message', (answer: Answer) => settle((w) => w.resolve(answer)));
+    this.child.on('exit', (code) => settle((w) => w.reject(new Error(`${label} exited (${code})`))));
   }
 
-  private ask(command: object): Promise<number[]> {
+  ask(command: object): Promise<Answer> {
     return new Promise((resolve, reject) => {
       this.waiting = { resolve, reject };
       this.child.send(command);
     });
   }
 
+  close(): void {
+    this.child.disconnect();
+  }
+}
+
+/**
+ * /api/health probes from a child process (healthProbe.ts): its own event loop, so the latencies are the server's,
+ * not delays of this process's event loop while it reads the load's answers.
+ */
+class HealthProber {
+  private readonly helper: BenchChild<{ latencies: number[] }>;
+
+  constructor(url: string) {
+    this.helper = new BenchChild('healthProbe.ts', [url], 'health prober');
+  }
+
   /** `n` probes in a row [ms]. */
-  count(n: number): Promise<number[]> {
-    return this.ask({ cmd: 'count', n });
+  async count(n: number): Promise<number[]> {
+    return (await this.helper.ask({ cmd: 'count', n })).latencies;
   }
 
   /** Probes every few ms until `until` settles. */
   async during<T>(until: Promise<T>): Promise<{ latencies: number[]; value: T }> {
-    const probes = this.ask({ cmd: 'start', gapMs: 5 });
+    const probes = this.helper.ask({ cmd: 'start', gapMs: 5 });
     // Rethrown by the await below; without a handler now, a failure would end the bench at once (unhandled
     // rejection) and leave the app servers running.
-    const finished = until.finally(() => this.child.send({ cmd: 'stop' }));
+    const finished = until.finally(() => this.helper.child.send({ cmd: 'stop' }));
     finished.catch(() => undefined);
-    const latencies = await probes;
+    const { latencies } = await probes;
     return { latencies, value: await finished };
   }
 
   close(): void {
-    this.child.disconnect();
+    this.helper.close();
   }
 }
 
@@ -165,30 +181,17 @@ interface LoadRun {
  * measured apart from the server's and MariaDB's.
  */
 class CalcLoader {
-  private readonly child: ChildProcess;
-  private waiting: { resolve: (run: LoadRun) => void; reject: (err: Error) => void } | null = null;
+  private readonly helper = new BenchChild<LoadRun>('calcLoad.ts', [], 'load generator');
 
-  constructor(private readonly client: Client) {
-    this.child = fork(path.join(import.meta.dirname, 'calcLoad.ts'), [], { execArgv: ['--import', 'tsx'], stdio: 'inherit' });
-    const settle = (how: (w: NonNullable<CalcLoader['waiting']>) => void) => {
-      const w = this.waiting;
-      this.waiting = null;
-      if (w) how(w);
-    };
-    this.child.on('message', (run: LoadRun) => settle((w) => w.resolve(run)));
-    this.child.on('exit', (code) => settle((w) => w.reject(new Error(`load generator exited (${code})`))));
-  }
+  constructor(private readonly client: Client) {}
 
   /** `clients` loops posting `body` to /api/calc for `seconds`. */
   run(body: unknown, clients: number, seconds: number): Promise<LoadRun> {
-    return new Promise((resolve, reject) => {
-      this.waiting = { resolve, reject };
-      this.child.send({ url: this.client.base, cookie: this.client.cookie, body: JSON.stringify(body), clients, seconds });
-    });
+    return this.helper.ask({ url: this.client.base, cookie: this.client.cookie, body: JSON.stringify(body), clients, seconds });
   }
 
   close(): void {
-    this.child.disconnect();
+    this.helper.close();
   }
 }
 
