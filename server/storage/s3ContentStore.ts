@@ -1,12 +1,4 @@
-import {
-  DeleteObjectCommand,
-  GetObjectCommand,
-  HeadObjectCommand,
-  ListObjectsCommand,
-  PutObjectCommand,
-  S3Client,
-  type S3ClientConfig,
-} from '@aws-sdk/client-s3';
+import type { S3Client, S3ClientConfig } from '@aws-sdk/client-s3';
 import { posix } from 'node:path';
 import { assertSha256, ContentStoreError, sha256Of, type StoredContent } from '../uploads';
 import type { ContentStore, StoredItem } from './contentStore';
@@ -29,6 +21,10 @@ function keyOf(prefix: string, sha256: string): string {
   return posix.join(prefix, sha256.slice(0, 2), sha256.slice(2, 4), sha256);
 }
 
+/** The AWS SDK's S3 module: loaded on first use, so a server on the local store never loads it (4 MB of heap). */
+type S3Sdk = typeof import('@aws-sdk/client-s3');
+let sdk: Promise<S3Sdk> | undefined;
+
 function isMissing(err: unknown): boolean {
   const e = err as { name?: string; $metadata?: { httpStatusCode?: number } };
   return e?.name === 'NoSuchKey' || e?.name === 'NotFound' || e?.$metadata?.httpStatusCode === 404;
@@ -43,19 +39,30 @@ function isMissing(err: unknown): boolean {
  */
 export class S3ContentStore implements ContentStore {
   readonly kind = 's3' as const;
-  readonly client: S3Client;
+  private connection: Promise<{ s3: S3Sdk; client: S3Client }> | undefined;
 
-  constructor(readonly options: S3StoreOptions) {
-    const config: S3ClientConfig = {
-      region: options.region,
-      forcePathStyle: options.forcePathStyle,
-      requestChecksumCalculation: 'WHEN_REQUIRED',
-      responseChecksumValidation: 'WHEN_REQUIRED',
-      maxAttempts: 3,
-    };
-    if (options.endpoint) config.endpoint = options.endpoint;
-    if (options.credentials) config.credentials = options.credentials;
-    this.client = new S3Client(config);
+  constructor(readonly options: S3StoreOptions) {}
+
+  /** The SDK and this store's client, made on first use. */
+  private connect(): Promise<{ s3: S3Sdk; client: S3Client }> {
+    this.connection ??= (sdk ??= import('@aws-sdk/client-s3')).then((s3) => {
+      const config: S3ClientConfig = {
+        region: this.options.region,
+        forcePathStyle: this.options.forcePathStyle,
+        requestChecksumCalculation: 'WHEN_REQUIRED',
+        responseChecksumValidation: 'WHEN_REQUIRED',
+        maxAttempts: 3,
+      };
+      if (this.options.endpoint) config.endpoint = this.options.endpoint;
+      if (this.options.credentials) config.credentials = this.options.credentials;
+      return { s3, client: new s3.S3Client(config) };
+    });
+    return this.connection;
+  }
+
+  /** The SDK client (for tests that reach the bucket behind the store's back). */
+  async client(): Promise<S3Client> {
+    return (await this.connect()).client;
   }
 
   /** The object key of some content (for tests and the scale test's checks). */
@@ -66,8 +73,9 @@ export class S3ContentStore implements ContentStore {
 
   async put(bytes: Uint8Array): Promise<StoredContent> {
     const sha256 = sha256Of(bytes);
-    await this.client.send(
-      new PutObjectCommand({
+    const { s3, client } = await this.connect();
+    await client.send(
+      new s3.PutObjectCommand({
         Bucket: this.options.bucket,
         Key: this.keyOf(sha256),
         Body: bytes,
@@ -81,9 +89,10 @@ export class S3ContentStore implements ContentStore {
 
   async get(sha256: string, options: { verify?: boolean } = {}): Promise<Buffer> {
     const Key = this.keyOf(sha256);
+    const { s3, client } = await this.connect();
     let bytes: Buffer;
     try {
-      const res = await this.client.send(new GetObjectCommand({ Bucket: this.options.bucket, Key }));
+      const res = await client.send(new s3.GetObjectCommand({ Bucket: this.options.bucket, Key }));
       if (!res.Body) throw new ContentStoreError('not_found', `[contentStore] no content ${sha256}`);
       bytes = Buffer.from(await res.Body.transformToByteArray());
     } catch (err) {
@@ -97,8 +106,10 @@ export class S3ContentStore implements ContentStore {
   }
 
   async has(sha256: string): Promise<boolean> {
+    const Key = this.keyOf(sha256);
+    const { s3, client } = await this.connect();
     try {
-      await this.client.send(new HeadObjectCommand({ Bucket: this.options.bucket, Key: this.keyOf(sha256) }));
+      await client.send(new s3.HeadObjectCommand({ Bucket: this.options.bucket, Key }));
       return true;
     } catch (err) {
       if (isMissing(err)) return false;
@@ -108,7 +119,8 @@ export class S3ContentStore implements ContentStore {
 
   async remove(sha256: string): Promise<boolean> {
     const existed = await this.has(sha256);
-    if (existed) await this.client.send(new DeleteObjectCommand({ Bucket: this.options.bucket, Key: this.keyOf(sha256) }));
+    const { s3, client } = await this.connect();
+    if (existed) await client.send(new s3.DeleteObjectCommand({ Bucket: this.options.bucket, Key: this.keyOf(sha256) }));
     return existed;
   }
 
@@ -117,8 +129,14 @@ export class S3ContentStore implements ContentStore {
     // The first version of the listing call, with a marker: every S3-compatible service has it, while the second
     // version's continuation tokens are missing from some (the fake S3 of the tests cannot make them).
     const folder = posix.join(this.options.prefix, 'x').slice(0, -1);
-    const res = await this.client.send(
-      new ListObjectsCommand({ Bucket: this.options.bucket, Prefix: folder || undefined, Marker: options.after, MaxKeys: options.limit }),
+    const { s3, client } = await this.connect();
+    const res = await client.send(
+      new s3.ListObjectsCommand({
+        Bucket: this.options.bucket,
+        Prefix: folder || undefined,
+        Marker: options.after,
+        MaxKeys: options.limit,
+      }),
     );
     const items: StoredItem[] = [];
     let lastKey: string | null = null;

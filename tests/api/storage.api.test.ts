@@ -70,11 +70,11 @@ const BACKENDS: Array<{ name: string; open: () => Promise<Backend> }> = [
       return {
         store,
         listed: async () => {
-          const res = await store.client.send(new ListObjectsV2Command({ Bucket: fake.bucket, Prefix: 'uploads/' }));
+          const res = await (await store.client()).send(new ListObjectsV2Command({ Bucket: fake.bucket, Prefix: 'uploads/' }));
           return (res.Contents ?? []).map((o) => path.posix.basename(o.Key ?? ''));
         },
         tamper: async (sha256, bytes) => {
-          await store.client.send(new PutObjectCommand({ Bucket: fake.bucket, Key: store.keyOf(sha256), Body: bytes }));
+          await (await store.client()).send(new PutObjectCommand({ Bucket: fake.bucket, Key: store.keyOf(sha256), Body: bytes }));
         },
         close: async () => {
           await fake.close();
