@@ -179,6 +179,8 @@ interface StraySweep {
   strays: number;
   /** Removed (a stray that something refers to after all is kept and its row made `live`). */
   removed: number;
+  /** Leftovers of interrupted writes removed (the local folder's temporary files). */
+  leftovers: number;
 }
 
 /**
@@ -187,15 +189,17 @@ interface StraySweep {
  * hash at least `minAgeMs` old without a row gets an `orphan` row (INSERT IGNORE: a row that appeared meanwhile, or
  * a transaction still writing one, wins), and then goes through the same claimed removal as every orphan, which
  * counts the references afresh. A reference added at the same moment is safe for the reasons given at the top of
- * this file: it turns the row `live`, or waits for the removal and puts the bytes again.
+ * this file: it turns the row `live`, or waits for the removal and puts the bytes again. Temporary files of writes
+ * that never finished, as old, go too.
  * @param options.minAgeMs - youngest bytes taken for strays (default {@link STRAY_MIN_AGE_MS})
  * @param options.pageSize - hashes listed and looked up at a time
- * @returns how many contents were checked, registered and removed
+ * @returns how many contents were checked, registered and removed, and how many leftovers went
  */
 export async function sweepStrays(store: ContentStore, options: { minAgeMs?: number; pageSize?: number } = {}): Promise<StraySweep> {
   const db = getSequelize();
   const oldest = Date.now() - (options.minAgeMs ?? STRAY_MIN_AGE_MS);
-  const result: StraySweep = { checked: 0, strays: 0, removed: 0 };
+  const result: StraySweep = { checked: 0, strays: 0, removed: 0, leftovers: 0 };
+  result.leftovers = (await store.removeLeftovers?.(new Date(oldest))) ?? 0;
   let after: string | undefined;
   for (;;) {
     const page = await store.list({ after, limit: options.pageSize ?? 500 });

@@ -35,6 +35,11 @@ export interface ContentStore {
    * @returns the page and where the next page starts, or null at the end
    */
   list(options: { after?: string; limit: number }): Promise<{ items: StoredItem[]; next: string | null }>;
+  /**
+   * Removes what writes interrupted by a crash left behind, older than `olderThan` (the local folder's temporary
+   * files; an S3 PUT leaves nothing). @returns how many were removed
+   */
+  removeLeftovers?(olderThan: Date): Promise<number>;
 }
 
 /** A stored content and when its bytes were last written. */

@@ -1,10 +1,12 @@
-import { readdir, stat } from 'node:fs/promises';
+import { readdir, rm, stat } from 'node:fs/promises';
 import { join } from 'node:path';
 import { contentPath, readBytes, removeBytes, storeBytes, type StoredContent } from '../uploads';
 import type { ContentStore, StoredItem } from './contentStore';
 
 const HEX2 = /^[0-9a-f]{2}$/;
 const SHA256_HEX = /^[0-9a-f]{64}$/;
+/** A write in progress: `.<sha256>.<random>.tmp` next to where the content goes (see storeBytes). */
+const TEMPORARY = /^\.[0-9a-f]{64}\.[0-9a-f]+\.tmp$/;
 
 /** Entries of a folder that match `pattern`, sorted; none when the folder does not exist. */
 async function namesIn(dir: string, pattern: RegExp): Promise<string[]> {
@@ -61,5 +63,21 @@ export class LocalContentStore implements ContentStore {
       }
     }
     return { items, next: null };
+  }
+
+  async removeLeftovers(olderThan: Date): Promise<number> {
+    let removed = 0;
+    for (const ab of await namesIn(this.rootDir, HEX2)) {
+      for (const cd of await namesIn(join(this.rootDir, ab), HEX2)) {
+        for (const name of await namesIn(join(this.rootDir, ab, cd), TEMPORARY)) {
+          const file = join(this.rootDir, ab, cd, name);
+          const found = await stat(file).catch(() => undefined);
+          if (!found?.isFile() || found.mtime > olderThan) continue;
+          await rm(file, { force: true });
+          removed += 1;
+        }
+      }
+    }
+    return removed;
   }
 }

@@ -110,7 +110,7 @@ afterAll(async () => {
   await closeSequelize();
 });
 
-describe.each(BACKENDS)('content store: $name', ({ open }) => {
+describe.each(BACKENDS)('content store: $name', ({ name, open }) => {
   let backend: Backend;
   let restore: () => void;
   let owner: Agent;
@@ -412,7 +412,7 @@ describe.each(BACKENDS)('content store: $name', ({ open }) => {
     const old = await sweepStrays(backend.store, { minAgeMs: 0, pageSize: 2 });
     // Assert
     expect([attached.status, unlisted.status]).toEqual([201, 201]);
-    expect(young).toEqual({ checked: expect.any(Number), strays: 0, removed: 0 });
+    expect(young).toEqual({ checked: expect.any(Number), strays: 0, removed: 0, leftovers: 0 });
     expect(young.checked).toBeGreaterThanOrEqual(3);
     expect(strayKeptWhileYoung).toBe(true);
     expect(old.strays).toBeGreaterThanOrEqual(2);
@@ -424,4 +424,28 @@ describe.each(BACKENDS)('content store: $name', ({ open }) => {
     expect(await backend.store.has(unlisted.body.sha256)).toBe(true);
     expect(await registryState(unlisted.body.sha256)).toBe('live');
   });
+
+  // Only the local folder writes through temporary files: an S3 PUT leaves nothing behind.
+  if (name === 'local folder') {
+    it('when a write was cut off and left its temporary file, then the sweep removes it once old; a fresh one stays', async () => {
+      // Arrange: two temporary files as storeBytes names them, one an hour and a half old.
+      const root = (backend.store as LocalContentStore).rootDir;
+      const hash = sha256(pdf());
+      const folder = path.join(root, hash.slice(0, 2), hash.slice(2, 4));
+      fs.mkdirSync(folder, { recursive: true });
+      const stale = path.join(folder, `.${hash}.a1b2c3.tmp`);
+      const fresh = path.join(folder, `.${hash}.d4e5f6.tmp`);
+      fs.writeFileSync(stale, 'partial');
+      fs.writeFileSync(fresh, 'partial');
+      const past = new Date(Date.now() - 90 * 60_000);
+      fs.utimesSync(stale, past, past);
+      // Act
+      const swept = await sweepStrays(backend.store);
+      // Assert
+      expect(swept.leftovers).toBe(1);
+      expect(fs.existsSync(stale)).toBe(false);
+      expect(fs.existsSync(fresh)).toBe(true);
+      expect((await backend.store.list({ limit: 1000 })).items.map((i) => i.sha256)).not.toContain(hash);
+    });
+  }
 });
