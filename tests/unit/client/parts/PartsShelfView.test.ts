@@ -53,8 +53,8 @@ const MOTOR: MotorPart = {
   retired: false,
 };
 
-async function mountShelf(roles: Role[], shelf: 'belts' | 'motors' = 'belts', belts: BeltPart[] = [BELT]) {
-  vi.mocked(api.listParts).mockResolvedValue(shelf === 'motors' ? [MOTOR] : belts);
+async function mountShelf(roles: Role[], shelf: 'belts' | 'motors' = 'belts', belts: BeltPart[] = [BELT], motors: MotorPart[] = [MOTOR]) {
+  vi.mocked(api.listParts).mockResolvedValue(shelf === 'motors' ? motors : belts);
   const router = createRouter({ history: createMemoryHistory(), routes: [{ path: '/parts', component: PartsShelfView }] });
   await router.push(shelf === 'motors' ? '/parts?shelf=motors' : '/parts');
   const user: User = {
@@ -203,6 +203,27 @@ describe('PartsShelfView', () => {
     await flushPromises();
     expect(attachmentsApi.getTorqueCurve).toHaveBeenCalledWith(MOTOR.id);
     expect(document.querySelector('[data-test="torque-status"]')?.textContent).toContain('No table uploaded');
+    wrapper.unmount();
+  });
+
+  it('when a motor has a measured torque table, then its button says how many points it has (no separate tag)', async () => {
+    // Arrange
+    const measured: MotorPart = {
+      ...MOTOR,
+      id: 8,
+      name: 'Measured 42 mm',
+      torqueCurve: [
+        { speedRevPerS: 0, torqueNm: 0.45 },
+        { speedRevPerS: 10, torqueNm: 0.38 },
+        { speedRevPerS: 20, torqueNm: 0.25 },
+      ],
+    };
+    // Act
+    const { wrapper } = await mountShelf(['designer'], 'motors', [BELT], [MOTOR, measured]);
+    // Assert
+    expect(wrapper.get(`[data-test="torque-table-open-${MOTOR.id}"]`).text()).toBe('Torque table');
+    expect(wrapper.get(`[data-test="torque-table-open-${measured.id}"]`).text()).toBe('Torque table · 3 points');
+    expect(wrapper.find('.parts__curve-tag').exists()).toBe(false);
     wrapper.unmount();
   });
 
