@@ -68,10 +68,13 @@ async function measureTable(page: Page, tableSelector: string): Promise<TableLay
   });
 }
 
-/** Every row has its Actions cell, no cell lies under it or is cut off, and the table does not scroll sideways. */
-function expectEveryCellInView(layout: Awaited<ReturnType<typeof measureTable>>): void {
+/**
+ * Every row has its Actions cell (tables that have one), no cell lies under it or is cut off, and the table does not
+ * scroll sideways.
+ */
+function expectEveryCellInView(layout: Awaited<ReturnType<typeof measureTable>>, hasActions = true): void {
   expect(layout.rows).toBeGreaterThan(0);
-  expect(layout.actionsCells).toBe(layout.rows);
+  expect(layout.actionsCells).toBe(hasActions ? layout.rows : 0);
   expect(layout.overlaps).toEqual([]);
   expect(layout.actionsOutside).toEqual([]);
   expect(layout.cut).toEqual([]);
@@ -114,4 +117,30 @@ describe('List columns at 1280 px', () => {
       await context.close();
     },
   );
+
+  it.each([
+    {
+      page: 'Review desk',
+      path: '/review',
+      who: 'reviewer@example.test',
+      table: 'review-desk-table',
+      row: 'review-desk-row',
+      hasActions: false,
+    },
+    { page: 'Sheets list', path: '/sheets', who: 'reviewer@example.test', table: 'sheets-table', row: 'sheet-row', hasActions: false },
+    { page: 'Team list', path: '/team', who: 'admin@example.test', table: 'team-table', row: 'team-row', hasActions: true },
+  ])('when the $page is shown 1280 px wide, then no cell is cut off and the table does not scroll sideways', async (list) => {
+    // Arrange
+    const { page, context, pageErrors } = await openPage(browser(), { baseURL, width: 1280 });
+    await page.goto('/sign-in');
+    await signInThroughForm(page, list.who);
+    // Act
+    await page.goto(list.path);
+    await page.waitForSelector(`[data-test="${list.table}"] [data-test="${list.row}"]`);
+    const layout = await measureTable(page, `[data-test="${list.table}"]`);
+    // Assert
+    expectEveryCellInView(layout, list.hasActions);
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  });
 });
