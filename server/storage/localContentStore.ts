@@ -1,21 +1,6 @@
-import { readdir, rm, stat } from 'node:fs/promises';
-import { join } from 'node:path';
-import { contentPath, readBytes, removeBytes, storeBytes, type StoredContent } from '../uploads';
+import { rm, stat } from 'node:fs/promises';
+import { contentPath, readBytes, removeBytes, storeBytes, storedFiles, type StoredContent } from '../uploads';
 import type { ContentStore, StoredItem } from './contentStore';
-
-const HEX2 = /^[0-9a-f]{2}$/;
-const SHA256_HEX = /^[0-9a-f]{64}$/;
-/** A write in progress: `.<sha256>.<random>.tmp` next to where the content goes (see storeBytes). */
-const TEMPORARY = /^\.[0-9a-f]{64}\.[0-9a-f]+\.tmp$/;
-
-/** Entries of a folder that match `pattern`, sorted; none when the folder does not exist. */
-async function namesIn(dir: string, pattern: RegExp): Promise<string[]> {
-  const names = await readdir(dir).catch((err: NodeJS.ErrnoException) => {
-    if (err.code === 'ENOENT') return [] as string[];
-    throw err;
-  });
-  return names.filter((n) => pattern.test(n)).sort();
-}
 
 /**
  * The content store in a local folder (`UPLOAD_DIR`, default `.data/uploads`): `root/ab/cd/<sha256>`, written to a
@@ -45,38 +30,20 @@ export class LocalContentStore implements ContentStore {
   }
 
   async list(options: { after?: string; limit: number }): Promise<{ items: StoredItem[]; next: string | null }> {
-    // Walks ab/cd/<sha256> in name order, skipping the folders that sort before `after` (temporary files of a write
-    // in progress and anything else not named by a hash are not content).
-    const after = options.after ?? '';
     const items: StoredItem[] = [];
-    for (const ab of await namesIn(this.rootDir, HEX2)) {
-      if (ab < after.slice(0, 2)) continue;
-      for (const cd of await namesIn(join(this.rootDir, ab), HEX2)) {
-        if (ab + cd < after.slice(0, 4)) continue;
-        for (const name of await namesIn(join(this.rootDir, ab, cd), SHA256_HEX)) {
-          if (name <= after || !name.startsWith(ab + cd)) continue;
-          const found = await stat(join(this.rootDir, ab, cd, name)).catch(() => undefined);
-          if (!found?.isFile()) continue;
-          items.push({ sha256: name, storedAt: found.mtime });
-          if (items.length >= options.limit) return { items, next: name };
-        }
-      }
+    for await (const file of storedFiles(this.rootDir, 'content', options.after)) {
+      items.push({ sha256: file.name, storedAt: file.modifiedAt });
+      if (items.length >= options.limit) return { items, next: file.name };
     }
     return { items, next: null };
   }
 
   async removeLeftovers(olderThan: Date): Promise<number> {
     let removed = 0;
-    for (const ab of await namesIn(this.rootDir, HEX2)) {
-      for (const cd of await namesIn(join(this.rootDir, ab), HEX2)) {
-        for (const name of await namesIn(join(this.rootDir, ab, cd), TEMPORARY)) {
-          const file = join(this.rootDir, ab, cd, name);
-          const found = await stat(file).catch(() => undefined);
-          if (!found?.isFile() || found.mtime > olderThan) continue;
-          await rm(file, { force: true });
-          removed += 1;
-        }
-      }
+    for await (const file of storedFiles(this.rootDir, 'temporary')) {
+      if (file.modifiedAt > olderThan) continue;
+      await rm(file.path, { force: true });
+      removed += 1;
     }
     return removed;
   }

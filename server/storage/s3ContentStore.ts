@@ -1,6 +1,6 @@
 import type { S3Client, S3ClientConfig } from '@aws-sdk/client-s3';
 import { posix } from 'node:path';
-import { assertSha256, ContentStoreError, sha256Of, type StoredContent } from '../uploads';
+import { assertSha256, ContentStoreError, isSha256, sha256Of, type StoredContent } from '../uploads';
 import type { ContentStore, StoredItem } from './contentStore';
 
 /** How to reach the bucket (see `STORAGE=s3` in .env.example). */
@@ -144,7 +144,7 @@ export class S3ContentStore implements ContentStore {
       lastKey = object.Key ?? lastKey;
       const name = posix.basename(object.Key ?? '');
       // Only objects at a content address are content (anything else someone put in the folder is left alone).
-      if (!/^[0-9a-f]{64}$/.test(name) || object.Key !== this.keyOf(name)) continue;
+      if (!isSha256(name) || object.Key !== this.keyOf(name)) continue;
       items.push({ sha256: name, storedAt: object.LastModified ?? new Date(0) });
     }
     return { items, next: res.IsTruncated ? lastKey : null };

@@ -1,5 +1,5 @@
 import { createHash, randomBytes } from 'node:crypto';
-import { mkdir, readFile, rename, rm, stat, unlink, writeFile } from 'node:fs/promises';
+import { mkdir, readdir, readFile, rename, rm, stat, unlink, writeFile } from 'node:fs/promises';
 import { isAbsolute, join, posix, resolve } from 'node:path';
 
 /** Where stored bytes live, relative to the store's root. */
@@ -31,6 +31,11 @@ export class ContentStoreError extends Error {
 
 const SHA256_HEX = /^[0-9a-f]{64}$/;
 
+/** Whether a name is a content address: exactly 64 lower-case hex digits. */
+export function isSha256(name: unknown): name is string {
+  return typeof name === 'string' && SHA256_HEX.test(name);
+}
+
 /**
  * Throws unless `sha256` is exactly 64 lower-case hex digits, so a stored name can never be a path
  * (`../x`, `/etc/passwd`, `a/b`) however it reaches the store.
@@ -38,7 +43,7 @@ const SHA256_HEX = /^[0-9a-f]{64}$/;
  * @throws ContentStoreError 'invalid_hash'
  */
 export function assertSha256(sha256: unknown): asserts sha256 is string {
-  if (typeof sha256 !== 'string' || !SHA256_HEX.test(sha256)) {
+  if (!isSha256(sha256)) {
     throw new ContentStoreError('invalid_hash', '[contentStore] a content address must be 64 lower-case hex digits');
   }
 }
@@ -72,6 +77,47 @@ export function contentPath(rootDir: string, sha256: string): string {
  */
 export function sha256Of(bytes: Uint8Array): string {
   return createHash('sha256').update(bytes).digest('hex');
+}
+
+/** A write in progress: `.<sha256>.<random>.tmp` in the folder where the content goes (see storeBytes). */
+const TEMPORARY = /^\.[0-9a-f]{64}\.[0-9a-f]+\.tmp$/;
+const HEX2 = /^[0-9a-f]{2}$/;
+
+/** Entries of a folder that match `pattern`, sorted; none when the folder does not exist. */
+async function namesIn(dir: string, pattern: RegExp): Promise<string[]> {
+  const names = await readdir(dir).catch((err: NodeJS.ErrnoException) => {
+    if (err.code === 'ENOENT') return [] as string[];
+    throw err;
+  });
+  return names.filter((n) => pattern.test(n)).sort();
+}
+
+/**
+ * The files of a store's folder, in name order: its contents (`root/ab/cd/<sha256>`) or the temporary files of
+ * writes that never finished. For contents, `after` skips every name up to and including it, and the folders that
+ * sort before it are not read.
+ * @param rootDir - the store's root folder
+ * @param kind - 'content' or 'temporary'
+ * @param after - (contents) the last name already seen
+ */
+export async function* storedFiles(
+  rootDir: string,
+  kind: 'content' | 'temporary',
+  after = '',
+): AsyncGenerator<{ name: string; path: string; modifiedAt: Date }> {
+  const root = rootOf(rootDir);
+  for (const ab of await namesIn(root, HEX2)) {
+    if (ab < after.slice(0, 2)) continue;
+    for (const cd of await namesIn(join(root, ab), HEX2)) {
+      if (ab + cd < after.slice(0, 4)) continue;
+      for (const name of await namesIn(join(root, ab, cd), kind === 'content' ? SHA256_HEX : TEMPORARY)) {
+        if (kind === 'content' && (name <= after || !name.startsWith(ab + cd))) continue;
+        const path = join(root, ab, cd, name);
+        const found = await stat(path).catch(() => undefined);
+        if (found?.isFile()) yield { name, path, modifiedAt: found.mtime };
+      }
+    }
+  }
 }
 
 /**

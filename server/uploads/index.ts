@@ -7,6 +7,16 @@ export { CsvError, parseTorqueCsv, TORQUE_CSV_LIMITS, torqueCsvUnitFactor } from
 export type { CsvErrorDetail, TorquePoint, TorqueTable } from './torqueCsv';
 export { assertTypeMatches, sniffType, UploadTypeError } from './sniffType';
 export type { SniffedMime } from './sniffType';
-export { assertSha256, ContentStoreError, contentPath, readBytes, removeBytes, sha256Of, storeBytes } from './contentStore';
+export {
+  assertSha256,
+  ContentStoreError,
+  contentPath,
+  isSha256,
+  readBytes,
+  removeBytes,
+  sha256Of,
+  storeBytes,
+  storedFiles,
+} from './contentStore';
 export type { StoredContent } from './contentStore';
 export { parseJobCsv, JOB_CSV_LIMITS } from './jobCsv';
