@@ -179,16 +179,18 @@ function restLimit(pA: number, pB: number, alphaA: number, betaA: number, alphaB
 export function computeEnvelope(inp: EnvelopeInput): EnvelopeResult {
   const n = inp.directions;
   const kit = inverse2(transpose2(inp.k));
+  // Empty arrays filled in order stay packed (new Array(n) would leave them holey, which V8's JSON encoder writes a
+  // quarter slower); see src/engine/zeroRow.ts.
   const out: EnvelopeResult = {
-    directionsDeg: new Array(n),
-    accelMaxMPerS2: new Array(n),
-    accelAtCruiseMPerS2: new Array(n),
-    speedMaxMPerS: new Array(n),
-    limitingMotor: new Array(n),
-    speedShareA: new Array(n),
-    speedShareB: new Array(n),
-    forceShareA: new Array(n),
-    forceShareB: new Array(n),
+    directionsDeg: [],
+    accelMaxMPerS2: [],
+    accelAtCruiseMPerS2: [],
+    speedMaxMPerS: [],
+    limitingMotor: [],
+    speedShareA: [],
+    speedShareB: [],
+    forceShareA: [],
+    forceShareB: [],
     peakBeltPullN: [0, 0],
     peakForceXN: 0,
     pullPairs: { aN: new Float64Array(4 * n), bN: new Float64Array(4 * n), directionDeg: new Float64Array(4 * n) },

@@ -52,7 +52,7 @@ export interface StiffnessResult {
 }
 
 function linspace(a: number, b: number, n: number): number[] {
-  const out = new Array<number>(n);
+  const out: number[] = []; // filled in order: a packed array (src/engine/zeroRow.ts)
   for (let i = 0; i < n; i++) out[i] = n === 1 ? a : a + ((b - a) * i) / (n - 1);
   return out;
 }

@@ -287,7 +287,7 @@ function lowestModeRow(s: LowestPass, iy: number): void {
     bestF[k] = bf;
   }
   const fr = s.blank.slice();
-  const idr = new Array<ModeId>(nx);
+  const idr: ModeId[] = []; // filled in order: a packed array (src/engine/zeroRow.ts)
   let lowestHz = s.lowestHz;
   for (let ix = 0; ix < nx; ix++) {
     const f = fBuf[ix];
