@@ -8,6 +8,7 @@ import { wordmarkGlyph } from './plots/glyphs';
 import { jobSection, secondLayerSection } from './secondLayerSections';
 import { layoutSection } from './layoutSection';
 import { plotsSection } from './plotsSection';
+import { installShapingCache } from './shapingCache';
 import {
   beltsSection,
   cautionsBox,
@@ -178,6 +179,8 @@ export async function renderSheet(input: SheetInput): Promise<Buffer> {
   // pdfmake is a process-wide singleton: set fonts and policies on every call so no other user of it can leave
   // the sheet with other fonts or with network or file access.
   const { dir, fonts } = sheetFontFiles();
+  // Words shaped for an earlier sheet are not shaped again (shapingCache.ts).
+  installShapingCache(fonts[BASE_FONT].normal);
   pdfmake.setFonts(fonts);
   pdfmake.setUrlAccessPolicy(() => false);
   pdfmake.setLocalAccessPolicy((p) => p.startsWith(dir + path.sep));

@@ -121,7 +121,10 @@ export async function storedResults(task: {
   return answer(() => computeStoredResults(task.document, task.pathPrefix));
 }
 
-/** A design sheet in A4 and US Letter with their SHA-256 (pdfmake is slow: 0.4–0.5 s per paper size). */
+/**
+ * A design sheet in A4 and US Letter with their SHA-256 (pdfmake is slow: 0.3–0.4 s per paper size in a warm thread,
+ * whose words are already shaped, see server/sheet/shapingCache.ts; over a second in a new one).
+ */
 export async function renderSheets(
   source: Omit<SheetInput, 'paper'>,
 ): Promise<{ a4: Uint8Array; a4Sha256: string; letter: Uint8Array; letterSha256: string }> {
