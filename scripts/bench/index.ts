@@ -1,19 +1,21 @@
 /**
  * `npm run bench [-- part…] [--record]`: measures what people feel and prints one table (figure, target,
- * measured, ratio, ok/warn). Parts: engine, bundle, server, editor, list (all by default). A figure more than 2×
+ * measured, ratio, ok/warn). Parts: engine, sheet, bundle, server, editor, list (all by default). A figure more than 2×
  * worse than the one recorded in scripts/bench/results.json prints a warning; `--record` writes this run there.
  * Benchmarks never fail: the exit code is 0 unless the benchmark itself broke.
  */
 import os from 'node:os';
 import { formatTable, readRecorded, record, regressions, say, type Figure } from './lib';
 
-const PARTS = ['engine', 'bundle', 'server', 'editor', 'list'] as const;
+const PARTS = ['engine', 'sheet', 'bundle', 'server', 'editor', 'list'] as const;
 type Part = (typeof PARTS)[number];
 
 async function runPart(part: Part): Promise<Figure[]> {
   switch (part) {
     case 'engine':
       return (await import('./engine')).benchEngine();
+    case 'sheet':
+      return (await import('./sheet')).benchSheet();
     case 'bundle':
       return (await import('./bundle')).benchBundle();
     case 'server':
