@@ -179,8 +179,8 @@ function restLimit(pA: number, pB: number, alphaA: number, betaA: number, alphaB
 export function computeEnvelope(inp: EnvelopeInput): EnvelopeResult {
   const n = inp.directions;
   const kit = inverse2(transpose2(inp.k));
-  // Empty arrays filled in order stay packed (new Array(n) would leave them holey, which V8's JSON encoder writes a
-  // quarter slower); see src/engine/zeroRow.ts.
+  // Empty arrays filled in order stay packed (new Array(n) would leave them holey, which V8's JSON encoder writes
+  // about 30 % slower); see src/engine/zeroRow.ts.
   const out: EnvelopeResult = {
     directionsDeg: [],
     accelMaxMPerS2: [],

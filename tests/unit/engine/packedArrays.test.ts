@@ -7,7 +7,7 @@ import { zeroRow } from '../../../src/engine/zeroRow';
 
 // Every /api/calc answer is the result written as JSON, and V8's JSON encoder writes a holey array (one made with
 // `new Array(n)`, however it is filled afterwards) element by element on a slower path: about 175 against 135 ns
-// per number, a quarter more for the 17,000 numbers of a demo answer (src/engine/zeroRow.ts). V8 answers whether an
+// per number, some 30 % more for the 17,000 numbers of a demo answer (src/engine/zeroRow.ts). V8 answers whether an
 // array is holey only through its native syntax, which this test switches on for the functions it compiles.
 v8.setFlagsFromString('--allow-natives-syntax');
 const isHoley = new Function('a', 'return %HasHoleyElements(a)') as (a: unknown[]) => boolean;
